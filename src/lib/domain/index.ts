@@ -1,4 +1,9 @@
-/** The domain's public API: formats, units, places, crops, computations and rules. */
+/** The domain's public API: formats, units, places, crops, computations, rules and demo data. */
 export * from './units';
 export * from './schemas';
 export * from './places';
+export * from './crops';
+export * from './catalog';
+export * from './compute';
+export { checkLayout, hasBlockingFindings, countBySeverity } from './rules';
+export * from './demo-catalog';
