@@ -1,0 +1,30 @@
+// @ts-check
+import { defineConfig } from 'astro/config';
+import node from '@astrojs/node';
+import react from '@astrojs/react';
+import tailwind from '@astrojs/tailwind';
+import auth from 'auth-astro';
+
+// Hosts the server answers for. Astro ignores the Host header unless it is listed here,
+// and Auth.js callbacks need it; add a production host through CAGEWRIGHT_HOSTS at build time.
+const extraHosts = (process.env.CAGEWRIGHT_HOSTS ?? '')
+  .split(',')
+  .map((h) => h.trim())
+  .filter(Boolean)
+  .map((hostname) => ({ hostname }));
+
+export default defineConfig({
+  output: 'server',
+  adapter: node({ mode: 'standalone' }),
+  // Separate build folders let several builds (tests, benchmarks) coexist.
+  outDir: process.env.CAGEWRIGHT_OUT_DIR ?? './dist',
+  server: { host: '127.0.0.1', port: 4321 },
+  integrations: [react(), tailwind({ applyBaseStyles: false }), auth()],
+  security: {
+    checkOrigin: true,
+    allowedDomains: [{ hostname: 'localhost' }, { hostname: '127.0.0.1' }, ...extraHosts],
+  },
+  vite: {
+    ssr: { external: ['@electric-sql/pglite', 'pg', 'nodemailer', 'smtp-server', 's3rver'] },
+  },
+});

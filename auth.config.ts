@@ -1,0 +1,42 @@
+import Credentials from '@auth/core/providers/credentials';
+import { defineConfig } from 'auth-astro';
+import { verifyCredentials } from './src/lib/server/auth/credentials';
+
+// The secret is read at run time (scripts/start.mjs generates one into the data directory
+// on first start), not baked into the build.
+export default defineConfig({
+  secret: process.env.AUTH_SECRET,
+  trustHost: true,
+  session: { strategy: 'jwt', maxAge: 12 * 60 * 60 },
+  // A wrong password is an everyday event, not a server error: keep it out of the error log.
+  logger: {
+    error(error) {
+      const kind = (error as { type?: string }).type ?? error.name;
+      if (kind === 'CredentialsSignin') return;
+      console.error(`[auth] ${kind}: ${error.message}`);
+    },
+  },
+  pages: { signIn: '/signin', error: '/signin' },
+  providers: [
+    Credentials({
+      credentials: { email: { label: 'E-mail' }, password: { label: 'Password', type: 'password' } },
+      authorize: (credentials) => verifyCredentials(credentials),
+    }),
+  ],
+  callbacks: {
+    jwt({ token, user }) {
+      if (user?.id) {
+        token.uid = user.id;
+        token.role = (user as { role?: string }).role;
+      }
+      return token;
+    },
+    session({ session, token }) {
+      if (session.user && typeof token.uid === 'string') {
+        session.user.id = token.uid;
+        (session.user as { role?: unknown }).role = token.role;
+      }
+      return session;
+    },
+  },
+});

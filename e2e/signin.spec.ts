@@ -1,0 +1,65 @@
+import { test, expect } from '@playwright/test';
+import { DEMO, DEMO_PASSWORD, shot, signIn } from './helpers';
+
+const ROLE_TEXT = {
+  operator: 'Operator',
+  technician: 'Service technician',
+  trainer: 'Trainer',
+  admin: 'Administrator',
+} as const;
+
+for (const role of ['operator', 'technician', 'trainer', 'admin'] as const) {
+  test(`${role} signs in on our page and lands on a home page for the role`, async ({ page }) => {
+    await signIn(page, role);
+    await expect(page).toHaveURL(/\/$/);
+    await expect(page.getByTestId('home-heading')).toContainText(DEMO[role].name);
+    await expect(page.getByTestId('role-label')).toHaveText(ROLE_TEXT[role]);
+    const nav = page.getByRole('navigation', { name: 'Main' });
+    if (role === 'admin') await expect(nav.getByRole('link', { name: 'Catalog' })).toBeVisible();
+    else await expect(nav.getByRole('link', { name: 'Mailbox' })).toHaveCount(0);
+    if (role === 'trainer') await expect(nav.getByRole('link', { name: 'Classroom' })).toBeVisible();
+    if (role === 'operator') await expect(nav.getByRole('link', { name: 'Crop change' })).toBeVisible();
+    await shot(page, `home-${role}`);
+  });
+}
+
+test('a wrong password shows a clear message and sets no session', async ({ page, context }) => {
+  await page.goto('/signin');
+  await page.getByLabel('E-mail address').fill(DEMO.operator.email);
+  await page.getByLabel('Password').fill('not-the-password');
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await expect(page.getByRole('alert')).toContainText('do not match an account');
+  const cookies = await context.cookies();
+  expect(cookies.some((c) => c.name.includes('session-token'))).toBe(false);
+  await shot(page, 'signin-wrong-password');
+});
+
+test('an over-long e-mail address is refused with a message, no stack trace', async ({ page }) => {
+  await page.goto('/signin');
+  await page.getByLabel('E-mail address').evaluate((el) => el.removeAttribute('maxlength'));
+  await page.getByLabel('E-mail address').fill('a'.repeat(300) + '@example.com');
+  await page.getByLabel('Password').fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await expect(page.getByRole('alert')).toContainText('valid e-mail address');
+  await expect(page.locator('body')).not.toContainText('Error:');
+});
+
+test('signed-out visitors are sent to sign in, then back where they were going', async ({ page }) => {
+  await page.goto('/machines');
+  await expect(page).toHaveURL(/\/signin\?next=%2Fmachines/);
+  await page.getByLabel('E-mail address').fill(DEMO.technician.email);
+  await page.getByLabel('Password').fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await expect(page).toHaveURL(/\/machines$/);
+});
+
+test('sign out ends the session', async ({ page, context }) => {
+  await signIn(page, 'operator');
+  await page.getByRole('link', { name: 'Sign out' }).click();
+  await page.getByRole('button', { name: 'Sign out' }).click();
+  await expect(page).toHaveURL(/\/signin/);
+  const cookies = await context.cookies();
+  expect(cookies.some((c) => c.name.includes('session-token'))).toBe(false);
+  await page.goto('/');
+  await expect(page).toHaveURL(/\/signin/);
+});

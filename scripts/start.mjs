@@ -1,0 +1,51 @@
+#!/usr/bin/env node
+// Starts the built server: makes sure an AUTH_SECRET exists (generated once into the data
+// directory), starts Astro's standalone server, then opens the store (migrations and the demo
+// seed run here, at boot) and prints where to go.
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { randomBytes } from 'node:crypto';
+import { resolve, join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+
+const dataDir = resolve(process.env.CAGEWRIGHT_DATA_DIR ?? 'data');
+process.env.CAGEWRIGHT_DATA_DIR = dataDir;
+process.env.HOST ??= '127.0.0.1';
+process.env.PORT ??= '4321';
+process.env.NODE_ENV ??= 'production';
+
+if (!process.env.AUTH_SECRET) {
+  mkdirSync(dataDir, { recursive: true });
+  const file = join(dataDir, 'auth-secret');
+  if (!existsSync(file)) writeFileSync(file, randomBytes(32).toString('base64url'), { mode: 0o600 });
+  process.env.AUTH_SECRET = readFileSync(file, 'utf8').trim();
+}
+
+const outDir = resolve(process.env.CAGEWRIGHT_OUT_DIR ?? 'dist');
+const entry = join(outDir, 'server', 'entry.mjs');
+if (!existsSync(entry)) {
+  console.error(`cagewright: no build at ${entry}. Run \`npm run build\` first (npm start does it for you).`);
+  process.exit(1);
+}
+
+const started = Date.now();
+await import(pathToFileURL(entry).href);
+
+const base = `http://${process.env.HOST}:${process.env.PORT}`;
+for (let attempt = 0; ; attempt++) {
+  try {
+    const res = await fetch(`${base}/api/health`);
+    const body = await res.json();
+    if (res.ok) {
+      console.log(`cagewright: ready at ${base} (store: ${body.store}, ${Date.now() - started} ms)`);
+      break;
+    }
+    console.error(`cagewright: the store did not open: ${body?.error?.message ?? res.status}`);
+    process.exit(1);
+  } catch (err) {
+    if (attempt > 100) {
+      console.error('cagewright: the server did not answer:', err);
+      process.exit(1);
+    }
+    await new Promise((r) => setTimeout(r, 50));
+  }
+}

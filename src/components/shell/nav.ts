@@ -1,0 +1,28 @@
+import type { Role } from '../../db/schema';
+
+export interface NavItem {
+  href: string;
+  label: string;
+  roles: readonly Role[];
+}
+
+/** The app's sections and who sees them. Each page still checks the role on the server. */
+export const NAV: NavItem[] = [
+  { href: '/', label: 'Home', roles: ['operator', 'technician', 'trainer', 'admin'] },
+  { href: '/machines', label: 'Machines', roles: ['operator', 'technician', 'trainer', 'admin'] },
+  { href: '/planner', label: 'Crop change', roles: ['operator', 'technician'] },
+  { href: '/parts-requests', label: 'Parts requests', roles: ['operator', 'technician', 'admin'] },
+  { href: '/inspections', label: 'Inspections', roles: ['operator', 'technician'] },
+  { href: '/classroom', label: 'Classroom', roles: ['trainer', 'technician'] },
+  { href: '/admin/catalog', label: 'Catalog', roles: ['admin', 'technician'] },
+  { href: '/admin/mailbox', label: 'Mailbox', roles: ['admin'] },
+];
+
+export const navFor = (role: Role) => NAV.filter((item) => item.roles.includes(role));
+
+export const ROLE_LABEL: Record<Role, string> = {
+  operator: 'Operator',
+  technician: 'Service technician',
+  trainer: 'Trainer',
+  admin: 'Administrator',
+};

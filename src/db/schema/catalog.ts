@@ -1,0 +1,36 @@
+import { pgTable, text, uuid, timestamp, integer, jsonb, boolean, primaryKey, index } from 'drizzle-orm/pg-core';
+import type { CatalogPart, MachineFamily } from '../../lib/domain/schemas';
+import { organisations } from './orgs';
+
+/** A machine family; `spec` holds the domain's MachineFamily document. */
+export const families = pgTable('families', {
+  id: text('id').primaryKey(),
+  name: text('name').notNull(),
+  spec: jsonb('spec').$type<MachineFamily>().notNull(),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** A catalog part; `spec` holds the domain's CatalogPart document. */
+export const catalogParts = pgTable(
+  'catalog_parts',
+  {
+    partNumber: text('part_number').primaryKey(),
+    familyId: text('family_id').notNull().references(() => families.id),
+    kind: text('kind', { enum: ['element', 'cover-plate', 'rotor-bar'] }).notNull(),
+    spec: jsonb('spec').$type<CatalogPart>().notNull(),
+    active: boolean('active').notNull().default(true),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('catalog_parts_family_idx').on(t.familyId)],
+);
+
+/** Parts an organisation holds on its shelf (a dealer's stock, a farm's spares). */
+export const stock = pgTable(
+  'stock',
+  {
+    orgId: uuid('org_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+    partNumber: text('part_number').notNull().references(() => catalogParts.partNumber),
+    quantity: integer('quantity').notNull().default(0),
+  },
+  (t) => [primaryKey({ columns: [t.orgId, t.partNumber] })],
+);

@@ -1,0 +1,59 @@
+import { pgTable, text, uuid, timestamp, integer, jsonb, index, uniqueIndex } from 'drizzle-orm/pg-core';
+import type { Layout } from '../../lib/domain/schemas';
+import { organisations, users } from './orgs';
+import { families } from './catalog';
+
+export const machines = pgTable(
+  'machines',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    orgId: uuid('org_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+    familyId: text('family_id').notNull().references(() => families.id),
+    drum: text('drum', { enum: ['full', 'slim'] }).notNull(),
+    vaneControl: text('vane_control', { enum: ['fixed', 'manual', 'powered'] }).notNull(),
+    serial: text('serial').notNull(),
+    nickname: text('nickname').notNull(),
+    notes: text('notes').notNull().default(''),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('machines_org_idx').on(t.orgId)],
+);
+
+/** What is bolted in the machine today. */
+export const installed = pgTable('installed', {
+  machineId: uuid('machine_id').primaryKey().references(() => machines.id, { onDelete: 'cascade' }),
+  layout: jsonb('layout').$type<Layout>().notNull(),
+  updatedBy: uuid('updated_by').references(() => users.id),
+  updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** A named plan for a machine; its content lives in immutable versions. */
+export const layouts = pgTable(
+  'layouts',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    machineId: uuid('machine_id').notNull().references(() => machines.id, { onDelete: 'cascade' }),
+    orgId: uuid('org_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+    name: text('name').notNull(),
+    currentVersion: integer('current_version').notNull().default(1),
+    createdBy: uuid('created_by').references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [index('layouts_machine_idx').on(t.machineId), index('layouts_org_idx').on(t.orgId)],
+);
+
+export const layoutVersions = pgTable(
+  'layout_versions',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    layoutId: uuid('layout_id').notNull().references(() => layouts.id, { onDelete: 'cascade' }),
+    version: integer('version').notNull(),
+    body: jsonb('body').$type<Layout>().notNull(),
+    note: text('note').notNull().default(''),
+    createdBy: uuid('created_by').references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [uniqueIndex('layout_versions_layout_version_uq').on(t.layoutId, t.version)],
+);

@@ -1,0 +1,33 @@
+import { pgTable, text, uuid, timestamp, jsonb, index } from 'drizzle-orm/pg-core';
+import { organisations, users } from './orgs';
+import { machines } from './fleet';
+
+export const partsRequestStatuses = ['draft', 'sent', 'acknowledged', 'ready', 'picked-up'] as const;
+
+export interface PartsRequestLine {
+  partNumber: string;
+  description: string;
+  hand: 'left' | 'right' | null;
+  quantity: number;
+  unitPriceCents: number;
+}
+
+/** A bill of materials sent from a farm to its dealer's parts desk. */
+export const partsRequests = pgTable(
+  'parts_requests',
+  {
+    id: uuid('id').primaryKey().defaultRandom(),
+    orgId: uuid('org_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+    dealerOrgId: uuid('dealer_org_id').references(() => organisations.id),
+    machineId: uuid('machine_id').references(() => machines.id, { onDelete: 'set null' }),
+    source: text('source', { enum: ['plan', 'layout', 'inspection', 'manual'] }).notNull().default('manual'),
+    status: text('status', { enum: partsRequestStatuses }).notNull().default('draft'),
+    lines: jsonb('lines').$type<PartsRequestLine[]>().notNull().default([]),
+    note: text('note').notNull().default(''),
+    createdBy: uuid('created_by').references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+    sentAt: timestamp('sent_at', { withTimezone: true }),
+  },
+  (t) => [index('parts_requests_org_idx').on(t.orgId), index('parts_requests_dealer_idx').on(t.dealerOrgId)],
+);

@@ -1,0 +1,98 @@
+import type { APIContext } from 'astro';
+import { z, type ZodType } from 'zod';
+import type { Role } from '../../db/schema';
+import type { Actor } from './access';
+
+/** An error a route maps to a status and a JSON body; `field` names the offending input. */
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    message: string,
+    readonly field?: string,
+    readonly extra?: Record<string, unknown>,
+  ) {
+    super(message);
+  }
+}
+
+export const notFound = (what = 'Not found', field?: string) => new HttpError(404, what, field);
+
+export function json(data: unknown, status = 200, headers: Record<string, string> = {}): Response {
+  return new Response(JSON.stringify(data), {
+    status,
+    headers: { 'content-type': 'application/json; charset=utf-8', 'cache-control': 'no-store', ...headers },
+  });
+}
+
+export function errorResponse(status: number, message: string, field?: string, extra?: Record<string, unknown>) {
+  return json({ error: { message, ...(field ? { field } : {}), ...extra } }, status);
+}
+
+function zodToHttp(error: z.ZodError, prefix?: string): HttpError {
+  const issue = error.issues[0];
+  const path = [prefix, ...(issue?.path ?? [])].filter((p) => p !== undefined && p !== '').join('.');
+  const field = path || undefined;
+  const issues = error.issues.slice(0, 20).map((i) => ({ field: [prefix, ...i.path].filter(Boolean).join('.'), message: i.message }));
+  return new HttpError(400, field ? `${field}: ${issue.message}` : issue.message, field, { issues });
+}
+
+const MAX_JSON_BYTES = 1_000_000;
+
+export async function readJson<T>(request: Request, schema: ZodType<T>): Promise<T> {
+  const type = request.headers.get('content-type') ?? '';
+  if (!type.toLowerCase().includes('application/json')) {
+    throw new HttpError(415, 'Send the body as application/json.', 'content-type');
+  }
+  const text = await request.text();
+  if (text.length > MAX_JSON_BYTES) throw new HttpError(413, 'The body is too large.', 'body');
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch {
+    throw new HttpError(400, 'The body is not valid JSON.', 'body');
+  }
+  const parsed = schema.safeParse(raw);
+  if (!parsed.success) throw zodToHttp(parsed.error);
+  return parsed.data;
+}
+
+export function parseParams<T>(value: unknown, schema: ZodType<T>, prefix?: string): T {
+  const parsed = schema.safeParse(value);
+  if (!parsed.success) throw zodToHttp(parsed.error, prefix);
+  return parsed.data;
+}
+
+export function requireActor(ctx: Pick<APIContext, 'locals'>, roles?: readonly Role[]): Actor {
+  const actor = ctx.locals.actor;
+  if (!actor) throw new HttpError(401, 'Sign in first.');
+  if (roles && !roles.includes(actor.role)) throw new HttpError(403, `This needs one of these roles: ${roles.join(', ')}.`);
+  return actor;
+}
+
+/** The uuid schema routes use for ids in the path; a bad id is simply not found. */
+export const idParam = z.uuid();
+
+export function parseId(value: string | undefined, field = 'id'): string {
+  const parsed = idParam.safeParse(value);
+  if (!parsed.success) throw new HttpError(404, 'Not found', field);
+  return parsed.data;
+}
+
+type Handler = (ctx: APIContext) => Promise<Response | unknown>;
+
+/**
+ * Wraps a route handler: HttpError → its status with a JSON body, anything else → 500 with a
+ * plain message (details go to the server log, never to the client).
+ */
+export function route(handler: Handler) {
+  return async (ctx: APIContext): Promise<Response> => {
+    try {
+      const out = await handler(ctx);
+      return out instanceof Response ? out : json(out);
+    } catch (err) {
+      if (err instanceof HttpError) return errorResponse(err.status, err.message, err.field, err.extra);
+      console.error(`cagewright: ${ctx.request.method} ${new URL(ctx.request.url).pathname} failed:`, err);
+      return errorResponse(500, 'Something went wrong on the server. The change was not saved.');
+    }
+  };
+}

@@ -1,0 +1,240 @@
+import { and, asc, count, desc, eq, ilike, inArray, or, sql } from 'drizzle-orm';
+import { z } from 'zod';
+import { getDb, type Db } from '../db';
+import { catalogParts, families, installed, machines, organisations } from '../../../db/schema';
+import { drumIdSchema, slugSchema, vaneControlSchema, type CatalogPart, type MachineFamily } from '../../domain/schemas';
+import type { Actor } from '../access';
+import { audit } from '../audit';
+import { HttpError, notFound } from '../http';
+
+export type MachineRow = typeof machines.$inferSelect;
+
+export interface MachineContext {
+  machine: MachineRow;
+  family: MachineFamily;
+  orgName: string;
+}
+
+/** A machine the actor may see, with its family; another organisation's machine is not found. */
+export async function machineForActor(actor: Actor, machineId: string, db?: Db): Promise<MachineContext> {
+  const d = db ?? (await getDb());
+  const [row] = await d
+    .select({ machine: machines, family: families.spec, orgName: organisations.name })
+    .from(machines)
+    .innerJoin(families, eq(families.id, machines.familyId))
+    .innerJoin(organisations, eq(organisations.id, machines.orgId))
+    .where(and(eq(machines.id, machineId), inArray(machines.orgId, actor.visibleOrgIds)))
+    .limit(1);
+  if (!row) throw notFound('Machine not found', 'machineId');
+  return row;
+}
+
+/** The active catalog parts that fit a family. */
+export async function catalogForFamily(familyId: string, db?: Db): Promise<CatalogPart[]> {
+  const d = db ?? (await getDb());
+  const rows = await d
+    .select({ spec: catalogParts.spec })
+    .from(catalogParts)
+    .where(and(eq(catalogParts.familyId, familyId), eq(catalogParts.active, true)));
+  return rows.map((r) => r.spec);
+}
+
+export async function familyById(familyId: string, db?: Db): Promise<MachineFamily | null> {
+  const d = db ?? (await getDb());
+  const [row] = await d.select({ spec: families.spec }).from(families).where(eq(families.id, familyId)).limit(1);
+  return row?.spec ?? null;
+}
+
+export async function installedLayout(machineId: string, db?: Db) {
+  const d = db ?? (await getDb());
+  const [row] = await d.select().from(installed).where(eq(installed.machineId, machineId)).limit(1);
+  return row ?? null;
+}
+
+// ---------------------------------------------------------------------------------------------
+// Fleet: list, create, update and delete machines
+
+/** Who may add, change and remove machines. Trainers look but do not touch customers' fleets. */
+export const MACHINE_WRITERS = ['operator', 'technician', 'admin'] as const;
+
+const text = (max: number) => z.string().trim().max(max);
+
+export const MACHINE_SORTS = ['nickname', 'serial', 'family', 'org', 'updatedAt', 'createdAt'] as const;
+
+export const machineListQuerySchema = z.object({
+  page: z.coerce.number().int().min(1).max(100_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(20),
+  /** A column, descending with a leading '-': 'nickname', '-updatedAt'. */
+  sort: z
+    .string()
+    .regex(new RegExp(`^-?(${MACHINE_SORTS.join('|')})$`), `use one of ${MACHINE_SORTS.join(', ')}, with a leading - for descending`)
+    .default('-updatedAt'),
+  q: z.string().trim().max(100).default(''),
+  orgId: z.uuid().optional(),
+  familyId: z.string().max(60).optional(),
+});
+export type MachineListQuery = z.infer<typeof machineListQuerySchema>;
+
+export const createMachineSchema = z.object({
+  /** The organisation that owns it; defaults to the user's own farm. */
+  orgId: z.uuid().optional(),
+  familyId: slugSchema,
+  drum: drumIdSchema,
+  vaneControl: vaneControlSchema,
+  serial: text(40).min(1, { error: 'give the serial number' }),
+  nickname: text(60).min(1, { error: 'give the machine a name' }),
+  notes: text(2000).default(''),
+});
+
+export const updateMachineSchema = z.object({
+  familyId: z.never({ error: 'a machine keeps its family; add a new machine instead' }).optional(),
+  orgId: z.never({ error: 'a machine stays with its organisation' }).optional(),
+  drum: drumIdSchema.optional(),
+  vaneControl: vaneControlSchema.optional(),
+  serial: text(40).min(1, { error: 'give the serial number' }).optional(),
+  nickname: text(60).min(1, { error: 'give the machine a name' }).optional(),
+  notes: text(2000).optional(),
+});
+
+const sortColumns = {
+  nickname: machines.nickname,
+  serial: machines.serial,
+  family: families.name,
+  org: organisations.name,
+  updatedAt: machines.updatedAt,
+  createdAt: machines.createdAt,
+} as const;
+
+const listColumns = {
+  id: machines.id,
+  nickname: machines.nickname,
+  serial: machines.serial,
+  drum: machines.drum,
+  vaneControl: machines.vaneControl,
+  notes: machines.notes,
+  familyId: machines.familyId,
+  familyName: families.name,
+  orgId: machines.orgId,
+  orgName: organisations.name,
+  createdAt: machines.createdAt,
+  updatedAt: machines.updatedAt,
+};
+
+/** One page of the machines the actor may see, filtered by a free-text query, sorted by a column. */
+export async function listMachines(actor: Actor, query: MachineListQuery) {
+  const db = await getDb();
+  const desc_ = query.sort.startsWith('-');
+  const key = query.sort.replace(/^-/, '') as keyof typeof sortColumns;
+  const column = sortColumns[key];
+  const conditions = [inArray(machines.orgId, actor.visibleOrgIds)];
+  if (query.orgId) conditions.push(eq(machines.orgId, query.orgId));
+  if (query.familyId) conditions.push(eq(machines.familyId, query.familyId));
+  if (query.q) {
+    const like = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+    conditions.push(
+      or(
+        ilike(machines.nickname, like),
+        ilike(machines.serial, like),
+        ilike(machines.notes, like),
+        ilike(families.name, like),
+        ilike(organisations.name, like),
+      )!,
+    );
+  }
+  const where = and(...conditions);
+  const [rows, [{ n }]] = await Promise.all([
+    db
+      .select(listColumns)
+      .from(machines)
+      .innerJoin(families, eq(families.id, machines.familyId))
+      .innerJoin(organisations, eq(organisations.id, machines.orgId))
+      .where(where)
+      .orderBy(desc_ ? desc(column) : asc(column), asc(machines.id))
+      .limit(query.pageSize)
+      .offset((query.page - 1) * query.pageSize),
+    db
+      .select({ n: count() })
+      .from(machines)
+      .innerJoin(families, eq(families.id, machines.familyId))
+      .innerJoin(organisations, eq(organisations.id, machines.orgId))
+      .where(where) as Promise<{ n: number }[]>,
+  ]);
+  return { items: rows, total: n, page: query.page, pageSize: query.pageSize, sort: query.sort, q: query.q };
+}
+
+function assertMachineFitsFamily(family: MachineFamily, drum: string, vaneControl: string) {
+  if (!family.drumOptions.some((d) => d.id === drum))
+    throw new HttpError(400, `drum: the ${family.name} comes with ${family.drumOptions.map((d) => d.id).join(' or ')}`, 'drum');
+  if (!family.vaneControls.includes(vaneControl as MachineFamily['vaneControls'][number]))
+    throw new HttpError(400, `vaneControl: the ${family.name} has ${family.vaneControls.join(' or ')} vanes`, 'vaneControl');
+}
+
+/** The organisation a new machine belongs to: one the actor may see; by default their own. */
+function ownerOrgFor(actor: Actor, orgId: string | undefined): string {
+  const wanted = orgId ?? actor.homeOrgId;
+  if (!actor.visibleOrgIds.includes(wanted)) throw notFound('Organisation not found', 'orgId');
+  return wanted;
+}
+
+export async function createMachine(actor: Actor, input: z.infer<typeof createMachineSchema>) {
+  const orgId = ownerOrgFor(actor, input.orgId);
+  const family = await familyById(input.familyId);
+  if (!family) throw new HttpError(400, `familyId: no machine family "${input.familyId}"`, 'familyId');
+  assertMachineFitsFamily(family, input.drum, input.vaneControl);
+  const db = await getDb();
+  return db.transaction(async (tx) => {
+    const [row] = await tx
+      .insert(machines)
+      .values({ orgId, familyId: family.id, drum: input.drum, vaneControl: input.vaneControl, serial: input.serial, nickname: input.nickname, notes: input.notes })
+      .returning();
+    await audit(tx, actor, 'create', 'machine', row!.id, { nickname: row!.nickname, serial: row!.serial, familyId: family.id }, orgId);
+    return row!;
+  });
+}
+
+export async function updateMachine(actor: Actor, machineId: string, input: z.infer<typeof updateMachineSchema>) {
+  const ctx = await machineForActor(actor, machineId);
+  const drum = input.drum ?? ctx.machine.drum;
+  const vaneControl = input.vaneControl ?? ctx.machine.vaneControl;
+  assertMachineFitsFamily(ctx.family, drum, vaneControl);
+  const changes = Object.fromEntries(
+    Object.entries({ drum: input.drum, vaneControl: input.vaneControl, serial: input.serial, nickname: input.nickname, notes: input.notes }).filter(
+      ([, v]) => v !== undefined,
+    ),
+  );
+  const db = await getDb();
+  return db.transaction(async (tx) => {
+    const [row] = await tx
+      .update(machines)
+      .set({ ...changes, updatedAt: sql`now()` })
+      .where(eq(machines.id, ctx.machine.id))
+      .returning();
+    await audit(tx, actor, 'update', 'machine', row!.id, changes, row!.orgId);
+    return row!;
+  });
+}
+
+/** Removes a machine with its layouts, versions, share links and inspections (the audit log stays). */
+export async function deleteMachine(actor: Actor, machineId: string) {
+  const ctx = await machineForActor(actor, machineId);
+  const db = await getDb();
+  await db.transaction(async (tx) => {
+    await tx.delete(machines).where(eq(machines.id, ctx.machine.id));
+    await audit(tx, actor, 'delete', 'machine', ctx.machine.id, { nickname: ctx.machine.nickname, serial: ctx.machine.serial }, ctx.machine.orgId);
+  });
+  return { deleted: ctx.machine.id };
+}
+
+/** The families a new machine may be of, with their drum and vane options (for the form). */
+export async function familyChoices() {
+  const db = await getDb();
+  const rows = await db.select({ id: families.id, name: families.name, spec: families.spec }).from(families).orderBy(families.name);
+  return rows.map((r) => ({
+    id: r.id,
+    name: r.name,
+    cageKind: r.spec.cageKind,
+    positions: r.spec.positions.length,
+    drumOptions: r.spec.drumOptions.map((d) => ({ id: d.id, label: d.label })),
+    vaneControls: r.spec.vaneControls,
+  }));
+}

@@ -1,0 +1,70 @@
+import { defineMiddleware, sequence } from 'astro:middleware';
+import { getSession } from 'auth-astro/server';
+import { getDb } from './lib/server/db';
+import { loadActor } from './lib/server/access';
+import { errorResponse } from './lib/server/http';
+import { DataDirInUseError } from './lib/server/data-dir-lock';
+
+/** Paths anyone may open: sign-in, Auth.js itself, shared read-only views, health, assets. */
+const PUBLIC = [/^\/signin\/?$/, /^\/api\/auth\//, /^\/share\//, /^\/api\/health\/?$/, /^\/_astro\//, /^\/favicon/, /^\/fonts\//];
+
+const isPublic = (path: string) => PUBLIC.some((re) => re.test(path));
+
+const CSP = [
+  "default-src 'self'",
+  "script-src 'self' 'unsafe-inline'",
+  "style-src 'self' 'unsafe-inline'",
+  "img-src 'self' data: blob:",
+  "font-src 'self'",
+  "connect-src 'self'",
+  "object-src 'none'",
+  "base-uri 'self'",
+  "form-action 'self'",
+  "frame-ancestors 'none'",
+].join('; ');
+
+const securityHeaders = defineMiddleware(async (_ctx, next) => {
+  const res = await next();
+  const h = res.headers;
+  try {
+    if (!h.has('content-security-policy')) h.set('content-security-policy', CSP);
+    h.set('x-content-type-options', 'nosniff');
+    h.set('referrer-policy', 'same-origin');
+    h.set('x-frame-options', 'DENY');
+    h.set('permissions-policy', 'camera=(self), geolocation=(), microphone=()');
+    return res;
+  } catch {
+    // Some responses (redirects made by Response.redirect) have immutable headers.
+    const copy = new Response(res.body, res);
+    copy.headers.set('content-security-policy', CSP);
+    copy.headers.set('x-content-type-options', 'nosniff');
+    copy.headers.set('referrer-policy', 'same-origin');
+    copy.headers.set('x-frame-options', 'DENY');
+    return copy;
+  }
+});
+
+const identity = defineMiddleware(async (ctx, next) => {
+  ctx.locals.actor = null;
+  ctx.locals.requestId = crypto.randomUUID();
+  const path = ctx.url.pathname;
+  const isApi = path.startsWith('/api/');
+  try {
+    if (!path.startsWith('/api/auth/') && !path.startsWith('/_astro/')) {
+      const session = await getSession(ctx.request);
+      const uid = (session?.user as { id?: string } | undefined)?.id;
+      if (uid) ctx.locals.actor = await loadActor(await getDb(), uid);
+    }
+  } catch (err) {
+    if (err instanceof DataDirInUseError) return errorResponse(503, err.message);
+    console.error('cagewright: could not read the session:', err);
+  }
+  if (!ctx.locals.actor && !isPublic(path)) {
+    if (isApi) return errorResponse(401, 'Sign in first.');
+    const nextUrl = encodeURIComponent(path + ctx.url.search);
+    return ctx.redirect(`/signin?next=${nextUrl}`, 303);
+  }
+  return next();
+});
+
+export const onRequest = sequence(securityHeaders, identity);

@@ -1,0 +1,18 @@
+import { readJson, requireActor, route, parseId, json } from '../../../../lib/server/http';
+import { getLayout, LAYOUT_WRITERS, saveVersion, saveVersionSchema } from '../../../../lib/server/services/layouts';
+
+/** The layout with its current version. */
+export const GET = route(async (ctx) => {
+  const actor = requireActor(ctx);
+  const { layout, current, machine } = await getLayout(actor, parseId(ctx.params.id));
+  return { layout, current, machine: { id: machine.id, nickname: machine.nickname, familyId: machine.familyId } };
+});
+
+/** Save: a new immutable version, guarded by the version the client started from. */
+export const PUT = route(async (ctx) => {
+  const actor = requireActor(ctx, LAYOUT_WRITERS);
+  const id = parseId(ctx.params.id);
+  const input = await readJson(ctx.request, saveVersionSchema);
+  const version = await saveVersion(actor, id, input);
+  return json({ version }, 201);
+});

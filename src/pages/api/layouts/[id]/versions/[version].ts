@@ -1,0 +1,9 @@
+import { z } from 'zod';
+import { requireActor, route, parseId, parseParams } from '../../../../../lib/server/http';
+import { getVersion } from '../../../../../lib/server/services/layouts';
+
+export const GET = route(async (ctx) => {
+  const actor = requireActor(ctx);
+  const version = parseParams(ctx.params.version, z.coerce.number().int().min(1), 'version');
+  return getVersion(actor, parseId(ctx.params.id), version);
+});

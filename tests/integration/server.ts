@@ -1,0 +1,91 @@
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
+import { createServer } from 'node:net';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+
+export const TEST_SECRET = 'integration-test-secret-not-for-production-0123456789';
+
+export async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const srv = createServer();
+    srv.listen(0, '127.0.0.1', () => {
+      const { port } = srv.address() as { port: number };
+      srv.close(() => resolve(port));
+    });
+    srv.on('error', reject);
+  });
+}
+
+export function buildOnce() {
+  if (process.env.CAGEWRIGHT_SKIP_BUILD === '1') return;
+  const r = spawnSync('npx', ['astro', 'build'], {
+    stdio: 'inherit',
+    env: { ...process.env, CAGEWRIGHT_OUT_DIR: outDir(), ASTRO_TELEMETRY_DISABLED: '1' },
+  });
+  if (r.status !== 0) throw new Error('astro build failed');
+}
+
+export const outDir = () => process.env.CAGEWRIGHT_OUT_DIR ?? 'dist-test';
+
+export interface RunningServer {
+  baseUrl: string;
+  port: number;
+  dataDir: string;
+  child: ChildProcess;
+  stop: (signal?: NodeJS.Signals) => Promise<number | null>;
+}
+
+/** Starts the built server on a free port; resolves once it printed that it is ready. */
+export async function startServer(opts: { dataDir?: string; env?: Record<string, string> } = {}): Promise<RunningServer> {
+  const port = await freePort();
+  const dataDir = opts.dataDir ?? mkdtempSync(join(tmpdir(), 'cagewright-it-'));
+  const child = spawn(process.execPath, ['scripts/start.mjs'], {
+    env: {
+      ...process.env,
+      PORT: String(port),
+      HOST: '127.0.0.1',
+      CAGEWRIGHT_DATA_DIR: dataDir,
+      CAGEWRIGHT_OUT_DIR: outDir(),
+      CAGEWRIGHT_BCRYPT_ROUNDS: '4',
+      AUTH_SECRET: TEST_SECRET,
+      ...opts.env,
+    },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
+  let output = '';
+  const exited = new Promise<number | null>((resolve) => child.on('exit', (code) => resolve(code)));
+  await new Promise<void>((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error(`server did not start:\n${output}`)), 30_000);
+    const onData = (b: Buffer) => {
+      output += b.toString();
+      if (output.includes('cagewright: ready')) {
+        clearTimeout(timer);
+        resolve();
+      }
+    };
+    child.stdout!.on('data', onData);
+    child.stderr!.on('data', (b: Buffer) => {
+      output += b.toString();
+      if (process.env.CAGEWRIGHT_TEST_VERBOSE) process.stderr.write(b);
+    });
+    void exited.then((code) => {
+      clearTimeout(timer);
+      reject(new Error(`server exited (${code}) before it was ready:\n${output}`));
+    });
+  });
+  return {
+    baseUrl: `http://127.0.0.1:${port}`,
+    port,
+    dataDir,
+    child,
+    stop: async (signal = 'SIGTERM') => {
+      if (child.exitCode === null) child.kill(signal);
+      return exited;
+    },
+  };
+}
+
+export function removeDir(dir: string) {
+  rmSync(dir, { recursive: true, force: true });
+}
