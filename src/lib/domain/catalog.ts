@@ -55,3 +55,28 @@ export function indexFamily(family: MachineFamily): FamilyIndex {
   familyIndexCache.set(family, index);
   return index;
 }
+
+/**
+ * The same part for the other hand (or side): same kind, type or bar kind, role and fit group.
+ * What the editor's "mirror" uses; undefined when the catalog lacks it. Rotor bars have no hand
+ * and come back as they are.
+ */
+export function handedCounterpart(catalog: CatalogIndex, part: CatalogPart, side: 'left' | 'right'): CatalogPart | undefined {
+  switch (part.kind) {
+    case 'element':
+      if (part.hand === side) return part;
+      return catalog.parts.find(
+        (p) =>
+          p.kind === 'element' &&
+          p.hand === side &&
+          p.elementType === part.elementType &&
+          p.role === part.role &&
+          p.fitGroup === part.fitGroup,
+      );
+    case 'cover-plate':
+      if (part.side === side) return part;
+      return catalog.parts.find((p) => p.kind === 'cover-plate' && p.side === side && p.fitGroup === part.fitGroup);
+    case 'rotor-bar':
+      return part;
+  }
+}

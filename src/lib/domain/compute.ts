@@ -63,7 +63,7 @@ export function computeSettings(
   const drum = drumFor(family, layout.drum);
   const diameterMm = mm(drum.diameterMm);
   const v = tipSpeed(diameterMm, rpm(layout.rotorRpm));
-  const window = rpmWindow(crop, { id: layout.drum, diameterMm: drum.diameterMm });
+  const speedWindow = rpmWindow(crop, { id: layout.drum, diameterMm: drum.diameterMm });
   const openArea = openAreaByZone(layout, fam, cat);
 
   let straightBars = 0;
@@ -88,8 +88,8 @@ export function computeSettings(
     diameterMm,
     tipSpeedMs: v,
     tipSpeedFpm: msToFpm(v),
-    rpmWindow: window,
-    rpmInWindow: inRpmWindow(layout.rotorRpm, window),
+    rpmWindow: speedWindow,
+    rpmInWindow: inRpmWindow(layout.rotorRpm, speedWindow),
     passage: elementPassages(layout, cat, crop),
     openArea,
     aggressivenessIndex: aggressivenessIndex({

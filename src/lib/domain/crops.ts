@@ -7,7 +7,7 @@
  */
 import { z } from 'zod';
 import { cropIdSchema, elementTypeSchema, type CropId, type ElementType } from './schemas';
-import { bushelsPerTonne, lbPerBuFromBushelsPerTonne } from './units';
+import { bushelsPerTonne } from './units';
 
 const sourced = z.object({ value: z.number().positive(), source: z.string().min(1) });
 export type Sourced = z.infer<typeof sourced>;
@@ -162,7 +162,7 @@ const drafts: Draft[] = [
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only; straight bars are not needed in canola (common practice).' },
     tipSpeedMs: { min: 18, max: 28, source: SRC.mem },
     bushel: {
-      usLb: { value: lbPerBuFromBushelsPerTonne(44.092), source: `derived from ${SRC.alberta}: 44.0920 bu/t = 50 lb/bu` },
+      usLb: { value: 50, source: `derived from ${SRC.alberta}: 44.0920 bu/t is a 50 lb bushel` },
       canadaPerTonne: canada(44.092),
     },
     publishedLossCount: null,
@@ -290,7 +290,7 @@ const drafts: Draft[] = [
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only (common practice).' },
     tipSpeedMs: { min: 7.5, max: 10.5, source: SRC.ndsuEb25 },
     bushel: {
-      usLb: { value: lbPerBuFromBushelsPerTonne(73.487), source: `derived from ${SRC.alberta}: 73.4870 bu/t = 30 lb/bu` },
+      usLb: { value: 30, source: `derived from ${SRC.alberta}: 73.4870 bu/t is a 30 lb bushel` },
       canadaPerTonne: canada(73.487),
     },
     publishedLossCount: null,

@@ -5,5 +5,5 @@ export * from './places';
 export * from './crops';
 export * from './catalog';
 export * from './compute';
-export { checkLayout, hasBlockingFindings, countBySeverity } from './rules';
+export { checkLayout, checkPlacement, placePart, hasBlockingFindings, countBySeverity } from './rules';
 export * from './demo-catalog';

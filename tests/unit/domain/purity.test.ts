@@ -1,0 +1,42 @@
+import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { join, relative } from 'node:path';
+import { describe, expect, it } from 'vitest';
+
+// The domain runs unchanged on the server, in the browser island and in tests, so it may import
+// only zod and its own files, and touch no host globals.
+const root = join(__dirname, '../../../src/lib/domain');
+
+function files(dir: string): string[] {
+  return readdirSync(dir).flatMap((name) => {
+    const p = join(dir, name);
+    return statSync(p).isDirectory() ? files(p) : /\.(ts|tsx|js|mjs)$/.test(name) ? [p] : [];
+  });
+}
+
+const IMPORT = /(?:^|[\s;])(?:import|export)\s[^;]*?from\s*['"]([^'"]+)['"]|import\s*\(\s*['"]([^'"]+)['"]\s*\)|^\s*import\s*['"]([^'"]+)['"]|require\s*\(\s*['"]([^'"]+)['"]\s*\)/gm;
+const GLOBALS = /\b(window|document|localStorage|sessionStorage|navigator|process|Buffer|require|__dirname|fetch)\s*[.(]/;
+
+describe('src/lib/domain is pure', () => {
+  const all = files(root);
+  it('has files to check', () => {
+    expect(all.length).toBeGreaterThan(10);
+  });
+  for (const file of all) {
+    const name = relative(root, file);
+    const src = readFileSync(file, 'utf8');
+    it(`${name} imports only zod and relative paths`, () => {
+      const specs = [...src.matchAll(IMPORT)].map((m) => m[1] ?? m[2] ?? m[3] ?? m[4]);
+      const bad = specs.filter((s) => s !== 'zod' && !s!.startsWith('./') && !s!.startsWith('../'));
+      expect(bad).toEqual([]);
+    });
+    it(`${name} uses no host globals`, () => {
+      const code = src.replace(/\/\*[\s\S]*?\*\//g, '').replace(/\/\/.*$/gm, '');
+      expect(code.match(GLOBALS)?.[0] ?? null).toBeNull();
+    });
+  }
+  it('the import pattern catches what it should', () => {
+    const sample = `import x from 'react';\nexport { y } from "node:fs";\nconst z = await import('astro');\nimport './side-effect';`;
+    const specs = [...sample.matchAll(IMPORT)].map((m) => m[1] ?? m[2] ?? m[3] ?? m[4]);
+    expect(specs).toEqual(['react', 'node:fs', 'astro', './side-effect']);
+  });
+});
