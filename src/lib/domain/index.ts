@@ -7,3 +7,4 @@ export * from './catalog';
 export * from './compute';
 export { checkLayout, checkPlacement, placePart, hasBlockingFindings, countBySeverity } from './rules';
 export * from './demo-catalog';
+export * from './check-input';
