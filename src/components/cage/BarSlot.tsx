@@ -1,0 +1,85 @@
+/** One rotor bar place: the bar drawn by kind, the in-line mark, findings. */
+import { memo } from 'react';
+import type { BarKind } from '../../lib/domain/schemas';
+import { INK, INK_MUTED, SEVERITY_STYLE, STEEL } from './palette';
+import type { SlotInfo } from './slot-types';
+import { SlotMarks } from './SlotMarks';
+import { BAR_SHORT } from './words';
+
+function BarShape({ kind, x, y, w }: { kind: BarKind; x: number; y: number; w: number }) {
+  // y is the bar's centre line.
+  switch (kind) {
+    case 'rasp':
+    case 'spike-rasp':
+    case 'smooth-rasp': {
+      const ridges: number[] = [];
+      for (let rx = x + 6; rx < x + w - 4; rx += 7) ridges.push(rx);
+      return (
+        <g>
+          {kind === 'spike-rasp' &&
+            ridges.filter((_, i) => i % 2 === 0).map((rx) => (
+              <path key={rx} d={`M${rx - 3},${y - 4}L${rx},${y - 10}L${rx + 3},${y - 4}Z`} fill={STEEL[700]} />
+            ))}
+          <rect x={x} y={y - 5} width={w} height={10} rx={3} fill={kind === 'smooth-rasp' ? STEEL[400] : STEEL[500]} stroke={STEEL[800]} strokeWidth={0.75} />
+          {kind === 'smooth-rasp' ? (
+            <line x1={x + 4} x2={x + w - 4} y1={y - 1.5} y2={y - 1.5} stroke={STEEL[200]} strokeWidth={1.4} strokeLinecap="round" />
+          ) : (
+            ridges.map((rx) => <line key={rx} x1={rx} x2={rx + 4} y1={y + 4} y2={y - 4} stroke={STEEL[200]} strokeWidth={1.3} />)
+          )}
+        </g>
+      );
+    }
+    case 'straight':
+      return (
+        <g>
+          <rect x={x - 6} y={y - 6} width={w + 12} height={12} rx={2} fill={STEEL[800]} />
+          <circle cx={x + 4} cy={y} r={2.2} fill={STEEL[200]} />
+          <circle cx={x + w - 4} cy={y} r={2.2} fill={STEEL[200]} />
+        </g>
+      );
+    case 'discharge':
+      return (
+        <path
+          d={`M${x},${y - 5}H${x + w - 14}L${x + w},${y - 9}V${y + 9}L${x + w - 14},${y + 5}H${x}Z`}
+          fill={STEEL[700]}
+          stroke={STEEL[900]}
+          strokeWidth={0.75}
+        />
+      );
+  }
+}
+
+function BarSlotView({ info, inLine, compact }: { info: SlotInfo; inLine: boolean; compact: boolean }) {
+  const { x, y, w, h } = info.box;
+  const bar = info.part?.kind === 'rotor-bar' ? info.part : undefined;
+  const midY = y + (compact ? 11 : 12);
+  const barX = x + 22;
+  const barW = w - 44;
+  const sev = info.severity ? SEVERITY_STYLE[info.severity] : undefined;
+  let words = bar ? BAR_SHORT[bar.barKind] : info.partNumber ? 'Unknown part' : 'no bar';
+  if (inLine) words += ' · in line';
+  return (
+    <>
+      <rect x={x} y={y} width={w} height={h} rx={3} fill="#fff" fillOpacity={0.6} stroke="none" />
+      {inLine && (
+        // two short bars one behind the other: the place where two rasp bars stand in line
+        <g aria-hidden="true">
+          <rect x={x + 5} y={midY - 8} width={4} height={7} rx={1} fill={STEEL[600]} />
+          <rect x={x + 5} y={midY + 1} width={4} height={7} rx={1} fill={STEEL[600]} />
+        </g>
+      )}
+      {bar ? (
+        <BarShape kind={bar.barKind} x={barX} y={midY} w={barW} />
+      ) : (
+        <rect x={barX} y={midY - 5} width={barW} height={10} rx={3} fill="none" stroke={STEEL[400]} strokeDasharray="4 3" />
+      )}
+      <text x={x + w / 2} y={y + h - 3} textAnchor="middle" fontSize={compact ? 9 : 10} fill={bar ? INK : INK_MUTED}>
+        {words}
+        {sev && !compact && <tspan fill={sev.colour} fontWeight={700}>{`\u00a0· ${sev.words}`}</tspan>}
+      </text>
+      <SlotMarks info={info} compact={compact} words={false} />
+    </>
+  );
+}
+
+export const BarSlot = memo(BarSlotView);
