@@ -6,6 +6,7 @@ import {
   cropPrograms,
   metresPerSecond,
   passageMargin,
+  type AggressivenessInput,
 } from '~/lib/domain';
 import { catalog, modular, setElement, split, start } from './helpers';
 
@@ -25,20 +26,19 @@ describe('kernel passage margin (smallest kernel dimension against the opening w
 });
 
 describe('aggressiveness index (Cagewright model, formula in cage-metrics.ts and docs/layout-format.md)', () => {
-  const base = {
-    threshingElements: ['fine-wire', 'fine-wire', 'fine-wire', 'fine-wire'] as const,
+  const base: AggressivenessInput = {
+    threshingElements: ['fine-wire', 'fine-wire', 'fine-wire', 'fine-wire'],
     tipSpeed: metresPerSecond(25),
     clearanceMm: 15,
-    vaneSetting: 'medium' as const,
+    vaneSetting: 'medium',
     coverPlates: 0,
     straightBars: 0,
   };
   it('reference point: fine-wire threshing zone, 25 m/s, 15 mm, medium vanes = 80', () => {
-    expect(aggressivenessIndex({ ...base, threshingElements: [...base.threshingElements] })).toBeCloseTo(80, 9);
+    expect(aggressivenessIndex(base)).toBeCloseTo(80, 9);
   });
   it('rises with speed, slower vanes, tighter clearance, cover plates and straight bars; falls with gentler elements', () => {
-    const ai = (o: Partial<typeof base> & { threshingElements?: readonly ('fine-wire' | 'round-bar' | null)[] }) =>
-      aggressivenessIndex({ ...base, ...o, threshingElements: [...(o.threshingElements ?? base.threshingElements)] });
+    const ai = (o: Partial<AggressivenessInput>) => aggressivenessIndex({ ...base, ...o });
     const ref = ai({});
     expect(ai({ tipSpeed: metresPerSecond(30) })).toBeGreaterThan(ref);
     expect(ai({ vaneSetting: 'very-slow' })).toBeGreaterThan(ref);
@@ -49,7 +49,7 @@ describe('aggressiveness index (Cagewright model, formula in cage-metrics.ts and
     expect(ai({ threshingElements: ['fine-wire', null, 'fine-wire', null] })).toBeCloseTo(ref / 2, 9);
   });
   it('clearance effect is bounded (×0.5 to ×2)', () => {
-    const at = (c: number) => aggressivenessIndex({ ...base, threshingElements: [...base.threshingElements], clearanceMm: c });
+    const at = (c: number) => aggressivenessIndex({ ...base, clearanceMm: c });
     expect(at(0.5)).toBeCloseTo(160, 9);
     expect(at(80)).toBeCloseTo(40, 9);
   });

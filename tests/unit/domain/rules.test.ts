@@ -285,7 +285,7 @@ describe('settings', () => {
 
 describe('ordering', () => {
   it('lists blocking findings first, then crop findings, then advice', () => {
-    let l = { ...start('wheat'), drum: 'slim' as const, rotorRpm: 300 };
+    let l: Layout = { ...start('wheat'), drum: 'slim', rotorRpm: 300 };
     l = setElement(l, 1, 'right', 'CW-FW-L-04');
     const ranks = run(l).map((f) => ['blocks-fit', 'hurts-crop', 'advice'].indexOf(f.severity));
     expect(ranks).toEqual([...ranks].sort((a, b) => a - b));
