@@ -20,6 +20,13 @@ if (!process.env.AUTH_SECRET) {
   process.env.AUTH_SECRET = readFileSync(file, 'utf8').trim();
 }
 
+// `npm run backup` proves it runs on this machine with this token (see /api/admin/backup).
+{
+  mkdirSync(dataDir, { recursive: true });
+  const file = join(dataDir, 'backup-token');
+  if (!existsSync(file)) writeFileSync(file, randomBytes(32).toString('base64url'), { mode: 0o600 });
+}
+
 const outDir = resolve(process.env.CAGEWRIGHT_OUT_DIR ?? 'dist');
 const entry = join(outDir, 'server', 'entry.mjs');
 if (!existsSync(entry)) {

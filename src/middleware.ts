@@ -5,8 +5,11 @@ import { loadActor } from './lib/server/access';
 import { errorResponse } from './lib/server/http';
 import { DataDirInUseError } from './lib/server/data-dir-lock';
 
-/** Paths anyone may open: sign-in, Auth.js itself, shared read-only views, health, assets. */
-const PUBLIC = [/^\/signin\/?$/, /^\/api\/auth\//, /^\/share\//, /^\/api\/health\/?$/, /^\/_astro\//, /^\/favicon/, /^\/fonts\//];
+/**
+ * Paths open without a session: sign-in, Auth.js itself, shared read-only views, health, assets,
+ * and the backup route (which checks an admin session or the local backup token itself).
+ */
+const PUBLIC = [/^\/signin\/?$/, /^\/api\/auth\//, /^\/share\//, /^\/api\/health\/?$/, /^\/api\/admin\/backup\/?$/, /^\/_astro\//, /^\/favicon/, /^\/fonts\//];
 
 const isPublic = (path: string) => PUBLIC.some((re) => re.test(path));
 

@@ -25,7 +25,7 @@ export function lockDataDir(dir: string): () => void {
   for (let attempt = 0; attempt < 2; attempt++) {
     try {
       const fd = openSync(path, 'wx');
-      writeSync(fd, JSON.stringify({ pid: process.pid, host: hostname(), since: new Date().toISOString() }));
+      writeSync(fd, JSON.stringify({ pid: process.pid, host: hostname(), port: process.env.PORT ?? null, since: new Date().toISOString() }));
       closeSync(fd);
       return () => rmSync(path, { force: true });
     } catch (err) {

@@ -16,6 +16,8 @@ interface Store {
   db: Db;
   mode: 'pglite' | 'postgres';
   close: () => Promise<void>;
+  /** A consistent gzipped tarball of the embedded store (PGlite only). */
+  dump?: () => Promise<Blob>;
 }
 
 const MIGRATIONS = resolve(process.env.CAGEWRIGHT_MIGRATIONS_DIR ?? 'drizzle');
@@ -41,6 +43,10 @@ async function openStore(): Promise<Store> {
     return {
       db,
       mode: 'pglite',
+      dump: async () => {
+        await client.query('CHECKPOINT');
+        return client.dumpDataDir('gzip');
+      },
       close: async () => {
         await client.query('CHECKPOINT');
         await client.close();

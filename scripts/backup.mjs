@@ -1,0 +1,75 @@
+#!/usr/bin/env node
+// `npm run backup [-- --out <file>]`: a consistent snapshot of the store.
+// - Embedded store with the server running: asks the server for a snapshot (it owns the files).
+// - Embedded store with no server: opens the store itself (taking the data-dir lock) and dumps it.
+// - PostgreSQL server mode (DATABASE_URL): runs pg_dump.
+import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { dirname, join, resolve } from 'node:path';
+
+const args = process.argv.slice(2);
+const outArg = args.indexOf('--out');
+const stamp = new Date().toISOString().replace(/[:.]/g, '-');
+const dataDir = resolve(process.env.CAGEWRIGHT_DATA_DIR ?? 'data');
+
+function alive(pid) {
+  try {
+    process.kill(pid, 0);
+    return true;
+  } catch (e) {
+    return e.code === 'EPERM';
+  }
+}
+
+if (process.env.DATABASE_URL) {
+  const out = resolve(outArg >= 0 ? args[outArg + 1] : `backups/cagewright-${stamp}.sql`);
+  mkdirSync(dirname(out), { recursive: true });
+  const r = spawnSync('pg_dump', ['--no-owner', '--file', out, process.env.DATABASE_URL], { stdio: 'inherit' });
+  if (r.status !== 0) process.exit(r.status ?? 1);
+  console.log(`backup written: ${out} (restore with: psql "$DATABASE_URL" -f ${out})`);
+  process.exit(0);
+}
+
+const out = resolve(outArg >= 0 ? args[outArg + 1] : `backups/cagewright-${stamp}.tar.gz`);
+mkdirSync(dirname(out), { recursive: true });
+const ownerFile = join(dataDir, 'cagewright.owner');
+let owner = null;
+if (existsSync(ownerFile)) {
+  try {
+    owner = JSON.parse(readFileSync(ownerFile, 'utf8'));
+  } catch {}
+}
+
+if (owner?.pid && alive(owner.pid)) {
+  const port = owner.port ?? process.env.PORT ?? '4321';
+  const token = readFileSync(join(dataDir, 'backup-token'), 'utf8').trim();
+  const res = await fetch(`http://127.0.0.1:${port}/api/admin/backup`, {
+    method: 'POST',
+    headers: { 'x-cagewright-backup-token': token, origin: `http://127.0.0.1:${port}` },
+  });
+  if (!res.ok) {
+    console.error(`backup failed: the server answered ${res.status} ${await res.text()}`);
+    process.exit(1);
+  }
+  writeFileSync(out, Buffer.from(await res.arrayBuffer()));
+  console.log(`backup written from the running server (pid ${owner.pid}): ${out}`);
+} else {
+  const { PGlite } = await import('@electric-sql/pglite');
+  // Take the same owner file the server takes, so a server can't start mid-backup.
+  const { openSync, writeSync, closeSync, rmSync } = await import('node:fs');
+  rmSync(ownerFile, { force: true });
+  const fd = openSync(ownerFile, 'wx');
+  writeSync(fd, JSON.stringify({ pid: process.pid, host: (await import('node:os')).hostname(), port: null, since: new Date().toISOString(), by: 'backup' }));
+  closeSync(fd);
+  try {
+    const db = await PGlite.create({ dataDir });
+    await db.query('CHECKPOINT');
+    const blob = await db.dumpDataDir('gzip');
+    await db.close();
+    writeFileSync(out, Buffer.from(await blob.arrayBuffer()));
+    console.log(`backup written: ${out}`);
+  } finally {
+    rmSync(ownerFile, { force: true });
+  }
+}
+console.log(`restore with: npm run restore -- ${out} --data-dir <empty directory>`);

@@ -1,0 +1,45 @@
+import { describe, expect, it } from 'vitest';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { Client, DEMO } from './client';
+import { removeDir, startServer } from './server';
+
+describe('backup and restore', () => {
+  it('takes a consistent snapshot while the server runs and restores it with every row', async () => {
+    if (process.env.DATABASE_URL) return; // server mode backs up with pg_dump
+    const dataDir = mkdtempSync(join(tmpdir(), 'cagewright-backup-'));
+    const restored = mkdtempSync(join(tmpdir(), 'cagewright-restored-'));
+    const file = join(dataDir, '..', `${dataDir.split('/').pop()}.tar.gz`);
+    try {
+      const server = await startServer({ dataDir });
+      const c = new Client(server.baseUrl);
+      await c.signIn(DEMO.operator);
+      expect((await c.put('/api/me', { unitSystem: 'imperial' })).status).toBe(200);
+
+      // A signed-in non-admin may not take a backup; the script (local token) may.
+      expect((await c.post('/api/admin/backup')).status).toBe(403);
+      const env = { ...process.env, CAGEWRIGHT_DATA_DIR: dataDir };
+      const backup = spawnSync(process.execPath, ['scripts/backup.mjs', '--out', file], { env, encoding: 'utf8' });
+      expect(backup.status, backup.stderr).toBe(0);
+      expect(backup.stdout).toMatch(/from the running server/);
+      await server.stop();
+
+      const restore = spawnSync(process.execPath, ['scripts/restore.mjs', file, '--data-dir', restored], { encoding: 'utf8' });
+      expect(restore.status, restore.stderr).toBe(0);
+      expect(restore.stdout).toMatch(/users\s+5/);
+      expect(restore.stdout).toMatch(/machines\s+3/);
+
+      const again = await startServer({ dataDir: restored });
+      const d = new Client(again.baseUrl);
+      await d.signIn(DEMO.operator);
+      expect((await d.get('/api/me')).body.unitSystem).toBe('imperial');
+      await again.stop();
+    } finally {
+      removeDir(dataDir);
+      removeDir(restored);
+      removeDir(file);
+    }
+  }, 120_000);
+});
