@@ -103,3 +103,14 @@ const med = measure('checkLayout (indexed catalog)', (c) => checkLayout(c.family
 measure('checkLayout (catalog array, indexed per call)', (c) => checkLayout(c.family, demoCatalog, c.layout));
 measure('computeSettings (indexed catalog)', (c) => computeSettings(c.family, index, c.layout));
 console.log(`median per layout: ${med.toFixed(2)} µs (target ≤ 50 µs) ${med <= 50 ? 'OK' : 'OVER'}`);
+// One JSON line for scripts/bench.mjs to tabulate.
+console.log(
+  JSON.stringify({
+    bench: 'rules',
+    figure: `checkLayout median per layout (${cases.length} layouts)`,
+    value: Number(med.toFixed(2)),
+    unit: 'µs',
+    budget: '≤ 50 µs',
+    ok: med <= 50,
+  }),
+);
