@@ -34,6 +34,8 @@ if (!existsSync(entry)) {
   process.exit(1);
 }
 
+// Photo uploads go to a local S3-compatible fake unless a real bucket (or the disk store) is configured.
+if (!process.env.S3_ENDPOINT && process.env.CAGEWRIGHT_STORAGE !== 'disk') await (await import('./fakes/s3.mjs')).startFakeS3({ dataDir });
 const started = Date.now();
 await import(pathToFileURL(entry).href);
 

@@ -1,0 +1,51 @@
+import { createReadStream } from 'node:fs';
+import { mkdir, readFile, rename, rm, stat, writeFile } from 'node:fs/promises';
+import { dirname, join, resolve } from 'node:path';
+import { Readable } from 'node:stream';
+import { randomBytes } from 'node:crypto';
+import { assertKey, type ObjectStorage, type StoredObject } from './types';
+
+/**
+ * Files under one folder: the object at `<root>/<key>`, its content type in `<key>.type` beside
+ * it. Writes go to a temporary name first and are renamed into place, so a reader never sees
+ * half a file.
+ */
+export function diskStorage(root: string): ObjectStorage {
+  const base = resolve(root);
+  const pathOf = (key: string) => {
+    assertKey(key);
+    return join(base, ...key.split('/'));
+  };
+  const writeAtomic = async (path: string, data: Uint8Array | string) => {
+    const tmp = `${path}.${randomBytes(6).toString('hex')}.part`;
+    await writeFile(tmp, data);
+    await rename(tmp, path);
+  };
+  return {
+    kind: 'disk',
+    where: base,
+    async put(key, bytes, contentType) {
+      const path = pathOf(key);
+      await mkdir(dirname(path), { recursive: true });
+      await writeAtomic(`${path}.type`, contentType);
+      await writeAtomic(path, bytes);
+    },
+    async get(key): Promise<StoredObject | null> {
+      const path = pathOf(key);
+      let size: number;
+      try {
+        size = (await stat(path)).size;
+      } catch {
+        return null;
+      }
+      const contentType = (await readFile(`${path}.type`, 'utf8').catch(() => 'application/octet-stream')).trim();
+      const body = Readable.toWeb(createReadStream(path)) as unknown as ReadableStream<Uint8Array>;
+      return { contentType, size, body };
+    },
+    async delete(key) {
+      const path = pathOf(key);
+      await rm(path, { force: true });
+      await rm(`${path}.type`, { force: true });
+    },
+  };
+}
