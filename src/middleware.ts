@@ -1,5 +1,5 @@
 import { defineMiddleware, sequence } from 'astro:middleware';
-import { getSession } from 'auth-astro/server';
+import { sessionUserId } from './lib/server/auth/session';
 import { getDb } from './lib/server/db';
 import { loadActor } from './lib/server/access';
 import { errorResponse } from './lib/server/http';
@@ -54,8 +54,7 @@ const identity = defineMiddleware(async (ctx, next) => {
   const isApi = path.startsWith('/api/');
   try {
     if (!path.startsWith('/api/auth/') && !path.startsWith('/_astro/')) {
-      const session = await getSession(ctx.request);
-      const uid = (session?.user as { id?: string } | undefined)?.id;
+      const uid = await sessionUserId(ctx.request);
       if (uid) ctx.locals.actor = await loadActor(await getDb(), uid);
     }
   } catch (err) {

@@ -1,6 +1,6 @@
-import { and, eq, inArray } from 'drizzle-orm';
+import { sql } from 'drizzle-orm';
 import type { Db } from './db';
-import { memberships, organisations, users, type Role } from '../../db/schema';
+import type { Role } from '../../db/schema';
 
 /** The signed-in person as every route sees them: identity, role and what they may see. */
 export interface Actor {
@@ -18,47 +18,37 @@ export interface Actor {
   homeOrgKind: 'farm' | 'dealer';
 }
 
-const DEALER_STAFF: Role[] = ['technician', 'trainer', 'admin'];
-
+/** One round trip: the user, their memberships and, for dealer staff, the dealer's farms. */
 export async function loadActor(db: Db, userId: string): Promise<Actor | null> {
-  const rows = await db
-    .select({
-      id: users.id,
-      email: users.email,
-      name: users.name,
-      unitSystem: users.unitSystem,
-      orgId: memberships.orgId,
-      role: memberships.role,
-      orgKind: organisations.kind,
-    })
-    .from(users)
-    .innerJoin(memberships, eq(memberships.userId, users.id))
-    .innerJoin(organisations, eq(organisations.id, memberships.orgId))
-    .where(eq(users.id, userId))
-    .orderBy(organisations.kind, organisations.name);
-  if (rows.length === 0) return null;
+  const result = await db.execute(sql`
+    select u.id, u.email, u.name, u.unit_system, m.org_id, m.role, o.kind as org_kind,
+      case when o.kind = 'dealer' and m.role in ('technician', 'trainer', 'admin')
+        then (select coalesce(array_agg(f.id::text), '{}') from organisations f where f.kind = 'farm' and f.dealer_id = o.id)
+        else '{}'::text[] end as customer_ids
+    from users u
+    join memberships m on m.user_id = u.id
+    join organisations o on o.id = m.org_id
+    where u.id = ${userId}
+    order by o.kind, o.name`);
+  const rows = result.rows as {
+    id: string; email: string; name: string; unit_system: 'metric' | 'imperial';
+    org_id: string; role: Role; org_kind: 'farm' | 'dealer'; customer_ids: string[];
+  }[];
   // Dealer memberships sort first ('dealer' < 'farm'), so dealer staff act for the dealer.
   const home = rows[0];
-  const memberOrgIds = rows.map((r) => r.orgId);
-  const dealerIds = rows.filter((r) => r.orgKind === 'dealer' && DEALER_STAFF.includes(r.role)).map((r) => r.orgId);
-  let customerIds: string[] = [];
-  if (dealerIds.length > 0) {
-    const farms = await db
-      .select({ id: organisations.id })
-      .from(organisations)
-      .where(and(eq(organisations.kind, 'farm'), inArray(organisations.dealerId, dealerIds)));
-    customerIds = farms.map((f) => f.id);
-  }
+  if (!home) return null;
+  const memberOrgIds = rows.map((r) => r.org_id);
+  const customerIds = rows.flatMap((r) => r.customer_ids ?? []);
   return {
     id: home.id,
     email: home.email,
     name: home.name,
     role: home.role,
-    unitSystem: home.unitSystem,
+    unitSystem: home.unit_system,
     memberOrgIds,
     visibleOrgIds: [...new Set([...memberOrgIds, ...customerIds])],
-    homeOrgId: home.orgId,
-    homeOrgKind: home.orgKind,
+    homeOrgId: home.org_id,
+    homeOrgKind: home.org_kind,
   };
 }
 
