@@ -4,6 +4,8 @@ import { getDb } from '../db';
 import { layouts, layoutVersions, users } from '../../../db/schema';
 import { cropIdSchema, layoutSchema, type Layout } from '../../domain/schemas';
 import { starterLayout } from '../../domain/demo-catalog';
+import { checkLayout } from '../../domain/rules';
+import { diffLayouts } from '../../domain/diff';
 import type { Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
@@ -122,8 +124,8 @@ export async function createLayout(actor: Actor, machineId: string, input: z.inf
     const catalog = await catalogForFamily(ctx.family.id);
     body = starterLayout(ctx.family, input.crop, catalog, { drum: ctx.machine.drum, vaneControl: ctx.machine.vaneControl });
   }
-  assertFamily(body, ctx.machine.familyId);
-  input = { ...input, body };
+  const first: Layout = body;
+  assertFamily(first, ctx.machine.familyId);
   const db = await getDb();
   return db.transaction(async (tx) => {
     const [row] = await tx
@@ -132,7 +134,7 @@ export async function createLayout(actor: Actor, machineId: string, input: z.inf
       .returning();
     const [v] = await tx
       .insert(layoutVersions)
-      .values({ layoutId: row!.id, version: 1, body, note: input.note, createdBy: actor.id })
+      .values({ layoutId: row!.id, version: 1, body: first, note: input.note, createdBy: actor.id })
       .returning();
     await audit(tx, actor, 'create', 'layout', row!.id, { name: input.name, version: 1 }, ctx.machine.orgId);
     return { layout: row!, version: v! };
@@ -147,6 +149,17 @@ export async function createLayout(actor: Actor, machineId: string, input: z.inf
 export async function saveVersion(actor: Actor, layoutId: string, input: z.infer<typeof saveVersionSchema>) {
   const row = await layoutRowForActor(actor, layoutId);
   assertFamily(input.body, (await machineForActor(actor, row.machineId)).machine.familyId);
+  return appendVersion(actor, row, input, 'save', {});
+}
+
+/** The guarded write shared by a save and a restore; `action` and `detail` go to the audit log. */
+async function appendVersion(
+  actor: Actor,
+  row: LayoutRow,
+  input: z.infer<typeof saveVersionSchema>,
+  action: string,
+  detail: Record<string, unknown>,
+) {
   const db = await getDb();
   const next = input.baseVersion + 1;
   const result = await db.transaction(async (tx) => {
@@ -160,7 +173,7 @@ export async function saveVersion(actor: Actor, layoutId: string, input: z.infer
       .insert(layoutVersions)
       .values({ layoutId: row.id, version: next, body: input.body, note: input.note, createdBy: actor.id })
       .returning();
-    await audit(tx, actor, 'save', 'layout', row.id, { version: next, from: input.baseVersion }, row.orgId);
+    await audit(tx, actor, action, 'layout', row.id, { version: next, from: input.baseVersion, ...detail }, row.orgId);
     return v!;
   });
   if (!result) {
@@ -172,4 +185,125 @@ export async function saveVersion(actor: Actor, layoutId: string, input: z.infer
     });
   }
   return result;
+}
+
+// ---------------------------------------------------------------------------------------------
+// History: restore, copy, compare
+
+export const restoreSchema = z.object({
+  /** The old version whose content becomes the newest version. */
+  version: z.int().min(1),
+  /** Optional guard: the version the page showed as current (409 if someone saved since). */
+  baseVersion: z.int().min(1).optional(),
+  note: z.string().max(500).optional(),
+});
+
+/**
+ * Restores an old version by writing its content as a new version on top; history is never
+ * rewritten, so the versions in between stay and the restore can itself be undone.
+ */
+export async function restoreVersion(actor: Actor, layoutId: string, input: z.infer<typeof restoreSchema>) {
+  const row = await layoutRowForActor(actor, layoutId);
+  const old = await versionOf(row.id, input.version).catch(() => {
+    throw new HttpError(400, `version: this layout has no version ${input.version}`, 'version');
+  });
+  if (input.version === row.currentVersion) {
+    throw new HttpError(400, `version: version ${input.version} is already the current one`, 'version');
+  }
+  const baseVersion = input.baseVersion ?? row.currentVersion;
+  return appendVersion(
+    actor,
+    row,
+    { baseVersion, body: old.body, note: input.note?.trim() || `Restored from version ${input.version}` },
+    'restore',
+    { restoredFrom: input.version },
+  );
+}
+
+export const copySchema = z.object({
+  /** The machine to copy to; it must be of the same family. */
+  machineId: z.uuid(),
+  /** Which version to copy; the current one by default. */
+  version: z.int().min(1).optional(),
+  name: z.string().trim().min(1).max(120).optional(),
+  note: z.string().max(500).optional(),
+});
+
+/**
+ * Copies a layout version to another machine of the same family as a new layout there. The
+ * copy takes the target machine's drum and vane control (the plan follows the machine it is
+ * on), and is checked again by the rules; the findings come back with it.
+ */
+export async function copyLayout(actor: Actor, layoutId: string, input: z.infer<typeof copySchema>) {
+  const row = await layoutRowForActor(actor, layoutId);
+  const source = await versionOf(row.id, input.version ?? row.currentVersion).catch(() => {
+    throw new HttpError(400, `version: this layout has no version ${input.version}`, 'version');
+  });
+  const target = await machineForActor(actor, input.machineId).catch(() => {
+    throw notFound('Machine not found', 'machineId');
+  });
+  if (target.machine.familyId !== source.body.familyId) {
+    throw new HttpError(
+      400,
+      `machineId: ${target.machine.nickname} is a ${target.family.name}; a layout copies only to a machine of the same family`,
+      'machineId',
+    );
+  }
+  const adjusted: string[] = [];
+  const body: Layout = { ...source.body };
+  if (body.drum !== target.machine.drum) {
+    body.drum = target.machine.drum;
+    adjusted.push('drum');
+  }
+  if (body.vaneControl !== target.machine.vaneControl) {
+    body.vaneControl = target.machine.vaneControl;
+    adjusted.push('vaneControl');
+  }
+  const catalog = await catalogForFamily(target.family.id);
+  const findings = checkLayout(target.family, catalog, body);
+  const name = input.name ?? row.name;
+  const note = input.note?.trim() || `Copied from “${row.name}” version ${source.version}`;
+  const db = await getDb();
+  const created = await db.transaction(async (tx) => {
+    const [l] = await tx
+      .insert(layouts)
+      .values({ machineId: target.machine.id, orgId: target.machine.orgId, name, currentVersion: 1, createdBy: actor.id })
+      .returning();
+    const [v] = await tx.insert(layoutVersions).values({ layoutId: l!.id, version: 1, body, note, createdBy: actor.id }).returning();
+    await audit(
+      tx,
+      actor,
+      'copy',
+      'layout',
+      l!.id,
+      { fromLayout: row.id, fromVersion: source.version, toMachine: target.machine.id, adjusted },
+      target.machine.orgId,
+    );
+    return { layout: l!, version: v! };
+  });
+  return { ...created, findings, adjusted };
+}
+
+/** Two versions of one layout with their differences and each one's findings. */
+export async function compareVersions(actor: Actor, layoutId: string, a: number, b: number) {
+  const row = await layoutRowForActor(actor, layoutId);
+  const [va, vb, ctx] = await Promise.all([
+    versionOf(row.id, a).catch(() => {
+      throw notFound(`This layout has no version ${a}`, 'a');
+    }),
+    versionOf(row.id, b).catch(() => {
+      throw notFound(`This layout has no version ${b}`, 'b');
+    }),
+    machineForActor(actor, row.machineId),
+  ]);
+  const catalog = await catalogForFamily(ctx.family.id);
+  return {
+    layout: row,
+    machine: ctx.machine,
+    family: ctx.family,
+    a: { ...va, findings: checkLayout(ctx.family, catalog, va.body) },
+    b: { ...vb, findings: checkLayout(ctx.family, catalog, vb.body) },
+    diff: diffLayouts(va.body, vb.body),
+    catalog,
+  };
 }

@@ -1,0 +1,16 @@
+import { json, parseParams, readJson, requireActor, route } from '../../../../lib/server/http';
+import { CATALOG_WRITERS, createPart, listParts, partInputSchema, partListQuerySchema } from '../../../../lib/server/services/catalog';
+
+/** Catalog parts (?familyId=&kind=&q=&status=active|retired|all). */
+export const GET = route(async (ctx) => {
+  requireActor(ctx);
+  const query = parseParams(Object.fromEntries(ctx.url.searchParams), partListQuerySchema);
+  return { parts: await listParts(query) };
+});
+
+/** A new part: { familyId, active, part } where part is the catalog part document. */
+export const POST = route(async (ctx) => {
+  const actor = requireActor(ctx, CATALOG_WRITERS);
+  const input = await readJson(ctx.request, partInputSchema);
+  return json({ part: await createPart(actor, input) }, 201);
+});

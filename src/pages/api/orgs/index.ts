@@ -1,0 +1,12 @@
+import { json, readJson, requireActor, route } from '../../../lib/server/http';
+import { createFarm, createOrgSchema, listOrgs } from '../../../lib/server/services/orgs';
+
+/** The organisations the user may see (their own, and a dealer's customer farms). */
+export const GET = route(async (ctx) => ({ orgs: await listOrgs(requireActor(ctx)) }));
+
+/** An admin adds a customer farm served by their dealer. */
+export const POST = route(async (ctx) => {
+  const actor = requireActor(ctx, ['admin']);
+  const input = await readJson(ctx.request, createOrgSchema);
+  return json({ org: await createFarm(actor, input) }, 201);
+});

@@ -1,0 +1,23 @@
+import { json, parseParams, readJson, requireActor, route } from '../../../lib/server/http';
+import {
+  createShareLink,
+  createShareSchema,
+  listShareLinks,
+  SHARE_WRITERS,
+  shareListQuerySchema,
+} from '../../../lib/server/services/sharing';
+
+/** Share links of the layouts the user may see (?layoutId=&status=active|all). Tokens are never listed. */
+export const GET = route(async (ctx) => {
+  const actor = requireActor(ctx);
+  const query = parseParams(Object.fromEntries(ctx.url.searchParams), shareListQuerySchema);
+  return { links: await listShareLinks(actor, query) };
+});
+
+/** A new read-only link to a saved version. The token is in this response only; the store keeps its hash. */
+export const POST = route(async (ctx) => {
+  const actor = requireActor(ctx, SHARE_WRITERS);
+  const input = await readJson(ctx.request, createShareSchema);
+  const created = await createShareLink(actor, input);
+  return json({ ...created, url: new URL(created.path, ctx.url.origin).toString() }, 201);
+});
