@@ -1,0 +1,243 @@
+import { and, count, eq, inArray } from 'drizzle-orm';
+import sharp from 'sharp';
+import { getDb, type Db } from '../db';
+import { inspectionItems, inspections, photos } from '../../../db/schema';
+import type { Actor } from '../access';
+import { audit } from '../audit';
+import { HttpError, notFound } from '../http';
+import { IMAGE_EXTENSION, sniffImageType, type ImageType } from '../image-sniff';
+import { storage, type ObjectStorage } from '../storage';
+
+/** The largest photo accepted: a full-resolution phone picture fits comfortably. */
+export const MAX_PHOTO_BYTES = 8 * 1024 * 1024;
+/** Room for the multipart envelope around the photo. */
+const MULTIPART_OVERHEAD = 64 * 1024;
+/** Enough to show every side of a worn element; a cap keeps one line from filling the store. */
+export const MAX_PHOTOS_PER_ITEM = 12;
+/** Thumbnails fit in this box (pixels), JPEG. */
+const THUMB_BOX = 480;
+
+const megabytes = (n: number) => `${Math.round(n / (1024 * 1024))} MB`;
+const tooLarge = () => new HttpError(413, `The photo is larger than ${megabytes(MAX_PHOTO_BYTES)}. Take it at a lower resolution or crop it.`, 'photo');
+const notAnImage = () => new HttpError(415, 'That file is not a JPEG, PNG or WebP photo.', 'photo');
+
+export interface UploadedPhoto {
+  bytes: Uint8Array;
+  type: ImageType;
+  width: number;
+  height: number;
+}
+
+/**
+ * Reads a multipart/form-data upload with a `photo` field, refusing early: a declared length
+ * over the limit is refused before reading, and reading stops as soon as the body passes it.
+ * The type comes from the file's bytes, and the image must decode.
+ */
+export async function readPhotoUpload(request: Request): Promise<UploadedPhoto> {
+  const type = request.headers.get('content-type') ?? '';
+  if (!/^multipart\/form-data;\s*boundary=/i.test(type)) {
+    throw new HttpError(415, 'Send the photo as multipart/form-data in a field named "photo".', 'content-type');
+  }
+  const limit = MAX_PHOTO_BYTES + MULTIPART_OVERHEAD;
+  const declared = Number(request.headers.get('content-length') ?? NaN);
+  if (Number.isFinite(declared) && declared > limit) throw tooLarge();
+  const body = await readCapped(request, limit);
+
+  let form: FormData;
+  try {
+    form = await new Response(body as Uint8Array<ArrayBuffer>, { headers: { 'content-type': type } }).formData();
+  } catch {
+    throw new HttpError(400, 'The upload could not be read as multipart/form-data.', 'body');
+  }
+  const file = form.get('photo');
+  if (!(file instanceof Blob)) throw new HttpError(400, 'photo: attach the picture in a field named "photo".', 'photo');
+  if (file.size === 0) throw new HttpError(400, 'photo: the file is empty.', 'photo');
+  if (file.size > MAX_PHOTO_BYTES) throw tooLarge();
+  const bytes = new Uint8Array(await file.arrayBuffer());
+  const sniffed = sniffImageType(bytes);
+  if (!sniffed) throw notAnImage();
+  let meta: sharp.Metadata;
+  try {
+    meta = await sharp(bytes, { failOn: 'error' }).metadata();
+  } catch {
+    throw notAnImage();
+  }
+  if (!meta.width || !meta.height) throw notAnImage();
+  return { bytes, type: sniffed, width: meta.width, height: meta.height };
+}
+
+async function readCapped(request: Request, limit: number): Promise<Uint8Array<ArrayBuffer>> {
+  if (!request.body) return new Uint8Array();
+  const reader = request.body.getReader();
+  const chunks: Uint8Array[] = [];
+  let total = 0;
+  for (;;) {
+    const { done, value } = await reader.read();
+    if (done) break;
+    total += value.byteLength;
+    if (total > limit) {
+      await reader.cancel().catch(() => {});
+      throw tooLarge();
+    }
+    chunks.push(value);
+  }
+  const out = new Uint8Array(total);
+  let at = 0;
+  for (const c of chunks) {
+    out.set(c, at);
+    at += c.byteLength;
+  }
+  return out;
+}
+
+/** A thumbnail upright (phones store the turn in EXIF), without metadata, as JPEG. */
+export async function makeThumbnail(bytes: Uint8Array): Promise<Uint8Array> {
+  const out = await sharp(bytes)
+    .rotate()
+    .resize(THUMB_BOX, THUMB_BOX, { fit: 'inside', withoutEnlargement: true })
+    .flatten({ background: '#ffffff' })
+    .jpeg({ quality: 78, mozjpeg: true })
+    .toBuffer();
+  return new Uint8Array(out);
+}
+
+export const photoKeys = (inspectionId: string, photoId: string, type: ImageType) => ({
+  original: `inspections/${inspectionId}/${photoId}.${IMAGE_EXTENSION[type]}`,
+  thumb: `inspections/${inspectionId}/${photoId}-thumb.jpg`,
+});
+
+/** The line of an inspection the actor may see, with its inspection's status and organisation. */
+async function itemForActor(actor: Actor, inspectionId: string, itemId: string, db: Db) {
+  const [row] = await db
+    .select({ itemId: inspectionItems.id, inspectionId: inspections.id, orgId: inspections.orgId, status: inspections.status, placeKey: inspectionItems.placeKey })
+    .from(inspectionItems)
+    .innerJoin(inspections, eq(inspections.id, inspectionItems.inspectionId))
+    .where(and(eq(inspectionItems.id, itemId), eq(inspections.id, inspectionId), inArray(inspections.orgId, actor.visibleOrgIds)))
+    .limit(1);
+  if (!row) throw notFound('Inspection line not found', 'itemId');
+  return row;
+}
+
+/**
+ * The line a photo would go to, checked before the upload is read: not found for another
+ * organisation, 409 when the inspection is finished or the line has its fill of photos.
+ */
+export async function photoTarget(actor: Actor, inspectionId: string, itemId: string, dbArg?: Db) {
+  const db = dbArg ?? (await getDb());
+  const item = await itemForActor(actor, inspectionId, itemId, db);
+  if (item.status !== 'open') throw new HttpError(409, 'This inspection is finished; photos can no longer be added.', 'status');
+  const [{ n }] = (await db.select({ n: count() }).from(photos).where(eq(photos.itemId, item.itemId))) as { n: number }[];
+  if (n >= MAX_PHOTOS_PER_ITEM) throw new HttpError(409, `A line takes at most ${MAX_PHOTOS_PER_ITEM} photos; remove one first.`, 'photo');
+  return item;
+}
+
+/**
+ * Stores a photo and its thumbnail for a line of an open inspection. The objects are written
+ * first and the row last, inside one transaction; if anything fails the objects are removed
+ * again, so a refused or failed upload leaves nothing behind.
+ */
+export async function addPhoto(
+  actor: Actor,
+  inspectionId: string,
+  itemId: string,
+  photo: UploadedPhoto,
+  opts: { db?: Db; store?: ObjectStorage } = {},
+) {
+  const db = opts.db ?? (await getDb());
+  const store = opts.store ?? storage();
+  const item = await photoTarget(actor, inspectionId, itemId, db);
+
+  const thumb = await makeThumbnail(photo.bytes);
+  const photoId = crypto.randomUUID();
+  const keys = photoKeys(item.inspectionId, photoId, photo.type);
+  try {
+    return await db.transaction(async (tx) => {
+      await store.put(keys.original, photo.bytes, photo.type);
+      await store.put(keys.thumb, thumb, 'image/jpeg');
+      const [row] = await tx
+        .insert(photos)
+        .values({
+          id: photoId,
+          itemId: item.itemId,
+          orgId: item.orgId,
+          storageKey: keys.original,
+          thumbKey: keys.thumb,
+          contentType: photo.type,
+          bytes: photo.bytes.byteLength,
+          createdBy: actor.id,
+        })
+        .returning();
+      await audit(tx, actor, 'add-photo', 'inspection', item.inspectionId, { photoId, itemId: item.itemId, placeKey: item.placeKey, bytes: photo.bytes.byteLength, type: photo.type }, item.orgId);
+      return {
+        id: row!.id,
+        itemId: row!.itemId,
+        contentType: row!.contentType,
+        bytes: row!.bytes,
+        width: photo.width,
+        height: photo.height,
+        url: `/api/photos/${row!.id}`,
+        thumbUrl: `/api/photos/${row!.id}?thumb=1`,
+        createdAt: row!.createdAt,
+      };
+    });
+  } catch (err) {
+    await Promise.allSettled([store.delete(keys.original), store.delete(keys.thumb)]);
+    throw err;
+  }
+}
+
+/** A photo the actor may see (the inspection's organisation is visible to them), else not found. */
+export async function photoForActor(actor: Actor, photoId: string, db?: Db) {
+  const d = db ?? (await getDb());
+  const [row] = await d
+    .select({
+      id: photos.id,
+      storageKey: photos.storageKey,
+      thumbKey: photos.thumbKey,
+      contentType: photos.contentType,
+      bytes: photos.bytes,
+      inspectionId: inspections.id,
+      status: inspections.status,
+      orgId: inspections.orgId,
+    })
+    .from(photos)
+    .innerJoin(inspectionItems, eq(inspectionItems.id, photos.itemId))
+    .innerJoin(inspections, eq(inspections.id, inspectionItems.inspectionId))
+    .where(and(eq(photos.id, photoId), inArray(inspections.orgId, actor.visibleOrgIds)))
+    .limit(1);
+  if (!row) throw notFound('Photo not found', 'id');
+  return row;
+}
+
+/** The photo (or its thumbnail) as a response streamed from storage. */
+export async function photoResponse(actor: Actor, photoId: string, thumb: boolean): Promise<Response> {
+  const row = await photoForActor(actor, photoId);
+  const key = thumb && row.thumbKey ? row.thumbKey : row.storageKey;
+  const obj = await storage().get(key);
+  if (!obj) throw notFound('The photo file is missing from storage', 'id');
+  const type = thumb && row.thumbKey ? 'image/jpeg' : row.contentType;
+  const headers: Record<string, string> = {
+    'content-type': type,
+    'x-content-type-options': 'nosniff',
+    // Private: only people who may see the inspection get it; ids never change their content.
+    'cache-control': 'private, max-age=86400, immutable',
+    'content-disposition': `inline; filename="photo-${row.id}${thumb ? '-thumb' : ''}.${type === 'image/jpeg' ? 'jpg' : type.split('/')[1]}"`,
+    'content-security-policy': "default-src 'none'; sandbox",
+  };
+  if (obj.size !== null) headers['content-length'] = String(obj.size);
+  return new Response(obj.body, { status: 200, headers });
+}
+
+/** Removes a photo from an open inspection (row first, then the files). */
+export async function deletePhoto(actor: Actor, photoId: string) {
+  const db = await getDb();
+  const row = await photoForActor(actor, photoId, db);
+  if (row.status !== 'open') throw new HttpError(409, 'This inspection is finished; its photos are kept with it.', 'status');
+  await db.transaction(async (tx) => {
+    await tx.delete(photos).where(eq(photos.id, row.id));
+    await audit(tx, actor, 'delete-photo', 'inspection', row.inspectionId, { photoId: row.id }, row.orgId);
+  });
+  const store = storage();
+  await Promise.allSettled([store.delete(row.storageKey), row.thumbKey ? store.delete(row.thumbKey) : Promise.resolve()]);
+  return { deleted: row.id };
+}

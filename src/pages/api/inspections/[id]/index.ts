@@ -1,0 +1,29 @@
+import { z } from 'zod';
+import { parseId, readJson, requireActor, route } from '../../../../lib/server/http';
+import {
+  finishInspection,
+  getInspection,
+  INSPECTION_WRITERS,
+  updateInspection,
+  updateInspectionSchema,
+} from '../../../../lib/server/services/inspections';
+
+export const GET = route(async (ctx) => getInspection(requireActor(ctx), parseId(ctx.params.id)));
+
+/** Records findings, severities, measurements and notes on some lines (and the title). */
+export const PATCH = route(async (ctx) => {
+  const actor = requireActor(ctx, INSPECTION_WRITERS);
+  const id = parseId(ctx.params.id);
+  const input = await readJson(ctx.request, updateInspectionSchema);
+  return updateInspection(actor, id, input);
+});
+
+const actionSchema = z.object({ action: z.literal('finish', { error: 'the only action is "finish"' }) });
+
+/** { "action": "finish" }: closes the inspection; lines marked replace go to a draft parts request. */
+export const POST = route(async (ctx) => {
+  const actor = requireActor(ctx, INSPECTION_WRITERS);
+  const id = parseId(ctx.params.id);
+  await readJson(ctx.request, actionSchema);
+  return finishInspection(actor, id);
+});

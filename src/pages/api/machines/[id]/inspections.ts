@@ -1,0 +1,24 @@
+import { z } from 'zod';
+import { json, parseId, parseParams, readJson, requireActor, route } from '../../../../lib/server/http';
+import { INSPECTION_WRITERS, listInspectionsForMachine, startInspection, startInspectionSchema } from '../../../../lib/server/services/inspections';
+
+const pageQuery = z.object({
+  page: z.coerce.number().int().min(1).max(100_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(100).default(50),
+});
+
+/** The machine's inspection history, newest first. */
+export const GET = route(async (ctx) => {
+  const actor = requireActor(ctx);
+  const id = parseId(ctx.params.id);
+  const q = parseParams(Object.fromEntries(ctx.url.searchParams), pageQuery);
+  return listInspectionsForMachine(actor, id, q.page, q.pageSize);
+});
+
+/** Starts an inspection with a checklist built from what is installed on the machine. */
+export const POST = route(async (ctx) => {
+  const actor = requireActor(ctx, INSPECTION_WRITERS);
+  const id = parseId(ctx.params.id);
+  const input = await readJson(ctx.request, startInspectionSchema);
+  return json(await startInspection(actor, id, input), 201);
+});

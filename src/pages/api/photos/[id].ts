@@ -1,0 +1,16 @@
+import { parseId, requireActor, route } from '../../../lib/server/http';
+import { INSPECTION_WRITERS } from '../../../lib/server/services/inspections';
+import { deletePhoto, photoResponse } from '../../../lib/server/services/photos';
+
+/** The photo itself (`?thumb=1` for the thumbnail), only to those who may see its inspection. */
+export const GET = route(async (ctx) => {
+  const actor = requireActor(ctx);
+  const id = parseId(ctx.params.id);
+  return photoResponse(actor, id, ctx.url.searchParams.get('thumb') === '1');
+});
+
+/** Removes a photo from an open inspection. */
+export const DELETE = route(async (ctx) => {
+  const actor = requireActor(ctx, INSPECTION_WRITERS);
+  return deletePhoto(actor, parseId(ctx.params.id));
+});
