@@ -1,0 +1,58 @@
+/**
+ * Crop-change planner speed: the largest demo family (most places to fill), a full shelf (every
+ * part of the catalog on hand, as many as there are places), every installed crop × every target
+ * crop × both modes. Prints the median and the worst pair's median in ms a plan, against the
+ * budget of 5 ms a plan (docs: quality bars).
+ *
+ *   npx tsx bench/planner.ts
+ */
+import { performance } from 'node:perf_hooks';
+import { cropIds } from '../src/lib/domain/crops';
+import { indexCatalog } from '../src/lib/domain/catalog';
+import { demoCatalog, demoFamilies, starterLayout } from '../src/lib/domain/demo-catalog';
+import { planCropChange, type PlanMode } from '../src/lib/domain/planner';
+import type { CropId, Layout, MachineFamily } from '../src/lib/domain/schemas';
+
+const BUDGET_MS = 5;
+const REPEATS = Number(process.env.BENCH_REPEATS ?? 15);
+
+const places = (f: MachineFamily) =>
+  f.positions.length * 2 + f.rotorBarPlaces.length + f.cageTopSections.reduce((n, s) => n + s.coverPlateSides.length, 0);
+const family = [...demoFamilies].sort((a, b) => places(b) - places(a))[0]!;
+const catalog = indexCatalog(demoCatalog);
+const shelf: Record<string, number> = Object.fromEntries(
+  demoCatalog.filter((p) => p.fitGroup === family.fitGroup).map((p) => [p.partNumber, places(family)]),
+);
+
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)]!;
+};
+
+// Warm up the JIT on a few plans first.
+for (let i = 0; i < 200; i++)
+  planCropChange({ family, catalog, installed: starterLayout(family, cropIds[i % cropIds.length]!, demoCatalog), shelf, crop: 'corn' });
+
+const all: number[] = [];
+let worst = { ms: 0, from: '' as CropId, to: '' as CropId, mode: 'program' as PlanMode };
+for (const from of cropIds) {
+  const installed: Layout = starterLayout(family, from, demoCatalog);
+  for (const to of cropIds)
+    for (const mode of ['program', 'on-hand'] as const) {
+      const times: number[] = [];
+      for (let r = 0; r < REPEATS; r++) {
+        const t0 = performance.now();
+        const plan = planCropChange({ family, catalog, installed, shelf, crop: to, mode });
+        times.push(performance.now() - t0);
+        if (!plan.ok || plan.counts.purchases !== 0) throw new Error(`full shelf should buy nothing (${from} → ${to}, ${mode})`);
+      }
+      const m = median(times);
+      all.push(...times);
+      if (m > worst.ms) worst = { ms: m, from, to, mode };
+    }
+}
+
+console.log(`planner: ${family.name} (${places(family)} places), full shelf, ${cropIds.length}×${cropIds.length} crop pairs × 2 modes, ${REPEATS} runs each`);
+console.log(`  median of all plans : ${median(all).toFixed(3)} ms a plan`);
+console.log(`  worst pair (median) : ${worst.ms.toFixed(3)} ms a plan (${worst.from} → ${worst.to}, ${worst.mode})`);
+console.log(`  budget              : ${BUDGET_MS} ms a plan — ${worst.ms <= BUDGET_MS ? 'within budget' : 'OVER BUDGET'}`);

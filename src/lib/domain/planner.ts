@@ -1,0 +1,353 @@
+/**
+ * The crop-change planner: from what is bolted in the machine now, the spares on the shelf and
+ * a target crop, the layout for that crop with the fewest purchases first and the fewest parts
+ * handled second — solved exactly (an assignment problem per kind of part, see planner/solve.ts)
+ * — with every choice explained and the work listed in the order it is done, safety first.
+ *
+ * Pure: the same call runs on the server, in a browser island and in tests.
+ */
+import { z } from 'zod';
+import { asCatalogIndex, type CatalogIndex } from './catalog';
+import { cropPrograms, type CropProgram } from './crops';
+import { starterLayout } from './demo-catalog';
+import { placeKey } from './places';
+import { checkLayout } from './rules';
+import type { CatalogPart, CropId, DrumId, Finding, Layout, MachineFamily, VaneControl } from './schemas';
+import { bomLine, fingerprint, type BomLine } from './planner/bom';
+import { WORK_CAUTIONS } from './planner/cautions';
+import { groupOf, solveGroup, type SlotOutcome, type SlotSource, type Unit } from './planner/solve';
+import { placeOrder, workSteps, type PlanStep, type Removal } from './planner/steps';
+import { buildTargets, elementFits, elementTrouble, type PlanMode, type SlotGroup, type SlotPlace, type Targets } from './planner/targets';
+import { capitalise, elementWord, partWords, placeWords } from './planner/words';
+
+export { WORK_CAUTIONS, ONE_PERSON_LIFT_KG } from './planner/cautions';
+export { billOfMaterials, bomLine, bomTotal, handOf, partCounts, fingerprint, type Bom, type BomLine } from './planner/bom';
+export { solveAssignment } from './planner/assignment';
+export type { PlanStep, StepKind } from './planner/steps';
+export type { PlanMode, SlotPlace } from './planner/targets';
+
+export const planModeSchema = z.enum(['program', 'on-hand']);
+
+export interface PlanInput {
+  family: MachineFamily;
+  catalog: readonly CatalogPart[] | CatalogIndex;
+  /** What is bolted in the machine now; null when nothing is recorded (an empty cage). */
+  installed: Layout | null;
+  /** Spares on the shelf: part number → quantity. */
+  shelf: Readonly<Record<string, number>>;
+  crop: CropId;
+  mode?: PlanMode;
+  /** The machine's drum and vane control (default: as installed, else the family's first). */
+  drum?: DrumId;
+  vaneControl?: VaneControl;
+}
+
+export interface PlanChoice {
+  place: SlotPlace;
+  key: string;
+  /** Part number at this place now (null: empty). */
+  before: string | null;
+  /** Part number in the proposal (null: left empty). */
+  after: string | null;
+  source: SlotSource;
+  /** Where a moved part comes from. */
+  from: SlotPlace | null;
+  /** 0: the crop program's own choice; higher: a further departure from it. */
+  rank: number;
+  why: string;
+}
+
+export interface PlanRemoval {
+  place: SlotPlace;
+  key: string;
+  partNumber: string;
+  why: string;
+}
+
+export interface PlanPurchase extends BomLine {
+  places: SlotPlace[];
+}
+
+export interface SettingChange {
+  field: 'vaneSetting' | 'rotorRpm' | 'clearanceMm' | 'drum' | 'vaneControl';
+  before: string | number | null;
+  after: string | number;
+  text: string;
+}
+
+export interface PlanCounts {
+  /** Parts bought. */
+  purchases: number;
+  /** Parts handled: taken off, moved, or fitted from the shelf or new. */
+  moves: number;
+  kept: number;
+  moved: number;
+  removed: number;
+  fromShelf: number;
+  purchaseCents: number;
+}
+
+export interface PlanOk {
+  ok: true;
+  crop: CropId;
+  mode: PlanMode;
+  layout: Layout;
+  choices: PlanChoice[];
+  removals: PlanRemoval[];
+  purchases: PlanPurchase[];
+  /** Safety cautions: shown at the head of the steps. */
+  cautions: readonly string[];
+  steps: PlanStep[];
+  settings: SettingChange[];
+  counts: PlanCounts;
+  /** checkLayout of the proposal: never 'blocks-fit'. */
+  findings: Finding[];
+  notes: string[];
+  /** Changes whenever the proposal would change (installed parts, shelf, catalog, crop). */
+  fingerprint: string;
+}
+
+export interface PlanImpossible {
+  ok: false;
+  crop: CropId;
+  mode: PlanMode;
+  reasons: { place: SlotPlace | null; message: string }[];
+  cautions: readonly string[];
+}
+
+export type Plan = PlanOk | PlanImpossible;
+
+const GROUPS: readonly SlotGroup[] = ['element', 'cover', 'bar'];
+
+function installedUnits(installed: Layout | null, catalog: CatalogIndex): { units: Unit[]; unknown: Removal[] } {
+  const units: Unit[] = [];
+  const unknown: Removal[] = [];
+  if (!installed) return { units, unknown };
+  const add = (partNumber: string, at: SlotPlace) => {
+    const part = catalog.byPartNumber.get(partNumber);
+    const unit = { source: 'installed' as const, partNumber, part: part!, at, atKey: placeKey(at) };
+    if (part) units.push(unit);
+    else unknown.push({ unit, why: 'the catalog does not know this part number, so it cannot stay on' });
+  };
+  for (const e of installed.elements) add(e.partNumber, { kind: 'element', position: e.position, side: e.side });
+  for (const c of installed.coverPlates) add(c.partNumber, { kind: 'cover', section: c.section, side: c.side });
+  for (const b of installed.rotorBars) add(b.partNumber, { kind: 'bar', row: b.row, position: b.position });
+  return { units, unknown };
+}
+
+/** Why a part now on the machine comes off in the proposal. */
+function removalWhy(unit: Unit, family: MachineFamily, crop: CropProgram, targets: Targets, finalAt: Map<string, CatalogPart | null>): string {
+  const { part, at, atKey } = unit;
+  const cropWord = crop.name.toLowerCase();
+  if (part.fitGroup !== family.fitGroup) return `it belongs to another machine family (fit group "${part.fitGroup}")`;
+  const off = targets.offReasons.get(atKey!);
+  if (off && part.kind === 'cover-plate') return off;
+  if (part.kind === 'rotor-bar') {
+    if (part.barKind === 'straight' && crop.rotorBars.straight === 'not-needed') return `straight bars are not needed in ${cropWord} and cost power`;
+    if (part.barKind === 'straight') return 'a straight bar bolts only across two rasp bars in line';
+    if (part.barKind === 'discharge' && crop.rotorBars.discharge === 'not-needed') return `discharge bars are for stringy crops; ${cropWord} does not rope`;
+  }
+  if (part.kind === 'element' && at?.kind === 'element') {
+    const zone = family.positions.find((p) => p.index === at.position)?.zone;
+    if (!zone) return `the ${family.name} has no position ${at.position}`;
+    if (!elementFits(family, part, zone, at.side))
+      return part.hand !== at.side ? `a ${part.hand}-hand element never fits the ${at.side} half` : `it does not belong in the ${zone} zone`;
+    const trouble = elementTrouble(part, zone, crop);
+    if (trouble) return trouble;
+  }
+  const there = finalAt.get(atKey!);
+  if (there) return `the ${cropWord} plan puts the ${partWords(there)} here instead`;
+  return `no place in the ${cropWord} plan needs it`;
+}
+
+function explain(o: SlotOutcome, cropWord: string): string {
+  const c = o.candidate;
+  switch (o.source) {
+    case 'kept':
+      return `Keep the ${partWords(c!.part)} already here: ${c!.why}.`;
+    case 'moved':
+      return `Move the ${partWords(c!.part)} here from ${placeWords(o.unit!.at!)}: ${c!.why}; it is already on the machine, so nothing is bought.`;
+    case 'shelf':
+      return `Fit ${c!.part.partNumber} from the shelf: ${c!.why}.`;
+    case 'buy':
+      return `Buy ${c!.part.partNumber}: ${c!.why}; none is on the machine or on the shelf to spare.`;
+    case 'empty':
+      return `Leave empty: ${o.slot.empty?.why ?? `nothing is needed here in ${cropWord}`}.`;
+  }
+}
+
+function settingChanges(installed: Layout | null, layout: Layout): SettingChange[] {
+  const out: SettingChange[] = [];
+  const words = {
+    drum: (v: unknown) => `${v} drum`,
+    vaneControl: (v: unknown) => `${v} vanes`,
+    vaneSetting: (v: unknown) => `vanes to ${String(v).replace('-', ' ')}`,
+    rotorRpm: (v: unknown) => `rotor speed to ${v} rpm`,
+    clearanceMm: (v: unknown) => `concave clearance to ${v} mm`,
+  } as const;
+  for (const field of ['drum', 'vaneControl', 'vaneSetting', 'rotorRpm', 'clearanceMm'] as const) {
+    const before = installed ? installed[field] : null;
+    const after = layout[field];
+    if (before === after) continue;
+    const now = before === null ? '' : ` (now ${field === 'rotorRpm' ? `${before} rpm` : field === 'clearanceMm' ? `${before} mm` : String(before).replace('-', ' ')})`;
+    const text =
+      field === 'drum' || field === 'vaneControl'
+        ? `Record the machine's ${words[field](after)}${now}.`
+        : `Set the ${words[field](after)}${now}.`;
+    out.push({ field, before, after, text });
+  }
+  return out;
+}
+
+export function planCropChange(input: PlanInput): Plan {
+  const { family, installed, crop: cropId } = input;
+  const mode: PlanMode = input.mode ?? 'program';
+  const catalog = asCatalogIndex(input.catalog);
+  const crop = cropPrograms[cropId];
+  const cropWord = crop.name.toLowerCase();
+  const wantedDrum = input.drum ?? installed?.drum;
+  const drum = wantedDrum && family.drumOptions.some((d) => d.id === wantedDrum) ? wantedDrum : undefined;
+  const wantedVanes = input.vaneControl ?? installed?.vaneControl;
+  const vaneControl = wantedVanes && family.vaneControls.includes(wantedVanes) ? wantedVanes : family.vaneControls[0]!;
+
+  const targets = buildTargets(family, catalog, crop, mode, vaneControl);
+  if (targets.impossible.length) {
+    return { ok: false, crop: cropId, mode, reasons: targets.impossible, cautions: WORK_CAUTIONS };
+  }
+
+  const shelf = new Map<string, number>();
+  for (const [pn, q] of Object.entries(input.shelf)) if (Number.isFinite(q) && q >= 1) shelf.set(pn, Math.floor(q));
+  const { units, unknown } = installedUnits(installed, catalog);
+
+  const outcomes: SlotOutcome[] = [];
+  const removedUnits: Unit[] = [];
+  for (const group of GROUPS) {
+    const slots = targets.slots.filter((s) => s.place.kind === group);
+    const mine = units.filter((u) => groupOf(u.part) === group);
+    const r = solveGroup(slots, mine, shelf, catalog);
+    outcomes.push(...r.outcomes);
+    removedUnits.push(...r.removed);
+  }
+
+  const finalAt = new Map<string, CatalogPart | null>(outcomes.map((o) => [o.slot.key, o.candidate?.part ?? null]));
+  const removals: Removal[] = [
+    ...unknown,
+    ...removedUnits.map((unit) => ({ unit, why: removalWhy(unit, family, crop, targets, finalAt) })),
+  ];
+
+  // The proposal: settings from the crop program on this machine, parts from the assignment.
+  const settings = starterLayout(family, cropId, catalog.parts, { drum, vaneControl });
+  const layout: Layout = {
+    ...settings,
+    elements: [],
+    coverPlates: [],
+    rotorBars: [],
+  };
+  for (const o of outcomes) {
+    const pn = o.candidate?.part.partNumber;
+    if (!pn) continue;
+    const p = o.slot.place;
+    if (p.kind === 'element') layout.elements.push({ position: p.position, side: p.side, partNumber: pn });
+    else if (p.kind === 'cover') layout.coverPlates.push({ section: p.section, side: p.side, partNumber: pn });
+    else layout.rotorBars.push({ row: p.row, position: p.position, partNumber: pn });
+  }
+  // The starter layout's order: along the rotor, left before right.
+  layout.elements.sort((a, b) => a.position - b.position || (a.side === 'left' ? 0 : 1) - (b.side === 'left' ? 0 : 1));
+  layout.coverPlates.sort((a, b) => a.section - b.section || (a.side === 'left' ? 0 : 1) - (b.side === 'left' ? 0 : 1));
+
+  const beforeAt = new Map(units.map((u) => [u.atKey!, u.partNumber] as const));
+  for (const r of unknown) beforeAt.set(r.unit.atKey!, r.unit.partNumber);
+  const choices: PlanChoice[] = outcomes
+    .map((o) => ({
+      place: o.slot.place,
+      key: o.slot.key,
+      before: beforeAt.get(o.slot.key) ?? null,
+      after: o.candidate?.part.partNumber ?? null,
+      source: o.source,
+      from: o.source === 'moved' ? o.unit!.at : null,
+      rank: o.candidate ? o.candidate.rank : (o.slot.empty?.rank ?? 0),
+      why: explain(o, cropWord),
+    }))
+    .sort((a, b) => placeOrder(a.place) - placeOrder(b.place));
+
+  const purchaseMap = new Map<string, PlanPurchase>();
+  for (const o of outcomes) {
+    if (o.source !== 'buy') continue;
+    const part = o.candidate!.part;
+    const line = purchaseMap.get(part.partNumber) ?? { ...bomLine(part, 0), places: [] };
+    line.quantity += 1;
+    line.lineTotalCents = line.quantity * line.unitPriceCents;
+    line.places.push(o.slot.place);
+    purchaseMap.set(part.partNumber, line);
+  }
+  const order = new Map(catalog.parts.map((p, i) => [p.partNumber, i] as const));
+  const purchases = [...purchaseMap.values()].sort((a, b) => (order.get(a.partNumber) ?? 0) - (order.get(b.partNumber) ?? 0));
+
+  const count = (s: SlotSource) => outcomes.filter((o) => o.source === s).length;
+  const counts: PlanCounts = {
+    purchases: count('buy'),
+    kept: count('kept'),
+    moved: count('moved'),
+    fromShelf: count('shelf'),
+    removed: removals.length,
+    moves: removals.length + count('moved') + count('shelf') + count('buy'),
+    purchaseCents: purchases.reduce((s, p) => s + p.lineTotalCents, 0),
+  };
+
+  const findings = checkLayout(family, catalog, layout);
+  const blocking = findings.filter((f) => f.severity === 'blocks-fit');
+  if (blocking.length) {
+    // The targets only offer parts that fit, so this means a family the planner does not yet
+    // understand; never hand out a plan that will not bolt on.
+    return {
+      ok: false,
+      crop: cropId,
+      mode,
+      cautions: WORK_CAUTIONS,
+      reasons: blocking.map((f) => ({ place: (f.places.find((p) => p.kind !== 'setting') as SlotPlace | undefined) ?? null, message: `${f.title}: ${f.explanation}` })),
+    };
+  }
+
+  const notes = [...targets.notes];
+  const departures = choices.filter((c) => c.rank > 0 && c.after);
+  if (departures.length)
+    notes.push(
+      `${departures.length} place${departures.length === 1 ? '' : 's'} hold${departures.length === 1 ? 's' : ''} a part other than the ${cropWord} program's own choice; see the reasons beside ${departures.length === 1 ? 'it' : 'them'}.`,
+    );
+  if (!installed) notes.push('Nothing is recorded as installed in this machine, so every part is fitted from the shelf or bought.');
+
+  const removalList: PlanRemoval[] = removals
+    .map((r) => ({ place: r.unit.at!, key: r.unit.atKey!, partNumber: r.unit.partNumber, why: capitalise(r.why) + '.' }))
+    .sort((a, b) => placeOrder(a.place) - placeOrder(b.place));
+
+  return {
+    ok: true,
+    crop: cropId,
+    mode,
+    layout,
+    choices,
+    removals: removalList,
+    purchases,
+    cautions: WORK_CAUTIONS,
+    steps: workSteps(outcomes, removals),
+    settings: settingChanges(installed, layout),
+    counts,
+    findings,
+    notes,
+    fingerprint: fingerprint(JSON.stringify([layout, purchases.map((p) => [p.partNumber, p.quantity]), mode])),
+  };
+}
+
+/** Words for the plan's headline: "2 parts to buy, 8 to handle". */
+export function planSummaryWords(plan: PlanOk): string {
+  const { purchases, moves } = plan.counts;
+  const buy = purchases === 0 ? 'nothing to buy' : `${purchases} part${purchases === 1 ? '' : 's'} to buy`;
+  const handle = moves === 0 ? 'nothing to change' : `${moves} part${moves === 1 ? '' : 's'} to take off, move or fit`;
+  return `${capitalise(buy)}, ${handle}.`;
+}
+
+/** The element type the crop program wants in a zone, in words ("round-bar"). */
+export function programElementWords(cropId: CropId): { threshing: string; separating: string } {
+  const c = cropPrograms[cropId];
+  return { threshing: elementWord(c.suggested.threshing), separating: elementWord(c.suggested.separating) };
+}
