@@ -20,6 +20,9 @@ describe('backup and restore', () => {
 
       // A signed-in non-admin may not take a backup; the script (local token) may.
       expect((await c.post('/api/admin/backup')).status).toBe(403);
+      const admin = new Client(server.baseUrl);
+      await admin.signIn(DEMO.admin);
+      const counts = (await admin.get('/api/admin/stats')).body.counts as Record<string, number>;
       const env = { ...process.env, CAGEWRIGHT_DATA_DIR: dataDir };
       const backup = spawnSync(process.execPath, ['scripts/backup.mjs', '--out', file], { env, encoding: 'utf8' });
       expect(backup.status, backup.stderr).toBe(0);
@@ -28,8 +31,13 @@ describe('backup and restore', () => {
 
       const restore = spawnSync(process.execPath, ['scripts/restore.mjs', file, '--data-dir', restored], { encoding: 'utf8' });
       expect(restore.status, restore.stderr).toBe(0);
-      expect(restore.stdout).toMatch(/users\s+5/);
-      expect(restore.stdout).toMatch(/machines\s+3/);
+      const restoredCounts = Object.fromEntries(
+        [...restore.stdout.matchAll(/^(\w+)\s+(\d+)$/gm)].map((m) => [m[1], Number(m[2])]),
+      );
+      expect(restoredCounts.users).toBe(counts.users);
+      expect(restoredCounts.machines).toBe(counts.machines);
+      expect(restoredCounts.layout_versions).toBe(counts.layoutVersions);
+      expect(restoredCounts.audit_log).toBe(counts.auditLog);
 
       const again = await startServer({ dataDir: restored });
       const d = new Client(again.baseUrl);

@@ -83,7 +83,10 @@ export function store(): Promise<Store> {
     const opening = openStore().then(async (s) => {
       if (process.env.CAGEWRIGHT_SEED !== 'off') {
         const [{ n }] = (await s.db.execute(sql`select count(*)::int as n from organisations`)).rows as { n: number }[];
-        if (n === 0) await seedDemo(s.db);
+        if (n === 0) {
+          await seedDemo(s.db);
+          if (process.env.CAGEWRIGHT_TEST_FIXTURES === '1') await (await import('./test-fixtures')).seedTestFixtures(s.db);
+        }
       }
       return s;
     });

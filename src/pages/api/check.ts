@@ -1,9 +1,9 @@
 import { z } from 'zod';
-import { layoutSchema } from '../../lib/domain/schemas';
 import { readJson, requireActor, route } from '../../lib/server/http';
 import { checkStateless } from '../../lib/server/services/check';
 
-const checkRequestSchema = z.object({ layout: layoutSchema });
+// The layout itself is checked by the domain's input checker, which names every bad field.
+const checkRequestSchema = z.object({ layout: z.unknown().refine((v) => v !== undefined, 'required field is missing') });
 
 /** Stateless: the findings and computed settings for a layout; nothing is written. */
 export const POST = route(async (ctx) => {

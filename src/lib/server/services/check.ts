@@ -1,30 +1,27 @@
-import { checkLayout } from '../../domain/rules';
-import { computeSettings } from '../../domain/compute';
-import type { CatalogPart, Layout } from '../../domain/schemas';
+import { eq } from 'drizzle-orm';
+import { checkLayoutInput } from '../../domain/check-input';
+import { catalogParts, families } from '../../../db/schema';
+import { getDb } from '../db';
 import { HttpError } from '../http';
-import { catalogForFamily, familyById } from './machines';
 
 /**
- * Checks a layout against its family and the catalog without storing anything. A part number
- * the catalog does not know, or an unknown family, is bad input (400) rather than a finding,
- * because the caller can fix the request.
+ * Checks a layout against its family and the whole catalog without storing anything. Schema
+ * errors, an unknown family or an unknown part number are bad input (400 naming the field), so
+ * the caller can fix the request; everything else comes back as findings.
  */
-export async function checkStateless(layout: Layout) {
-  const family = await familyById(layout.familyId);
-  if (!family) throw new HttpError(400, `layout.familyId: no machine family "${layout.familyId}"`, 'layout.familyId');
-  const catalog: CatalogPart[] = await catalogForFamily(family.id);
-  const known = new Set(catalog.map((p) => p.partNumber));
-  const lists = [
-    ['elements', layout.elements],
-    ['coverPlates', layout.coverPlates],
-    ['rotorBars', layout.rotorBars],
-  ] as const;
-  for (const [name, items] of lists) {
-    items.forEach((item, i) => {
-      if (!known.has(item.partNumber)) {
-        throw new HttpError(400, `layout.${name}.${i}.partNumber: ${item.partNumber} is not a part of this family's catalog`, `layout.${name}.${i}.partNumber`);
-      }
+export async function checkStateless(input: unknown) {
+  const db = await getDb();
+  const [familyRows, partRows] = await Promise.all([
+    db.select({ spec: families.spec }).from(families),
+    db.select({ spec: catalogParts.spec }).from(catalogParts).where(eq(catalogParts.active, true)),
+  ]);
+  const result = checkLayoutInput(input, familyRows.map((r) => r.spec), partRows.map((r) => r.spec));
+  if (!result.ok) {
+    const [first] = result.problems;
+    const field = `layout.${first!.path}`;
+    throw new HttpError(400, `${field}: ${first!.message}`, field, {
+      issues: result.problems.map((p) => ({ field: `layout.${p.path}`, message: p.message })),
     });
   }
-  return { findings: checkLayout(family, catalog, layout), settings: computeSettings(family, catalog, layout) };
+  return { findings: result.findings, settings: result.settings };
 }
