@@ -1,0 +1,70 @@
+#!/usr/bin/env node
+// Scale: a store of 2,000 machines and 100,000 layout versions, then p95 of the list endpoints
+// (paginated) under load. The bulk rows are written straight into the store while no server
+// runs (one owner at a time), with set-based SQL.
+import { mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { PGlite } from '@electric-sql/pglite';
+import { cannon, signIn, startServer, summary } from './lib.mjs';
+
+const MACHINES = Number(process.env.BENCH_MACHINES ?? 2000);
+const VERSIONS_PER_LAYOUT = Math.round(Number(process.env.BENCH_VERSIONS ?? 100000) / MACHINES);
+const duration = Number(process.env.BENCH_SECONDS ?? 10);
+const report = (figure, value, budget, ok, unit = '') =>
+  console.log(JSON.stringify({ bench: 'scale', figure, value, unit, budget, ok }));
+
+const dir = mkdtempSync(join(tmpdir(), 'cagewright-bench-scale-'));
+try {
+  let s = await startServer({ dataDir: dir });
+  await s.stop();
+
+  const t0 = performance.now();
+  const db = await PGlite.create({ dataDir: dir });
+  await db.exec(`
+    insert into machines (org_id, family_id, drum, vane_control, serial, nickname)
+    select case when g % 2 = 0 then (select id from organisations where name = 'Larkspur Farms')
+                else (select id from organisations where name = 'Haldane Brothers') end,
+           (select family_id from machines order by created_at limit 1), 'full', 'fixed', 'SC-' || g, 'Scale ' || g
+    from generate_series(1, ${MACHINES - 3}) g;
+    insert into layouts (machine_id, org_id, name, current_version)
+    select id, org_id, 'scale plan', ${VERSIONS_PER_LAYOUT} from machines where serial like 'SC-%';
+    insert into layout_versions (layout_id, version, body, note)
+    select l.id, v.v, (select body from layout_versions order by created_at limit 1), 'bulk ' || v.v
+    from layouts l cross join generate_series(1, ${VERSIONS_PER_LAYOUT}) v(v) where l.name = 'scale plan';
+    analyze;
+  `);
+  const counts = await db.query(`select (select count(*)::int from machines) m, (select count(*)::int from layout_versions) v`);
+  await db.query('CHECKPOINT');
+  await db.close();
+  const { m, v } = counts.rows[0];
+  report('store: machines / layout versions', `${m} / ${v}`, '2,000 / 100,000', m >= 2000 && v >= 100000);
+  report('bulk load time', Math.round(performance.now() - t0), '(reference)', true, 'ms');
+
+  s = await startServer({ dataDir: dir });
+  const cookie = await signIn(s.base, 'tomas@kestrel.example');
+  const headers = { cookie };
+  const page = await (await fetch(`${s.base}/api/machines?page=10&pageSize=50`, { headers })).json();
+  const items = page.items ?? page.machines ?? [];
+  const machineId = items[0]?.id;
+  const layouts = machineId ? await (await fetch(`${s.base}/api/machines/${machineId}/layouts`, { headers })).json() : null;
+  const layoutId = layouts?.layouts?.[0]?.id;
+
+  const endpoints = [
+    ['GET /api/machines?page=20&pageSize=50', `/api/machines?page=20&pageSize=50`],
+    ['GET /api/machines?q=Scale 19&sort=nickname', `/api/machines?q=${encodeURIComponent('Scale 19')}&sort=nickname`],
+    ['GET /api/machines/:id/layouts', machineId && `/api/machines/${machineId}/layouts`],
+    ['GET /api/layouts/:id/versions', layoutId && `/api/layouts/${layoutId}/versions`],
+  ];
+  for (const [name, path] of endpoints) {
+    if (!path) {
+      report(`${name} p95`, 'not measured', '≤ 50 ms', false);
+      continue;
+    }
+    const r = summary(await cannon({ url: s.base + path, headers, connections: 10, duration }));
+    report(`${name} p95`, r.p95, '≤ 50 ms', r.p95 <= 50 && r.errors === 0, 'ms');
+  }
+  await s.stop();
+} finally {
+  rmSync(dir, { recursive: true, force: true });
+}
