@@ -82,3 +82,16 @@ export function EndView({ family, cx, cy, r, clearanceMm, diameterMm, units }: P
     </g>
   );
 }
+
+/** The end view on its own (beside the clearance setting, or on a page without the full drawing). */
+export function CageEndView({ family, clearanceMm, drum, units, className }: { family: MachineFamily; clearanceMm: number; drum: string; units: UnitSystem; className?: string }) {
+  const r = 88;
+  const d = family.drumOptions.find((o) => o.id === drum) ?? family.drumOptions[0]!;
+  const w = 2 * r + 170;
+  const h = 2 * r + 110;
+  return (
+    <svg viewBox={`0 0 ${w} ${h}`} width="100%" className={className} role="img" aria-label={`End view from the front: rotor ⌀ ${formatLength(mm(d.diameterMm), units)}, clearance ${formatLength(mm(clearanceMm), units)}`} fontFamily='"Source Sans 3", system-ui, sans-serif' style={{ display: 'block', height: 'auto' }}>
+      <EndView family={family} cx={w / 2} cy={r + 44} r={r} clearanceMm={clearanceMm} diameterMm={d.diameterMm} units={units} />
+    </svg>
+  );
+}

@@ -44,7 +44,8 @@ export interface GeometryOptions {
 export function diagramGeometry(family: MachineFamily, opts: GeometryOptions = {}): DiagramGeometry {
   const compact = !!opts.compact;
   const labelW = compact ? 76 : 116;
-  const colW = compact ? 118 : 150;
+  // Six-position cages get narrower columns so the drawing keeps a readable scale.
+  const colW = compact ? 118 : family.positions.length > 4 ? 136 : 150;
   const n = family.positions.length;
   const gap = 6;
   let y = 0;

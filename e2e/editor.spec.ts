@@ -1,0 +1,261 @@
+import { test, expect, type Page, type Locator } from '@playwright/test';
+import { shot, signIn, type DEMO } from './helpers';
+
+/**
+ * The cage editor: placing parts with the mouse and with the keyboard only, the live region and
+ * the findings following every change, undo, the hand finding pinned to its place, saving, and
+ * a stale save meeting the conflict dialog.
+ */
+
+interface Opened {
+  machineId: string;
+  layoutId: string;
+}
+
+/** Finds a machine's first layout through the API and opens it in the editor. */
+async function openEditor(page: Page, who: keyof typeof DEMO, nickname: string): Promise<Opened> {
+  await signIn(page, who);
+  const list = await page.request.get(`/api/machines?q=${encodeURIComponent(nickname)}`);
+  expect(list.status()).toBe(200);
+  const machine = ((await list.json()).items as { id: string; nickname: string }[]).find((m) => m.nickname === nickname);
+  expect(machine, `machine ${nickname}`).toBeTruthy();
+  const layouts = await page.request.get(`/api/machines/${machine!.id}/layouts`);
+  expect(layouts.status()).toBe(200);
+  const layoutId = ((await layouts.json()).layouts as { id: string }[])[0]!.id;
+  await page.goto(`/machines/${machine!.id}/layouts/${layoutId}`);
+  await expect(page.getByTestId('cage-editor')).toBeVisible();
+  // Hydrated: the island's buttons work only after React has attached.
+  await expect(page.locator('astro-island[ssr]')).toHaveCount(0);
+  return { machineId: machine!.id, layoutId };
+}
+
+const slot = (page: Page, key: string): Locator => page.getByTestId('diagram-pane').locator(`[data-place="${key}"]`);
+const announcer = (page: Page) => page.getByTestId('editor-announcer');
+const findingCount = async (page: Page) => Number((await page.getByRole('heading', { name: /^Findings/ }).innerText()).match(/\((\d+)\)/)![1]);
+
+/** Drags with real mouse moves in small steps (the pointer sensor needs to see movement). */
+async function mouseDrag(page: Page, from: Locator, to: Locator) {
+  const a = (await from.boundingBox())!;
+  const b = (await to.boundingBox())!;
+  await page.mouse.move(a.x + a.width / 2, a.y + a.height / 2);
+  await page.mouse.down();
+  await page.mouse.move(a.x + a.width / 2 + 12, a.y + a.height / 2 + 4, { steps: 4 });
+  await page.mouse.move(b.x + b.width / 2, b.y + b.height / 2, { steps: 12 });
+  await page.mouse.move(b.x + b.width / 2 + 2, b.y + b.height / 2 + 2, { steps: 2 });
+  await page.mouse.up();
+}
+
+test.describe('cage editor', () => {
+  test('desktop: the editor shows the layout, its findings and settings', async ({ page }) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await openEditor(page, 'operator', 'North Quarter');
+    await expect(page.getByRole('heading', { level: 1 })).toContainText('wheat setup');
+    // Every half-position of the four-position cage is drawn, with its hand in its name.
+    for (const p of [1, 2, 3, 4])
+      for (const side of ['left', 'right']) await expect(slot(page, `element:${p}:${side}`)).toHaveAttribute('aria-label', new RegExp(`^${side[0]!.toUpperCase()}${side.slice(1)}, position ${p}: `));
+    await expect(slot(page, 'element:1:left')).toHaveAttribute('aria-label', /fine-wire element, left hand/);
+    await expect(page.getByTestId('tip-speed')).toContainText('m/s');
+    await shot(page, 'editor-desktop', false);
+    await shot(page, 'editor-desktop-full');
+  });
+
+  test('tablet: the drawing comes first, palette and settings below', async ({ page }) => {
+    await page.setViewportSize({ width: 820, height: 1180 });
+    await openEditor(page, 'operator', 'North Quarter');
+    const diagram = (await page.getByTestId('diagram-pane').boundingBox())!;
+    const palette = (await page.getByTestId('palette').boundingBox())!;
+    expect(diagram.y).toBeLessThan(palette.y);
+    expect(diagram.width).toBeGreaterThan(700);
+    await shot(page, 'editor-tablet', false);
+    await shot(page, 'editor-tablet-full');
+  });
+
+  test('mouse: drag a part from the palette onto a half-position; findings follow; undo restores', async ({ page }) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await openEditor(page, 'operator', 'North Quarter');
+    const before = await findingCount(page);
+    const target = slot(page, 'element:3:right');
+    await expect(target).toHaveAttribute('aria-label', /wide-wire element, right hand/);
+
+    await page.getByLabel('Type').selectOption('perforated');
+    await page.getByLabel('Hand').selectOption('right');
+    const item = page.getByTestId('palette').locator('[data-part="CW-PF-R-04"]');
+    await mouseDrag(page, item, target);
+
+    await expect(target).toHaveAttribute('aria-label', /perforated element, right hand, CW-PF-R-04/);
+    await expect(announcer(page)).toContainText('Placed perforated element, right, position 3');
+    // Perforated plate in wheat: kernels do not pass its holes (a crop finding on that place).
+    await expect(target).toHaveAttribute('aria-label', /Hurts the crop: /);
+    expect(await findingCount(page)).toBeGreaterThan(before);
+    await expect(page.getByTestId('save-status')).toContainText('Unsaved changes');
+
+    await page.getByRole('button', { name: 'Undo' }).click();
+    await expect(target).toHaveAttribute('aria-label', /wide-wire element, right hand/);
+    await expect(announcer(page)).toContainText('Undone');
+    expect(await findingCount(page)).toBe(before);
+    await expect(page.getByTestId('save-status')).not.toContainText('Unsaved');
+
+    await page.keyboard.press('Control+Shift+Z');
+    await expect(target).toHaveAttribute('aria-label', /CW-PF-R-04/);
+  });
+
+  test('keyboard only: Space, arrows, Space places a left-hand element on a right half and the hand finding shows there', async ({ page }) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await openEditor(page, 'operator', 'North Quarter');
+    await page.getByLabel('Search').fill('CW-WW-L-04');
+    const item = page.getByTestId('palette').locator('[data-part="CW-WW-L-04"]');
+    await expect(item).toHaveCount(1);
+    await item.focus();
+    await page.keyboard.press('Space');
+    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Picked up wide-wire element, left hand');
+    // Right: the first element slot (left, position 1), then along the rotor to position 3;
+    // Down: the right half under it.
+    await page.keyboard.press('ArrowRight');
+    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over left, position 1');
+    await page.keyboard.press('ArrowRight');
+    await page.keyboard.press('ArrowRight');
+    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over left, position 3');
+    await page.keyboard.press('ArrowDown');
+    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over right, position 3');
+    await page.keyboard.press('Space');
+
+    const target = slot(page, 'element:3:right');
+    await expect(announcer(page)).toContainText('Placed wide-wire element, right, position 3');
+    await expect(announcer(page)).toContainText('Blocks fit: Left-hand element in the right half');
+    await expect(target).toHaveAttribute('aria-label', /Blocks fit: Left-hand element in the right half/);
+    const finding = page.getByTestId('findings').locator('[data-code="FIT_HAND_MISMATCH"]');
+    await expect(finding).toContainText('right, position 3');
+
+    // Choosing the finding puts focus on its place in the drawing.
+    await finding.click();
+    await expect(target).toBeFocused();
+    await expect(finding).toContainText('Use the right-hand version');
+    await shot(page, 'editor-hand-finding', false);
+
+    // Keyboard only from the drawing: Delete takes it off, Ctrl+Z puts it back.
+    await page.keyboard.press('Delete');
+    await expect(announcer(page)).toContainText('Removed wide-wire element from right, position 3');
+    await expect(target).toHaveAttribute('aria-label', /: empty/);
+    await page.keyboard.press('Control+z');
+    await expect(target).toHaveAttribute('aria-label', /Blocks fit: Left-hand element/);
+  });
+
+  test('keyboard: move a placed part along the drawing swaps it with its neighbour', async ({ page }) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await openEditor(page, 'operator', 'North Quarter');
+    const from = slot(page, 'element:2:left');
+    const to = slot(page, 'element:3:left');
+    await from.focus();
+    await page.keyboard.press('Space');
+    await page.keyboard.press('ArrowRight');
+    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over left, position 3, holding a wide-wire element');
+    await page.keyboard.press('Space');
+    await expect(announcer(page)).toContainText('Swapped: fine-wire element now at left, position 3, wide-wire element now at left, position 2');
+    await expect(to).toHaveAttribute('aria-label', /fine-wire element/);
+    await expect(from).toHaveAttribute('aria-label', /wide-wire element/);
+  });
+
+  test('settings: rotor speed updates tip speed and findings; units switch to inches and is kept', async ({ page }) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await openEditor(page, 'operator', 'North Quarter');
+    const rpm = page.getByLabel('Rotor speed');
+    const tip = await page.getByTestId('tip-speed').innerText();
+    await rpm.fill('400');
+    await rpm.press('Enter');
+    await expect(page.getByTestId('tip-speed')).not.toHaveText(tip);
+    await expect(page.getByTestId('findings').locator('[data-code="CROP_RPM_OUTSIDE_WINDOW"]')).toBeVisible();
+    await expect(page.getByText('Below the window')).toBeVisible();
+
+    await page.getByText('in', { exact: true }).click();
+    await expect(page.getByLabel('Concave clearance')).toHaveValue(/^0\.\d\d$/);
+    await expect(slot(page, 'element:1:left')).toContainText(' in');
+    // The choice is stored for the user.
+    await expect.poll(async () => (await (await page.request.get('/api/me')).json()).unitSystem).toBe('imperial');
+    await page.getByText('mm', { exact: true }).click();
+    await expect.poll(async () => (await (await page.request.get('/api/me')).json()).unitSystem).toBe('metric');
+  });
+
+  test('save, then reload: the same layout comes back as the next version', async ({ page }) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    const { layoutId } = await openEditor(page, 'operator', 'North Quarter');
+    const start = (await (await page.request.get(`/api/layouts/${layoutId}`)).json()).layout.currentVersion as number;
+    await page.getByLabel('Type').selectOption('round-bar');
+    await page.getByLabel('Hand').selectOption('left');
+    await mouseDrag(page, page.getByTestId('palette').locator('[data-part="CW-RB-L-04"]'), slot(page, 'element:4:left'));
+    await expect(slot(page, 'element:4:left')).toHaveAttribute('aria-label', /round-bar element/);
+    await page.getByLabel('Vane setting').selectOption('slow');
+    await page.getByTestId('save-note').fill('Round bar at the rear, slower vanes');
+    await page.getByRole('button', { name: 'Save version' }).click();
+    await expect(page.getByTestId('save-status')).toContainText(`Saved · version ${start + 1}`);
+    await expect(announcer(page)).toContainText(`Saved as version ${start + 1}`);
+
+    await page.reload();
+    await expect(page.locator('astro-island[ssr]')).toHaveCount(0);
+    await expect(slot(page, 'element:4:left')).toHaveAttribute('aria-label', /round-bar element, left hand, CW-RB-L-04/);
+    await expect(page.getByLabel('Vane setting')).toHaveValue('slow');
+    await expect(page.getByTestId('save-status')).toContainText(`Version ${start + 1}`);
+    const saved = await (await page.request.get(`/api/layouts/${layoutId}`)).json();
+    expect(saved.current.note).toBe('Round bar at the rear, slower vanes');
+    expect(saved.current.body.elements).toContainEqual({ position: 4, side: 'left', partNumber: 'CW-RB-L-04' });
+  });
+
+  test('a stale save shows the newer version; load it (edits one Undo away) or save a copy', async ({ page }) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    const { layoutId, machineId } = await openEditor(page, 'operator2', 'Bean Runner');
+    // Someone else saves meanwhile.
+    const cur = await (await page.request.get(`/api/layouts/${layoutId}`)).json();
+    const theirs = structuredClone(cur.current.body);
+    theirs.rotorRpm = theirs.rotorRpm + 20;
+    const put = await page.request.put(`/api/layouts/${layoutId}`, { data: { baseVersion: cur.layout.currentVersion, body: theirs, note: 'Changed elsewhere' } });
+    expect(put.status()).toBe(201);
+
+    // Here: an edit, then save.
+    await page.getByLabel('Vane setting').selectOption('very-slow');
+    await page.getByRole('button', { name: 'Save version' }).click();
+    const dialog = page.getByTestId('conflict-dialog');
+    await expect(dialog).toBeVisible();
+    await expect(dialog).toContainText(`Version ${cur.layout.currentVersion + 1} was saved`);
+    await expect(dialog).toContainText('Changed elsewhere');
+    await expect(dialog.getByTestId('cage-diagram')).toBeVisible();
+    await shot(page, 'editor-conflict', false);
+
+    // Load theirs: their speed shows, and Undo brings our vane setting back.
+    await dialog.getByRole('button', { name: /Load version/ }).click();
+    await expect(dialog).toBeHidden();
+    await expect(page.getByLabel('Rotor speed')).toHaveValue(String(theirs.rotorRpm));
+    await expect(page.getByLabel('Vane setting')).toHaveValue(theirs.vaneSetting);
+    await page.getByRole('button', { name: 'Undo' }).click();
+    await expect(page.getByLabel('Vane setting')).toHaveValue('very-slow');
+
+    // Someone saves again; this time keep ours as a copy.
+    const again = await (await page.request.get(`/api/layouts/${layoutId}`)).json();
+    const put2 = await page.request.put(`/api/layouts/${layoutId}`, { data: { baseVersion: again.layout.currentVersion, body: { ...again.current.body, clearanceMm: 21 }, note: 'Again' } });
+    expect(put2.status()).toBe(201);
+    await page.getByRole('button', { name: 'Save version' }).click();
+    await expect(dialog).toBeVisible();
+    await dialog.getByLabel('Name of the new layout').fill('Very slow vanes trial');
+    await dialog.getByRole('button', { name: 'Save as a new layout' }).click();
+    await expect(page).toHaveURL(new RegExp(`/machines/${machineId}/layouts/(?!${layoutId})[0-9a-f-]{36}$`));
+    await expect(page.getByRole('heading', { level: 1 })).toHaveText('Very slow vanes trial');
+    await expect(page.getByLabel('Vane setting')).toHaveValue('very-slow');
+  });
+
+  test('trainer sees the layout read only', async ({ page }) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await openEditor(page, 'trainer', 'Creekside');
+    await expect(page.getByText('Read only').first()).toBeVisible();
+    await expect(page.getByRole('button', { name: 'Save version' })).toHaveCount(0);
+    await expect(page.getByLabel('Crop')).toBeDisabled();
+    await expect(page.getByTestId('palette').locator('button[data-part]').first()).toBeDisabled();
+  });
+
+  test('another organisation’s layout is not found', async ({ page }) => {
+    const { machineId, layoutId } = await openEditor(page, 'operator2', 'Creekside');
+    await page.getByRole('link', { name: 'Sign out' }).click();
+    await page.getByRole('button', { name: 'Sign out' }).click();
+    await signIn(page, 'operator');
+    const res = await page.goto(`/machines/${machineId}/layouts/${layoutId}`);
+    expect(res!.status()).toBe(404);
+    await expect(page.getByRole('heading', { name: 'Layout not found' })).toBeVisible();
+  });
+});

@@ -1,0 +1,192 @@
+/**
+ * The parts palette: the family's catalog, searchable and filtered by zone, type and hand, with
+ * what is on the shelf. Each part is picked up with the mouse, or with Space and carried with
+ * the arrow keys; a click puts it into the selected slot when it goes there.
+ */
+import { useDraggable, useDroppable } from '@dnd-kit/core';
+import { memo, useDeferredValue, useMemo, useState } from 'react';
+import type { CatalogPart, ElementType, Side, Zone } from '../../lib/domain/schemas';
+import { formatLength, mm, type UnitSystem } from '../../lib/domain/units';
+import { ELEMENT_LABEL, ELEMENT_TYPES } from '../cage/patterns';
+import { placeWords } from '../cage/words';
+import { PartSwatch, partDetail, partTitle } from './part-visuals';
+import { useEditor, useEditorStoreApi } from './store/context';
+import { accepts } from './store/layout-edits';
+import type { StockCount } from './store/types';
+
+type TypeFilter = 'all' | ElementType | 'cover-plate' | 'rotor-bar';
+
+export const PALETTE_DROP_ID = 'palette';
+
+/** "Fine-wire", "Fine-wire concave", "Right cover plate", "Rasp bar". */
+function shortName(p: CatalogPart): string {
+  if (p.kind === 'element') return `${ELEMENT_LABEL[p.elementType]}${p.role === 'either' ? '' : ` ${p.role}`}`;
+  return partTitle(p);
+}
+
+function stockWords(s: StockCount | undefined): string {
+  if (!s || (s.own === 0 && s.dealer === 0)) return 'none on the shelf';
+  const parts: string[] = [];
+  if (s.own) parts.push(`${s.own} on the farm`);
+  if (s.dealer) parts.push(`${s.dealer} at the dealer`);
+  return parts.join(' · ');
+}
+
+const PaletteItem = memo(function PaletteItem({ part, units, stock, canEdit }: { part: CatalogPart; units: UnitSystem; stock: StockCount | undefined; canEdit: boolean }) {
+  const store = useEditorStoreApi();
+  const { setNodeRef, listeners, attributes, isDragging } = useDraggable({
+    id: `palette:${part.partNumber}`,
+    data: { part },
+    disabled: !canEdit,
+  });
+  const detail = part.kind === 'element' ? (part.openingMm ? formatLength(mm(part.openingMm.width), units) + ' gap' : 'no opening') : partDetail(part, units);
+  const inStock = !!stock && stock.own + stock.dealer > 0;
+  return (
+    <li>
+      <button
+        ref={setNodeRef}
+        type="button"
+        {...attributes}
+        {...listeners}
+        aria-roledescription="part to place"
+        aria-label={`${partTitle(part)}${part.kind === 'element' ? `, ${part.hand} hand` : ''}, ${part.partNumber}. ${stockWords(stock)}.`}
+        disabled={!canEdit}
+        onClick={() => {
+          const s = store.getState();
+          const target = s.selectedPlace;
+          if (target && accepts(part, target)) s.placePart(part.partNumber, target);
+          else s.announce(`Select a slot that takes a ${partTitle(part).toLowerCase()} first, or carry it there: Space, arrow keys, Space.`);
+        }}
+        className={`flex w-full touch-none items-center gap-2.5 rounded-md border px-2 py-1.5 text-left hover:border-iris-400 hover:bg-iris-50 disabled:cursor-default disabled:hover:border-steel-200 disabled:hover:bg-white ${
+          isDragging ? 'border-iris-500 bg-iris-50 opacity-60' : 'border-steel-200 bg-white'
+        }`}
+        data-part={part.partNumber}
+      >
+        <PartSwatch part={part} id={`pal-${part.partNumber}`} />
+        <span className="min-w-0 flex-1">
+          <span className="block truncate text-sm font-semibold text-ink">
+            {shortName(part)}
+            {part.kind === 'element' && <span className="font-normal text-ink-soft"> · {part.hand} hand</span>}
+          </span>
+          <span className="block truncate text-xs text-ink-muted">
+            {part.partNumber}
+            {detail && ` · ${detail}`}
+          </span>
+        </span>
+        <span className={`shrink-0 rounded px-1.5 py-0.5 text-xs font-semibold ${inStock ? 'bg-ok-soft text-ok' : 'bg-steel-100 text-ink-muted'}`} title={stockWords(stock)}>
+          {inStock ? `${(stock!.own ?? 0) + (stock!.dealer ?? 0)} in stock` : 'order'}
+        </span>
+      </button>
+    </li>
+  );
+});
+
+export function Palette() {
+  const catalog = useEditor((s) => s.catalog.parts);
+  const units = useEditor((s) => s.units);
+  const stock = useEditor((s) => s.stock);
+  const canEdit = useEditor((s) => s.canEdit);
+  const selected = useEditor((s) => s.selectedPlace);
+  const [query, setQuery] = useState('');
+  const [zone, setZone] = useState<'any' | Zone>('any');
+  const [type, setType] = useState<TypeFilter>('all');
+  const [hand, setHand] = useState<'any' | Side>('any');
+  const q = useDeferredValue(query.trim().toLowerCase());
+  const { setNodeRef, isOver, active } = useDroppable({ id: PALETTE_DROP_ID });
+  const carryingPlaced = !!(active?.data.current as { from?: unknown } | undefined)?.from;
+
+  const shown = useMemo(() => {
+    return catalog.filter((p) => {
+      if (type !== 'all') {
+        if (type === 'cover-plate' || type === 'rotor-bar') {
+          if (p.kind !== type) return false;
+        } else if (p.kind !== 'element' || p.elementType !== type) return false;
+      }
+      if (zone !== 'any' && p.kind === 'element' && !p.zones.includes(zone)) return false;
+      if (zone !== 'any' && p.kind !== 'element') return false;
+      if (hand !== 'any' && ((p.kind === 'element' && p.hand !== hand) || (p.kind === 'cover-plate' && p.side !== hand))) return false;
+      if (q) {
+        const hay = `${p.name} ${p.partNumber} ${partTitle(p)} ${p.kind === 'element' ? `${p.hand} ${ELEMENT_LABEL[p.elementType]}` : ''}`.toLowerCase();
+        if (!q.split(/\s+/).every((w) => hay.includes(w))) return false;
+      }
+      return true;
+    });
+  }, [catalog, type, zone, hand, q]);
+
+  const groups: { title: string; parts: CatalogPart[] }[] = [
+    { title: 'Elements', parts: shown.filter((p) => p.kind === 'element') },
+    { title: 'Cover plates', parts: shown.filter((p) => p.kind === 'cover-plate') },
+    { title: 'Rotor bars', parts: shown.filter((p) => p.kind === 'rotor-bar') },
+  ].filter((g) => g.parts.length > 0);
+
+  return (
+    <section
+      ref={setNodeRef}
+      aria-labelledby="palette-h"
+      className={`rounded-lg border bg-white p-3 shadow-sm ${isOver && carryingPlaced ? 'border-iris-500 ring-2 ring-iris-300' : 'border-steel-200'}`}
+      data-testid="palette"
+    >
+      <h2 id="palette-h" className="text-base font-semibold">
+        Parts
+      </h2>
+      <p className="mt-0.5 text-xs text-ink-muted">
+        {canEdit
+          ? selected && selected.kind !== 'setting'
+            ? `Click a part to put it at ${placeWords(selected)}, or drag it onto the drawing.`
+            : 'Drag a part onto the drawing, or pick it up with Space and move with the arrow keys.'
+          : 'Read only: you may look, not change.'}
+      </p>
+      {carryingPlaced && <p className="mt-2 rounded border border-dashed border-iris-400 bg-iris-50 p-2 text-center text-sm text-iris-700">Drop here to take the part off</p>}
+      <div className="mt-3 space-y-2">
+        <label className="block">
+          <span className="field-label">Search</span>
+          <input type="search" className="field-input py-1.5 text-sm" value={query} onChange={(e) => setQuery(e.target.value)} placeholder="Name or part number" />
+        </label>
+        <div className="grid grid-cols-3 gap-2">
+          <label className="block">
+            <span className="field-label">Zone</span>
+            <select className="field-input py-1.5 text-sm" value={zone} onChange={(e) => setZone(e.target.value as typeof zone)}>
+              <option value="any">Any</option>
+              <option value="threshing">Threshing</option>
+              <option value="separating">Separating</option>
+            </select>
+          </label>
+          <label className="block">
+            <span className="field-label">Type</span>
+            <select className="field-input py-1.5 text-sm" value={type} onChange={(e) => setType(e.target.value as TypeFilter)}>
+              <option value="all">All</option>
+              {ELEMENT_TYPES.map((t) => (
+                <option key={t} value={t}>
+                  {ELEMENT_LABEL[t]}
+                </option>
+              ))}
+              <option value="cover-plate">Cover plate</option>
+              <option value="rotor-bar">Rotor bar</option>
+            </select>
+          </label>
+          <label className="block">
+            <span className="field-label">Hand</span>
+            <select className="field-input py-1.5 text-sm" value={hand} onChange={(e) => setHand(e.target.value as typeof hand)}>
+              <option value="any">Any</option>
+              <option value="left">Left</option>
+              <option value="right">Right</option>
+            </select>
+          </label>
+        </div>
+      </div>
+      <p className="mt-2 text-xs text-ink-muted" aria-live="polite">
+        {shown.length} of {catalog.length} parts
+      </p>
+      {groups.map((g) => (
+        <div key={g.title} className="mt-3">
+          <h3 className="text-xs font-bold uppercase tracking-wide text-ink-soft">{g.title}</h3>
+          <ul className="mt-1 space-y-1">
+            {g.parts.map((p) => (
+              <PaletteItem key={p.partNumber} part={p} units={units} stock={stock[p.partNumber]} canEdit={canEdit} />
+            ))}
+          </ul>
+        </div>
+      ))}
+    </section>
+  );
+}

@@ -1,0 +1,88 @@
+/** The drawing's content: family, catalog, layout and its findings, and the edits on them. */
+import { checkLayout } from '../../../lib/domain/rules';
+import { indexCatalog } from '../../../lib/domain/catalog';
+import type { Layout } from '../../../lib/domain/schemas';
+import { partAtPlaceWords, partWords, placeWords } from '../../cage/words';
+import { findingsHereWords } from './announce';
+import { accepts, movedLayout, partNumberAt, withPartAt } from './layout-edits';
+import type { DiagramSlice, EditorInit, EditorSliceCreator } from './types';
+
+export const createDiagramSlice =
+  (init: EditorInit): EditorSliceCreator<DiagramSlice> =>
+  (set, get) => {
+    const catalog = indexCatalog(init.catalog);
+    let seq = 0;
+    const announcement = (text: string) => ({ text, seq: ++seq });
+    /** Every edit passes here: the rules run at once, so findings always match the layout. */
+    const commit = (layout: Layout, said: string | ((findings: ReturnType<typeof checkLayout>) => string)) => {
+      const findings = checkLayout(get().family, catalog, layout);
+      const text = typeof said === 'string' ? said : said(findings);
+      // A finding chosen before the edit may no longer exist; drop the choice.
+      set({ layout, findings, announcement: announcement(text), activeFinding: null, highlightPlaces: [] });
+    };
+    const partName = (pn: string | undefined) => {
+      const p = pn ? catalog.byPartNumber.get(pn) : undefined;
+      return p ? partWords(p) : pn ? `part ${pn}` : 'nothing';
+    };
+
+    return {
+      family: init.family,
+      catalog,
+      layout: init.layout,
+      findings: checkLayout(init.family, catalog, init.layout),
+      announcement: { text: '', seq: 0 },
+
+      placePart(partNumber, place) {
+        const part = catalog.byPartNumber.get(partNumber);
+        if (!get().canEdit || !part) return false;
+        if (!accepts(part, place)) {
+          get().announce(`A ${partWords(part)} does not go at ${placeWords(place)}.`);
+          return false;
+        }
+        const before = partNumberAt(get().layout, place);
+        if (before === partNumber) {
+          get().announce(`${partAtPlaceWords(part, place)} is already there.`);
+          return false;
+        }
+        commit(withPartAt(get().layout, place, partNumber), (f) => {
+          const replaced = before ? ` It replaces the ${partName(before)}.` : '';
+          return `Placed ${partAtPlaceWords(part, place)}.${replaced} ${findingsHereWords(f, place)}`;
+        });
+        get().select(place);
+        return true;
+      },
+
+      movePart(from, to) {
+        if (!get().canEdit) return false;
+        const layout = get().layout;
+        const moving = partNumberAt(layout, from);
+        const next = movedLayout(layout, from, to);
+        if (!next || !moving) return false;
+        if (next === layout) return false;
+        const there = partNumberAt(layout, to);
+        commit(next, (f) =>
+          there
+            ? `Swapped: ${partName(moving)} now at ${placeWords(to)}, ${partName(there)} now at ${placeWords(from)}. ${findingsHereWords(f, to)}`
+            : `Moved ${partName(moving)} from ${placeWords(from)} to ${placeWords(to)}. ${findingsHereWords(f, to)}`,
+        );
+        get().select(to);
+        return true;
+      },
+
+      removePart(place) {
+        if (!get().canEdit) return false;
+        const pn = partNumberAt(get().layout, place);
+        if (!pn) return false;
+        commit(withPartAt(get().layout, place, null), (f) => `Removed ${partName(pn)} from ${placeWords(place)}. ${findingsHereWords(f, place)}`);
+        return true;
+      },
+
+      replaceLayout(layout, why) {
+        commit(layout, (f) => `${why} ${f.length} finding${f.length === 1 ? '' : 's'} in the layout.`);
+      },
+
+      announce(text) {
+        set({ announcement: announcement(text) });
+      },
+    };
+  };

@@ -1,0 +1,62 @@
+/**
+ * Pure edits of a layout: what sits at a place, put, take away, move or swap. Each returns a new
+ * layout object (or the same one when nothing changes), so undo can keep references.
+ */
+import type { CatalogPart, Layout, Place } from '../../../lib/domain/schemas';
+
+/** Whether a part of this kind goes into a slot of this kind at all (fit is the rules' job). */
+export function accepts(part: Pick<CatalogPart, 'kind'>, place: Place): boolean {
+  return (
+    (part.kind === 'element' && place.kind === 'element') ||
+    (part.kind === 'cover-plate' && place.kind === 'cover') ||
+    (part.kind === 'rotor-bar' && place.kind === 'bar')
+  );
+}
+
+export function partNumberAt(layout: Layout, place: Place): string | undefined {
+  switch (place.kind) {
+    case 'element':
+      return layout.elements.find((e) => e.position === place.position && e.side === place.side)?.partNumber;
+    case 'cover':
+      return layout.coverPlates.find((c) => c.section === place.section && c.side === place.side)?.partNumber;
+    case 'bar':
+      return layout.rotorBars.find((b) => b.row === place.row && b.position === place.position)?.partNumber;
+    default:
+      return undefined;
+  }
+}
+
+/** The layout with `partNumber` at `place` (or the place emptied when partNumber is null). */
+export function withPartAt(layout: Layout, place: Place, partNumber: string | null): Layout {
+  switch (place.kind) {
+    case 'element': {
+      const rest = layout.elements.filter((e) => !(e.position === place.position && e.side === place.side));
+      const elements = partNumber ? [...rest, { position: place.position, side: place.side, partNumber }] : rest;
+      elements.sort((a, b) => a.position - b.position || a.side.localeCompare(b.side));
+      return { ...layout, elements };
+    }
+    case 'cover': {
+      const rest = layout.coverPlates.filter((c) => !(c.section === place.section && c.side === place.side));
+      const coverPlates = partNumber ? [...rest, { section: place.section, side: place.side, partNumber }] : rest;
+      coverPlates.sort((a, b) => a.section - b.section || a.side.localeCompare(b.side));
+      return { ...layout, coverPlates };
+    }
+    case 'bar': {
+      const rest = layout.rotorBars.filter((b) => !(b.row === place.row && b.position === place.position));
+      const rotorBars = partNumber ? [...rest, { row: place.row, position: place.position, partNumber }] : rest;
+      rotorBars.sort((a, b) => a.row - b.row || a.position - b.position);
+      return { ...layout, rotorBars };
+    }
+    default:
+      return layout;
+  }
+}
+
+/** Move the part at `from` to `to`, swapping with what is there. Null when `from` is empty or kinds differ. */
+export function movedLayout(layout: Layout, from: Place, to: Place): Layout | null {
+  if (from.kind !== to.kind || from.kind === 'setting') return null;
+  const moving = partNumberAt(layout, from);
+  if (!moving) return null;
+  const there = partNumberAt(layout, to) ?? null;
+  return withPartAt(withPartAt(layout, from, there), to, moving);
+}
