@@ -3,6 +3,7 @@ import * as t from '../../db/schema';
 import { demoCatalog, demoFamilies, starterLayout } from '../domain/demo-catalog';
 import type { CropId, DrumId, Layout, MachineFamily, VaneControl } from '../domain/schemas';
 import { hashPassword } from './auth/passwords';
+import { seedDemoDeck } from './demo-deck';
 
 /**
  * The invented demo: one dealer with a parts desk and a trainer, two farms, three machines of
@@ -90,6 +91,7 @@ export async function seedDemo(db: Db) {
         await tx.insert(t.stock).values({ orgId: orgs[m.org].id, partNumber: pn, quantity: 1 }).onConflictDoNothing();
       }
     }
+    await seedDemoDeck(tx, { orgId: kestrel!.id, trainerId: userIds['priya@kestrel.example']! });
     await tx.insert(t.auditLog).values({ action: 'seed', entity: 'demo', detail: { machines: fleet.length } });
   });
   await (await import('./demo-inspection')).seedDemoInspection(db);

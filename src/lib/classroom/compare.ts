@@ -1,0 +1,153 @@
+/**
+ * Two layouts side by side, for class: each difference (element, cover plate, rotor bar,
+ * setting) with what the rules say about that place on either side, the findings one layout
+ * has and the other does not, and the computed figures next to each other. Pure: built from
+ * domain functions only, so the page, the island and the tests read the same thing.
+ */
+import { computeSettings, type Settings } from '../domain/compute';
+import { cropPrograms } from '../domain/crops';
+import { describePlace, diffLayouts, type LayoutDiff, type LayoutDifference } from '../domain/diff';
+import { placeKey } from '../domain/places';
+import { checkLayout } from '../domain/rules';
+import type { CatalogPart, Finding, Layout, MachineFamily, SettingField } from '../domain/schemas';
+import { formatLength, formatSpeed, mm, type UnitSystem } from '../domain/units';
+
+export interface CompareInput {
+  family: MachineFamily;
+  catalog: readonly CatalogPart[];
+  layout: Layout;
+}
+
+export interface ComparedSide extends CompareInput {
+  findings: Finding[];
+  settings: Settings;
+}
+
+export interface DifferenceRow {
+  /** 1-based, in the order of diffLayouts (settings, elements, cover plates, rotor bars). */
+  n: number;
+  difference: LayoutDifference;
+  kindWords: 'Setting' | 'Element' | 'Cover plate' | 'Rotor bar';
+  where: string;
+  before: string;
+  after: string;
+  /** Findings pinned to this place in A and in B. */
+  rulesA: Finding[];
+  rulesB: Finding[];
+}
+
+export interface MetricRow {
+  label: string;
+  a: string;
+  b: string;
+  /** The two read differently. */
+  differs: boolean;
+}
+
+export interface Comparison {
+  a: ComparedSide;
+  b: ComparedSide;
+  diff: LayoutDiff;
+  rows: DifferenceRow[];
+  /** Findings only A has, only B has, and both have (matched by code and places). */
+  findings: { onlyA: Finding[]; onlyB: Finding[]; both: Finding[] };
+  metrics: MetricRow[];
+}
+
+const KIND_WORDS = { setting: 'Setting', element: 'Element', cover: 'Cover plate', bar: 'Rotor bar' } as const;
+
+const findingKey = (f: Finding) => `${f.code}|${f.places.map(placeKey).sort().join(',')}`;
+
+const VANE_WORDS: Record<string, string> = { 'very-slow': 'very slow', slow: 'slow', medium: 'medium', fast: 'fast' };
+
+/** A setting's value as people say it. */
+export function settingValueWords(field: SettingField, value: string | number, family: MachineFamily, units: UnitSystem = 'metric'): string {
+  switch (field) {
+    case 'crop':
+      return cropPrograms[value as keyof typeof cropPrograms]?.name ?? String(value);
+    case 'drum':
+      return family.drumOptions.find((d) => d.id === value)?.label ?? `${value} drum`;
+    case 'rotorRpm':
+      return `${value} rpm`;
+    case 'clearanceMm':
+      return formatLength(mm(Number(value)), units);
+    case 'vaneControl':
+      return `${value} vanes`;
+    case 'vaneSetting':
+      return VANE_WORDS[String(value)] ?? String(value);
+  }
+}
+
+function partWords(partNumber: string | null, catalog: readonly CatalogPart[]): string {
+  if (partNumber === null) return 'empty';
+  const part = catalog.find((p) => p.partNumber === partNumber);
+  return part ? `${part.name} (${partNumber})` : `unknown part ${partNumber}`;
+}
+
+const pct = (x: number) => `${Math.round(x * 100)} %`;
+
+function metrics(a: ComparedSide, b: ComparedSide, units: UnitSystem): MetricRow[] {
+  const rows: [string, (s: ComparedSide) => string][] = [
+    ['Rotor tip speed', (s) => formatSpeed(s.settings.tipSpeedMs, units)],
+    ['Rotor speed for the crop', (s) => (s.settings.rpmInWindow ? 'inside the window' : 'outside the window') + ` (${Math.round(s.settings.rpmWindow.minRpm)}–${Math.round(s.settings.rpmWindow.maxRpm)} rpm)`],
+    ['Threshing aggressiveness index', (s) => String(Math.round(s.settings.aggressivenessIndex))],
+    ['Open area, threshing zone (after cover plates)', (s) => pct(s.settings.openArea.threshing.after)],
+    ['Open area, separating zone (after cover plates)', (s) => pct(s.settings.openArea.separating.after)],
+    ['Capacity factor', (s) => s.settings.capacity.value.toFixed(2)],
+    ['Elements the kernel cannot pass', (s) => String(s.settings.passage.filter((p) => p.passes === false).length)],
+    ['Findings (blocks fit · hurts the crop · advice)', (s) => {
+      const c = { 'blocks-fit': 0, 'hurts-crop': 0, advice: 0 };
+      for (const f of s.findings) c[f.severity]++;
+      return `${c['blocks-fit']} · ${c['hurts-crop']} · ${c.advice}`;
+    }],
+  ];
+  return rows.map(([label, f]) => {
+    const x = f(a);
+    const y = f(b);
+    return { label, a: x, b: y, differs: x !== y };
+  });
+}
+
+export function sideOf(input: CompareInput): ComparedSide {
+  return {
+    ...input,
+    findings: checkLayout(input.family, input.catalog, input.layout),
+    settings: computeSettings(input.family, input.catalog, input.layout),
+  };
+}
+
+export function compareLayouts(aIn: CompareInput, bIn: CompareInput, units: UnitSystem = 'metric'): Comparison {
+  const a = sideOf(aIn);
+  const b = sideOf(bIn);
+  const diff = diffLayouts(a.layout, b.layout);
+  const at = (findings: Finding[], key: string) => findings.filter((f) => f.places.some((p) => placeKey(p) === key));
+  const rows: DifferenceRow[] = diff.differences.map((d, i) => {
+    const key = placeKey(d.place);
+    const before = d.kind === 'setting' ? settingValueWords(d.field, d.before, a.family, units) : partWords(d.before, a.catalog);
+    const after = d.kind === 'setting' ? settingValueWords(d.field, d.after, b.family, units) : partWords(d.after, b.catalog);
+    return {
+      n: i + 1,
+      difference: d,
+      kindWords: KIND_WORDS[d.kind],
+      where: describePlace(d.place),
+      before,
+      after,
+      rulesA: at(a.findings, key),
+      rulesB: at(b.findings, key),
+    };
+  });
+  const keysA = new Set(a.findings.map(findingKey));
+  const keysB = new Set(b.findings.map(findingKey));
+  return {
+    a,
+    b,
+    diff,
+    rows,
+    findings: {
+      onlyA: a.findings.filter((f) => !keysB.has(findingKey(f))),
+      onlyB: b.findings.filter((f) => !keysA.has(findingKey(f))),
+      both: a.findings.filter((f) => keysB.has(findingKey(f))),
+    },
+    metrics: metrics(a, b, units),
+  };
+}
