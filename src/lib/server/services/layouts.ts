@@ -125,6 +125,7 @@ export async function createLayout(actor: Actor, machineId: string, input: z.inf
     body = starterLayout(ctx.family, input.crop, catalog, { drum: ctx.machine.drum, vaneControl: ctx.machine.vaneControl });
   }
   const first: Layout = body;
+  const note = input.note || (input.body ? '' : `Started from the suggested ${input.crop} layout`);
   assertFamily(first, ctx.machine.familyId);
   const db = await getDb();
   return db.transaction(async (tx) => {
@@ -134,7 +135,7 @@ export async function createLayout(actor: Actor, machineId: string, input: z.inf
       .returning();
     const [v] = await tx
       .insert(layoutVersions)
-      .values({ layoutId: row!.id, version: 1, body: first, note: input.note, createdBy: actor.id })
+      .values({ layoutId: row!.id, version: 1, body: first, note, createdBy: actor.id })
       .returning();
     await audit(tx, actor, 'create', 'layout', row!.id, { name: input.name, version: 1 }, ctx.machine.orgId);
     return { layout: row!, version: v! };

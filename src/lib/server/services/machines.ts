@@ -78,11 +78,11 @@ export type MachineListQuery = z.infer<typeof machineListQuerySchema>;
 export const createMachineSchema = z.object({
   /** The organisation that owns it; defaults to the user's own farm. */
   orgId: z.uuid().optional(),
-  familyId: slugSchema,
+  familyId: z.string({ error: 'choose the machine family' }).pipe(slugSchema),
   drum: drumIdSchema,
   vaneControl: vaneControlSchema,
-  serial: text(40).min(1, { error: 'give the serial number' }),
-  nickname: text(60).min(1, { error: 'give the machine a name' }),
+  serial: z.string({ error: 'give the serial number' }).trim().min(1, { error: 'give the serial number' }).max(40),
+  nickname: z.string({ error: 'give the machine a name' }).trim().min(1, { error: 'give the machine a name' }).max(60),
   notes: text(2000).default(''),
 });
 
