@@ -14,8 +14,10 @@ export const FAKE_S3_KEY = 'S3RVER';
  * Starts the fake on a free port and points this process at it through the usual variables
  * (S3_ENDPOINT, S3_BUCKET, S3_ACCESS_KEY_ID, S3_SECRET_ACCESS_KEY, S3_REGION) unless told not to.
  * Resolves to { endpoint, bucket, directory, stop }.
+ * @param {{ dataDir: string, bucket?: string, port?: number, setEnv?: boolean }} options
+ * @returns {Promise<{ endpoint: string, bucket: string, directory: string, stop: () => Promise<void> }>}
  */
-export async function startFakeS3({ dataDir, bucket = 'cagewright-photos', port = 0, setEnv = true } = {}) {
+export async function startFakeS3({ dataDir, bucket = 'cagewright-photos', port = 0, setEnv = true }) {
   if (!dataDir) throw new Error('startFakeS3: give the data directory');
   const S3rver = require('s3rver');
   const directory = join(dataDir, 's3');

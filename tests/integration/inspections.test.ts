@@ -7,7 +7,6 @@ import sharp from 'sharp';
 import { ListObjectsV2Command, S3Client } from '@aws-sdk/client-s3';
 import { Client, DEMO } from './client';
 import { removeDir, startServer, type RunningServer } from './server';
-// @ts-expect-error plain ES module without types
 import { startFakeS3 } from '../../scripts/fakes/s3.mjs';
 
 const MAX = 8 * 1024 * 1024;
@@ -237,7 +236,7 @@ describe('inspections with photos in an S3-compatible bucket', () => {
     expect(wrongEnvelope.status).toBe(415);
 
     const noField = new FormData();
-    noField.set('picture', new File([await smallPng()], 'a.png'));
+    noField.set('picture', new File([(await smallPng()) as BlobPart], 'a.png'));
     const missing = await upload(tech, insp.id, item.id, noField);
     expect(missing.status).toBe(400);
     expect(missing.body.error.field).toBe('photo');
