@@ -220,3 +220,24 @@ test('the crop path holds still for reduced motion and steps position by positio
   await expect(first).toHaveAttribute('data-playing', 'yes');
   await context.close();
 });
+
+test('the demo deck shows a wrong layout’s findings large enough for the room', async ({ page }) => {
+  await signIn(page, 'trainer', '/classroom');
+  await page.goto('/classroom');
+  await page.getByTestId('deck-list').getByRole('link', { name: 'Small grains vs pulses' }).click();
+  await expect(page.getByLabel('Deck title')).toHaveValue('Small grains vs pulses');
+  await hydrated(page);
+  await page.getByTestId('present-link').click();
+  await expect(page).toHaveURL(/\/present/);
+  await hydrated(page);
+  await expect(page.getByTestId('slide-counter')).toHaveText('Slide 1 of 4');
+  await page.keyboard.press('ArrowDown');
+  await page.keyboard.press('ArrowDown');
+  await expect(page.getByTestId('stage-title')).toHaveText('What goes wrong: the wheat cage left in for peas');
+  const findings = page.getByTestId('findings');
+  await expect(findings).toBeVisible();
+  await expect(findings.locator('li').first()).toBeVisible();
+  // The findings are pinned on the diagram too: the fine-wire places carry them in their names.
+  await expect(page.getByTestId('stage-diagram').locator('[data-place="element:1:left"]')).toHaveAttribute('aria-label', /Hurts the crop|Blocks fit/);
+  await shot(page, 'present-demo-wrong-layout', false);
+});

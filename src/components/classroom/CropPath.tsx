@@ -24,9 +24,9 @@ const pct = (x: number) => `${Math.round(x * 100)} %`;
 // Drawing geometry, in SVG units.
 const W = 1200;
 const LABEL_W = 150;
-const OUT_W = 200;
+const OUT_W = 210;
 const TOP = 100;
-const BAND = 66;
+const BAND = 70;
 const CAGE_H = BAND * 4;
 const PAN_Y = TOP + CAGE_H + 18;
 const PAN_H = 112;
@@ -123,6 +123,11 @@ function newParticle(g: Geometry, model: CropPathModel, random: () => number, at
 const FALL_SECONDS = 0.7;
 const EXIT_SECONDS = 0.6;
 
+/** Seconds from a kernel's entry to the end of its fall or its exit. */
+function lifetime(g: Geometry, p: Particle): number {
+  return p.fallTau < Infinity ? p.fallTau / TURNS_PER_SECOND + FALL_SECONDS : g.total / TURNS_PER_SECOND + EXIT_SECONDS;
+}
+
 /** Where a particle is drawn at time `t` (seconds), or null once its journey is over. */
 function particleAt(g: Geometry, model: CropPathModel, p: Particle, t: number) {
   const tau = (t - p.enteredAt) * TURNS_PER_SECOND;
@@ -179,14 +184,20 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
   useEffect(() => {
     const random = seeded(20260);
     const particles: Particle[] = [];
-    // Stagger the entries over one front-to-rear transit so the cage fills evenly.
-    const spread = model.transitSeconds;
-    for (let i = 0; i < PARTICLES; i++) particles.push(newParticle(g, model, random, -spread + (i / PARTICLES) * spread));
+    // The still figure (and the start of the motion) is the moment `still`, with every kernel
+    // somewhere along its own journey, as in a steady flow; a kernel whose journey ends enters
+    // again at the front a moment later.
+    const still = model.transitSeconds;
+    for (let i = 0; i < PARTICLES; i++) {
+      const p = newParticle(g, model, random, 0);
+      p.enteredAt = still - random() * lifetime(g, p);
+      particles.push(p);
+    }
     const draw = (t: number) => {
       particles.forEach((p, i) => {
         let at = particleAt(g, model, p, t);
-        if (!at && t - p.enteredAt > 0) {
-          particles[i] = newParticle(g, model, random, t);
+        if (!at && t - p.enteredAt > lifetime(g, p)) {
+          particles[i] = newParticle(g, model, random, t + random() * 0.6);
           at = particleAt(g, model, particles[i]!, t);
         }
         const el = dots.current[i];
@@ -202,8 +213,6 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
         (el.children[1] as SVGElement).setAttribute('display', at.kernel ? 'inline' : 'none');
       });
     };
-    // The still figure: the kernels as they would stand a little way into a run.
-    const still = spread * 0.9;
     if (!playing) {
       draw(still);
       return;
@@ -226,8 +235,8 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
 
   const spiral = useMemo(() => spiralSegments(g, model, 0), [g, model]);
   const here = model.positions[step]!;
-  const fs = stage ? 19 : 15;
-  const small = stage ? 16 : 12.5;
+  const fs = 19;
+  const small = 16;
   const maxShare = Math.max(0.15, ...model.positions.flatMap((p) => [p.halves.left.fallShare, p.halves.right.fallShare]));
   const headingId = `${prefix}-h`;
   const descId = `${prefix}-d`;
@@ -254,7 +263,7 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
           An illustration, not a simulation
         </p>
       </div>
-      <p id={descId} className={`mt-1 text-ink-muted ${stage ? 'text-[20px]' : 'text-sm'}`}>
+      <p id={descId} className={stage ? 'sr-only' : 'mt-1 text-sm text-ink-muted'}>
         The crop spirals rearward round the rotor; slower vanes mean more turns over each position. Rings are unthreshed
         heads, dots are loose kernels; kernels drop through each element in proportion to its open area, and a cover
         plate holds the crop back under its section.
@@ -280,7 +289,15 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
         </span>
       </div>
 
-      <svg viewBox={`0 0 ${W} ${H}`} width="100%" role="img" aria-labelledby={`${headingId} ${descId}`} className="mt-2 block h-auto max-w-full" fontFamily='"Source Sans 3", system-ui, sans-serif'>
+      <svg
+        viewBox={`0 0 ${W} ${H}`}
+        width="100%"
+        role="img"
+        aria-labelledby={`${headingId} ${descId}`}
+        className="mt-2 block h-auto max-w-full"
+        style={stage ? { maxHeight: 'calc(100vh - 330px)' } : undefined}
+        fontFamily='"Source Sans 3", system-ui, sans-serif'
+      >
         <PatternDefs prefix={prefix} />
         <defs>
           <marker id={`${prefix}-arrow`} viewBox="0 0 10 10" refX="5" refY="5" markerWidth="5" markerHeight="5" orient="auto-start-reverse">
@@ -336,11 +353,11 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
             return (
               <g key={`${p.index}${side}`}>
                 <rect x={x} y={y} width={w} height={BAND - 6} rx={4} fill={h.elementType ? `url(#${patternId(prefix, h.elementType)})` : STEEL[50]} stroke={STEEL[500]} opacity={0.55} />
-                <rect x={x + 4} y={y + 4} width={Math.min(w - 8, 150)} height={stage ? 46 : 38} rx={3} fill="#fff" opacity={0.92} />
-                <text x={x + 9} y={y + (stage ? 23 : 19)} fontSize={small} fontWeight={700} fill={INK}>
+                <rect x={x + 4} y={y + 4} width={Math.min(w - 8, 132)} height={46} rx={3} fill="#fff" opacity={0.92} />
+                <text x={x + 9} y={y + 23} fontSize={small} fontWeight={700} fill={INK}>
                   {h.elementType ? ELEMENT_LABEL[h.elementType] : 'empty'}
                 </text>
-                <text x={x + 9} y={y + (stage ? 43 : 35)} fontSize={small * 0.9} fill={INK_SOFT}>
+                <text x={x + 9} y={y + 43} fontSize={small * 0.9} fill={INK_SOFT}>
                   {h.elementType === null
                     ? ''
                     : h.kernelPasses === false
@@ -402,15 +419,21 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
           <text x={g.cageRight + 36} y={TOP + 28} fontSize={fs} fontWeight={700} fill={INK}>
             Out the back
           </text>
-          <circle cx={g.cageRight + 46} cy={TOP + 70} r={6} fill={GRAIN} />
-          <text x={g.cageRight + 60} y={TOP + 76} fontSize={small} fill={INK}>
-            <tspan fontWeight={700}>{pct(model.overRotor)}</tspan> over the rotor
+          <circle cx={g.cageRight + 46} cy={TOP + 64} r={6} fill={GRAIN} />
+          <text x={g.cageRight + 62} y={TOP + 71} fontSize={fs + 3} fontWeight={700} fill={INK}>
+            {pct(model.overRotor)}
           </text>
-          <circle cx={g.cageRight + 46} cy={TOP + 170} r={8} fill="none" stroke={GRAIN} strokeWidth={3} />
-          <text x={g.cageRight + 60} y={TOP + 176} fontSize={small} fill={INK}>
-            <tspan fontWeight={700}>{pct(model.unthreshed)}</tspan> in whole heads
+          <text x={g.cageRight + 36} y={TOP + 96} fontSize={small} fill={INK_SOFT}>
+            over the rotor
           </text>
-          <text x={g.cageRight + 36} y={TOP + CAGE_H - 14} fontSize={small * 0.9} fill={INK_MUTED}>
+          <circle cx={g.cageRight + 46} cy={TOP + 150} r={8} fill="none" stroke={GRAIN} strokeWidth={3} />
+          <text x={g.cageRight + 62} y={TOP + 157} fontSize={fs + 3} fontWeight={700} fill={INK}>
+            {pct(model.unthreshed)}
+          </text>
+          <text x={g.cageRight + 36} y={TOP + 182} fontSize={small} fill={INK_SOFT}>
+            in whole heads
+          </text>
+          <text x={g.cageRight + 36} y={TOP + CAGE_H - 16} fontSize={small} fill={INK_MUTED}>
             {pct(model.fallen)} through the cage
           </text>
         </g>
@@ -418,10 +441,10 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
         <g transform={`translate(${LABEL_W}, ${H - 18})`} fontSize={small} fill={INK_SOFT}>
           <circle cx={8} cy={-5} r={7} fill="none" stroke={GRAIN} strokeWidth={3} />
           <text x={22} y={0}>unthreshed head</text>
-          <circle cx={170} cy={-5} r={5} fill={GRAIN} />
-          <text x={182} y={0}>loose kernel</text>
-          <line x1={310} x2={350} y1={-5} y2={-12} stroke={PATH} strokeWidth={2.5} />
-          <text x={358} y={0}>the crop’s spiral (vanes {VANE_WORDS[vane]})</text>
+          <circle cx={190} cy={-5} r={5} fill={GRAIN} />
+          <text x={202} y={0}>loose kernel</text>
+          <line x1={330} x2={370} y1={-5} y2={-12} stroke={PATH} strokeWidth={2.5} />
+          <text x={378} y={0}>the crop’s spiral (vanes {VANE_WORDS[vane]})</text>
         </g>
       </svg>
 

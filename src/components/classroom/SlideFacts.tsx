@@ -41,8 +41,16 @@ export function SlideFacts({ layout, family, settings, findings, units, stage = 
     ['Aggressiveness index', String(Math.round(settings.aggressivenessIndex))],
     ['Capacity factor', settings.capacity.value.toFixed(2)],
   ];
-  const shown = findings.slice(0, maxFindings);
-  const text = stage ? 'text-[26px] leading-snug' : 'text-sm';
+  // One line per kind of finding: the same finding at several places reads once, with a count
+  // (each place is pinned on the diagram).
+  const groups: { finding: Finding; places: number }[] = [];
+  for (const f of findings) {
+    const same = groups.find((g) => g.finding.code === f.code && g.finding.title === f.title);
+    if (same) same.places += Math.max(1, f.places.length);
+    else groups.push({ finding: f, places: Math.max(1, f.places.length) });
+  }
+  const shown = groups.slice(0, maxFindings);
+  const text = stage ? 'text-[30px] leading-snug' : 'text-sm';
   return (
     <div className={stage ? 'space-y-6' : 'space-y-4'} data-testid="slide-facts">
       <dl className={`grid grid-cols-[auto_1fr] gap-x-5 ${stage ? 'gap-y-1.5' : 'gap-y-1'} ${text}`}>
@@ -59,25 +67,26 @@ export function SlideFacts({ layout, family, settings, findings, units, stage = 
         ))}
       </dl>
       <section aria-label="What the rules say">
-        <h3 className={stage ? 'text-[28px] font-bold' : 'text-base font-semibold'}>What the rules say</h3>
+        <h3 className={stage ? 'text-[32px] font-bold' : 'text-base font-semibold'}>What the rules say</h3>
         {findings.length === 0 ? (
           <p className={`mt-1 flex items-center gap-2 ${text}`} data-testid="no-findings">
             <span aria-hidden="true" className="font-bold text-ok">✓</span> Fits this machine and suits the crop: no findings.
           </p>
         ) : (
           <ul className={`mt-1 ${stage ? 'space-y-2' : 'space-y-1'}`} data-testid="findings">
-            {shown.map((f, i) => (
+            {shown.map(({ finding: f, places }, i) => (
               <li key={`${f.code}-${i}`} className={`flex items-start gap-2 ${text}`}>
                 <SeverityBadge severity={f.severity} size={stage ? 30 : 18} className="mt-1 shrink-0" />
                 <span>
                   <span className="sr-only">{severityWords(f.severity)}: </span>
                   <span className="font-semibold">{f.title}</span>
+                  {places > 1 && <span className="text-ink-muted"> · {places} places</span>}
                   {!stage && <span className="block text-ink-muted">{f.fix}</span>}
                 </span>
               </li>
             ))}
-            {findings.length > shown.length && (
-              <li className={`${text} text-ink-muted`}>and {findings.length - shown.length} more</li>
+            {groups.length > shown.length && (
+              <li className={`${text} text-ink-muted`}>and {groups.length - shown.length} more</li>
             )}
           </ul>
         )}

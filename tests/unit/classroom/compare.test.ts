@@ -1,0 +1,58 @@
+import { describe, expect, it } from 'vitest';
+import { compareLayouts, settingValueWords } from '../../../src/lib/classroom/compare';
+import { demoCatalog, starterLayout, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
+import { placeKey } from '../../../src/lib/domain/places';
+
+const side = (layout: ReturnType<typeof starterLayout>) => ({ family: tamarackM4, catalog: demoCatalog, layout });
+const wheat = starterLayout(tamarackM4, 'wheat', demoCatalog);
+const peas = starterLayout(tamarackM4, 'field-peas', demoCatalog);
+
+describe('compareLayouts', () => {
+  it('lists every difference in the domain’s order with words for each side', () => {
+    const c = compareLayouts(side(wheat), side(peas));
+    expect(c.rows.map((r) => r.n)).toEqual(c.rows.map((_, i) => i + 1));
+    expect(c.rows.length).toBe(c.diff.differences.length);
+    const crop = c.rows.find((r) => r.difference.kind === 'setting' && r.difference.field === 'crop')!;
+    expect([crop.kindWords, crop.before, crop.after]).toEqual(['Setting', 'Wheat', 'Field peas']);
+    const p1 = c.rows.find((r) => placeKey(r.difference.place) === 'element:1:left')!;
+    expect(p1.kindWords).toBe('Element');
+    expect(p1.where).toBe('Position 1, left');
+    expect(p1.before).toContain('CW-FW-L-04');
+    expect(p1.after).toContain('CW-RB-L-04');
+  });
+
+  it('says what the rules find at a changed place on each side', () => {
+    // The wheat cage left in for peas: fine-wire in front is flagged, the pea start is clean there.
+    const wrong = { ...wheat, crop: 'field-peas' as const };
+    const c = compareLayouts(side(wrong), side(peas));
+    const p1 = c.rows.find((r) => placeKey(r.difference.place) === 'element:1:left')!;
+    expect(p1.rulesA.length).toBeGreaterThan(0);
+    expect(p1.rulesA.every((f) => f.places.some((p) => placeKey(p) === 'element:1:left'))).toBe(true);
+    expect(p1.rulesB).toEqual([]);
+    expect(c.findings.onlyA.length).toBeGreaterThan(0);
+    expect(c.findings.onlyB).toEqual([]);
+  });
+
+  it('finds nothing to list between a layout and itself', () => {
+    const c = compareLayouts(side(wheat), side(structuredClone(wheat)));
+    expect(c.rows).toEqual([]);
+    expect(c.findings.onlyA).toEqual([]);
+    expect(c.findings.onlyB).toEqual([]);
+    expect(c.findings.both.length).toBe(c.a.findings.length);
+    expect(c.metrics.every((m) => !m.differs)).toBe(true);
+  });
+
+  it('puts the computed figures side by side and marks those that differ', () => {
+    const c = compareLayouts(side(wheat), side(peas));
+    const aggr = c.metrics.find((m) => m.label === 'Threshing aggressiveness index')!;
+    expect(aggr.differs).toBe(true);
+    expect(Number(aggr.a)).toBeGreaterThan(Number(aggr.b)); // fine-wire rubs harder than round-bar
+  });
+
+  it('writes settings as people say them, in the chosen units', () => {
+    expect(settingValueWords('clearanceMm', 25.4, tamarackM4, 'imperial')).toBe('1.00 in');
+    expect(settingValueWords('clearanceMm', 10, tamarackM4)).toBe('10.0 mm');
+    expect(settingValueWords('drum', 'slim', tamarackM4)).toBe('Slim drum');
+    expect(settingValueWords('vaneSetting', 'very-slow', tamarackM4)).toBe('very slow');
+  });
+});
