@@ -70,6 +70,12 @@ test('technician: machine → versions → compare → share → opens signed ou
     b.vaneSetting = 'slow';
   }, 'Wide-wire right in position 2');
 
+  // The machine page lists the layout and the activity.
+  await page.goto(machineUrl);
+  await expect(page.getByTestId('layouts-table')).toContainText('Wheat plan');
+  await expect(page.getByTestId('activity')).toContainText('saved “Wheat plan” as version 3');
+  await shot(page, 'fleet-machine-detail');
+
   // History: three versions with who and the notes.
   await page.goto(`${machineUrl}/layouts/${layoutId}/history`);
   const versions = page.getByTestId('versions-table');
