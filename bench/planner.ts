@@ -34,25 +34,41 @@ for (let i = 0; i < 200; i++)
   planCropChange({ family, catalog, installed: starterLayout(family, cropIds[i % cropIds.length]!, demoCatalog), shelf, crop: 'corn' });
 
 const all: number[] = [];
-let worst = { ms: 0, from: '' as CropId, to: '' as CropId, mode: 'program' as PlanMode };
-for (const from of cropIds) {
+const pairs: { ms: number; from: CropId; to: CropId; mode: PlanMode }[] = [];
+const run = (from: CropId, to: CropId, mode: PlanMode, repeats: number) => {
   const installed: Layout = starterLayout(family, from, demoCatalog);
+  const times: number[] = [];
+  for (let r = 0; r < repeats; r++) {
+    const t0 = performance.now();
+    const plan = planCropChange({ family, catalog, installed, shelf, crop: to, mode });
+    times.push(performance.now() - t0);
+    if (!plan.ok || plan.counts.purchases !== 0) throw new Error(`full shelf should buy nothing (${from} → ${to}, ${mode})`);
+  }
+  return times;
+};
+for (const from of cropIds)
   for (const to of cropIds)
     for (const mode of ['program', 'on-hand'] as const) {
-      const times: number[] = [];
-      for (let r = 0; r < REPEATS; r++) {
-        const t0 = performance.now();
-        const plan = planCropChange({ family, catalog, installed, shelf, crop: to, mode });
-        times.push(performance.now() - t0);
-        if (!plan.ok || plan.counts.purchases !== 0) throw new Error(`full shelf should buy nothing (${from} → ${to}, ${mode})`);
-      }
-      const m = median(times);
+      const times = run(from, to, mode, REPEATS);
       all.push(...times);
-      if (m > worst.ms) worst = { ms: m, from, to, mode };
+      pairs.push({ ms: median(times), from, to, mode });
     }
-}
+// The machine is shared and noisy: measure the five slowest pairs again, many times each, and
+// report the slowest of their medians as the worst case.
+const again = [...pairs]
+  .sort((a, b) => b.ms - a.ms)
+  .slice(0, 5)
+  .map((p) => {
+    const times = run(p.from, p.to, p.mode, 200);
+    const sorted = [...times].sort((a, b) => a - b);
+    return { ...p, ms: median(times), p95: sorted[Math.floor(sorted.length * 0.95)]! };
+  });
+const worst = again.sort((a, b) => b.ms - a.ms)[0]!;
 
 console.log(`planner: ${family.name} (${places(family)} places), full shelf, ${cropIds.length}×${cropIds.length} crop pairs × 2 modes, ${REPEATS} runs each`);
 console.log(`  median of all plans : ${median(all).toFixed(3)} ms a plan`);
-console.log(`  worst pair (median) : ${worst.ms.toFixed(3)} ms a plan (${worst.from} → ${worst.to}, ${worst.mode})`);
+console.log(`  worst pair          : ${worst.ms.toFixed(3)} ms a plan median, p95 ${worst.p95.toFixed(3)} ms, over 200 runs (${worst.from} → ${worst.to}, ${worst.mode})`);
 console.log(`  budget              : ${BUDGET_MS} ms a plan — ${worst.ms <= BUDGET_MS ? 'within budget' : 'OVER BUDGET'}`);
+// JSON lines for scripts/bench.mjs to tabulate.
+console.log(JSON.stringify({ bench: 'planner', figure: `worst plan, ${family.name}, full shelf (median of 200)`, value: Number(worst.ms.toFixed(3)), unit: 'ms', budget: `≤ ${BUDGET_MS} ms`, ok: worst.ms <= BUDGET_MS }));
+console.log(JSON.stringify({ bench: 'planner', figure: `median plan, ${family.name}, full shelf`, value: Number(median(all).toFixed(3)), unit: 'ms', budget: `≤ ${BUDGET_MS} ms`, ok: median(all) <= BUDGET_MS }));

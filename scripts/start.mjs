@@ -36,6 +36,8 @@ if (!existsSync(entry)) {
 
 // Photo uploads go to a local S3-compatible fake unless a real bucket (or the disk store) is configured.
 if (!process.env.S3_ENDPOINT && process.env.CAGEWRIGHT_STORAGE !== 'disk') await (await import('./fakes/s3.mjs')).startFakeS3({ dataDir });
+// Mail goes to a local fake SMTP server (messages kept in <data dir>/mailbox) unless SMTP_URL names a real one.
+if (!process.env.SMTP_URL) await (await import('./fakes/smtp.mjs')).startFakeSmtp({ dataDir });
 const started = Date.now();
 await import(pathToFileURL(entry).href);
 

@@ -21,7 +21,9 @@ export function buildOnce() {
   if (process.env.CAGEWRIGHT_SKIP_BUILD === '1') return;
   const r = spawnSync('npx', ['astro', 'build'], {
     stdio: 'inherit',
-    env: { ...process.env, CAGEWRIGHT_OUT_DIR: outDir(), ASTRO_TELEMETRY_DISABLED: '1' },
+    // vitest sets NODE_ENV=test, which would build React's development JSX runtime (jsxDEV)
+    // into the server chunks and break every page that renders a React component on the server.
+    env: { ...process.env, NODE_ENV: 'production', CAGEWRIGHT_OUT_DIR: outDir(), ASTRO_TELEMETRY_DISABLED: '1' },
   });
   if (r.status !== 0) throw new Error('astro build failed');
 }
@@ -57,7 +59,11 @@ export async function startServer(opts: { dataDir?: string; env?: Record<string,
   let output = '';
   const exited = new Promise<number | null>((resolve) => child.on('exit', (code) => resolve(code)));
   await new Promise<void>((resolve, reject) => {
-    const timer = setTimeout(() => reject(new Error(`server did not start:\n${output}`)), 30_000);
+    // A loaded shared machine can take longer than 30 s to migrate and seed; never leave the child behind.
+    const timer = setTimeout(() => {
+      child.kill('SIGKILL');
+      reject(new Error(`server did not start:\n${output}`));
+    }, Number(process.env.CAGEWRIGHT_START_TIMEOUT_MS ?? 30_000));
     const onData = (b: Buffer) => {
       output += b.toString();
       if (output.includes('cagewright: ready')) {

@@ -1,0 +1,25 @@
+import { json, readJson, requireActor, route } from '../../../lib/server/http';
+import { LAYOUT_WRITERS } from '../../../lib/server/services/layouts';
+import { acceptPlan, acceptPlanSchema, editorUrl } from '../../../lib/server/services/planner';
+
+/**
+ * Accept a proposal: its layout becomes a new layout of the machine, or a new version of one
+ * (layoutId + baseVersion). 409 when the plan changed since the fingerprint the user saw.
+ */
+export const POST = route(async (ctx) => {
+  const actor = requireActor(ctx, LAYOUT_WRITERS);
+  const input = await readJson(ctx.request, acceptPlanSchema);
+  const r = await acceptPlan(actor, input);
+  return json(
+    {
+      layoutId: r.layoutId,
+      version: r.version,
+      machineId: r.machineId,
+      created: r.created,
+      editorUrl: editorUrl(r.machineId, r.layoutId),
+      fingerprint: r.plan.fingerprint,
+      counts: r.plan.counts,
+    },
+    201,
+  );
+});
