@@ -69,7 +69,7 @@ try {
   const share = await fetch(`${s.base}/api/share-links`, {
     method: 'POST',
     headers,
-    body: JSON.stringify({ layoutVersionId: version.current.id, label: 'bench' }),
+    body: JSON.stringify({ layoutId: layout.id, version: version.layout.currentVersion, label: 'bench' }),
   });
   const shareBody = share.ok ? await share.json() : null;
   const url = shareBody?.url ?? shareBody?.link?.url ?? (shareBody?.token ? `/share/${shareBody.token}` : null);
