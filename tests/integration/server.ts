@@ -63,7 +63,7 @@ export async function startServer(opts: { dataDir?: string; env?: Record<string,
     const timer = setTimeout(() => {
       child.kill('SIGKILL');
       reject(new Error(`server did not start:\n${output}`));
-    }, Number(process.env.CAGEWRIGHT_START_TIMEOUT_MS ?? 30_000));
+    }, Number(process.env.CAGEWRIGHT_START_TIMEOUT_MS ?? 120_000));
     const onData = (b: Buffer) => {
       output += b.toString();
       if (output.includes('cagewright: ready')) {

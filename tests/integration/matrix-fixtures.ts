@@ -1,0 +1,89 @@
+import { expect } from 'vitest';
+import { Client, DEMO, DEMO_PASSWORD } from './client';
+
+/** The second dealer's people (see src/lib/server/test-fixtures.ts): strangers to the demo's data. */
+export const OTHER = {
+  operator: 'op@fenwick.example',
+  technician: 'tech@brackenridge.example',
+  trainer: 'trainer@brackenridge.example',
+  admin: 'admin@brackenridge.example',
+} as const;
+
+export type Role = 'operator' | 'technician' | 'trainer' | 'admin';
+export const ROLES: Role[] = ['operator', 'technician', 'trainer', 'admin'];
+
+export interface Fixtures {
+  machineId: string;
+  familyId: string;
+  layoutId: string;
+  layoutBody: Record<string, unknown>;
+  partNumber: string;
+  shareLinkId: string;
+  deckId: string;
+  slideId: string;
+  inspectionId: string;
+  itemId: string;
+  photoId: string;
+  partsRequestId: string;
+  /** A tiny valid PNG for upload routes. */
+  png: Uint8Array;
+}
+
+const PNG_1PX = Uint8Array.from(
+  Buffer.from('iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mP8z8BQDwAEhQGAhKmMIQAAAABJRU5ErkJggg==', 'base64'),
+);
+
+async function as(email: string): Promise<Client> {
+  const c = new Client();
+  await c.signIn(email, DEMO_PASSWORD);
+  if (!c.hasSession()) throw new Error(`sign-in failed for ${email}`);
+  return c;
+}
+
+export async function clientsByRole() {
+  const own = {} as Record<Role, Client>;
+  const other = {} as Record<Role, Client>;
+  for (const r of ROLES) {
+    own[r] = await as(DEMO[r]);
+    other[r] = await as(OTHER[r]);
+  }
+  return { own, other, signedOut: new Client() };
+}
+
+/**
+ * Resources of the demo world (Larkspur Farms' machine, the dealer's deck, the demo inspection),
+ * found or made through the API itself.
+ */
+export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures> {
+  const olive = own.operator;
+  const html = await (await olive.fetch('/')).text();
+  const machineId = html.match(/href="\/machines\/([0-9a-f-]{36})"/)![1]!;
+  const machine = (await olive.get(`/api/machines/${machineId}`)).body;
+  const familyId: string = machine.familyId ?? machine.machine?.familyId;
+  const layouts = (await olive.get(`/api/machines/${machineId}/layouts`)).body.layouts;
+  const layoutId: string = layouts[0].id;
+  const layoutBody = (await olive.get(`/api/layouts/${layoutId}`)).body.current.body;
+  const partNumber: string = (layoutBody.elements as { partNumber: string }[])[0]!.partNumber;
+
+  const share = await own.technician.post('/api/share-links', { layoutId, version: 1, label: 'matrix' });
+  expect(share.status).toBe(201);
+  const shareLinkId: string = share.body.link?.id ?? share.body.id;
+
+  const decks = (await own.trainer.get('/api/decks')).body.decks;
+  const deckId: string = decks[0].id;
+  const deck = (await own.trainer.get(`/api/decks/${deckId}`)).body;
+  const slideId: string = deck.slides[0].id;
+
+  const inspections = (await own.technician.get('/api/inspections')).body.items;
+  const inspectionId: string = inspections[0].id;
+  const inspection = (await own.technician.get(`/api/inspections/${inspectionId}`)).body;
+  const withPhoto = inspection.items.find((i: { photos?: unknown[] }) => (i.photos ?? []).length > 0);
+  const itemId: string = inspection.items[0].id;
+  const photoId: string = withPhoto.photos[0].id;
+
+  const pr = await olive.post('/api/parts-requests', { from: 'manual', machineId, lines: [{ partNumber, quantity: 1 }] });
+  expect(pr.status, JSON.stringify(pr.body)).toBe(201);
+  const partsRequestId: string = pr.body.id ?? pr.body.request?.id;
+
+  return { machineId, familyId, layoutId, layoutBody, partNumber, shareLinkId, deckId, slideId, inspectionId, itemId, photoId, partsRequestId, png: PNG_1PX };
+}
