@@ -62,6 +62,12 @@ test('plan a crop change, accept it, make a parts request and send it; the desk 
   const number = (await page.getByTestId('request-heading').innerText()).replace('Parts request ', '').trim();
   const requestUrl = page.url().replace(/\?.*$/, '');
   await shot(page, 'parts-request-sent');
+  // The printable sheet: cautions and parts, no buttons.
+  await page.emulateMedia({ media: 'print' });
+  await expect(page.getByRole('button', { name: 'Print sheet' })).toBeHidden();
+  await expect(page.getByTestId('work-cautions')).toBeVisible();
+  await shot(page, 'parts-request-print');
+  await page.emulateMedia({ media: 'screen' });
 
   // The message in the fake mailbox, as the admin sees it.
   const adminContext = await browser.newContext();
