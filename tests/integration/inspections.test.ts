@@ -4,6 +4,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { request } from 'node:http';
 import sharp from 'sharp';
+import fc from 'fast-check';
 import { ListObjectsV2Command, S3Client } from '@aws-sdk/client-s3';
 import { Client, DEMO } from './client';
 import { removeDir, startServer, type RunningServer } from './server';
@@ -316,6 +317,7 @@ describe('inspections with photos in an S3-compatible bucket', () => {
       [{ items: [{ id: el.id, measurements: { wearMm: -1 } }] }, 'items.0.measurements.wearMm'],
       [{ items: [{ id: el.id, severity: 'scrap' }] }, 'items.0.severity'],
       [{ items: [{ id: el.id, note: 'x'.repeat(2001) }] }, 'items.0.note'],
+      [{ items: [{ id: el.id, note: 'nul \u0000 inside' }] }, 'items.0.note'],
       [{ items: [{ id: el.id }, { id: el.id }] }, 'items.1.id'],
     ] as const;
     for (const [body, field] of bad) {
@@ -333,6 +335,47 @@ describe('inspections with photos in an S3-compatible bucket', () => {
     expect(after).toMatchObject({ conditions: ['wires-missing', 'edge-wear'], severity: 'ok', note: 'Front wires gone', measurements: {} });
     expect((await tech.post(`/api/inspections/${insp.id}`, { action: 'reopen' })).body.error.field).toBe('action');
   });
+
+  it('answers random bodies with a 4xx naming what is wrong, never a 5xx, and changes nothing when it refuses', async () => {
+    const insp = (await tech.post(`/api/machines/${haldaneMachine}/inspections`, {})).body;
+    const ids = insp.items.map((i: any) => i.id) as string[];
+    const state = async () => JSON.stringify((await tech.get(`/api/inspections/${insp.id}`)).body.items.map((i: any) => [i.conditions, i.severity, i.measurements, i.note]));
+    const item = fc.record(
+      {
+        id: fc.oneof(fc.constantFrom(...ids), fc.uuid(), fc.string()),
+        conditions: fc.oneof(fc.array(fc.constantFrom('bent-bars', 'wires-missing', 'plate-warped', 'rust', '')), fc.anything()),
+        severity: fc.oneof(fc.constantFrom('ok', 'watch', 'replace', 'scrap'), fc.anything()),
+        measurements: fc.oneof(fc.dictionary(fc.constantFrom('wearMm', 'clearance:1:left:front', 'clearance:9:left:front', 'x'), fc.oneof(fc.double(), fc.constant(null), fc.string())), fc.anything()),
+        note: fc.oneof(fc.string({ maxLength: 20 }), fc.anything()),
+      },
+      { requiredKeys: ['id'] },
+    );
+    const body = fc.oneof(fc.anything(), fc.record({ items: fc.array(item, { maxLength: 3 }), title: fc.oneof(fc.string({ maxLength: 10 }), fc.anything()) }, { requiredKeys: [] }));
+    await fc.assert(
+      fc.asyncProperty(body, async (b) => {
+        const before = await state();
+        const res = await tech.patch(`/api/inspections/${insp.id}`, b);
+        expect(res.status, JSON.stringify(b)?.slice(0, 200)).toBeLessThan(500);
+        if (res.status !== 200) {
+          expect([400, 404, 413, 415]).toContain(res.status);
+          expect(typeof res.body.error.message).toBe('string');
+          expect(await state()).toBe(before);
+        }
+      }),
+      { numRuns: 60 },
+    );
+    // Random bytes as a photo are never stored.
+    const objects = await objectCount();
+    await fc.assert(
+      fc.asyncProperty(fc.uint8Array({ minLength: 1, maxLength: 2048 }), fc.string({ maxLength: 12 }), async (bytes, name) => {
+        const res = await upload(tech, insp.id, ids[0]!, form(bytes, `${name}.jpg`, 'image/jpeg'));
+        expect(res.status).toBe(415);
+      }),
+      { numRuns: 30 },
+    );
+    expect(await objectCount()).toBe(objects);
+    expect(await photoRows(tech, insp.id)).toBe(0);
+  }, 120_000);
 
   it('finishes: flagged elements become a draft parts request of the same part number and hand; then it is closed', async () => {
     const insp = (await tech.post(`/api/machines/${haldaneMachine}/inspections`, {})).body;

@@ -1,4 +1,4 @@
-import { eq } from 'drizzle-orm';
+import { and, eq } from 'drizzle-orm';
 import sharp from 'sharp';
 import type { Db } from './db';
 import * as t from '../../db/schema';
@@ -6,7 +6,6 @@ import { buildChecklist, clearanceReadingKey, countSeverities, replacementLines,
 import type { CatalogPart } from '../domain/schemas';
 import { storage, type ObjectStorage } from './storage';
 import { makeThumbnail, photoKeys } from './services/photos';
-import { addLinesToDraftRequest } from './services/inspection-parts';
 
 /** The demo machine inspected before the season, and who did it (all invented). */
 const DEMO_SERIAL = 'LK-2291-A';
@@ -138,7 +137,7 @@ export async function seedDemoInspection(db: Db, store: ObjectStorage = storage(
     }
     const { lines: parts } = replacementLines(items, inst.layout, catalog);
     const request = parts.length
-      ? await addLinesToDraftRequest(tx, actor, {
+      ? await demoDraftRequest(tx, actor, {
           orgId: machine.orgId, dealerOrgId: org.dealerId, machineId: machine.id, source: 'inspection', lines: parts,
           note: `Replacements for ${machine.nickname} (serial ${machine.serial}) from the pre-season inspection.`,
         })
@@ -163,4 +162,37 @@ function surveyReadings(positions: number[], setMm: number): Record<string, numb
         out[clearanceReadingKey(p, side, end)] = Math.round((setMm + wobble + (p === 2 && side === 'right' && end === 'front' ? 3.5 : 0)) * 10) / 10;
       }
   return out;
+}
+
+/**
+ * The demo's draft request for the flagged parts, written straight into the table like the
+ * rest of the seed (the store is still opening, so the parts-request service cannot be used).
+ * Adds to the machine's inspection draft when one exists.
+ */
+async function demoDraftRequest(
+  tx: Pick<Db, 'select' | 'insert' | 'update'>,
+  actor: { id: string; homeOrgId: string },
+  input: { orgId: string; dealerOrgId: string | null; machineId: string; source: 'inspection'; lines: t.PartsRequestLine[]; note: string },
+): Promise<{ id: string }> {
+  const [draft] = await tx
+    .select()
+    .from(t.partsRequests)
+    .where(and(eq(t.partsRequests.machineId, input.machineId), eq(t.partsRequests.status, 'draft'), eq(t.partsRequests.source, input.source)))
+    .limit(1);
+  if (draft) {
+    const lines = draft.lines.map((l) => ({ ...l }));
+    for (const l of input.lines) {
+      const same = lines.find((x) => x.partNumber === l.partNumber);
+      if (same) same.quantity += l.quantity;
+      else lines.push({ ...l });
+    }
+    await tx.update(t.partsRequests).set({ lines, note: draft.note ? `${draft.note}\n${input.note}` : input.note }).where(eq(t.partsRequests.id, draft.id));
+    return { id: draft.id };
+  }
+  const [row] = await tx
+    .insert(t.partsRequests)
+    .values({ orgId: input.orgId, dealerOrgId: input.dealerOrgId, machineId: input.machineId, source: input.source, status: 'draft', lines: input.lines, note: input.note, createdBy: actor.id })
+    .returning({ id: t.partsRequests.id });
+  await tx.insert(t.auditLog).values({ userId: actor.id, orgId: input.orgId, action: 'create', entity: 'parts-request', entityId: row!.id, detail: { source: input.source, lines: input.lines, demo: true } });
+  return { id: row!.id };
 }

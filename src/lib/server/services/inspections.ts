@@ -22,7 +22,7 @@ import type { Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
-import { addLinesToDraftRequest } from './inspection-parts';
+import { addLinesToDraftRequest } from './parts-requests';
 
 /** Who may start, fill in and finish an inspection. Everyone who can see the machine may read. */
 export const INSPECTION_WRITERS = ['operator', 'technician', 'admin'] as const;
@@ -33,8 +33,11 @@ export type InspectionItemRow = typeof inspectionItems.$inferSelect;
 // ---------------------------------------------------------------------------------------------
 // Input formats
 
+/** Text a person types; the database cannot keep a NUL character, so it is refused up front. */
+const typed = (max: number) => z.string().max(max).refine((t) => !t.includes('\u0000'), { error: 'contains a character that cannot be stored' });
+
 export const startInspectionSchema = z.object({
-  title: z.string().trim().max(120).optional(),
+  title: typed(120).transform((t) => t.trim()).optional(),
 });
 
 const measurementValue = z.number().min(0).max(1000).nullable();
@@ -45,13 +48,13 @@ export const itemUpdateSchema = z.object({
   severity: inspectionSeveritySchema.optional(),
   /** Millimetres; null removes a reading. */
   measurements: z.record(z.string().max(40), measurementValue).optional(),
-  note: z.string().max(2000).optional(),
+  note: typed(2000).optional(),
 });
 export type ItemUpdate = z.infer<typeof itemUpdateSchema>;
 
 export const updateInspectionSchema = z
   .object({
-    title: z.string().trim().max(120).optional(),
+    title: typed(120).transform((t) => t.trim()).optional(),
     items: z.array(itemUpdateSchema).max(200).default([]),
   })
   .superRefine((v, ctx) => {
@@ -348,42 +351,51 @@ export async function finishInspection(actor: Actor, id: string) {
   const row = await inspectionRowForActor(actor, id, db);
   assertOpen(row);
   const ctx = await machineForActor(actor, row.machineId, db);
-  const [items, catalog, current, [org]] = await Promise.all([
+  const [items, catalog, current] = await Promise.all([
     db.select().from(inspectionItems).where(eq(inspectionItems.inspectionId, row.id)).orderBy(asc(inspectionItems.position)),
     catalogForFamily(ctx.family.id, db),
     installedLayout(ctx.machine.id, db),
-    db.select({ dealerId: organisations.dealerId }).from(organisations).where(eq(organisations.id, row.orgId)).limit(1),
   ]);
   const { lines, unknown } = replacementLines(items, current?.layout ?? null, catalog);
-  const when = new Date().toISOString().slice(0, 10);
-  const result = await db.transaction(async (tx) => {
+
+  // Close it first, under a lock, so only one finish ever adds the parts.
+  await db.transaction(async (tx) => {
     const [locked] = await tx.select({ status: inspections.status }).from(inspections).where(eq(inspections.id, row.id)).for('update');
     if (locked?.status !== 'open') assertOpen({ ...row, status: 'finished' });
-    let request: { id: string } | null = null;
-    if (lines.length > 0) {
-      request = await addLinesToDraftRequest(tx, actor, {
-        orgId: row.orgId,
-        dealerOrgId: org?.dealerId ?? null,
-        machineId: row.machineId,
-        source: 'inspection',
-        lines,
-        note: `Replacements for ${ctx.machine.nickname} (serial ${ctx.machine.serial}) from the inspection finished ${when}.`,
-      });
-    }
     await tx.update(inspections).set({ status: 'finished', finishedAt: sql`now()` }).where(eq(inspections.id, row.id));
+  });
+
+  let requestId: string | null = null;
+  if (lines.length > 0) {
+    const when = new Date().toISOString().slice(0, 10);
+    try {
+      const request = await addLinesToDraftRequest(
+        actor,
+        ctx.machine.id,
+        lines.map((l) => ({ partNumber: l.partNumber, quantity: l.quantity })),
+        'inspection',
+        `Replacements for ${ctx.machine.nickname} (serial ${ctx.machine.serial}) from the inspection finished ${when}.`,
+      );
+      requestId = request.id;
+    } catch (err) {
+      // The parts could not be requested: open the inspection again so nothing is lost.
+      await db.update(inspections).set({ status: 'open', finishedAt: null }).where(eq(inspections.id, row.id));
+      throw err;
+    }
+  }
+  await db.transaction(async (tx) => {
     await audit(
       tx,
       actor,
       'finish',
       'inspection',
       row.id,
-      { machineId: row.machineId, counts: countSeverities(items), partsRequestId: request?.id ?? null, lines, unknownParts: unknown },
+      { machineId: row.machineId, counts: countSeverities(items), partsRequestId: requestId, lines, unknownParts: unknown },
       row.orgId,
     );
-    return request;
   });
   const detail = await getInspection(actor, row.id, db);
-  return { ...detail, added: lines, unknownParts: unknown, partsRequestId: result?.id ?? null };
+  return { ...detail, added: lines, unknownParts: unknown, partsRequestId: requestId };
 }
 
 /** Which families the inspected machines belong to, for the list page's start form. */
