@@ -411,3 +411,60 @@ describe('layouts: start, history, restore, compare, copy', () => {
     expect((await dev.get(`/api/machines/${creekside.id}/layouts`)).body.layouts.length).toBe(before);
   });
 });
+
+describe('bad input on every write route (generated bodies)', () => {
+  it('always answers 400 with a message (naming the field for objects), never 5xx, and writes nothing', async () => {
+    const fc = (await import('fast-check')).default;
+    const { layout } = await newLayout(olive, northQuarter.id, uniq('fuzz target'));
+    const linkCount = async () => ((await olive.get('/api/share-links')).body.links as unknown[]).length;
+    const partCount = async () => ((await ada.get('/api/catalog/parts?status=all')).body.parts as unknown[]).length;
+    const before = {
+      machines: await machineCount(tomas),
+      versions: (await olive.get(`/api/layouts/${layout.id}/versions`)).body.versions.length,
+      links: await linkCount(),
+      orgs: (await ada.get('/api/orgs')).body.orgs.length,
+      parts: await partCount(),
+      families: (await ada.get('/api/catalog/families')).body.families.length,
+      machine: (await olive.get(`/api/machines/${northQuarter.id}`)).body.machine,
+      installed: (await olive.get(`/api/machines/${northQuarter.id}/installed`)).body.installed,
+    };
+    const routes: [Client, 'POST' | 'PUT', string][] = [
+      [tomas, 'POST', '/api/machines'],
+      [olive, 'PUT', `/api/machines/${northQuarter.id}`],
+      [olive, 'PUT', `/api/machines/${northQuarter.id}/installed`],
+      [olive, 'POST', `/api/machines/${northQuarter.id}/layouts`],
+      [olive, 'PUT', `/api/layouts/${layout.id}`],
+      [olive, 'POST', `/api/layouts/${layout.id}/restore`],
+      [olive, 'POST', `/api/layouts/${layout.id}/copy`],
+      [olive, 'POST', '/api/share-links'],
+      [ada, 'POST', '/api/orgs'],
+      [ada, 'POST', '/api/catalog/families'],
+      [ada, 'PUT', '/api/catalog/families/tamarack-m4'],
+      [ada, 'POST', '/api/catalog/parts'],
+      [ada, 'PUT', '/api/catalog/parts/CW-FW-L-04'],
+    ];
+    // Arbitrary JSON, and objects whose keys are the routes' real field names with wrong values.
+    const keys = fc.constantFrom('name', 'nickname', 'serial', 'familyId', 'drum', 'vaneControl', 'orgId', 'layout', 'body', 'baseVersion', 'version', 'machineId', 'layoutId', 'label', 'expiresAt', 'part', 'crop', 'positions', 'id');
+    const body = fc.oneof(fc.jsonValue({ maxDepth: 3 }), fc.dictionary(keys, fc.jsonValue({ maxDepth: 2 }), { minKeys: 1, maxKeys: 5 }));
+    for (const [client, method, path] of routes) {
+      await fc.assert(
+        fc.asyncProperty(body, async (b) => {
+          const res = await client.json(method, path, b);
+          expect(res.status, `${method} ${path} ${JSON.stringify(b).slice(0, 200)}`).toBeGreaterThanOrEqual(400);
+          expect(res.status, `${method} ${path} ${JSON.stringify(b).slice(0, 200)}`).toBeLessThan(500);
+          expect(typeof res.body.error.message).toBe('string');
+          if (res.status === 400 && b !== null && typeof b === 'object' && !Array.isArray(b)) expect(res.body.error.field, `${path} ${JSON.stringify(b).slice(0, 200)}`).toBeTruthy();
+        }),
+        { numRuns: 20 },
+      );
+    }
+    expect(await machineCount(tomas)).toBe(before.machines);
+    expect((await olive.get(`/api/layouts/${layout.id}/versions`)).body.versions.length).toBe(before.versions);
+    expect(await linkCount()).toBe(before.links);
+    expect((await ada.get('/api/orgs')).body.orgs.length).toBe(before.orgs);
+    expect(await partCount()).toBe(before.parts);
+    expect((await ada.get('/api/catalog/families')).body.families.length).toBe(before.families);
+    expect((await olive.get(`/api/machines/${northQuarter.id}`)).body.machine).toEqual(before.machine);
+    expect((await olive.get(`/api/machines/${northQuarter.id}/installed`)).body.installed).toEqual(before.installed);
+  });
+});

@@ -86,15 +86,20 @@ export const createMachineSchema = z.object({
   notes: text(2000).default(''),
 });
 
-export const updateMachineSchema = z.object({
-  familyId: z.never({ error: 'a machine keeps its family; add a new machine instead' }).optional(),
-  orgId: z.never({ error: 'a machine stays with its organisation' }).optional(),
-  drum: drumIdSchema.optional(),
-  vaneControl: vaneControlSchema.optional(),
-  serial: text(40).min(1, { error: 'give the serial number' }).optional(),
-  nickname: text(60).min(1, { error: 'give the machine a name' }).optional(),
-  notes: text(2000).optional(),
-});
+export const updateMachineSchema = z
+  .object({
+    familyId: z.never({ error: 'a machine keeps its family; add a new machine instead' }).optional(),
+    orgId: z.never({ error: 'a machine stays with its organisation' }).optional(),
+    drum: drumIdSchema.optional(),
+    vaneControl: vaneControlSchema.optional(),
+    serial: text(40).min(1, { error: 'give the serial number' }).optional(),
+    nickname: text(60).min(1, { error: 'give the machine a name' }).optional(),
+    notes: text(2000).optional(),
+  })
+  .refine((v) => Object.values(v).some((x) => x !== undefined), {
+    error: 'give at least one of drum, vaneControl, serial, nickname or notes to change',
+    path: ['nickname'],
+  });
 
 const sortColumns = {
   nickname: machines.nickname,
@@ -142,24 +147,29 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
     );
   }
   const where = and(...conditions);
-  const [rows, [{ n }]] = await Promise.all([
-    db
-      .select(listColumns)
-      .from(machines)
-      .innerJoin(families, eq(families.id, machines.familyId))
-      .innerJoin(organisations, eq(organisations.id, machines.orgId))
-      .where(where)
-      .orderBy(desc_ ? desc(column) : asc(column), asc(machines.id))
-      .limit(query.pageSize)
-      .offset((query.page - 1) * query.pageSize),
-    db
+  // One round trip: the page and the total (a window count over the filtered rows).
+  const rows = await db
+    .select({ ...listColumns, total: sql<number>`count(*) over ()`.mapWith(Number) })
+    .from(machines)
+    .innerJoin(families, eq(families.id, machines.familyId))
+    .innerJoin(organisations, eq(organisations.id, machines.orgId))
+    .where(where)
+    .orderBy(desc_ ? desc(column) : asc(column), asc(machines.id))
+    .limit(query.pageSize)
+    .offset((query.page - 1) * query.pageSize);
+  let n = rows[0]?.total;
+  if (n === undefined) {
+    // Past the last page (or nothing matches): count separately so the pager still knows the total.
+    const [c] = await db
       .select({ n: count() })
       .from(machines)
       .innerJoin(families, eq(families.id, machines.familyId))
       .innerJoin(organisations, eq(organisations.id, machines.orgId))
-      .where(where) as Promise<{ n: number }[]>,
-  ]);
-  return { items: rows, total: n, page: query.page, pageSize: query.pageSize, sort: query.sort, q: query.q };
+      .where(where);
+    n = c?.n ?? 0;
+  }
+  const items = rows.map(({ total: _t, ...item }) => item);
+  return { items, total: n, page: query.page, pageSize: query.pageSize, sort: query.sort, q: query.q };
 }
 
 function assertMachineFitsFamily(family: MachineFamily, drum: string, vaneControl: string) {
