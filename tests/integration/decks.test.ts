@@ -304,6 +304,7 @@ describe('sharing a deck', () => {
     expect(html).toContain('Lentils, split cage');
     expect(html).toContain('<strong>position 1</strong>');
     expect(html).toContain('data-testid="cage-diagram"');
+    expect(html).not.toContain('<astro-island'); // rendered on the server, no script to load
     expect((await anon.fetch(made.body.path, { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: 'x=1' })).status).toBe(405);
     // A deck link is not a layout link.
     expect((await anon.fetch(`/share/${made.body.token}`)).status).toBe(404);

@@ -317,7 +317,7 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
           <text key={p.index} x={g.colX(i) + g.colW / 2} y={66} textAnchor="middle" fontSize={fs} fontWeight={700} fill={INK}>
             Position {p.index}
             <tspan x={g.colX(i) + g.colW / 2} dy={fs + 2} fontSize={small} fontWeight={400} fill={INK_MUTED}>
-              {p.turns.toFixed(1)} turns{p.plates ? ' · held by plate' : ''}
+              {p.turns.toFixed(1)} turns{p.plates ? (g.colW >= 180 ? ' · held by plate' : ' · plate') : ''}
             </tspan>
           </text>
         ))}

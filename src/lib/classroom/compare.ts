@@ -9,7 +9,7 @@ import { cropPrograms } from '../domain/crops';
 import { describePlace, diffLayouts, type LayoutDiff, type LayoutDifference } from '../domain/diff';
 import { placeKey } from '../domain/places';
 import { checkLayout } from '../domain/rules';
-import type { CatalogPart, Finding, Layout, MachineFamily, SettingField } from '../domain/schemas';
+import type { CatalogPart, Finding, Layout, MachineFamily, Place, SettingField } from '../domain/schemas';
 import { formatLength, formatSpeed, mm, type UnitSystem } from '../domain/units';
 
 export interface CompareInput {
@@ -48,7 +48,15 @@ export interface Comparison {
   a: ComparedSide;
   b: ComparedSide;
   diff: LayoutDiff;
+  /**
+   * The differences to show. Across two machine families every part number differs, so there a
+   * part counts as changed only when it is of another kind (element type and hand, bar kind,
+   * plate side) — a rasp bar against a rasp bar of the other family is not a difference.
+   */
   rows: DifferenceRow[];
+  counts: LayoutDiff['counts'];
+  /** The places of `rows`, to mark on both diagrams. */
+  places: Place[];
   /** Findings only A has, only B has, and both have (matched by code and places). */
   findings: { onlyA: Finding[]; onlyB: Finding[]; both: Finding[] };
   metrics: MetricRow[];
@@ -76,6 +84,15 @@ export function settingValueWords(field: SettingField, value: string | number, f
     case 'vaneSetting':
       return VANE_WORDS[String(value)] ?? String(value);
   }
+}
+
+/** What a part is, regardless of the family it is made for. */
+function partKind(partNumber: string | null, catalog: readonly CatalogPart[]): string | null {
+  const part = partNumber === null ? undefined : catalog.find((p) => p.partNumber === partNumber);
+  if (!part) return partNumber;
+  if (part.kind === 'element') return `element:${part.elementType}:${part.hand}`;
+  if (part.kind === 'cover-plate') return `cover:${part.side}`;
+  return `bar:${part.barKind}`;
 }
 
 function partWords(partNumber: string | null, catalog: readonly CatalogPart[]): string {
@@ -121,7 +138,11 @@ export function compareLayouts(aIn: CompareInput, bIn: CompareInput, units: Unit
   const b = sideOf(bIn);
   const diff = diffLayouts(a.layout, b.layout);
   const at = (findings: Finding[], key: string) => findings.filter((f) => f.places.some((p) => placeKey(p) === key));
-  const rows: DifferenceRow[] = diff.differences.map((d, i) => {
+  const acrossFamilies = a.family.id !== b.family.id;
+  const shown = diff.differences.filter(
+    (d) => !acrossFamilies || d.kind === 'setting' || partKind(d.before, a.catalog) !== partKind(d.after, b.catalog),
+  );
+  const rows: DifferenceRow[] = shown.map((d, i) => {
     const key = placeKey(d.place);
     const before = d.kind === 'setting' ? settingValueWords(d.field, d.before, a.family, units) : partWords(d.before, a.catalog);
     const after = d.kind === 'setting' ? settingValueWords(d.field, d.after, b.family, units) : partWords(d.after, b.catalog);
@@ -143,6 +164,13 @@ export function compareLayouts(aIn: CompareInput, bIn: CompareInput, units: Unit
     b,
     diff,
     rows,
+    counts: {
+      elements: shown.filter((d) => d.kind === 'element').length,
+      coverPlates: shown.filter((d) => d.kind === 'cover').length,
+      rotorBars: shown.filter((d) => d.kind === 'bar').length,
+      settings: shown.filter((d) => d.kind === 'setting').length,
+    },
+    places: shown.map((d) => d.place),
     findings: {
       onlyA: a.findings.filter((f) => !keysB.has(findingKey(f))),
       onlyB: b.findings.filter((f) => !keysA.has(findingKey(f))),

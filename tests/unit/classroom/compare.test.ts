@@ -56,3 +56,19 @@ describe('compareLayouts', () => {
     expect(settingValueWords('vaneSetting', 'very-slow', tamarackM4)).toBe('very slow');
   });
 });
+
+describe('comparing across machine families', () => {
+  it('counts a part as changed only when it is of another kind', async () => {
+    const { sedgeS6 } = await import('../../../src/lib/domain/demo-catalog');
+    const a = starterLayout(tamarackM4, 'wheat', demoCatalog);
+    const b = starterLayout(sedgeS6, 'wheat', demoCatalog);
+    const c = compareLayouts(side(a), { family: sedgeS6, catalog: demoCatalog, layout: b });
+    expect(c.diff.familyChanged).toBe(true);
+    // Position 1 is fine-wire on both: not a difference, though the part numbers differ.
+    expect(c.places.map(placeKey)).not.toContain('element:1:left');
+    expect(c.rows.every((r) => r.difference.kind !== 'bar' || r.difference.change !== 'changed')).toBe(true);
+    // Positions 5 and 6 exist only on the split cage: they are added.
+    expect(c.places.map(placeKey)).toEqual(expect.arrayContaining(['element:5:left', 'element:6:right']));
+    expect(c.counts.elements).toBe(c.rows.filter((r) => r.difference.kind === 'element').length);
+  });
+});
