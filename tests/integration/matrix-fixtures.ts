@@ -15,6 +15,8 @@ export const ROLES: Role[] = ['operator', 'technician', 'trainer', 'admin'];
 export interface Fixtures {
   machineId: string;
   familyId: string;
+  family: Record<string, unknown>;
+  part: Record<string, unknown>;
   layoutId: string;
   layoutBody: Record<string, unknown>;
   partNumber: string;
@@ -65,6 +67,9 @@ export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures>
   const layoutBody = (await olive.get(`/api/layouts/${layoutId}`)).body.current.body;
   const partNumber: string = (layoutBody.elements as { partNumber: string }[])[0]!.partNumber;
 
+  const family = (await own.admin.get(`/api/catalog/families/${familyId}`)).body;
+  const part = (await own.admin.get(`/api/catalog/parts/${partNumber}`)).body;
+
   const share = await own.technician.post('/api/share-links', { layoutId, version: 1, label: 'matrix' });
   expect(share.status).toBe(201);
   const shareLinkId: string = share.body.link?.id ?? share.body.id;
@@ -85,5 +90,5 @@ export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures>
   expect(pr.status, JSON.stringify(pr.body)).toBe(201);
   const partsRequestId: string = pr.body.id ?? pr.body.request?.id;
 
-  return { machineId, familyId, layoutId, layoutBody, partNumber, shareLinkId, deckId, slideId, inspectionId, itemId, photoId, partsRequestId, png: PNG_1PX };
+  return { machineId, familyId, family: family.family?.spec ?? family.family ?? family, part: part.part?.spec ?? part.part ?? part, layoutId, layoutBody, partNumber, shareLinkId, deckId, slideId, inspectionId, itemId, photoId, partsRequestId, png: PNG_1PX };
 }

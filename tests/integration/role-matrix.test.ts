@@ -1,7 +1,8 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { Client } from './client';
 import { apiRoutes, fill } from './routes';
-import { clientsByRole, loadFixtures, ROLES, type Fixtures, type Role } from './matrix-fixtures';
+import { clientsByRole, loadFixtures, ROLES, type Fixtures } from './matrix-fixtures';
+import { MATRIX, type Method } from './api-matrix';
 
 /**
  * Every API route × method × (signed out, each role, another organisation). Expectations are
@@ -15,107 +16,6 @@ import { clientsByRole, loadFixtures, ROLES, type Fixtures, type Role } from './
  * - another organisation (the second dealer's people, who share nothing with the demo): 404 for
  *   our resource, with a body that would be valid; collections never list our ids.
  */
-type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
-const ALL: Role[] = ['operator', 'technician', 'trainer', 'admin'];
-const WRITERS: Role[] = ['operator', 'technician', 'admin'];
-const DESK: Role[] = ['technician', 'admin'];
-const DECK: Role[] = ['trainer', 'technician'];
-const ADMIN: Role[] = ['admin'];
-
-interface Row {
-  allowed: Role[] | 'public';
-  /** Params of the route filled from the fixtures. */
-  params?: (f: Fixtures) => Record<string, string>;
-  query?: (f: Fixtures) => string;
-  /** A body valid for our resource: sent only by strangers, who must get 404. */
-  body?: (f: Fixtures) => unknown;
-  /** Upload routes send multipart. */
-  multipart?: boolean;
-  /** How strangers are kept out: 404 on our resource, or (collections) our ids never listed. */
-  other: 'not-found' | 'not-listed' | 'none';
-  /** Why there is no other-organisation check. */
-  why?: string;
-}
-
-const machine = (f: Fixtures) => ({ id: f.machineId });
-const layout = (f: Fixtures) => ({ id: f.layoutId });
-const deck = (f: Fixtures) => ({ id: f.deckId });
-const request = (f: Fixtures) => ({ id: f.partsRequestId });
-
-const MATRIX: Record<string, Row> = {
-  'POST /api/admin/backup': { allowed: ADMIN, other: 'none', why: 'not an organisation resource' },
-  'GET /api/admin/backup': { allowed: 'public', other: 'none', why: 'answers 405 to everyone' },
-  'GET /api/admin/mailbox': { allowed: ADMIN, other: 'none', why: 'the development mailbox' },
-  'GET /api/admin/stats': { allowed: ADMIN, other: 'none', why: 'table counts only' },
-  'GET /api/admin/users': { allowed: ADMIN, other: 'not-listed' },
-  'GET /api/catalog/families': { allowed: ALL, other: 'none', why: 'the catalog is shared' },
-  'POST /api/catalog/families': { allowed: ADMIN, other: 'none', why: 'the catalog is shared' },
-  'GET /api/catalog/families/[id]': { allowed: ALL, params: (f) => ({ id: f.familyId }), other: 'none', why: 'the catalog is shared' },
-  'PUT /api/catalog/families/[id]': { allowed: ADMIN, params: (f) => ({ id: f.familyId }), other: 'none', why: 'the catalog is shared' },
-  'GET /api/catalog/parts': { allowed: ALL, other: 'none', why: 'the catalog is shared' },
-  'POST /api/catalog/parts': { allowed: ADMIN, other: 'none', why: 'the catalog is shared' },
-  'GET /api/catalog/parts/[partNumber]': { allowed: ALL, params: (f) => ({ partNumber: f.partNumber }), other: 'none', why: 'the catalog is shared' },
-  'PUT /api/catalog/parts/[partNumber]': { allowed: ADMIN, params: (f) => ({ partNumber: f.partNumber }), other: 'none', why: 'the catalog is shared' },
-  'DELETE /api/catalog/parts/[partNumber]': { allowed: ADMIN, params: (f) => ({ partNumber: f.partNumber }), other: 'none', why: 'the catalog is shared' },
-  'POST /api/check': { allowed: ALL, other: 'none', why: 'stateless' },
-  'GET /api/decks': { allowed: DECK, other: 'not-listed' },
-  'POST /api/decks': { allowed: DECK, other: 'none', why: 'creates in the caller’s own organisation' },
-  'GET /api/decks/[id]': { allowed: DECK, params: deck, other: 'not-found' },
-  'PATCH /api/decks/[id]': { allowed: DECK, params: deck, body: () => ({ title: 'taken over' }), other: 'not-found' },
-  'DELETE /api/decks/[id]': { allowed: DECK, params: deck, other: 'not-found' },
-  'GET /api/decks/[id]/share': { allowed: DECK, params: deck, other: 'not-found' },
-  'POST /api/decks/[id]/share': { allowed: DECK, params: deck, body: () => ({ label: 'x' }), other: 'not-found' },
-  'DELETE /api/decks/[id]/share': { allowed: DECK, params: deck, query: (f) => `?link=${f.shareLinkId}`, other: 'not-found' },
-  'GET /api/decks/[id]/slides': { allowed: DECK, params: deck, other: 'not-found' },
-  'POST /api/decks/[id]/slides': { allowed: DECK, params: deck, body: (f) => ({ title: 'x', starter: { familyId: f.familyId, crop: 'wheat' } }), other: 'not-found' },
-  'PUT /api/decks/[id]/slides': { allowed: DECK, params: deck, body: (f) => ({ order: [f.slideId] }), other: 'not-found' },
-  'GET /api/decks/[id]/slides/[slideId]': { allowed: DECK, params: (f) => ({ id: f.deckId, slideId: f.slideId }), other: 'not-found' },
-  'PATCH /api/decks/[id]/slides/[slideId]': { allowed: DECK, params: (f) => ({ id: f.deckId, slideId: f.slideId }), body: () => ({ title: 'taken over' }), other: 'not-found' },
-  'DELETE /api/decks/[id]/slides/[slideId]': { allowed: DECK, params: (f) => ({ id: f.deckId, slideId: f.slideId }), other: 'not-found' },
-  'GET /api/health': { allowed: 'public', other: 'none', why: 'liveness' },
-  'GET /api/inspections': { allowed: ALL, other: 'not-listed' },
-  'GET /api/inspections/[id]': { allowed: ALL, params: (f) => ({ id: f.inspectionId }), other: 'not-found' },
-  'PATCH /api/inspections/[id]': { allowed: WRITERS, params: (f) => ({ id: f.inspectionId }), body: () => ({ title: 'taken over' }), other: 'not-found' },
-  'POST /api/inspections/[id]': { allowed: WRITERS, params: (f) => ({ id: f.inspectionId }), body: () => ({ action: 'finish' }), other: 'not-found' },
-  'POST /api/inspections/[id]/items/[itemId]/photos': { allowed: WRITERS, params: (f) => ({ id: f.inspectionId, itemId: f.itemId }), multipart: true, other: 'not-found' },
-  'GET /api/layouts/[id]': { allowed: ALL, params: layout, other: 'not-found' },
-  'PUT /api/layouts/[id]': { allowed: WRITERS, params: layout, body: (f) => ({ baseVersion: 1, body: f.layoutBody, note: 'taken over' }), other: 'not-found' },
-  'GET /api/layouts/[id]/compare': { allowed: ALL, params: layout, query: () => '?a=1&b=1', other: 'not-found' },
-  'POST /api/layouts/[id]/copy': { allowed: WRITERS, params: layout, body: (f) => ({ machineId: f.machineId }), other: 'not-found' },
-  'POST /api/layouts/[id]/restore': { allowed: WRITERS, params: layout, body: () => ({ version: 1 }), other: 'not-found' },
-  'GET /api/layouts/[id]/versions': { allowed: ALL, params: layout, other: 'not-found' },
-  'GET /api/layouts/[id]/versions/[version]': { allowed: ALL, params: (f) => ({ id: f.layoutId, version: '1' }), other: 'not-found' },
-  'GET /api/machines': { allowed: ALL, other: 'not-listed' },
-  'POST /api/machines': { allowed: WRITERS, other: 'none', why: 'creates in the caller’s own organisation (orgId of another is refused: fleet tests)' },
-  'GET /api/machines/[id]': { allowed: ALL, params: machine, other: 'not-found' },
-  'PUT /api/machines/[id]': { allowed: WRITERS, params: machine, body: () => ({ nickname: 'taken over' }), other: 'not-found' },
-  'DELETE /api/machines/[id]': { allowed: WRITERS, params: machine, other: 'not-found' },
-  'GET /api/machines/[id]/inspections': { allowed: ALL, params: machine, other: 'not-found' },
-  'POST /api/machines/[id]/inspections': { allowed: WRITERS, params: machine, body: () => ({ title: 'x' }), other: 'not-found' },
-  'GET /api/machines/[id]/installed': { allowed: ALL, params: machine, other: 'not-found' },
-  'PUT /api/machines/[id]/installed': { allowed: WRITERS, params: machine, body: (f) => ({ layout: f.layoutBody }), other: 'not-found' },
-  'GET /api/machines/[id]/layouts': { allowed: ALL, params: machine, other: 'not-found' },
-  'POST /api/machines/[id]/layouts': { allowed: WRITERS, params: machine, body: (f) => ({ name: 'x', body: f.layoutBody }), other: 'not-found' },
-  'GET /api/me': { allowed: ALL, other: 'none', why: 'the caller themself' },
-  'PUT /api/me': { allowed: ALL, other: 'none', why: 'the caller themself' },
-  'GET /api/orgs': { allowed: ALL, other: 'not-listed' },
-  'POST /api/orgs': { allowed: ADMIN, other: 'none', why: 'creates a farm for the admin’s own dealer' },
-  'GET /api/parts-requests': { allowed: ALL, other: 'not-listed' },
-  'POST /api/parts-requests': { allowed: WRITERS, body: (f) => ({ from: 'manual', machineId: f.machineId, lines: [{ partNumber: f.partNumber, quantity: 1 }] }), other: 'not-found' },
-  'GET /api/parts-requests/[id]': { allowed: ALL, params: request, other: 'not-found' },
-  'PUT /api/parts-requests/[id]': { allowed: WRITERS, params: request, body: (f) => ({ lines: [{ partNumber: f.partNumber, quantity: 9 }] }), other: 'not-found' },
-  'DELETE /api/parts-requests/[id]': { allowed: WRITERS, params: request, other: 'not-found' },
-  'POST /api/parts-requests/[id]/status': { allowed: DESK, params: request, body: () => ({ status: 'acknowledged' }), other: 'not-found' },
-  'POST /api/parts-requests/[id]/submit': { allowed: WRITERS, params: request, other: 'not-found' },
-  'GET /api/photos/[id]': { allowed: ALL, params: (f) => ({ id: f.photoId }), other: 'not-found' },
-  'DELETE /api/photos/[id]': { allowed: WRITERS, params: (f) => ({ id: f.photoId }), other: 'not-found' },
-  'POST /api/plans': { allowed: WRITERS, body: (f) => ({ machineId: f.machineId, crop: 'field-peas' }), other: 'not-found' },
-  'POST /api/plans/accept': { allowed: WRITERS, body: (f) => ({ machineId: f.machineId, crop: 'field-peas' }), other: 'not-found' },
-  'GET /api/share-links': { allowed: ALL, other: 'not-listed' },
-  'POST /api/share-links': { allowed: WRITERS, body: (f) => ({ layoutId: f.layoutId, version: 1 }), other: 'not-found' },
-  'DELETE /api/share-links/[id]': { allowed: WRITERS, params: (f) => ({ id: f.shareLinkId }), other: 'not-found' },
-};
-
 const UNKNOWN_ID = '00000000-0000-4000-8000-00000000beef';
 
 function send(c: Client, method: Method, path: string, body: unknown, multipart = false, png?: Uint8Array) {

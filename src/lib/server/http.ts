@@ -31,9 +31,12 @@ export function errorResponse(status: number, message: string, field?: string, e
 function zodToHttp(error: z.ZodError, prefix?: string): HttpError {
   const issue = error.issues[0];
   const path = [prefix, ...(issue?.path ?? [])].filter((p) => p !== undefined && p !== '').join('.');
-  const field = path || undefined;
-  const issues = error.issues.slice(0, 20).map((i) => ({ field: [prefix, ...i.path].filter(Boolean).join('.'), message: i.message }));
-  return new HttpError(400, field ? `${field}: ${issue.message}` : issue.message, field, { issues });
+  // An issue at the root (the body is not an object at all) names the body itself.
+  const field = path || 'body';
+  const issues = error.issues
+    .slice(0, 20)
+    .map((i) => ({ field: [prefix, ...i.path].filter((p) => p !== undefined && p !== '').join('.') || 'body', message: i.message }));
+  return new HttpError(400, `${field}: ${issue?.message ?? 'invalid'}`, field, { issues });
 }
 
 const MAX_JSON_BYTES = 1_000_000;
