@@ -18,7 +18,7 @@ import { versionOf } from './layouts';
 export const putInstalledSchema = z
   .object({
     layout: layoutSchema.optional(),
-    fromLayout: z.object({ layoutId: z.uuid(), version: z.int().min(1) }).optional(),
+    fromLayout: z.object({ layoutId: z.uuid(), version: z.int32().min(1) }).optional(),
   })
   .superRefine((v, ctx) => {
     if (!v.layout === !v.fromLayout)

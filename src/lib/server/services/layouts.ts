@@ -24,7 +24,7 @@ export const createLayoutSchema = z.object({
 
 export const saveVersionSchema = z.object({
   /** The version the editor started from; a newer one on the server means a conflict (409). */
-  baseVersion: z.int().min(1),
+  baseVersion: z.int32().min(1),
   body: layoutSchema,
   note: z.string().max(500).default(''),
 });
@@ -193,9 +193,9 @@ async function appendVersion(
 
 export const restoreSchema = z.object({
   /** The old version whose content becomes the newest version. */
-  version: z.int().min(1),
+  version: z.int32().min(1),
   /** Optional guard: the version the page showed as current (409 if someone saved since). */
-  baseVersion: z.int().min(1).optional(),
+  baseVersion: z.int32().min(1).optional(),
   note: z.string().max(500).optional(),
 });
 
@@ -225,7 +225,7 @@ export const copySchema = z.object({
   /** The machine to copy to; it must be of the same family. */
   machineId: z.uuid(),
   /** Which version to copy; the current one by default. */
-  version: z.int().min(1).optional(),
+  version: z.int32().min(1).optional(),
   name: z.string().trim().min(1).max(120).optional(),
   note: z.string().max(500).optional(),
 });

@@ -73,7 +73,7 @@ export type LineInput = z.infer<typeof lineInputSchema>;
 
 export const createPartsRequestSchema = z.discriminatedUnion('from', [
   z.object({ from: z.literal('plan'), machineId: z.uuid(), crop: cropIdSchema, mode: planModeSchema.default('program'), note }),
-  z.object({ from: z.literal('layout'), layoutId: z.uuid(), version: z.int().min(1).optional(), note }),
+  z.object({ from: z.literal('layout'), layoutId: z.uuid(), version: z.int32().min(1).optional(), note }),
   z.object({ from: z.literal('manual'), machineId: z.uuid(), lines: z.array(lineInputSchema).min(1).max(100), note }),
 ]);
 export type CreatePartsRequest = z.infer<typeof createPartsRequestSchema>;

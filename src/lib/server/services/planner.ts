@@ -32,7 +32,7 @@ export const acceptPlanSchema = planRequestSchema
     fingerprint: z.string().regex(/^[0-9a-f]{8}$/, 'the fingerprint of the proposal you saw').optional(),
     /** Save as a new version of this layout of the machine; without it a new layout is made. */
     layoutId: z.uuid().optional(),
-    baseVersion: z.int().min(1).optional(),
+    baseVersion: z.int32().min(1).optional(),
     name: z.string().trim().min(1).max(120).optional(),
     note: z.string().max(500).optional(),
   })

@@ -24,7 +24,7 @@ export const hashToken = (token: string) => createHash('sha256').update(token, '
 export const createShareSchema = z.object({
   layoutId: z.uuid(),
   /** The saved version to share; the link keeps showing that version after later saves. */
-  version: z.int().min(1),
+  version: z.int32().min(1),
   label: z.string().trim().max(120).default(''),
   /** Optional end of the link's life (ISO 8601 with an offset); must lie in the future. */
   expiresAt: z.iso
