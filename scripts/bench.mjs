@@ -11,6 +11,7 @@ const only = process.argv.slice(2);
 const BENCHES = [
   { name: 'rules', cmd: ['npx', 'tsx', 'bench/domain.ts'] },
   { name: 'planner', cmd: ['npx', 'tsx', 'bench/planner.ts'] },
+  { name: 'classroom', cmd: ['npx', 'tsx', 'bench/classroom.ts'] },
   { name: 'api', cmd: ['node', 'bench/api.mjs'], needsBuild: true },
   { name: 'js-size', cmd: ['node', 'bench/js-size.mjs'], needsBuild: true },
   { name: 'scale', cmd: ['node', 'bench/scale.mjs'], needsBuild: true },
