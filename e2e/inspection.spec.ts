@@ -49,7 +49,9 @@ test('a technician inspects on a phone: flags an element, attaches a photo, fini
   await (await chooser2).setFiles({ name: 'bent-bars.png', mimeType: 'image/png', buffer: await picture() });
   const thumb = line.getByRole('img', { name: /^Photo 1 of Position 1, left/ });
   await expect(thumb).toBeVisible();
-  expect(await thumb.evaluate((img: HTMLImageElement) => img.naturalWidth)).toBeGreaterThan(0);
+  // The thumbnail really decodes (lazy images load once in view).
+  await thumb.scrollIntoViewIfNeeded();
+  await expect.poll(() => thumb.evaluate((img: HTMLImageElement) => img.complete && img.naturalWidth)).toBeGreaterThan(0);
   await expect(page.getByTestId('save-state')).toHaveText('All changes saved');
   await expect(page.getByTestId('counts')).toContainText('1 photo');
   await line.scrollIntoViewIfNeeded();
@@ -64,7 +66,7 @@ test('a technician inspects on a phone: flags an element, attaches a photo, fini
   await page.getByRole('button', { name: 'Finish inspection…' }).click();
   await expect(page.getByText(`These parts go on a draft parts request for Bean Runner`)).toBeVisible();
   await page.getByRole('button', { name: 'Finish and request the parts' }).click();
-  await expect(page.getByRole('heading', { name: /Inspection finished/ })).toBeVisible();
+  await expect(page.getByRole('heading', { name: /Inspection finished/ })).toBeFocused();
   await expect(page.getByTestId('replacements')).toContainText(`1 × ${partNumber}`);
   await expect(page.getByTestId('replacements')).toContainText('left hand');
   // Closed: no more inputs.

@@ -40,6 +40,17 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
   const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
   const chain = useRef<Promise<void>>(Promise.resolve());
   const editable = canEdit && insp.status === 'open';
+  const justFinished = useRef(false);
+
+  // Once finished, take the person to the outcome at the top (the finish button is gone).
+  useEffect(() => {
+    if (insp.status === 'finished' && justFinished.current) {
+      justFinished.current = false;
+      const h = document.getElementById('finished-h');
+      h?.focus();
+      h?.scrollIntoView({ block: 'center' });
+    }
+  }, [insp.status]);
 
   const flush = useCallback(() => {
     if (timer.current) clearTimeout(timer.current);
@@ -108,7 +119,7 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
       const done = await sendJson<InspectionView & { added: ReplacementLine[] }>('POST', `/api/inspections/${insp.id}`, { action: 'finish' });
       setInsp((cur) => ({ ...cur, status: 'finished', finishedAt: String(done.finishedAt), partsRequest: done.partsRequest }));
       setConfirming(false);
-      requestAnimationFrame(() => document.getElementById('finished-h')?.focus());
+      justFinished.current = true;
     } catch (err) {
       setFinishError(err instanceof ApiError ? err.message : 'The inspection could not be finished. Check the connection and try again.');
     } finally {
@@ -120,8 +131,13 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
     <div>
       <div className="sticky top-0 z-10 -mx-4 mb-4 border-b border-steel-200 bg-steel-50/95 px-4 py-2 backdrop-blur">
         <div className="flex flex-wrap items-center gap-x-4 gap-y-1 text-sm">
-          <span data-testid="counts">
-            {counts.total} lines · <SeverityMark severity="replace" size={15} count={counts.replace} /> · <SeverityMark severity="watch" size={15} count={counts.watch} /> · {photoCount} {photoCount === 1 ? 'photo' : 'photos'}
+          <span data-testid="counts" className="inline-flex flex-wrap items-center gap-x-2">
+            <span>{counts.total} lines</span>
+            <SeverityMark severity="replace" size={15} count={counts.replace} />
+            <SeverityMark severity="watch" size={15} count={counts.watch} />
+            <span>
+              {photoCount} {photoCount === 1 ? 'photo' : 'photos'}
+            </span>
           </span>
           <span aria-live="polite" className="ml-auto text-ink-muted" data-testid="save-state">
             {saveState === 'saving' ? 'Saving…' : saveState === 'saved' ? 'All changes saved' : saveState === 'error' ? 'Not saved' : ''}
