@@ -163,6 +163,21 @@ test('technician: machine → versions → compare → share → opens signed ou
   await after.close();
 });
 
+test('an admin adds a customer farm from the organisations page; a blank name is refused', async ({ page }) => {
+  await signIn(page, 'admin', '/orgs');
+  await page.goto('/machines');
+  await page.getByRole('link', { name: 'Organisations' }).click();
+  await expect(page.getByTestId('orgs-table')).toContainText('Larkspur Farms');
+  const form = page.getByTestId('org-form');
+  await form.getByRole('button', { name: 'Add farm' }).click();
+  await expect(page.getByRole('alert')).toContainText('name:');
+  await page.getByTestId('org-form').getByLabel('Farm name').fill('Wrenfield Acres');
+  await page.getByTestId('org-form').getByRole('button', { name: 'Add farm' }).click();
+  await expect(page.getByRole('status')).toContainText('Wrenfield Acres');
+  await expect(page.getByTestId('orgs-table')).toContainText('Wrenfield Acres');
+  await shot(page, 'fleet-orgs');
+});
+
 test('a trainer reads machines but gets a clear refusal on the add form', async ({ page }) => {
   await signIn(page, 'trainer', '/machines');
   await page.goto('/machines');
@@ -182,4 +197,10 @@ test('an operator of one farm gets "not found" for another farm’s machine page
   const visit = await page.goto(`/machines/${creekside.id}`);
   expect(visit!.status()).toBe(404);
   await expect(page.getByRole('heading', { name: 'Machine not found' })).toBeVisible();
+  // Her own machine shows what is installed, drawn on the server.
+  await page.goto('/machines');
+  await page.getByTestId('machines-table').getByRole('link', { name: 'North Quarter' }).click();
+  await expect(page.getByRole('heading', { name: 'Installed now' })).toBeVisible();
+  await expect(page.locator('[data-place="element:1:left"]')).toBeVisible();
+  await shot(page, 'fleet-machine-installed');
 });
