@@ -72,4 +72,17 @@ if (owner?.pid && alive(owner.pid)) {
     rmSync(ownerFile, { force: true });
   }
 }
+// Photos live beside the database (the local object store or the disk store): archive them too.
+// They are written before the row that names them, so a copy taken after the database snapshot
+// holds every photo the snapshot knows.
+const fileDirs = ['uploads', 's3'].filter((d) => existsSync(join(dataDir, d)));
+if (fileDirs.length) {
+  const filesOut = out.replace(/\.tar\.gz$/, '') + '-files.tar.gz';
+  const r = spawnSync('tar', ['-czf', filesOut, '-C', dataDir, ...fileDirs], { stdio: 'inherit' });
+  if (r.status !== 0) {
+    console.error('backup of the photo files failed');
+    process.exit(1);
+  }
+  console.log(`photo files written: ${filesOut}`);
+}
 console.log(`restore with: npm run restore -- ${out} --data-dir <empty directory>`);

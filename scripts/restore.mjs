@@ -24,4 +24,15 @@ for (const { table_name } of tables.rows) {
   console.log(`${table_name.padEnd(20)} ${rows[0].n}`);
 }
 await db.close();
+// Photo files archived beside the snapshot, if any.
+const filesArchive = file.replace(/\.tar\.gz$/, '') + '-files.tar.gz';
+if (existsSync(filesArchive)) {
+  const { spawnSync } = await import('node:child_process');
+  const r = spawnSync('tar', ['-xzf', filesArchive, '-C', dataDir], { stdio: 'inherit' });
+  if (r.status !== 0) {
+    console.error(`could not unpack ${filesArchive}`);
+    process.exit(1);
+  }
+  console.log(`photo files restored from ${filesArchive}`);
+}
 console.log(`restored into ${dataDir}; start the server with CAGEWRIGHT_DATA_DIR=${dataDir} npm run serve`);

@@ -35,11 +35,15 @@ if (!existsSync(entry)) {
 }
 
 // Photo uploads go to a local S3-compatible fake unless a real bucket (or the disk store) is configured.
-if (!process.env.S3_ENDPOINT && process.env.CAGEWRIGHT_STORAGE !== 'disk') await (await import('./fakes/s3.mjs')).startFakeS3({ dataDir });
+const fakes = [];
+if (!process.env.S3_ENDPOINT && process.env.CAGEWRIGHT_STORAGE !== 'disk') fakes.push(import('./fakes/s3.mjs').then((m) => m.startFakeS3({ dataDir })));
 // Mail goes to a local fake SMTP server (messages kept in <data dir>/mailbox) unless SMTP_URL names a real one.
-if (!process.env.SMTP_URL) await (await import('./fakes/smtp.mjs')).startFakeSmtp({ dataDir });
+if (!process.env.SMTP_URL) fakes.push(import('./fakes/smtp.mjs').then((m) => m.startFakeSmtp({ dataDir })));
 const started = Date.now();
-await import(pathToFileURL(entry).href);
+// The fakes start while the server loads; the app reads their addresses lazily, and the store
+// (whose demo seed stores photos) opens only at the health check below, after both are up.
+globalThis.__cagewrightBootReady = Promise.all(fakes);
+await Promise.all([import(pathToFileURL(entry).href), globalThis.__cagewrightBootReady]);
 
 const base = `http://${process.env.HOST}:${process.env.PORT}`;
 for (let attempt = 0; ; attempt++) {

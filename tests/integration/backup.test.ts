@@ -43,11 +43,19 @@ describe('backup and restore', () => {
       const d = new Client(again.baseUrl);
       await d.signIn(DEMO.operator);
       expect((await d.get('/api/me')).body.unitSystem).toBe('imperial');
+      // The demo inspection's photos come back with the files archive.
+      const inspections = (await d.get('/api/inspections')).body.items;
+      const detail = (await d.get(`/api/inspections/${inspections[0].id}`)).body;
+      const photo = detail.items.flatMap((i: { photos?: { url: string }[] }) => i.photos ?? [])[0];
+      const image = await d.fetch(photo.url);
+      expect(image.status).toBe(200);
+      expect(image.headers.get('content-type')).toMatch(/^image\//);
       await again.stop();
     } finally {
       removeDir(dataDir);
       removeDir(restored);
       removeDir(file);
+      removeDir(file.replace(/\.tar\.gz$/, '') + '-files.tar.gz');
     }
   }, 120_000);
 });

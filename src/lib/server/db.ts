@@ -80,7 +80,9 @@ function installShutdown(store: Promise<Store>) {
 
 export function store(): Promise<Store> {
   if (!holder.__cagewrightStore) {
-    const opening = openStore().then(async (s) => {
+    // The start script may still be bringing up local fakes the seed needs (object storage).
+    const bootReady = (globalThis as { __cagewrightBootReady?: Promise<unknown> }).__cagewrightBootReady ?? Promise.resolve();
+    const opening = bootReady.then(openStore).then(async (s) => {
       if (process.env.CAGEWRIGHT_SEED !== 'off') {
         const [{ n }] = (await s.db.execute(sql`select count(*)::int as n from organisations`)).rows as { n: number }[];
         if (n === 0) {
