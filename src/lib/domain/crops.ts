@@ -393,3 +393,11 @@ export function sphericity(k: KernelSize): number {
 export function impliedBushelsPerTonne(crop: CropProgram): number {
   return crop.bushel.canadaPerTonne?.value ?? bushelsPerTonne(crop.bushel.usLb.value);
 }
+
+/**
+ * A source note as people read it: values kept from memory carry "[mem]" in the data (so tests
+ * can tell them apart); on screen that reads as a rule of thumb with no published source.
+ */
+export function sourceInWords(source: string): string {
+  return source.replace(/\[mem\]\s*/g, 'rule of thumb, no published source: ').replace(/: $/, '').trim();
+}

@@ -1,3 +1,4 @@
+import { sourceInWords } from '../crops';
 /** Rules for the settings beside the diagram: family, drum, vane control, rotor speed. */
 import { drumFor } from '../compute';
 import { inRpmWindow, rpmWindow } from '../speed';
@@ -50,7 +51,7 @@ export function checkSettings(ctx: RuleContext): void {
       'hurts-crop',
       [{ kind: 'setting', field: 'rotorRpm' }],
       `Rotor ${slow ? 'too slow' : 'too fast'} for ${crop.name.toLowerCase()}`,
-      `${crop.name} wants a rotor tip speed of ${w.tipMinMs}–${w.tipMaxMs} m/s (${w.source}), which is ${lo}–${hi} rpm on the ${drum.label.toLowerCase()} (${drum.diameterMm} mm${w.shiftRpm ? `, +${w.shiftRpm} rpm for the slim drum, common practice` : ''}). At ${layout.rotorRpm} rpm ${slow ? 'heads go through unthreshed' : 'kernels crack: rotor speed is the main cause of cracked grain (USDA 1961; University of Wisconsin)'}.`,
+      `${crop.name} wants a rotor tip speed of ${w.tipMinMs}–${w.tipMaxMs} m/s (${sourceInWords(w.source)}), which is ${lo}–${hi} rpm on the ${drum.label.toLowerCase()} (${drum.diameterMm} mm${w.shiftRpm ? `, +${w.shiftRpm} rpm for the slim drum, common practice` : ''}). At ${layout.rotorRpm} rpm ${slow ? 'heads go through unthreshed' : 'kernels crack: rotor speed is the main cause of cracked grain (USDA 1961; University of Wisconsin)'}.`,
       slow ? `Raise the rotor speed to at least ${lo} rpm; start low in the window and go up only as needed.` : `Lower the rotor speed to ${hi} rpm or less.`,
     );
   }
