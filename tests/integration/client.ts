@@ -87,3 +87,17 @@ export async function signedIn(who: keyof typeof DEMO): Promise<Client> {
   if (!c.hasSession()) throw new Error(`sign-in as ${who} failed: ${res.status} ${res.headers.get('location')}`);
   return c;
 }
+
+/**
+ * The first machine on the user's home page that has a saved layout, with that layout. Other
+ * tests add machines (without layouts) to the same store, so "the first machine" is not enough.
+ */
+export async function machineWithLayout(c: Client): Promise<{ machineId: string; layout: { id: string; [k: string]: unknown } }> {
+  const html = await (await c.fetch('/')).text();
+  const ids = [...new Set([...html.matchAll(/href="\/machines\/([0-9a-f-]{36})"/g)].map((m) => m[1]!))];
+  for (const machineId of ids) {
+    const list = await c.get(`/api/machines/${machineId}/layouts`);
+    if (list.status === 200 && list.body.layouts?.length) return { machineId, layout: list.body.layouts[list.body.layouts.length - 1] };
+  }
+  throw new Error('no machine with a saved layout on the home page');
+}

@@ -1,17 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { signedIn, type Client } from './client';
+import { machineWithLayout, signedIn } from './client';
 
-async function firstLayout(c: Client) {
-  const home = await c.get('/api/me');
-  expect(home.status).toBe(200);
-  const machines = await c.fetch('/');
-  const html = await machines.text();
-  const ids = [...html.matchAll(/href="\/machines\/([0-9a-f-]{36})"/g)].map((m) => m[1]!);
-  expect(ids.length).toBeGreaterThan(0);
-  const list = await c.get(`/api/machines/${ids[0]}/layouts`);
-  expect(list.status).toBe(200);
-  return { machineId: ids[0]!, layout: list.body.layouts[0] };
-}
+const firstLayout = machineWithLayout;
 
 describe('concurrent edits', () => {
   it('two clients saving the same version: one 409 carrying the newer version, both edits kept', async () => {

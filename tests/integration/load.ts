@@ -1,4 +1,4 @@
-import type { Client } from './client';
+import { machineWithLayout, type Client } from './client';
 
 export interface Target {
   machineId: string;
@@ -7,11 +7,7 @@ export interface Target {
 
 /** The first machine on the signed-in user's home page and the body of its first layout. */
 export async function firstMachineAndLayout(c: Client): Promise<Target> {
-  const html = await (await c.fetch('/')).text();
-  const machineId = html.match(/href="\/machines\/([0-9a-f-]{36})"/)?.[1];
-  if (!machineId) throw new Error('no machine on the home page');
-  const list = await c.get(`/api/machines/${machineId}/layouts`);
-  const layout = list.body.layouts[0];
+  const { machineId, layout } = await machineWithLayout(c);
   const got = await c.get(`/api/layouts/${layout.id}`);
   return { machineId, body: got.body.current.body };
 }

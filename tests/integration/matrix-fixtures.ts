@@ -1,5 +1,5 @@
 import { expect } from 'vitest';
-import { Client, DEMO, DEMO_PASSWORD } from './client';
+import { Client, DEMO, DEMO_PASSWORD, machineWithLayout } from './client';
 
 /** The second dealer's people (see src/lib/server/test-fixtures.ts): strangers to the demo's data. */
 export const OTHER = {
@@ -58,8 +58,7 @@ export async function clientsByRole() {
  */
 export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures> {
   const olive = own.operator;
-  const html = await (await olive.fetch('/')).text();
-  const machineId = html.match(/href="\/machines\/([0-9a-f-]{36})"/)![1]!;
+  const { machineId } = await machineWithLayout(olive);
   const machine = (await olive.get(`/api/machines/${machineId}`)).body;
   const familyId: string = machine.familyId ?? machine.machine?.familyId;
   const layouts = (await olive.get(`/api/machines/${machineId}/layouts`)).body.layouts;

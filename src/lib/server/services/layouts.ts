@@ -1,7 +1,7 @@
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../db';
-import { layouts, layoutVersions, users } from '../../../db/schema';
+import { families, layouts, layoutVersions, machines, organisations, users } from '../../../db/schema';
 import { cropIdSchema, layoutSchema, type Layout } from '../../domain/schemas';
 import { starterLayout } from '../../domain/demo-catalog';
 import { checkLayout } from '../../domain/rules';
@@ -81,10 +81,27 @@ export async function versionOf(layoutId: string, version: number): Promise<Vers
 }
 
 /** A layout with its current version and the machine it belongs to. */
+/** A layout with its current version and the machine it belongs to, in one query (a hot path). */
 export async function getLayout(actor: Actor, layoutId: string) {
-  const row = await layoutRowForActor(actor, layoutId);
-  const [ctx, current] = await Promise.all([machineForActor(actor, row.machineId), versionOf(row.id, row.currentVersion)]);
-  return { layout: row, current, machine: ctx.machine, family: ctx.family, orgName: ctx.orgName };
+  const db = await getDb();
+  const [row] = await db
+    .select({
+      layout: layouts,
+      machine: machines,
+      family: families.spec,
+      orgName: organisations.name,
+      current: versionColumns,
+    })
+    .from(layouts)
+    .innerJoin(machines, eq(machines.id, layouts.machineId))
+    .innerJoin(families, eq(families.id, machines.familyId))
+    .innerJoin(organisations, eq(organisations.id, machines.orgId))
+    .innerJoin(layoutVersions, and(eq(layoutVersions.layoutId, layouts.id), eq(layoutVersions.version, layouts.currentVersion)))
+    .leftJoin(users, eq(users.id, layoutVersions.createdBy))
+    .where(and(eq(layouts.id, layoutId), inArray(layouts.orgId, actor.visibleOrgIds), inArray(machines.orgId, actor.visibleOrgIds)))
+    .limit(1);
+  if (!row) throw notFound('Layout not found', 'layoutId');
+  return row;
 }
 
 export async function listVersions(actor: Actor, layoutId: string) {
