@@ -72,37 +72,41 @@ test.describe('cage editor', () => {
 
   test('mouse: drag a part from the palette onto a half-position; findings follow; undo restores', async ({ page }) => {
     await page.setViewportSize({ width: 1440, height: 900 });
-    await openEditor(page, 'operator', 'North Quarter');
+    await openEditor(page, 'operator2', 'Bean Runner');
     const before = await findingCount(page);
-    const target = slot(page, 'element:3:right');
-    await expect(target).toHaveAttribute('aria-label', /wide-wire element, right hand/);
+    const target = slot(page, 'element:1:right');
+    const was = (await target.getAttribute('aria-label'))!;
+    expect(was).not.toContain('fine-wire');
 
-    await page.getByLabel('Type').selectOption('perforated');
-    await page.getByLabel('Hand').selectOption('right');
-    const item = page.getByTestId('palette').locator('[data-part="CW-PF-R-04"]');
+    await page.getByLabel('Type', { exact: true }).selectOption('fine-wire');
+    await page.getByLabel('Hand', { exact: true }).selectOption('right');
+    const item = page.getByTestId('palette').locator('[data-part="CW-FW-R-04"]');
     await mouseDrag(page, item, target);
 
-    await expect(target).toHaveAttribute('aria-label', /perforated element, right hand, CW-PF-R-04/);
-    await expect(announcer(page)).toContainText('Placed perforated element, right, position 3');
-    // Perforated plate in wheat: kernels do not pass its holes (a crop finding on that place).
+    await expect(target).toHaveAttribute('aria-label', /fine-wire element, right hand, CW-FW-R-04/);
+    await expect(announcer(page)).toContainText('Placed fine-wire element, right, position 1');
+    // Fine wires in soybeans: the kernel does not pass and the element rubs too hard.
+    await expect(announcer(page)).toContainText('Hurts the crop');
     await expect(target).toHaveAttribute('aria-label', /Hurts the crop: /);
+    await expect(page.getByTestId('findings').locator('[data-code="CROP_AGGRESSIVE_FRAGILE"]')).toContainText('right, position 1');
     expect(await findingCount(page)).toBeGreaterThan(before);
     await expect(page.getByTestId('save-status')).toContainText('Unsaved changes');
+    await shot(page, 'editor-after-mouse-drop', false);
 
     await page.getByRole('button', { name: 'Undo' }).click();
-    await expect(target).toHaveAttribute('aria-label', /wide-wire element, right hand/);
+    await expect(target).toHaveAttribute('aria-label', was);
     await expect(announcer(page)).toContainText('Undone');
     expect(await findingCount(page)).toBe(before);
     await expect(page.getByTestId('save-status')).not.toContainText('Unsaved');
 
     await page.keyboard.press('Control+Shift+Z');
-    await expect(target).toHaveAttribute('aria-label', /CW-PF-R-04/);
+    await expect(target).toHaveAttribute('aria-label', /CW-FW-R-04/);
   });
 
   test('keyboard only: Space, arrows, Space places a left-hand element on a right half and the hand finding shows there', async ({ page }) => {
     await page.setViewportSize({ width: 1440, height: 900 });
     await openEditor(page, 'operator', 'North Quarter');
-    await page.getByLabel('Search').fill('CW-WW-L-04');
+    await page.getByLabel('Search parts').fill('CW-WW-L-04');
     const item = page.getByTestId('palette').locator('[data-part="CW-WW-L-04"]');
     await expect(item).toHaveCount(1);
     await item.focus();
@@ -166,12 +170,12 @@ test.describe('cage editor', () => {
     await expect(page.getByTestId('findings').locator('[data-code="CROP_RPM_OUTSIDE_WINDOW"]')).toBeVisible();
     await expect(page.getByText('Below the window')).toBeVisible();
 
-    await page.getByText('in', { exact: true }).click();
+    await page.getByRole('radio', { name: 'in (imperial)' }).check({ force: true });
     await expect(page.getByLabel('Concave clearance')).toHaveValue(/^0\.\d\d$/);
     await expect(slot(page, 'element:1:left')).toContainText(' in');
     // The choice is stored for the user.
     await expect.poll(async () => (await (await page.request.get('/api/me')).json()).unitSystem).toBe('imperial');
-    await page.getByText('mm', { exact: true }).click();
+    await page.getByRole('radio', { name: 'mm (metric)' }).check({ force: true });
     await expect.poll(async () => (await (await page.request.get('/api/me')).json()).unitSystem).toBe('metric');
   });
 
@@ -179,8 +183,8 @@ test.describe('cage editor', () => {
     await page.setViewportSize({ width: 1440, height: 900 });
     const { layoutId } = await openEditor(page, 'operator', 'North Quarter');
     const start = (await (await page.request.get(`/api/layouts/${layoutId}`)).json()).layout.currentVersion as number;
-    await page.getByLabel('Type').selectOption('round-bar');
-    await page.getByLabel('Hand').selectOption('left');
+    await page.getByLabel('Type', { exact: true }).selectOption('round-bar');
+    await page.getByLabel('Hand', { exact: true }).selectOption('left');
     await mouseDrag(page, page.getByTestId('palette').locator('[data-part="CW-RB-L-04"]'), slot(page, 'element:4:left'));
     await expect(slot(page, 'element:4:left')).toHaveAttribute('aria-label', /round-bar element/);
     await page.getByLabel('Vane setting').selectOption('slow');

@@ -226,7 +226,8 @@ export function CageDiagram(props: CageDiagramProps) {
       const section = family.cageTopSections.find((s) => s.index === place.section)!;
       const band = geo.coverTop[place.side];
       const span = geo.spanX(section.positions);
-      const box = { x: span.x + 8, y: band.y + 10, w: span.w - 16, h: band.h - 20 };
+      // leave room for the 'section n' label: below the slot on the left band, above it on the right
+      const box = { x: span.x + 8, y: band.y + (place.side === 'left' ? 9 : 13), w: span.w - 16, h: band.h - 22 };
       const info = infoFor(place, box, section.coverPlateSides.includes(place.side));
       slots.push(
         <Slot key={info.key} info={info} slotProps={slotProps} renderSlot={renderSlot}

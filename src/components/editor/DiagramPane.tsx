@@ -3,9 +3,10 @@
  * draggable (when it holds a part) and one stop of a roving tab order — Tab enters the drawing,
  * the arrow keys walk its slots in the drawing's order, Space picks a part up.
  */
-import { useDndContext, useDraggable, useDroppable } from '@dnd-kit/core';
-import { useCallback, useEffect, useRef, type KeyboardEvent, type ReactNode } from 'react';
+import { useDraggable, useDroppable } from '@dnd-kit/core';
+import { memo, useCallback, useEffect, useRef, type KeyboardEvent, type ReactNode } from 'react';
 import { allPlaces, placeKey } from '../../lib/domain/places';
+import type { MachineFamily } from '../../lib/domain/schemas';
 import { CageDiagram, type SlotAttrs, type SlotInfo } from '../cage/CageDiagram';
 import { IRIS } from '../cage/palette';
 import { ARROW_DIRECTION, slotId, stepPlace, type CarryData } from './keyboard';
@@ -14,14 +15,25 @@ import { accepts } from './store/layout-edits';
 
 export const INSTRUCTIONS_ID = 'cage-editor-instructions';
 
+const NO_RESIZE_OBSERVER = { disabled: true } as const;
+
+/**
+ * The dnd-kit hooks of one slot. dnd-kit re-renders every hook user whenever a drag starts,
+ * moves over a new target or ends, so this part stays small and hands plain values to the memoised
+ * <g> below, which re-renders only when what it shows changes.
+ */
 function DndSlot({ info, attrs, children, canEdit }: { info: SlotInfo; attrs: SlotAttrs; children: ReactNode; canEdit: boolean }) {
-  const store = useEditorStoreApi();
-  const tabStop = useEditor((s) => (s.selectedPlace ? placeKey(s.selectedPlace) === info.key : info.key === firstKey(s)));
-  const { setNodeRef: dropRef, isOver, active } = useDroppable({ id: slotId(info.place), data: { place: info.place }, disabled: !canEdit });
+  const tabStop = useEditor((s) => (s.selectedPlace ? placeKey(s.selectedPlace) === info.key : info.key === firstElementKey(s.family)));
+  // Slots do not change size while a part is carried: no resize observers to set up per drag.
+  const { setNodeRef: dropRef, isOver, active } = useDroppable({
+    id: slotId(info.place),
+    data: { place: info.place },
+    disabled: !canEdit,
+    resizeObserverConfig: NO_RESIZE_OBSERVER,
+  });
   const draggable = canEdit && !!info.part;
   const carry: CarryData | undefined = info.part ? { part: info.part, from: info.place } : undefined;
   const { setNodeRef: dragRef, listeners, isDragging } = useDraggable({ id: `placed:${info.key}`, data: carry, disabled: !draggable });
-  const { active: anyActive } = useDndContext();
   const ref = useCallback(
     (node: SVGGElement | null) => {
       dropRef(node as unknown as HTMLElement);
@@ -31,9 +43,44 @@ function DndSlot({ info, attrs, children, canEdit }: { info: SlotInfo; attrs: Sl
   );
   const carried = active?.data.current as CarryData | undefined;
   const takes = !!carried && accepts(carried.part, info.place);
+  return (
+    <SlotG
+      info={info}
+      attrs={attrs}
+      gRef={ref}
+      tabStop={tabStop}
+      canEdit={canEdit}
+      draggable={draggable}
+      carrying={!!active}
+      listeners={listeners}
+      isDragging={isDragging}
+      takes={takes}
+      isOver={isOver}
+    >
+      {children}
+    </SlotG>
+  );
+}
 
+interface SlotGProps {
+  info: SlotInfo;
+  attrs: SlotAttrs;
+  gRef: (node: SVGGElement | null) => void;
+  tabStop: boolean;
+  canEdit: boolean;
+  draggable: boolean;
+  carrying: boolean;
+  listeners: ReturnType<typeof useDraggable>['listeners'];
+  isDragging: boolean;
+  takes: boolean;
+  isOver: boolean;
+  children: ReactNode;
+}
+
+const SlotG = memo(function SlotG({ info, attrs, gRef, tabStop, canEdit, draggable, carrying, listeners, isDragging, takes, isOver, children }: SlotGProps) {
+  const store = useEditorStoreApi();
   const onKeyDown = (e: KeyboardEvent<SVGGElement>) => {
-    if (anyActive) return; // the keyboard sensor has the keys while a part is carried
+    if (carrying) return; // the keyboard sensor has the keys while a part is carried
     const dir = ARROW_DIRECTION[e.key];
     if (dir) {
       e.preventDefault();
@@ -48,11 +95,10 @@ function DndSlot({ info, attrs, children, canEdit }: { info: SlotInfo; attrs: Sl
       store.getState().announce(`${info.label}. To fill it, pick a part up in the palette with Space, move here with the arrow keys, and drop it with Space.`);
     }
   };
-
   const { x, y, w, h } = info.box;
   return (
     <g
-      ref={ref}
+      ref={gRef}
       {...attrs}
       role="button"
       tabIndex={tabStop ? 0 : -1}
@@ -74,12 +120,19 @@ function DndSlot({ info, attrs, children, canEdit }: { info: SlotInfo; attrs: Sl
       )}
     </g>
   );
-}
+});
 
-const firstKey = (s: { family: Parameters<typeof allPlaces>[0] }) => {
-  const p = allPlaces(s.family).find((x) => x.kind === 'element');
-  return p ? placeKey(p) : '';
-};
+const firstKeys = new WeakMap<MachineFamily, string>();
+/** The drawing's tab stop when nothing is selected: the first half-position. */
+function firstElementKey(family: MachineFamily): string {
+  let k = firstKeys.get(family);
+  if (k === undefined) {
+    const p = allPlaces(family).find((x) => x.kind === 'element');
+    k = p ? placeKey(p) : '';
+    firstKeys.set(family, k);
+  }
+  return k;
+}
 
 export function DiagramPane() {
   const store = useEditorStoreApi();

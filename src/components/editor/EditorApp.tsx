@@ -5,9 +5,9 @@
  * takes it off.
  */
 import {
-  closestCenter,
   DndContext,
   DragOverlay,
+  useDndContext,
   KeyboardSensor,
   PointerSensor,
   pointerWithin,
@@ -18,7 +18,7 @@ import {
   type DragEndEvent,
   type DragStartEvent,
 } from '@dnd-kit/core';
-import { useCallback, useMemo, useRef, useState } from 'react';
+import { memo, useCallback, useMemo, useRef } from 'react';
 import { partWordsWithHand, placeWords, partWords } from '../cage/words';
 import { ConflictDialog } from './ConflictDialog';
 import { DiagramPane, INSTRUCTIONS_ID } from './DiagramPane';
@@ -48,8 +48,40 @@ const collision: CollisionDetection = (args) => {
     return !!place && !!carry && accepts(carry.part, place);
   });
   const narrowed = { ...args, droppableContainers };
-  return args.pointerCoordinates ? pointerWithin(narrowed) : closestCenter(narrowed);
+  if (args.pointerCoordinates) return pointerWithin(narrowed);
+  // Keyboard: the coordinate getter centres the carried part on a slot, so the slot under its
+  // centre is the one; a part just picked up in the palette is over nothing yet.
+  const { collisionRect: c, droppableRects } = args;
+  const cx = c.left + c.width / 2;
+  const cy = c.top + c.height / 2;
+  return droppableContainers
+    .filter((d) => {
+      const r = droppableRects.get(d.id);
+      return !!r && cx >= r.left && cx <= r.left + r.width && cy >= r.top && cy <= r.top + r.height;
+    })
+    .map((d) => ({ id: d.id, data: { droppableContainer: d, value: 0 } }));
 };
+
+/** The part following the pointer (or the keyboard) while it is carried. */
+const CarryOverlay = memo(function CarryOverlay() {
+  const { active } = useDndContext();
+  const carrying = active?.data.current as CarryData | undefined;
+  // A wrapper that is always there, so the overlay coming and going never changes the
+  // structure of the editor's children (sibling selectors would restyle the whole editor).
+  return (
+    <div className="editor-carry">
+    <DragOverlay dropAnimation={null}>
+      {carrying ? (
+        <div className="pointer-events-none flex items-center gap-2 rounded-md border border-iris-500 bg-white px-2 py-1.5 text-sm font-semibold shadow-lg">
+          <PartSwatch part={carrying.part} id="overlay" />
+          {partTitle(carrying.part)}
+          {carrying.part.kind === 'element' ? ` · ${carrying.part.hand === 'left' ? 'L' : 'R'}` : ''}
+        </div>
+      ) : null}
+    </DragOverlay>
+    </div>
+  );
+});
 
 export function EditorApp() {
   const store = useEditorStoreApi();
@@ -57,7 +89,6 @@ export function EditorApp() {
   const layoutName = useEditor((s) => s.layoutName);
   const machineName = useEditor((s) => s.machineName);
   const familyName = useEditor((s) => s.family.name);
-  const [carrying, setCarrying] = useState<CarryData | null>(null);
   const dragging = useRef(false);
 
   useUnsavedGuard();
@@ -95,17 +126,15 @@ export function EditorApp() {
     [store],
   );
 
-  const onDragStart = (e: DragStartEvent) => {
+  const onDragStart = (_e: DragStartEvent) => {
     dragging.current = true;
-    setCarrying((e.active.data.current as CarryData | undefined) ?? null);
+    coordinateGetter.reset();
   };
 
   const onDragEnd = (e: DragEndEvent) => {
     dragging.current = false;
-    setCarrying(null);
     const c = e.active.data.current as CarryData | undefined;
     if (!c || !e.over) return;
-    performance.mark('cw-drop-start');
     const s = store.getState();
     if (e.over.id === PALETTE_DROP_ID) {
       if (c.from) s.removePart(c.from);
@@ -116,12 +145,10 @@ export function EditorApp() {
         else s.placePart(c.part.partNumber, place);
       }
     }
-    // Marks the frame the findings are painted in (read by bench/editor-drop.mjs).
-    requestAnimationFrame(() => performance.mark('cw-drop-painted'));
   };
 
   return (
-    <div className="cage-editor space-y-3" data-testid="cage-editor">
+    <div className="cage-editor flex flex-col gap-3" data-testid="cage-editor">
       <header className="flex flex-wrap items-baseline justify-between gap-x-4 gap-y-1">
         <div>
           <h1 className="text-2xl font-bold">{layoutName}</h1>
@@ -142,11 +169,10 @@ export function EditorApp() {
         onDragEnd={onDragEnd}
         onDragCancel={() => {
           dragging.current = false;
-          setCarrying(null);
         }}
         accessibility={{ announcements, screenReaderInstructions: { draggable: INSTRUCTIONS } }}
       >
-        <div className="grid grid-cols-1 gap-3 md:grid-cols-2 xl:grid-cols-[17.5rem_minmax(0,1fr)_21rem] xl:items-start">
+        <div className="grid grid-cols-1 gap-3 md:grid-cols-2 xl:grid-cols-[19rem_minmax(0,1fr)_20rem] xl:items-start">
           <div className="min-w-0">
             <Palette />
           </div>
@@ -157,20 +183,12 @@ export function EditorApp() {
               <p className="mt-1 max-w-prose">{INSTRUCTIONS}</p>
             </details>
           </div>
-          <div className="min-w-0 space-y-3">
+          <div className="flex min-w-0 flex-col gap-3">
             <FindingsList />
             <SettingsPanel />
           </div>
         </div>
-        <DragOverlay dropAnimation={null}>
-          {carrying ? (
-            <div className="pointer-events-none flex items-center gap-2 rounded-md border border-iris-500 bg-white px-2 py-1.5 text-sm font-semibold shadow-lg">
-              <PartSwatch part={carrying.part} id="overlay" />
-              {partTitle(carrying.part)}
-              {carrying.part.kind === 'element' ? ` · ${carrying.part.hand === 'left' ? 'L' : 'R'}` : ''}
-            </div>
-          ) : null}
-        </DragOverlay>
+        <CarryOverlay />
       </DndContext>
       <LiveRegion />
       <ConflictDialog />

@@ -35,7 +35,7 @@ export function FindingsList() {
           <span aria-hidden="true">✓</span> Everything fits, and nothing works against this crop.
         </p>
       ) : (
-        <ol className="mt-2 space-y-1.5">
+        <ol className="mt-2 flex flex-col gap-1.5">
           {findings.map((f, i) => {
             const st = SEVERITY_STYLE[f.severity];
             const chosen = active === i;

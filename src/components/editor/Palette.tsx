@@ -32,6 +32,30 @@ function stockWords(s: StockCount | undefined): string {
   return parts.join(' · ');
 }
 
+/** What a palette entry shows; memoised so drags (which re-render every draggable) skip it. */
+const PaletteItemBody = memo(function PaletteItemBody({ part, units, stock }: { part: CatalogPart; units: UnitSystem; stock: StockCount | undefined }) {
+  const detail = part.kind === 'element' ? (part.openingMm ? formatLength(mm(part.openingMm.width), units) + ' gap' : 'no opening') : partDetail(part, units);
+  const inStock = !!stock && stock.own + stock.dealer > 0;
+  return (
+    <>
+      <PartSwatch part={part} id={`pal-${part.partNumber}`} />
+      <span className="min-w-0 flex-1">
+        <span className="block truncate text-sm font-semibold text-ink">
+          {shortName(part)}
+          {part.kind === 'element' && <span className="font-normal text-ink-soft"> · {part.hand}</span>}
+        </span>
+        <span className="block truncate text-xs text-ink-muted">
+          {part.partNumber}
+          {detail && ` · ${detail}`}
+        </span>
+      </span>
+      <span className={`shrink-0 rounded px-1.5 py-0.5 text-xs font-semibold ${inStock ? 'bg-ok-soft text-ok' : 'bg-steel-100 text-ink-muted'}`} title={stockWords(stock)}>
+        {inStock ? `${stock!.own + stock!.dealer} in stock` : 'to order'}
+      </span>
+    </>
+  );
+});
+
 const PaletteItem = memo(function PaletteItem({ part, units, stock, canEdit }: { part: CatalogPart; units: UnitSystem; stock: StockCount | undefined; canEdit: boolean }) {
   const store = useEditorStoreApi();
   const { setNodeRef, listeners, attributes, isDragging } = useDraggable({
@@ -39,8 +63,6 @@ const PaletteItem = memo(function PaletteItem({ part, units, stock, canEdit }: {
     data: { part },
     disabled: !canEdit,
   });
-  const detail = part.kind === 'element' ? (part.openingMm ? formatLength(mm(part.openingMm.width), units) + ' gap' : 'no opening') : partDetail(part, units);
-  const inStock = !!stock && stock.own + stock.dealer > 0;
   return (
     <li>
       <button
@@ -62,38 +84,23 @@ const PaletteItem = memo(function PaletteItem({ part, units, stock, canEdit }: {
         }`}
         data-part={part.partNumber}
       >
-        <PartSwatch part={part} id={`pal-${part.partNumber}`} />
-        <span className="min-w-0 flex-1">
-          <span className="block truncate text-sm font-semibold text-ink">
-            {shortName(part)}
-            {part.kind === 'element' && <span className="font-normal text-ink-soft"> · {part.hand} hand</span>}
-          </span>
-          <span className="block truncate text-xs text-ink-muted">
-            {part.partNumber}
-            {detail && ` · ${detail}`}
-          </span>
-        </span>
-        <span className={`shrink-0 rounded px-1.5 py-0.5 text-xs font-semibold ${inStock ? 'bg-ok-soft text-ok' : 'bg-steel-100 text-ink-muted'}`} title={stockWords(stock)}>
-          {inStock ? `${(stock!.own ?? 0) + (stock!.dealer ?? 0)} in stock` : 'order'}
-        </span>
+        <PaletteItemBody part={part} units={units} stock={stock} />
       </button>
     </li>
   );
 });
 
-export function Palette() {
+/** Search, filters and the parts list (no drag state here, so drags never re-render the inputs). */
+const PaletteContents = memo(function PaletteContents() {
   const catalog = useEditor((s) => s.catalog.parts);
   const units = useEditor((s) => s.units);
   const stock = useEditor((s) => s.stock);
   const canEdit = useEditor((s) => s.canEdit);
-  const selected = useEditor((s) => s.selectedPlace);
   const [query, setQuery] = useState('');
   const [zone, setZone] = useState<'any' | Zone>('any');
   const [type, setType] = useState<TypeFilter>('all');
   const [hand, setHand] = useState<'any' | Side>('any');
   const q = useDeferredValue(query.trim().toLowerCase());
-  const { setNodeRef, isOver, active } = useDroppable({ id: PALETTE_DROP_ID });
-  const carryingPlaced = !!(active?.data.current as { from?: unknown } | undefined)?.from;
 
   const shown = useMemo(() => {
     return catalog.filter((p) => {
@@ -120,40 +127,28 @@ export function Palette() {
   ].filter((g) => g.parts.length > 0);
 
   return (
-    <section
-      ref={setNodeRef}
-      aria-labelledby="palette-h"
-      className={`rounded-lg border bg-white p-3 shadow-sm ${isOver && carryingPlaced ? 'border-iris-500 ring-2 ring-iris-300' : 'border-steel-200'}`}
-      data-testid="palette"
-    >
-      <h2 id="palette-h" className="text-base font-semibold">
-        Parts
-      </h2>
-      <p className="mt-0.5 text-xs text-ink-muted">
-        {canEdit
-          ? selected && selected.kind !== 'setting'
-            ? `Click a part to put it at ${placeWords(selected)}, or drag it onto the drawing.`
-            : 'Drag a part onto the drawing, or pick it up with Space and move with the arrow keys.'
-          : 'Read only: you may look, not change.'}
-      </p>
-      {carryingPlaced && <p className="mt-2 rounded border border-dashed border-iris-400 bg-iris-50 p-2 text-center text-sm text-iris-700">Drop here to take the part off</p>}
-      <div className="mt-3 space-y-2">
+    <>
+      <div className="mt-3 flex flex-col gap-2">
         <label className="block">
-          <span className="field-label">Search</span>
+          <span className="field-label">Search parts</span>
           <input type="search" className="field-input py-1.5 text-sm" value={query} onChange={(e) => setQuery(e.target.value)} placeholder="Name or part number" />
         </label>
         <div className="grid grid-cols-3 gap-2">
-          <label className="block">
-            <span className="field-label">Zone</span>
-            <select className="field-input py-1.5 text-sm" value={zone} onChange={(e) => setZone(e.target.value as typeof zone)}>
+          <div>
+            <label htmlFor="palette-zone" className="field-label">
+              Zone
+            </label>
+            <select id="palette-zone" className="field-input py-1.5 text-sm" value={zone} onChange={(e) => setZone(e.target.value as typeof zone)}>
               <option value="any">Any</option>
               <option value="threshing">Threshing</option>
               <option value="separating">Separating</option>
             </select>
-          </label>
-          <label className="block">
-            <span className="field-label">Type</span>
-            <select className="field-input py-1.5 text-sm" value={type} onChange={(e) => setType(e.target.value as TypeFilter)}>
+          </div>
+          <div>
+            <label htmlFor="palette-type" className="field-label">
+              Type
+            </label>
+            <select id="palette-type" className="field-input py-1.5 text-sm" value={type} onChange={(e) => setType(e.target.value as TypeFilter)}>
               <option value="all">All</option>
               {ELEMENT_TYPES.map((t) => (
                 <option key={t} value={t}>
@@ -163,15 +158,17 @@ export function Palette() {
               <option value="cover-plate">Cover plate</option>
               <option value="rotor-bar">Rotor bar</option>
             </select>
-          </label>
-          <label className="block">
-            <span className="field-label">Hand</span>
-            <select className="field-input py-1.5 text-sm" value={hand} onChange={(e) => setHand(e.target.value as typeof hand)}>
+          </div>
+          <div>
+            <label htmlFor="palette-hand" className="field-label">
+              Hand
+            </label>
+            <select id="palette-hand" className="field-input py-1.5 text-sm" value={hand} onChange={(e) => setHand(e.target.value as typeof hand)}>
               <option value="any">Any</option>
               <option value="left">Left</option>
               <option value="right">Right</option>
             </select>
-          </label>
+          </div>
         </div>
       </div>
       <p className="mt-2 text-xs text-ink-muted" aria-live="polite">
@@ -180,13 +177,49 @@ export function Palette() {
       {groups.map((g) => (
         <div key={g.title} className="mt-3">
           <h3 className="text-xs font-bold uppercase tracking-wide text-ink-soft">{g.title}</h3>
-          <ul className="mt-1 space-y-1">
+          <ul className="mt-1 flex flex-col gap-1">
             {g.parts.map((p) => (
               <PaletteItem key={p.partNumber} part={p} units={units} stock={stock[p.partNumber]} canEdit={canEdit} />
             ))}
           </ul>
         </div>
       ))}
+    </>
+  );
+});
+
+/** The hint under the heading follows the selected slot. */
+function PaletteHint() {
+  const canEdit = useEditor((s) => s.canEdit);
+  const selected = useEditor((s) => s.selectedPlace);
+  return (
+    <p className="mt-0.5 text-xs text-ink-muted">
+      {canEdit
+        ? selected && selected.kind !== 'setting'
+          ? `Click a part to put it at ${placeWords(selected)}, or drag it onto the drawing.`
+          : 'Drag a part onto the drawing, or pick it up with Space and move with the arrow keys.'
+        : 'Read only: you may look, not change.'}
+    </p>
+  );
+}
+
+/** The palette is also where a placed part is dropped to take it off. */
+export function Palette() {
+  const { setNodeRef, isOver, active } = useDroppable({ id: PALETTE_DROP_ID, resizeObserverConfig: { disabled: true } });
+  const carryingPlaced = !!(active?.data.current as { from?: unknown } | undefined)?.from;
+  return (
+    <section
+      ref={setNodeRef}
+      aria-labelledby="palette-h"
+      className={`rounded-lg border bg-white p-3 shadow-sm ${isOver && carryingPlaced ? 'border-iris-500 ring-2 ring-iris-300' : 'border-steel-200'}`}
+      data-testid="palette"
+    >
+      <h2 id="palette-h" className="text-base font-semibold">
+        Parts
+      </h2>
+      <PaletteHint />
+      <div className={carryingPlaced ? 'mt-2 rounded border border-dashed border-iris-400 bg-iris-50 p-2 text-center text-sm text-iris-700' : 'hidden'}>Drop here to take the part off</div>
+      <PaletteContents />
     </section>
   );
 }

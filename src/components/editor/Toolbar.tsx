@@ -28,14 +28,31 @@ function CommandButton({ id, primary = false, icon }: { id: CommandId; primary?:
   );
 }
 
-export function Toolbar() {
+/** The note saved with the next version; its own component so edits elsewhere leave the input alone. */
+function NoteField() {
   const store = useEditorStoreApi();
+  const note = useEditor((s) => s.draftNote);
+  return (
+    <label className="flex items-center gap-2 text-sm">
+      <span className="text-ink-soft">Note</span>
+      <input
+        className="w-48 rounded-md border-steel-300 py-1 text-sm lg:w-64"
+        value={note}
+        maxLength={500}
+        onChange={(e) => store.getState().setDraftNote(e.target.value)}
+        placeholder="What changed (optional)"
+        data-testid="save-note"
+      />
+    </label>
+  );
+}
+
+export function Toolbar() {
   const canEdit = useEditor((s) => s.canEdit);
   const dirty = useEditor(isDirty);
   const saveState = useEditor((s) => s.saveState);
   const saveError = useEditor((s) => s.saveError);
   const baseVersion = useEditor((s) => s.baseVersion);
-  const note = useEditor((s) => s.draftNote);
 
   const status = !canEdit
     ? `Version ${baseVersion} · read only`
@@ -55,17 +72,7 @@ export function Toolbar() {
           <CommandButton id="redo" icon="↷" />
           <CommandButton id="remove" />
           <span className="mx-1 h-6 w-px bg-steel-200" aria-hidden="true" />
-          <label className="flex items-center gap-2 text-sm">
-            <span className="text-ink-soft">Note</span>
-            <input
-              className="w-48 rounded-md border-steel-300 py-1 text-sm lg:w-64"
-              value={note}
-              maxLength={500}
-              onChange={(e) => store.getState().setDraftNote(e.target.value)}
-              placeholder="What changed (optional)"
-              data-testid="save-note"
-            />
-          </label>
+          <NoteField />
           <CommandButton id="save" primary />
         </>
       )}

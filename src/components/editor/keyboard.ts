@@ -97,28 +97,43 @@ export interface CarryData {
   from?: Place;
 }
 
+export type SlotCoordinateGetter = KeyboardCoordinateGetter & {
+  /** Forget the last slot stepped to; call when a drag starts. */
+  reset: () => void;
+};
+
 /**
  * dnd-kit keyboard coordinate getter: arrow keys carry the part to the centre of the next slot
- * (in the drawing's order) that takes it, instead of moving by pixels.
+ * (in the drawing's order) that takes it, instead of moving by pixels. It remembers the slot it
+ * last stepped to, so quick key presses step on from there even before the drop target has
+ * caught up with the move.
  */
-export function slotCoordinateGetter(getFamily: () => MachineFamily): KeyboardCoordinateGetter {
-  return (event, { context, currentCoordinates }) => {
+export function slotCoordinateGetter(getFamily: () => MachineFamily): SlotCoordinateGetter {
+  let last: Place | null = null;
+  const getter: KeyboardCoordinateGetter = (event, { context, currentCoordinates }) => {
     const dir = ARROW_DIRECTION[event.code] ?? ARROW_DIRECTION[event.key];
     if (!dir) return undefined;
     event.preventDefault();
     const family = getFamily();
     const carry = context.active?.data.current as CarryData | undefined;
     const places = slotsFor(family, carry?.part ?? null).filter((p) => context.droppableRects.has(slotId(p)));
-    // From the slot it is over (or was picked up from), step; from the palette, the first slot.
-    const fromPlace = placeFromSlotId(context.over?.id) ?? carry?.from ?? null;
+    // From the slot last stepped to (or the one it is over, or was picked up from), step;
+    // fresh from the palette, go to the first slot.
+    const fromPlace = last ?? placeFromSlotId(context.over?.id) ?? carry?.from ?? null;
     const next = fromPlace ? stepPlace(family, places, fromPlace, dir) : (places[0] ?? null);
     if (!next) return currentCoordinates;
     const rect = context.droppableRects.get(slotId(next));
     const carried = context.collisionRect;
     if (!rect || !carried) return currentCoordinates;
+    last = next;
     return {
       x: rect.left + rect.width / 2 - carried.width / 2,
       y: rect.top + rect.height / 2 - carried.height / 2,
     };
   };
+  return Object.assign(getter, {
+    reset: () => {
+      last = null;
+    },
+  });
 }
