@@ -73,13 +73,15 @@ export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures>
   expect(share.status).toBe(201);
   const shareLinkId: string = share.body.link?.id ?? share.body.id;
 
-  const decks = (await own.trainer.get('/api/decks')).body.decks;
-  const deckId: string = decks[0].id;
+  // Other suites share this store and add decks and inspections of their own: pick the demo's
+  // (a deck with slides, an inspection with photos) rather than the first listed.
+  const decks = (await own.trainer.get('/api/decks')).body.decks as { id: string; slideCount: number }[];
+  const deckId = decks.find((d) => d.slideCount > 0)!.id;
   const deck = (await own.trainer.get(`/api/decks/${deckId}`)).body;
   const slideId: string = deck.slides[0].id;
 
-  const inspections = (await own.technician.get('/api/inspections')).body.items;
-  const inspectionId: string = inspections[0].id;
+  const inspections = (await own.technician.get('/api/inspections?pageSize=100')).body.items as { id: string; photoCount: number }[];
+  const inspectionId = inspections.find((i) => i.photoCount > 0)!.id;
   const inspection = (await own.technician.get(`/api/inspections/${inspectionId}`)).body;
   const withPhoto = inspection.items.find((i: { photos?: unknown[] }) => (i.photos ?? []).length > 0);
   const itemId: string = inspection.items[0].id;
