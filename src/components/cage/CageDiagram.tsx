@@ -28,6 +28,8 @@
  *   compact?        smaller type, no part numbers, no end view (phones, thumbnails).
  *   endView?        force the end-view inset on or off.
  *   title?          the drawing's accessible title (default: "Cage diagram, <family name>").
+ *   overlay?        ReactNode drawn last inside the <svg>, in drawing units (see slotBox() in
+ *                   ./geometry for where each slot sits).
  *   className?      on the <svg>, which scales to its container's width.
  *
  * Every slot's <g> carries data-place="<placeKey>" ('element:3:right', 'cover:2:left',
@@ -42,7 +44,7 @@ import { BarSlot } from './BarSlot';
 import { CoverSlot } from './CoverSlot';
 import { ElementSlot } from './ElementSlot';
 import { EndView } from './EndView';
-import { diagramGeometry, VANE_LEAN_DEG, type DiagramGeometry } from './geometry';
+import { diagramGeometry, slotBox, VANE_LEAN_DEG, type DiagramGeometry } from './geometry';
 import { INK, INK_MUTED, INK_SOFT, SEVERITY_STYLE, STEEL } from './palette';
 import { PatternDefs } from './patterns';
 import type { SlotAttrs, SlotInfo } from './slot-types';
@@ -65,6 +67,8 @@ export interface CageDiagramProps {
   endView?: boolean;
   title?: string;
   className?: string;
+  /** Drawn on top of everything, in the drawing's units (the editor's drop highlights). */
+  overlay?: ReactNode;
 }
 
 const SIDES: readonly Side[] = ['left', 'right'];
@@ -153,6 +157,7 @@ export function CageDiagram(props: CageDiagramProps) {
     endView,
     title,
     className,
+    overlay,
   } = props;
   // useId is stable between the server render and hydration; strip characters url(#…) dislikes.
   const prefix = 'cg' + useId().replace(/[^A-Za-z0-9_-]/g, '');
@@ -214,9 +219,9 @@ export function CageDiagram(props: CageDiagramProps) {
 
   const slots: ReactNode[] = [];
   for (const place of places) {
+    const box = slotBox(family, geo, place);
+    if (!box) continue;
     if (place.kind === 'element') {
-      const band = geo.half[place.side];
-      const box = { x: geo.colX(place.position) + 4, y: band.y, w: geo.colW - 8, h: band.h };
       const info = infoFor(place, box, true);
       slots.push(
         <Slot key={info.key} info={info} slotProps={slotProps} renderSlot={renderSlot}
@@ -224,18 +229,12 @@ export function CageDiagram(props: CageDiagramProps) {
       );
     } else if (place.kind === 'cover') {
       const section = family.cageTopSections.find((s) => s.index === place.section)!;
-      const band = geo.coverTop[place.side];
-      const span = geo.spanX(section.positions);
-      // leave room for the 'section n' label: below the slot on the left band, above it on the right
-      const box = { x: span.x + 8, y: band.y + (place.side === 'left' ? 9 : 13), w: span.w - 16, h: band.h - 22 };
       const info = infoFor(place, box, section.coverPlateSides.includes(place.side));
       slots.push(
         <Slot key={info.key} info={info} slotProps={slotProps} renderSlot={renderSlot}
           drawing={<CoverSlot info={info} prefix={prefix} compact={compact} />} />,
       );
     } else if (place.kind === 'bar') {
-      const row = geo.rotorRow(family.rotorBarRows.findIndex((r) => r.index === place.row) + 1);
-      const box = { x: geo.colX(place.position) + 4, y: row.y + 2, w: geo.colW - 8, h: row.h - 4 };
       const info = infoFor(place, box, true);
       slots.push(
         <Slot key={info.key} info={info} slotProps={slotProps} renderSlot={renderSlot}
@@ -264,6 +263,7 @@ export function CageDiagram(props: CageDiagramProps) {
       {geo.endView && (
         <EndView family={family} {...geo.endView} clearanceMm={layout.clearanceMm} diameterMm={drum.diameterMm} units={units} />
       )}
+      {overlay}
     </svg>
   );
 }

@@ -6,7 +6,7 @@
  *   y: zone bands, position headers, cage top left, left half, right half, cage top right,
  *      then the rotor strip (one row per rasp-bar row).
  */
-import type { MachineFamily, Side } from '../../lib/domain/schemas';
+import type { MachineFamily, Place, Side } from '../../lib/domain/schemas';
 
 export interface Band {
   y: number;
@@ -99,3 +99,36 @@ export function diagramGeometry(family: MachineFamily, opts: GeometryOptions = {
 
 /** Vane stroke angle from the cross-rotor direction: faster settings lean further rearward. */
 export const VANE_LEAN_DEG = { 'very-slow': 12, slow: 22, medium: 32, fast: 42 } as const;
+
+export interface Box {
+  x: number;
+  y: number;
+  w: number;
+  h: number;
+}
+
+/** The outer box of a slot in the drawing (null for a setting, or a place the family lacks). */
+export function slotBox(family: MachineFamily, geo: DiagramGeometry, place: Place): Box | null {
+  switch (place.kind) {
+    case 'element': {
+      const band = geo.half[place.side];
+      return { x: geo.colX(place.position) + 4, y: band.y, w: geo.colW - 8, h: band.h };
+    }
+    case 'cover': {
+      const section = family.cageTopSections.find((s) => s.index === place.section);
+      if (!section) return null;
+      const band = geo.coverTop[place.side];
+      const span = geo.spanX(section.positions);
+      // room for the 'section n' label: below the slot on the left band, above it on the right
+      return { x: span.x + 8, y: band.y + (place.side === 'left' ? 9 : 13), w: span.w - 16, h: band.h - 22 };
+    }
+    case 'bar': {
+      const i = family.rotorBarRows.findIndex((r) => r.index === place.row);
+      if (i < 0) return null;
+      const row = geo.rotorRow(i + 1);
+      return { x: geo.colX(place.position) + 4, y: row.y + 2, w: geo.colW - 8, h: row.h - 4 };
+    }
+    default:
+      return null;
+  }
+}

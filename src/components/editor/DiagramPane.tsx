@@ -1,86 +1,36 @@
 /**
- * The drawing in the editor: the shared CageDiagram with each slot made a drop target, a
- * draggable (when it holds a part) and one stop of a roving tab order — Tab enters the drawing,
- * the arrow keys walk its slots in the drawing's order, Space picks a part up.
+ * The drawing in the editor: the shared CageDiagram with each slot one stop of a roving tab
+ * order (Tab enters the drawing, the arrow keys walk its slots in the drawing's order), a place
+ * to pick a placed part up (pointer, or Space / Enter), and the drop highlights on top.
  */
-import { useDraggable, useDroppable } from '@dnd-kit/core';
-import { memo, useCallback, useEffect, useRef, type KeyboardEvent, type ReactNode } from 'react';
+import { memo, useCallback, useEffect, useMemo, useRef, type KeyboardEvent, type ReactNode } from 'react';
 import { allPlaces, placeKey } from '../../lib/domain/places';
 import type { MachineFamily } from '../../lib/domain/schemas';
 import { CageDiagram, type SlotAttrs, type SlotInfo } from '../cage/CageDiagram';
+import { diagramGeometry, slotBox } from '../cage/geometry';
 import { IRIS } from '../cage/palette';
-import { ARROW_DIRECTION, slotId, stepPlace, type CarryData } from './keyboard';
+import { isPickUpKey, useCarry, useCarryUi } from './carry';
+import { ARROW_DIRECTION, slotsFor, stepPlace } from './keyboard';
 import { useEditor, useEditorStoreApi } from './store/context';
-import { accepts } from './store/layout-edits';
 
-export const INSTRUCTIONS_ID = 'cage-editor-instructions';
+import { INSTRUCTIONS_ID } from './instructions';
+const GEOMETRY_OPTIONS = { compact: false, endView: false } as const;
 
-const NO_RESIZE_OBSERVER = { disabled: true } as const;
-
-/**
- * The dnd-kit hooks of one slot. dnd-kit re-renders every hook user whenever a drag starts,
- * moves over a new target or ends, so this part stays small and hands plain values to the memoised
- * <g> below, which re-renders only when what it shows changes.
- */
-function DndSlot({ info, attrs, children, canEdit }: { info: SlotInfo; attrs: SlotAttrs; children: ReactNode; canEdit: boolean }) {
-  const tabStop = useEditor((s) => (s.selectedPlace ? placeKey(s.selectedPlace) === info.key : info.key === firstElementKey(s.family)));
-  // Slots do not change size while a part is carried: no resize observers to set up per drag.
-  const { setNodeRef: dropRef, isOver, active } = useDroppable({
-    id: slotId(info.place),
-    data: { place: info.place },
-    disabled: !canEdit,
-    resizeObserverConfig: NO_RESIZE_OBSERVER,
-  });
-  const draggable = canEdit && !!info.part;
-  const carry: CarryData | undefined = info.part ? { part: info.part, from: info.place } : undefined;
-  const { setNodeRef: dragRef, listeners, isDragging } = useDraggable({ id: `placed:${info.key}`, data: carry, disabled: !draggable });
-  const ref = useCallback(
-    (node: SVGGElement | null) => {
-      dropRef(node as unknown as HTMLElement);
-      dragRef(node as unknown as HTMLElement);
-    },
-    [dropRef, dragRef],
-  );
-  const carried = active?.data.current as CarryData | undefined;
-  const takes = !!carried && accepts(carried.part, info.place);
-  return (
-    <SlotG
-      info={info}
-      attrs={attrs}
-      gRef={ref}
-      tabStop={tabStop}
-      canEdit={canEdit}
-      draggable={draggable}
-      carrying={!!active}
-      listeners={listeners}
-      isDragging={isDragging}
-      takes={takes}
-      isOver={isOver}
-    >
-      {children}
-    </SlotG>
-  );
-}
-
-interface SlotGProps {
+interface EditorSlotProps {
   info: SlotInfo;
   attrs: SlotAttrs;
-  gRef: (node: SVGGElement | null) => void;
-  tabStop: boolean;
   canEdit: boolean;
-  draggable: boolean;
-  carrying: boolean;
-  listeners: ReturnType<typeof useDraggable>['listeners'];
-  isDragging: boolean;
-  takes: boolean;
-  isOver: boolean;
   children: ReactNode;
 }
 
-const SlotG = memo(function SlotG({ info, attrs, gRef, tabStop, canEdit, draggable, carrying, listeners, isDragging, takes, isOver, children }: SlotGProps) {
+const EditorSlot = memo(function EditorSlot({ info, attrs, canEdit, children }: EditorSlotProps) {
   const store = useEditorStoreApi();
+  const carry = useCarry();
+  const tabStop = useEditor((s) => (s.selectedPlace ? placeKey(s.selectedPlace) === info.key : info.key === firstElementKey(s.family)));
+  const movable = canEdit && !!info.part;
+
   const onKeyDown = (e: KeyboardEvent<SVGGElement>) => {
-    if (carrying) return; // the keyboard sensor has the keys while a part is carried
+    if (carry.ui.getState().carrying) return; // the keyboard sensor has the keys while a part is carried
     const dir = ARROW_DIRECTION[e.key];
     if (dir) {
       e.preventDefault();
@@ -89,35 +39,32 @@ const SlotG = memo(function SlotG({ info, attrs, gRef, tabStop, canEdit, draggab
       if (next) s.select(next, { focus: true });
       return;
     }
-    if (draggable) listeners?.onKeyDown?.(e as never);
-    if ((e.key === 'Enter' || e.key === ' ') && !info.part && canEdit && !e.defaultPrevented) {
+    if (!isPickUpKey(e) || !canEdit) return;
+    if (info.part) carry.begin(e, info.part, info.place, e.currentTarget);
+    else {
       e.preventDefault();
       store.getState().announce(`${info.label}. To fill it, pick a part up in the palette with Space, move here with the arrow keys, and drop it with Space.`);
     }
   };
-  const { x, y, w, h } = info.box;
+
   return (
     <g
-      ref={gRef}
       {...attrs}
       role="button"
       tabIndex={tabStop ? 0 : -1}
-      aria-roledescription={draggable ? 'slot with a part you can move' : 'slot'}
+      aria-roledescription={movable ? 'slot with a part you can move' : 'slot'}
       aria-describedby={canEdit ? INSTRUCTIONS_ID : undefined}
       aria-pressed={info.selected}
-      onPointerDown={draggable ? (listeners?.onPointerDown as never) : undefined}
+      onPointerDown={movable ? (e) => carry.begin(e, info.part!, info.place, e.currentTarget) : undefined}
       onKeyDown={onKeyDown}
       onClick={() => store.getState().select(info.place)}
       onFocus={() => {
         if (!info.selected) store.getState().select(info.place);
       }}
       className="cage-slot"
-      style={{ cursor: draggable ? 'grab' : 'pointer', outline: 'none', opacity: isDragging ? 0.55 : 1, touchAction: 'none' }}
+      style={{ cursor: movable ? 'grab' : 'pointer', outline: 'none', touchAction: movable ? 'none' : undefined }}
     >
       {children}
-      {takes && (
-        <rect x={x - 1} y={y - 1} width={w + 2} height={h + 2} rx={6} fill={isOver ? IRIS[100] : 'none'} fillOpacity={0.55} stroke={IRIS[500]} strokeWidth={isOver ? 4 : 1.5} strokeDasharray={isOver ? undefined : '4 4'} pointerEvents="none" />
-      )}
     </g>
   );
 });
@@ -132,6 +79,42 @@ function firstElementKey(family: MachineFamily): string {
     firstKeys.set(family, k);
   }
   return k;
+}
+
+/** While a part is carried: the slots that take it (dashed), the one it is over (solid), its source (faded). */
+function DropHighlights({ family }: { family: MachineFamily }) {
+  const carrying = useCarryUi((s) => s.carrying);
+  const hover = useCarryUi((s) => s.hover);
+  const geo = useMemo(() => diagramGeometry(family, GEOMETRY_OPTIONS), [family]);
+  const targets = useMemo(() => (carrying ? slotsFor(family, carrying.part) : []), [family, carrying]);
+  if (!carrying) return null;
+  const hoverKey = hover ? placeKey(hover) : null;
+  const from = carrying.from ? slotBox(family, geo, carrying.from) : null;
+  return (
+    <g pointerEvents="none" aria-hidden="true" data-testid="drop-highlights">
+      {from && <rect x={from.x} y={from.y} width={from.w} height={from.h} rx={5} fill="#fff" fillOpacity={0.5} />}
+      {targets.map((p) => {
+        const b = slotBox(family, geo, p);
+        if (!b) return null;
+        const over = placeKey(p) === hoverKey;
+        return (
+          <rect
+            key={placeKey(p)}
+            x={b.x - 1}
+            y={b.y - 1}
+            width={b.w + 2}
+            height={b.h + 2}
+            rx={6}
+            fill={over ? IRIS[100] : 'none'}
+            fillOpacity={0.55}
+            stroke={IRIS[500]}
+            strokeWidth={over ? 4 : 1.5}
+            strokeDasharray={over ? undefined : '4 4'}
+          />
+        );
+      })}
+    </g>
+  );
 }
 
 export function DiagramPane() {
@@ -164,12 +147,13 @@ export function DiagramPane() {
 
   const renderSlot = useCallback(
     (info: SlotInfo, attrs: SlotAttrs, drawing: ReactNode) => (
-      <DndSlot key={info.key} info={info} attrs={attrs} canEdit={canEdit}>
+      <EditorSlot info={info} attrs={attrs} canEdit={canEdit}>
         {drawing}
-      </DndSlot>
+      </EditorSlot>
     ),
     [canEdit],
   );
+  const overlay = useMemo(() => <DropHighlights family={family} />, [family]);
 
   return (
     <div ref={box} className="cage-pane rounded-lg border border-steel-200 bg-white p-2 shadow-sm sm:p-3" data-testid="diagram-pane">
@@ -182,7 +166,9 @@ export function DiagramPane() {
         selectedPlace={selected}
         highlightPlaces={highlight}
         renderSlot={renderSlot}
-        endView={false}
+        overlay={overlay}
+        compact={GEOMETRY_OPTIONS.compact}
+        endView={GEOMETRY_OPTIONS.endView}
         title={`Cage diagram, ${family.name}: the cage unrolled, front on the left`}
       />
     </div>

@@ -2,28 +2,33 @@
  * The editor's screen: toolbar, parts palette, the drawing, settings and findings, wired to one
  * drag-and-drop context with pointer and keyboard sensors. Dropping a palette part places it,
  * dropping a placed part on another slot moves it (or swaps the two), dropping it on the palette
- * takes it off.
+ * takes it off. See ./carry.tsx for why there is one draggable and no droppable per slot.
  */
 import {
   DndContext,
   DragOverlay,
-  useDndContext,
   KeyboardSensor,
   PointerSensor,
   pointerWithin,
+  useDndContext,
   useSensor,
   useSensors,
   type Announcements,
   type CollisionDetection,
   type DragEndEvent,
+  type DragMoveEvent,
   type DragStartEvent,
 } from '@dnd-kit/core';
-import { memo, useCallback, useMemo, useRef } from 'react';
-import { partWordsWithHand, placeWords, partWords } from '../cage/words';
+import { memo, useCallback, useMemo, useRef, useState } from 'react';
+import { parsePlaceKey, placeKey } from '../../lib/domain/places';
+import type { Place } from '../../lib/domain/schemas';
+import { partWords, partWordsWithHand, placeWords } from '../cage/words';
+import { CarryHandle, CarryProvider, createCarry, type CarryData } from './carry';
 import { ConflictDialog } from './ConflictDialog';
-import { DiagramPane, INSTRUCTIONS_ID } from './DiagramPane';
+import { DiagramPane } from './DiagramPane';
 import { FindingsList } from './FindingsList';
-import { placeFromSlotId, slotCoordinateGetter, type CarryData } from './keyboard';
+import { INSTRUCTIONS, INSTRUCTIONS_ID } from './instructions';
+import { slotCoordinateGetter } from './keyboard';
 import { LiveRegion } from './LiveRegion';
 import { Palette, PALETTE_DROP_ID } from './Palette';
 import { PartSwatch, partTitle } from './part-visuals';
@@ -34,33 +39,8 @@ import { Toolbar } from './Toolbar';
 import { useShortcuts } from './use-shortcuts';
 import { useUnsavedGuard } from './use-unsaved-guard';
 
-const INSTRUCTIONS =
-  'To pick up a part, press Space. Carry it with the arrow keys: left and right step along the rotor from slot to slot, ' +
-  'up and down go to the band above or below. Press Space again to put it down, or Escape to put it back. ' +
-  'In the drawing, the arrow keys also move between slots, and Delete takes the part off the slot you are on.';
-
-/** Only slots that take the carried part count; the palette counts when carrying a placed part. */
-const collision: CollisionDetection = (args) => {
-  const carry = args.active.data.current as CarryData | undefined;
-  const droppableContainers = args.droppableContainers.filter((c) => {
-    if (c.id === PALETTE_DROP_ID) return !!carry?.from && !!args.pointerCoordinates;
-    const place = placeFromSlotId(c.id);
-    return !!place && !!carry && accepts(carry.part, place);
-  });
-  const narrowed = { ...args, droppableContainers };
-  if (args.pointerCoordinates) return pointerWithin(narrowed);
-  // Keyboard: the coordinate getter centres the carried part on a slot, so the slot under its
-  // centre is the one; a part just picked up in the palette is over nothing yet.
-  const { collisionRect: c, droppableRects } = args;
-  const cx = c.left + c.width / 2;
-  const cy = c.top + c.height / 2;
-  return droppableContainers
-    .filter((d) => {
-      const r = droppableRects.get(d.id);
-      return !!r && cx >= r.left && cx <= r.left + r.width && cy >= r.top && cy <= r.top + r.height;
-    })
-    .map((d) => ({ id: d.id, data: { droppableContainer: d, value: 0 } }));
-};
+/** The pointer counts over the palette (to take a placed part off); slots are found by position. */
+const collision: CollisionDetection = (args) => (args.pointerCoordinates ? pointerWithin(args) : []);
 
 /** The part following the pointer (or the keyboard) while it is carried. */
 const CarryOverlay = memo(function CarryOverlay() {
@@ -70,18 +50,24 @@ const CarryOverlay = memo(function CarryOverlay() {
   // structure of the editor's children (sibling selectors would restyle the whole editor).
   return (
     <div className="editor-carry">
-    <DragOverlay dropAnimation={null}>
-      {carrying ? (
-        <div className="pointer-events-none flex items-center gap-2 rounded-md border border-iris-500 bg-white px-2 py-1.5 text-sm font-semibold shadow-lg">
-          <PartSwatch part={carrying.part} id="overlay" />
-          {partTitle(carrying.part)}
-          {carrying.part.kind === 'element' ? ` · ${carrying.part.hand === 'left' ? 'L' : 'R'}` : ''}
-        </div>
-      ) : null}
-    </DragOverlay>
+      <DragOverlay dropAnimation={null}>
+        {carrying?.part ? (
+          <div className="pointer-events-none flex items-center gap-2 rounded-md border border-iris-500 bg-white px-2 py-1.5 text-sm font-semibold shadow-lg">
+            <PartSwatch part={carrying.part} id="overlay" />
+            {partTitle(carrying.part)}
+            {carrying.part.kind === 'element' ? ` · ${carrying.part.hand === 'left' ? 'L' : 'R'}` : ''}
+          </div>
+        ) : null}
+      </DragOverlay>
     </div>
   );
 });
+
+/** Reads the unsaved state on its own, so the rest of the screen does not re-render with it. */
+function UnsavedGuard() {
+  useUnsavedGuard();
+  return null;
+}
 
 export function EditorApp() {
   const store = useEditorStoreApi();
@@ -89,66 +75,114 @@ export function EditorApp() {
   const layoutName = useEditor((s) => s.layoutName);
   const machineName = useEditor((s) => s.machineName);
   const familyName = useEditor((s) => s.family.name);
-  const dragging = useRef(false);
+  const [carry] = useState(createCarry);
+  const root = useRef<HTMLDivElement>(null);
 
-  useUnsavedGuard();
-  useShortcuts(useCallback(() => dragging.current || store.getState().conflict !== null, [store]));
+  useShortcuts(useCallback(() => carry.ui.getState().carrying !== null || store.getState().conflict !== null, [carry, store]));
 
-  const coordinateGetter = useMemo(() => slotCoordinateGetter(() => store.getState().family), [store]);
+  const setHover = useCallback(
+    (place: Place | null) => {
+      const cur = carry.ui.getState().hover;
+      if ((cur ? placeKey(cur) : null) !== (place ? placeKey(place) : null)) carry.ui.setState({ hover: place });
+    },
+    [carry],
+  );
+
+  const slotElement = useCallback((place: Place) => root.current?.querySelector(`[data-testid="diagram-pane"] [data-place="${placeKey(place)}"]`) ?? null, []);
+
+  const coordinateGetter = useMemo(
+    () =>
+      slotCoordinateGetter({
+        family: () => store.getState().family,
+        rectOf: (place) => slotElement(place)?.getBoundingClientRect() ?? null,
+        onTarget: setHover,
+      }),
+    [store, slotElement, setHover],
+  );
   const sensors = useSensors(
     useSensor(PointerSensor, { activationConstraint: { distance: 5 } }),
     useSensor(KeyboardSensor, { coordinateGetter }),
   );
 
+  /** The slot under a point that takes the carried part, if any. */
+  const slotAt = (x: number, y: number, c: CarryData): Place | null => {
+    const pane = root.current?.querySelector('[data-testid="diagram-pane"]');
+    for (const el of document.elementsFromPoint(x, y)) {
+      const g = el.closest('[data-place]');
+      if (!g || !pane?.contains(g)) continue;
+      const place = parsePlaceKey(g.getAttribute('data-place') ?? '');
+      return place && accepts(c.part, place) ? place : null;
+    }
+    return null;
+  };
+
+  const announced = useRef<string | null>(null);
   const announcements = useMemo<Announcements>(
     () => ({
       onDragStart({ active }) {
+        announced.current = null;
         const c = active.data.current as CarryData | undefined;
-        if (!c) return undefined;
+        if (!c?.part) return undefined;
         return `Picked up ${partWordsWithHand(c.part)}${c.from ? ` from ${placeWords(c.from)}` : ''}. Arrow keys move between the slots that take it; Space puts it down; Escape puts it back.`;
       },
-      onDragOver({ active, over }) {
-        const c = active.data.current as CarryData | undefined;
-        if (over?.id === PALETTE_DROP_ID) return 'Over the parts palette: drop to take the part off.';
-        const place = placeFromSlotId(over?.id);
-        if (!c || !place) return 'Not over a slot.';
-        const there = partNumberAt(store.getState().layout, place);
+      onDragMove() {
+        const hover = carry.ui.getState().hover;
+        const key = hover ? placeKey(hover) : '';
+        if (key === announced.current) return undefined;
+        announced.current = key;
+        if (!hover) return undefined;
+        const there = partNumberAt(store.getState().layout, hover);
         const p = there ? store.getState().catalog.byPartNumber.get(there) : undefined;
-        return `Over ${placeWords(place)}, ${p ? `holding a ${partWords(p)}` : there ? `holding part ${there}` : 'empty'}.`;
+        return `Over ${placeWords(hover)}, ${p ? `holding a ${partWords(p)}` : there ? `holding part ${there}` : 'empty'}.`;
+      },
+      onDragOver({ over }) {
+        if (over?.id === PALETTE_DROP_ID) {
+          announced.current = PALETTE_DROP_ID;
+          return 'Over the parts palette: drop to take the part off.';
+        }
+        return undefined;
       },
       // The result of a drop is read from the editor's own live region (with the findings).
       onDragEnd: () => '',
       onDragCancel({ active }) {
         const c = active.data.current as CarryData | undefined;
-        return c ? `Put back: ${partWords(c.part)}${c.from ? ` stays at ${placeWords(c.from)}` : ''}.` : 'Put back.';
+        return c?.part ? `Put back: ${partWords(c.part)}${c.from ? ` stays at ${placeWords(c.from)}` : ''}.` : 'Put back.';
       },
     }),
-    [store],
+    [carry, store],
   );
 
   const onDragStart = (_e: DragStartEvent) => {
-    dragging.current = true;
     coordinateGetter.reset();
+    const c = carry.data;
+    carry.ui.setState({ carrying: c.part ? { part: c.part, from: c.from } : null, hover: null });
+  };
+
+  const onDragMove = (e: DragMoveEvent) => {
+    const start = e.activatorEvent;
+    const c = carry.ui.getState().carrying;
+    // Keyboard moves name their slot in the coordinate getter; pointer moves are found here.
+    if (!c || !(start instanceof PointerEvent || start instanceof MouseEvent)) return;
+    if (e.over?.id === PALETTE_DROP_ID) return setHover(null);
+    setHover(slotAt(start.clientX + e.delta.x, start.clientY + e.delta.y, c));
   };
 
   const onDragEnd = (e: DragEndEvent) => {
-    dragging.current = false;
-    const c = e.active.data.current as CarryData | undefined;
-    if (!c || !e.over) return;
+    const { carrying: c, hover } = carry.ui.getState();
+    carry.ui.setState({ carrying: null, hover: null });
+    if (!c) return;
     const s = store.getState();
-    if (e.over.id === PALETTE_DROP_ID) {
+    if (e.over?.id === PALETTE_DROP_ID) {
       if (c.from) s.removePart(c.from);
-    } else {
-      const place = placeFromSlotId(e.over.id);
-      if (place) {
-        if (c.from) s.movePart(c.from, place);
-        else s.placePart(c.part.partNumber, place);
-      }
+      return;
     }
+    if (!hover || !accepts(c.part, hover)) return;
+    if (c.from) s.movePart(c.from, hover);
+    else s.placePart(c.part.partNumber, hover);
   };
 
   return (
-    <div className="cage-editor flex flex-col gap-3" data-testid="cage-editor">
+    <div ref={root} className="cage-editor flex flex-col gap-3" data-testid="cage-editor">
       <header className="flex flex-wrap items-baseline justify-between gap-x-4 gap-y-1">
         <div>
           <h1 className="text-2xl font-bold">{layoutName}</h1>
@@ -161,35 +195,38 @@ export function EditorApp() {
       <p id={INSTRUCTIONS_ID} className="sr-only">
         {INSTRUCTIONS}
       </p>
+      <UnsavedGuard />
       <Toolbar />
-      <DndContext
-        sensors={sensors}
-        collisionDetection={collision}
-        onDragStart={onDragStart}
-        onDragEnd={onDragEnd}
-        onDragCancel={() => {
-          dragging.current = false;
-        }}
-        accessibility={{ announcements, screenReaderInstructions: { draggable: INSTRUCTIONS } }}
-      >
-        <div className="grid grid-cols-1 gap-3 md:grid-cols-2 xl:grid-cols-[19rem_minmax(0,1fr)_20rem] xl:items-start">
-          <div className="min-w-0">
-            <Palette />
+      <CarryProvider value={carry}>
+        <DndContext
+          sensors={sensors}
+          collisionDetection={collision}
+          onDragStart={onDragStart}
+          onDragMove={onDragMove}
+          onDragEnd={onDragEnd}
+          onDragCancel={() => carry.ui.setState({ carrying: null, hover: null })}
+          accessibility={{ announcements, screenReaderInstructions: { draggable: INSTRUCTIONS } }}
+        >
+          <CarryHandle carry={carry} disabled={!canEdit} />
+          <div className="grid grid-cols-1 gap-3 md:grid-cols-2 xl:grid-cols-[19rem_minmax(0,1fr)_20rem] xl:items-start">
+            <div className="min-w-0">
+              <Palette />
+            </div>
+            <div className="min-w-0 md:order-first md:col-span-2 xl:order-none xl:col-span-1">
+              <DiagramPane />
+              <details className="mt-2 text-sm text-ink-soft">
+                <summary className="cursor-pointer font-semibold">How to use the drawing</summary>
+                <p className="mt-1 max-w-prose">{INSTRUCTIONS}</p>
+              </details>
+            </div>
+            <div className="flex min-w-0 flex-col gap-3">
+              <FindingsList />
+              <SettingsPanel />
+            </div>
           </div>
-          <div className="min-w-0 md:order-first md:col-span-2 xl:order-none xl:col-span-1">
-            <DiagramPane />
-            <details className="mt-2 text-sm text-ink-soft">
-              <summary className="cursor-pointer font-semibold">How to use the drawing</summary>
-              <p className="mt-1 max-w-prose">{INSTRUCTIONS}</p>
-            </details>
-          </div>
-          <div className="flex min-w-0 flex-col gap-3">
-            <FindingsList />
-            <SettingsPanel />
-          </div>
-        </div>
-        <CarryOverlay />
-      </DndContext>
+          <CarryOverlay />
+        </DndContext>
+      </CarryProvider>
       <LiveRegion />
       <ConflictDialog />
     </div>

@@ -3,7 +3,9 @@
  * what is on the shelf. Each part is picked up with the mouse, or with Space and carried with
  * the arrow keys; a click puts it into the selected slot when it goes there.
  */
-import { useDraggable, useDroppable } from '@dnd-kit/core';
+import { useDroppable } from '@dnd-kit/core';
+import { isPickUpKey, useCarry } from './carry';
+import { INSTRUCTIONS_ID } from './instructions';
 import { memo, useDeferredValue, useMemo, useState } from 'react';
 import type { CatalogPart, ElementType, Side, Zone } from '../../lib/domain/schemas';
 import { formatLength, mm, type UnitSystem } from '../../lib/domain/units';
@@ -58,30 +60,26 @@ const PaletteItemBody = memo(function PaletteItemBody({ part, units, stock }: { 
 
 const PaletteItem = memo(function PaletteItem({ part, units, stock, canEdit }: { part: CatalogPart; units: UnitSystem; stock: StockCount | undefined; canEdit: boolean }) {
   const store = useEditorStoreApi();
-  const { setNodeRef, listeners, attributes, isDragging } = useDraggable({
-    id: `palette:${part.partNumber}`,
-    data: { part },
-    disabled: !canEdit,
-  });
+  const carry = useCarry();
   return (
     <li>
       <button
-        ref={setNodeRef}
         type="button"
-        {...attributes}
-        {...listeners}
         aria-roledescription="part to place"
+        aria-describedby={canEdit ? INSTRUCTIONS_ID : undefined}
         aria-label={`${partTitle(part)}${part.kind === 'element' ? `, ${part.hand} hand` : ''}, ${part.partNumber}. ${stockWords(stock)}.`}
         disabled={!canEdit}
+        onPointerDown={(e) => carry.begin(e, part, undefined, e.currentTarget)}
+        onKeyDown={(e) => {
+          if (isPickUpKey(e)) carry.begin(e, part, undefined, e.currentTarget);
+        }}
         onClick={() => {
           const s = store.getState();
           const target = s.selectedPlace;
           if (target && accepts(part, target)) s.placePart(part.partNumber, target);
           else s.announce(`Select a slot that takes a ${partTitle(part).toLowerCase()} first, or carry it there: Space, arrow keys, Space.`);
         }}
-        className={`flex w-full touch-none items-center gap-2.5 rounded-md border px-2 py-1.5 text-left hover:border-iris-400 hover:bg-iris-50 disabled:cursor-default disabled:hover:border-steel-200 disabled:hover:bg-white ${
-          isDragging ? 'border-iris-500 bg-iris-50 opacity-60' : 'border-steel-200 bg-white'
-        }`}
+        className="flex w-full touch-none items-center gap-2.5 rounded-md border border-steel-200 bg-white px-2 py-1.5 text-left hover:border-iris-400 hover:bg-iris-50 disabled:cursor-default disabled:hover:border-steel-200 disabled:hover:bg-white"
         data-part={part.partNumber}
       >
         <PaletteItemBody part={part} units={units} stock={stock} />

@@ -6,7 +6,8 @@
  * arrow-key navigation when nothing is.
  */
 import type { KeyboardCoordinateGetter } from '@dnd-kit/core';
-import { allPlaces, parsePlaceKey, placeKey } from '../../lib/domain/places';
+import { allPlaces, placeKey } from '../../lib/domain/places';
+import type { CarryData } from './carry';
 import type { CatalogPart, MachineFamily, Place } from '../../lib/domain/schemas';
 import { accepts } from './store/layout-edits';
 
@@ -85,47 +86,43 @@ export function slotsFor(family: MachineFamily, part: Pick<CatalogPart, 'kind'> 
   return part ? all.filter((p) => accepts(part, p)) : all;
 }
 
-/** dnd-kit ids of drop slots: 'slot:<placeKey>'. */
-export const slotId = (place: Place) => `slot:${placeKey(place)}`;
-export const placeFromSlotId = (id: string | number | null | undefined): Place | null =>
-  typeof id === 'string' && id.startsWith('slot:') ? parsePlaceKey(id.slice(5)) : null;
-
-/** What a draggable carries (on `active.data.current`). */
-export interface CarryData {
-  part: CatalogPart;
-  /** Where it was picked up from; absent when it comes from the palette. */
-  from?: Place;
-}
-
 export type SlotCoordinateGetter = KeyboardCoordinateGetter & {
   /** Forget the last slot stepped to; call when a drag starts. */
   reset: () => void;
 };
 
+export interface SlotStepping {
+  family: () => MachineFamily;
+  /** Where a slot is on screen now (null when it is not drawn). */
+  rectOf: (place: Place) => { left: number; top: number; width: number; height: number } | null;
+  /** Told the slot the carried part now sits over. */
+  onTarget?: (place: Place) => void;
+}
+
 /**
  * dnd-kit keyboard coordinate getter: arrow keys carry the part to the centre of the next slot
  * (in the drawing's order) that takes it, instead of moving by pixels. It remembers the slot it
- * last stepped to, so quick key presses step on from there even before the drop target has
- * caught up with the move.
+ * last stepped to, so quick key presses step on from there.
  */
-export function slotCoordinateGetter(getFamily: () => MachineFamily): SlotCoordinateGetter {
+export function slotCoordinateGetter(opts: SlotStepping): SlotCoordinateGetter {
   let last: Place | null = null;
   const getter: KeyboardCoordinateGetter = (event, { context, currentCoordinates }) => {
     const dir = ARROW_DIRECTION[event.code] ?? ARROW_DIRECTION[event.key];
     if (!dir) return undefined;
     event.preventDefault();
-    const family = getFamily();
-    const carry = context.active?.data.current as CarryData | undefined;
-    const places = slotsFor(family, carry?.part ?? null).filter((p) => context.droppableRects.has(slotId(p)));
-    // From the slot last stepped to (or the one it is over, or was picked up from), step;
-    // fresh from the palette, go to the first slot.
-    const fromPlace = last ?? placeFromSlotId(context.over?.id) ?? carry?.from ?? null;
+    const family = opts.family();
+    const carry = context.active?.data.current as Partial<CarryData> | undefined;
+    const places = slotsFor(family, carry?.part ?? null);
+    // From the slot last stepped to, or the one it was picked up from; fresh from the palette,
+    // the first slot that takes it.
+    const fromPlace = last ?? carry?.from ?? null;
     const next = fromPlace ? stepPlace(family, places, fromPlace, dir) : (places[0] ?? null);
     if (!next) return currentCoordinates;
-    const rect = context.droppableRects.get(slotId(next));
+    const rect = opts.rectOf(next);
     const carried = context.collisionRect;
     if (!rect || !carried) return currentCoordinates;
     last = next;
+    opts.onTarget?.(next);
     return {
       x: rect.left + rect.width / 2 - carried.width / 2,
       y: rect.top + rect.height / 2 - carried.height / 2,

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { placeFromSlotId, slotCoordinateGetter, slotId, slotsFor, stepPlace } from '../../../src/components/editor/keyboard';
+import { slotCoordinateGetter, slotsFor, stepPlace } from '../../../src/components/editor/keyboard';
 import { demoCatalog, sedgeS6, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
 import { allPlaces, placeKey } from '../../../src/lib/domain/places';
 import type { CatalogPart, Place } from '../../../src/lib/domain/schemas';
@@ -51,71 +51,62 @@ describe('stepping between slots in the drawing’s order', () => {
     expect(stepPlace(sedgeS6, [], null, 'right')).toBeNull();
   });
 
-  it('slot ids round-trip', () => {
-    for (const p of allPlaces(sedgeS6)) expect(placeFromSlotId(slotId(p))).toEqual(p);
-    expect(placeFromSlotId('palette')).toBeNull();
-    expect(placeFromSlotId(7)).toBeNull();
-  });
 });
 
 describe('the dnd-kit keyboard coordinate getter', () => {
   // Slots laid out like the drawing: a column per position, bands 100 px apart.
-  const rects = new Map<string, { left: number; top: number; width: number; height: number; right: number; bottom: number }>();
+  const rects = new Map<string, { left: number; top: number; width: number; height: number }>();
   for (const p of allPlaces(tamarackM4)) {
     const col = p.kind === 'cover' ? p.section : p.kind === 'setting' ? 0 : p.position;
     const band = p.kind === 'cover' ? (p.side === 'left' ? 0 : 3) : p.kind === 'element' ? (p.side === 'left' ? 1 : 2) : p.kind === 'bar' ? 3 + p.row : 0;
-    rects.set(slotId(p), { left: col * 150, top: band * 100, width: 140, height: 90, right: col * 150 + 140, bottom: band * 100 + 90 });
+    rects.set(placeKey(p), { left: col * 150, top: band * 100, width: 140, height: 90 });
   }
   const carried = { left: 0, top: 0, width: 40, height: 30, right: 40, bottom: 30 };
-  const run = (code: string, carry: { part: CatalogPart; from?: Place }, overId: string | null) => {
-    let prevented = false;
-    const event = { code, key: code, preventDefault: () => (prevented = true) } as unknown as KeyboardEvent;
-    const ctx = {
-      active: { id: 'x', data: { current: carry } },
-      over: overId ? { id: overId } : null,
-      droppableRects: rects,
-      collisionRect: carried,
-    };
-    const getter = slotCoordinateGetter(() => tamarackM4);
-    const out = getter(event, { active: 'x', currentCoordinates: { x: 1, y: 2 }, context: ctx as never });
-    return { out, prevented };
+  const centred = (key: string) => {
+    const r = rects.get(key)!;
+    return { x: r.left + r.width / 2 - 20, y: r.top + r.height / 2 - 15 };
   };
+  function setup(carry: { part: CatalogPart; from?: Place }) {
+    const targets: string[] = [];
+    const getter = slotCoordinateGetter({ family: () => tamarackM4, rectOf: (p) => rects.get(placeKey(p)) ?? null, onTarget: (p) => targets.push(placeKey(p)) });
+    const ctx = { active: { id: 'carry', data: { current: carry } }, over: null, collisionRect: carried };
+    const press = (code: string) => {
+      let prevented = false;
+      const event = { code, key: code, preventDefault: () => (prevented = true) } as unknown as KeyboardEvent;
+      const out = getter(event, { active: 'carry', currentCoordinates: { x: 1, y: 2 }, context: ctx as never });
+      return { out, prevented };
+    };
+    return { getter, press, targets };
+  }
 
   it('from the palette, the first arrow goes to the centre of the first slot that takes the part', () => {
-    const { out, prevented } = run('ArrowRight', { part: part('CW-WW-L-04') }, null);
+    const { press, targets } = setup({ part: part('CW-WW-L-04') });
+    const { out, prevented } = press('ArrowRight');
     expect(prevented).toBe(true);
-    const r = rects.get('slot:element:1:left')!;
-    expect(out).toEqual({ x: r.left + r.width / 2 - 20, y: r.top + r.height / 2 - 15 });
+    expect(out).toEqual(centred('element:1:left'));
+    expect(targets).toEqual(['element:1:left']);
   });
 
-  it('then steps from the slot it is over', () => {
-    const { out } = run('ArrowDown', { part: part('CW-WW-L-04') }, 'slot:element:3:left');
-    const r = rects.get('slot:element:3:right')!;
-    expect(out).toEqual({ x: r.left + r.width / 2 - 20, y: r.top + r.height / 2 - 15 });
-  });
-
-  it('a placed part starts from where it was picked up', () => {
-    const { out } = run('ArrowRight', { part: part('CW-BR-RS-04'), from: { kind: 'bar', row: 2, position: 1 } }, null);
-    const r = rects.get('slot:bar:2:2')!;
-    expect(out).toEqual({ x: r.left + r.width / 2 - 20, y: r.top + r.height / 2 - 15 });
-  });
-
-  it('quick presses step on from the last slot even when the drop target lags behind', () => {
-    const getter = slotCoordinateGetter(() => tamarackM4);
-    const carry = { part: part('CW-WW-L-04') };
-    const ctx = { active: { id: 'x', data: { current: carry } }, over: null, droppableRects: rects, collisionRect: carried };
-    const press = (code: string) => getter({ code, key: code, preventDefault() {} } as unknown as KeyboardEvent, { active: 'x', currentCoordinates: { x: 0, y: 0 }, context: ctx as never });
+  it('then steps on from the slot it went to, however quick the presses', () => {
+    const { press, targets } = setup({ part: part('CW-WW-L-04') });
     for (const k of ['ArrowRight', 'ArrowRight', 'ArrowRight']) press(k);
-    const r = rects.get('slot:element:3:right')!;
-    expect(press('ArrowDown')).toEqual({ x: r.left + r.width / 2 - 20, y: r.top + r.height / 2 - 15 });
+    expect(press('ArrowDown').out).toEqual(centred('element:3:right'));
+    expect(targets).toEqual(['element:1:left', 'element:2:left', 'element:3:left', 'element:3:right']);
+  });
+
+  it('a placed part starts from where it was picked up; reset forgets the last slot', () => {
+    const { press, getter } = setup({ part: part('CW-BR-RS-04'), from: { kind: 'bar', row: 2, position: 1 } });
+    expect(press('ArrowRight').out).toEqual(centred('bar:2:2'));
+    expect(press('ArrowDown').out).toEqual(centred('bar:3:2'));
     getter.reset();
-    const first = rects.get('slot:element:1:left')!;
-    expect(press('ArrowDown')).toEqual({ x: first.left + first.width / 2 - 20, y: first.top + first.height / 2 - 15 });
+    expect(press('ArrowUp').out).toEqual(centred('bar:1:1'));
   });
 
   it('other keys are left to the sensor', () => {
-    const { out, prevented } = run('KeyA', { part: part('CW-WW-L-04') }, null);
+    const { press, targets } = setup({ part: part('CW-WW-L-04') });
+    const { out, prevented } = press('KeyA');
     expect(out).toBeUndefined();
     expect(prevented).toBe(false);
+    expect(targets).toEqual([]);
   });
 });

@@ -1,0 +1,79 @@
+/**
+ * Carrying a part with dnd-kit, with one draggable for the whole island. Palette entries and
+ * placed parts do not register a draggable each: when one is picked up (pointer down, or Space /
+ * Enter), it hands its element and part to the single carry handle, which starts the drag. The
+ * slot under the part is worked out here too (pointer position, or the keyboard's next slot),
+ * not by one dnd-kit droppable per slot. dnd-kit re-renders every hook user on each drag event;
+ * with one handle and one drop zone (the palette) a drag re-renders two small components instead
+ * of every slot and palette entry.
+ */
+import { useDraggable } from '@dnd-kit/core';
+import { createContext, useContext, useLayoutEffect, type KeyboardEvent, type PointerEvent } from 'react';
+import { createStore, useStore, type StoreApi } from 'zustand';
+import type { CatalogPart, Place } from '../../lib/domain/schemas';
+
+export const CARRY_ID = 'carry';
+
+/** What a carried part is (on dnd-kit's `active.data.current`). */
+export interface CarryData {
+  part: CatalogPart;
+  /** Where it was picked up from; absent when it comes from the palette. */
+  from?: Place;
+}
+
+export interface CarryUi {
+  carrying: CarryData | null;
+  /** The slot the part would go into if dropped now (only slots that take it). */
+  hover: Place | null;
+}
+
+type StartEvent = PointerEvent<Element> | KeyboardEvent<Element>;
+
+export interface Carry {
+  /** The object dnd-kit holds as the draggable's data; filled in when a drag starts. */
+  readonly data: { part: CatalogPart | null; from?: Place };
+  readonly ui: StoreApi<CarryUi>;
+  /** Start carrying `part` (from `from`, or the palette) with this pointer or key event on `node`. */
+  begin: (e: StartEvent, part: CatalogPart, from: Place | undefined, node: Element) => void;
+}
+
+export function createCarry(): Carry {
+  return {
+    data: { part: null },
+    ui: createStore<CarryUi>()(() => ({ carrying: null, hover: null })),
+    begin: () => {},
+  };
+}
+
+const CarryContext = createContext<Carry | null>(null);
+export const CarryProvider = CarryContext.Provider;
+
+export function useCarry(): Carry {
+  const c = useContext(CarryContext);
+  if (!c) throw new Error('useCarry outside <CarryProvider>');
+  return c;
+}
+
+export function useCarryUi<T>(selector: (s: CarryUi) => T): T {
+  return useStore(useCarry().ui, selector);
+}
+
+/** Whether a key starts carrying (the keyboard sensor's start keys). */
+export const isPickUpKey = (e: { code: string; key: string }) => e.code === 'Space' || e.code === 'Enter' || e.key === ' ' || e.key === 'Enter';
+
+/** The island's one draggable. Renders nothing; wires `carry.begin` to dnd-kit's activators. */
+export function CarryHandle({ carry, disabled }: { carry: Carry; disabled: boolean }) {
+  const { setNodeRef, setActivatorNodeRef, listeners } = useDraggable({ id: CARRY_ID, data: carry.data, disabled });
+  useLayoutEffect(() => {
+    carry.begin = (e, part, from, node) => {
+      if (!listeners) return;
+      carry.data.part = part;
+      carry.data.from = from;
+      setNodeRef(node as HTMLElement);
+      setActivatorNodeRef(node as HTMLElement);
+      if (e.type === 'pointerdown') listeners.onPointerDown?.(e);
+      else if (e.type === 'keydown') listeners.onKeyDown?.(e);
+    };
+  });
+  return null;
+}
