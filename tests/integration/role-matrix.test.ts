@@ -69,7 +69,8 @@ describe('role matrix', () => {
         } else {
           // Junk body to an unknown id: gets past the role check, changes nothing.
           const res = await send(c, method, probe, row.multipart ? undefined : { matrixProbe: [1, 'x'] }, row.multipart, new Uint8Array([1, 2, 3]));
-          if ([401, 403].includes(res.status) || res.status >= 500) problems.push(`${key} as ${role} (probe ${probe}): ${res.status}`);
+          // 501: a backup in server mode is pg_dump's job, and the route says so.
+          if ([401, 403].includes(res.status) || (res.status >= 500 && res.status !== 501)) problems.push(`${key} as ${role} (probe ${probe}): ${res.status}`);
         }
       }
     }

@@ -1,3 +1,5 @@
+import { createHash } from 'node:crypto';
+import pg from 'pg';
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { mkdtempSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
@@ -39,15 +41,39 @@ export interface RunningServer {
 }
 
 /** Starts the built server on a free port; resolves once it printed that it is ready. */
+/**
+ * In server mode (DATABASE_URL set) each data directory gets a database of its own on that
+ * server, so a test that starts its own server starts from a fresh store, as it does with the
+ * embedded store, and two servers on one data directory share one database.
+ */
+async function databaseFor(dataDir: string): Promise<string | undefined> {
+  const base = process.env.DATABASE_URL;
+  if (!base) return undefined;
+  const name = 'cw_it_' + createHash('sha1').update(dataDir).digest('hex').slice(0, 16);
+  const admin = new pg.Client({ connectionString: base });
+  await admin.connect();
+  try {
+    const exists = await admin.query('select 1 from pg_database where datname = $1', [name]);
+    if (exists.rowCount === 0) await admin.query(`create database "${name}"`);
+  } finally {
+    await admin.end();
+  }
+  const url = new URL(base);
+  url.pathname = `/${name}`;
+  return url.toString();
+}
+
 export async function startServer(opts: { dataDir?: string; env?: Record<string, string> } = {}): Promise<RunningServer> {
   const port = await freePort();
   const dataDir = opts.dataDir ?? mkdtempSync(join(tmpdir(), 'cagewright-it-'));
+  const databaseUrl = await databaseFor(dataDir);
   const child = spawn(process.execPath, ['scripts/start.mjs'], {
     env: {
       ...process.env,
       PORT: String(port),
       HOST: '127.0.0.1',
       CAGEWRIGHT_DATA_DIR: dataDir,
+      ...(databaseUrl ? { DATABASE_URL: databaseUrl } : {}),
       CAGEWRIGHT_OUT_DIR: outDir(),
       CAGEWRIGHT_BCRYPT_ROUNDS: '4',
       CAGEWRIGHT_TEST_FIXTURES: '1',
