@@ -230,9 +230,12 @@ test('the demo deck shows a wrong layout’s findings large enough for the room'
   await page.getByTestId('present-link').click();
   await expect(page).toHaveURL(/\/present/);
   await hydrated(page);
+  await expect(page.locator('html[data-stage-keys="ready"]')).toBeAttached();
   await expect(page.getByTestId('slide-counter')).toHaveText('Slide 1 of 4');
   await page.keyboard.press('ArrowDown');
+  await expect(page.getByTestId('slide-counter')).toHaveText('Slide 2 of 4');
   await page.keyboard.press('ArrowDown');
+  await expect(page.getByTestId('slide-counter')).toHaveText('Slide 3 of 4');
   await expect(page.getByTestId('stage-title')).toHaveText('What goes wrong: the wheat cage left in for peas');
   const findings = page.getByTestId('findings');
   await expect(findings).toBeVisible();

@@ -126,7 +126,12 @@ export function Presenter(props: Props) {
       run(cmd);
     };
     window.addEventListener('keydown', onKey);
-    return () => window.removeEventListener('keydown', onKey);
+    // Says the keys work now (hydration can finish before this effect runs); tests wait on it.
+    document.documentElement.dataset.stageKeys = 'ready';
+    return () => {
+      window.removeEventListener('keydown', onKey);
+      delete document.documentElement.dataset.stageKeys;
+    };
   }, [run]);
 
   /** Buttons hand the keyboard back to the stage, so Space goes on moving slides. */
