@@ -66,6 +66,7 @@ test('a trainer builds a deck, presents it by keyboard, compares two slides and 
   await page.getByTestId('present-link').click();
   await expect(page).toHaveURL(/\/present(#1)?$/);
   await hydrated(page);
+  await expect(page.locator('html[data-stage-keys="ready"]')).toBeAttached();
   const counter = page.getByTestId('slide-counter');
   const stageTitle = page.getByTestId('stage-title');
   await expect(counter).toHaveText('Slide 1 of 3');
