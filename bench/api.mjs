@@ -48,7 +48,10 @@ try {
     });
     pool.push((await res.json()).layout.id);
   }
-  let next = 0;
+  // autocannon resets a connection's context on every pass through the request list, so the
+  // version counters live here: each request takes a layout no other request has in flight.
+  const version = new Map(pool.map((id) => [id, 1]));
+  const free = [...pool];
   const write = summary(
     await cannon({
       url: s.base,
@@ -59,16 +62,19 @@ try {
         {
           method: 'PUT',
           setupRequest: (req, context) => {
-            context.layoutId ??= pool[next++ % pool.length];
-            context.version ??= 1;
+            const id = free.shift();
+            context.layoutId = id;
+            const v = version.get(id);
             return {
               ...req,
-              path: `/api/layouts/${context.layoutId}`,
-              body: JSON.stringify({ baseVersion: context.version, body: { ...current.body, rotorRpm: 300 + (context.version % 500) }, note: 'bench' }),
+              path: `/api/layouts/${id}`,
+              body: JSON.stringify({ baseVersion: v, body: { ...current.body, rotorRpm: 300 + (v % 500) }, note: 'bench' }),
             };
           },
           onResponse: (status, _body, context) => {
-            if (status === 201) context.version += 1;
+            const id = context.layoutId;
+            if (status === 201) version.set(id, version.get(id) + 1);
+            free.push(id);
           },
         },
       ],

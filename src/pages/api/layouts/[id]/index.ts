@@ -1,11 +1,10 @@
 import { readJson, requireActor, route, parseId, json } from '../../../../lib/server/http';
-import { getLayout, LAYOUT_WRITERS, saveVersion, saveVersionSchema } from '../../../../lib/server/services/layouts';
+import { layoutWithCurrent, LAYOUT_WRITERS, saveVersion, saveVersionSchema } from '../../../../lib/server/services/layouts';
 
 /** The layout with its current version. */
 export const GET = route(async (ctx) => {
   const actor = requireActor(ctx);
-  const { layout, current, machine } = await getLayout(actor, parseId(ctx.params.id));
-  return { layout, current, machine: { id: machine.id, nickname: machine.nickname, familyId: machine.familyId } };
+  return layoutWithCurrent(actor, parseId(ctx.params.id));
 });
 
 /** Save: a new immutable version, guarded by the version the client started from. */
