@@ -79,12 +79,20 @@ try {
 
   const dom = [];
   const frame = [];
+  const step = (what) => process.env.BENCH_DEBUG && console.error(what);
   for (let i = 0; i < ROUNDS; i++) {
+    step(`round ${i}`);
     await item.focus();
     await page.keyboard.press('Space');
     await page.waitForFunction(() => /Picked up/.test(document.querySelector('[id^="DndLiveRegion"]')?.textContent ?? ''));
-    for (const k of ['ArrowRight', 'ArrowRight', 'ArrowRight', 'ArrowDown']) await page.keyboard.press(k);
-    await page.waitForFunction(() => /Over right, position 3/.test(document.querySelector('[id^="DndLiveRegion"]')?.textContent ?? ''));
+    step('picked up');
+    await page.waitForTimeout(100); // the sensor starts listening for keys on the next task
+    // Each step waits for its announcement (the sensor listens for keys a moment after pick-up).
+    for (const [k, where] of [['ArrowRight', 'left, position 1'], ['ArrowRight', 'left, position 2'], ['ArrowRight', 'left, position 3'], ['ArrowDown', 'right, position 3']]) {
+      await page.keyboard.press(k);
+      await page.waitForFunction((w) => (document.querySelector('[id^="DndLiveRegion"]')?.textContent ?? '').includes(`Over ${w},`), where);
+    }
+    step('over');
     await page.waitForTimeout(150); // let the carry settle, so only the drop is measured
     await page.evaluate(() => (window.__armed = true));
     await page.keyboard.press('Space');

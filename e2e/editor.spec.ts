@@ -159,6 +159,16 @@ test.describe('cage editor', () => {
     await expect(from).toHaveAttribute('aria-label', /wide-wire element/);
   });
 
+  test('mouse: a placed part dragged onto the palette comes off, and the empty half is a finding', async ({ page }) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await openEditor(page, 'operator2', 'Bean Runner');
+    const from = slot(page, 'element:4:right');
+    await mouseDrag(page, from, page.getByTestId('palette').getByRole('heading', { name: 'Parts' }));
+    await expect(from).toHaveAttribute('aria-label', /: empty\. Blocks fit: Nothing at position 4, right half/);
+    await expect(announcer(page)).toContainText('Removed');
+    await expect(page.getByTestId('findings').locator('[data-code="FIT_EMPTY_POSITION"]')).toContainText('right, position 4');
+  });
+
   test('settings: rotor speed updates tip speed and findings; units switch to inches and is kept', async ({ page }) => {
     await page.setViewportSize({ width: 1440, height: 900 });
     await openEditor(page, 'operator', 'North Quarter');

@@ -55,7 +55,7 @@ export function ConflictDialog() {
           {v.note ? <> with the note “{v.note}”</> : null} while you were editing. Your edits are not saved yet, and nothing is lost whichever you choose.
         </p>
         <figure className="mt-3 rounded-md border border-steel-200 p-2">
-          <CageDiagram family={family} layout={v.body} catalog={catalog} findings={theirs} units={units} compact endView={false} title={`Version ${v.version}, as saved`} />
+          <CageDiagram family={family} layout={v.body} catalog={catalog} findings={theirs} units={units} compact endView={false} title={`Version ${v.version}, as saved`} className="max-h-[38vh]" />
           <figcaption className="mt-1 text-xs text-ink-muted">
             Version {v.version}: {v.body.crop.replace('-', ' ')}, {v.body.rotorRpm} rpm, {theirs.length} finding{theirs.length === 1 ? '' : 's'}.
           </figcaption>

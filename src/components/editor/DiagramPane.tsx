@@ -156,7 +156,7 @@ export function DiagramPane() {
   const overlay = useMemo(() => <DropHighlights family={family} />, [family]);
 
   return (
-    <div ref={box} className="cage-pane rounded-lg border border-steel-200 bg-white p-2 shadow-sm sm:p-3" data-testid="diagram-pane">
+    <div ref={box} className="cage-pane rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-2 shadow-sm sm:p-3" data-testid="diagram-pane">
       <CageDiagram
         family={family}
         layout={layout}

@@ -9,7 +9,6 @@ import {
   DragOverlay,
   KeyboardSensor,
   PointerSensor,
-  pointerWithin,
   useDndContext,
   useSensor,
   useSensors,
@@ -30,7 +29,7 @@ import { FindingsList } from './FindingsList';
 import { INSTRUCTIONS, INSTRUCTIONS_ID } from './instructions';
 import { slotCoordinateGetter } from './keyboard';
 import { LiveRegion } from './LiveRegion';
-import { Palette, PALETTE_DROP_ID } from './Palette';
+import { Palette } from './Palette';
 import { PartSwatch, partTitle } from './part-visuals';
 import { SettingsPanel } from './SettingsPanel';
 import { useEditor, useEditorStoreApi } from './store/context';
@@ -39,13 +38,14 @@ import { Toolbar } from './Toolbar';
 import { useShortcuts } from './use-shortcuts';
 import { useUnsavedGuard } from './use-unsaved-guard';
 
-/** The pointer counts over the palette (to take a placed part off); slots are found by position. */
-const collision: CollisionDetection = (args) => (args.pointerCoordinates ? pointerWithin(args) : []);
+/** No dnd-kit drop targets: slots and the palette are found by position (see ./carry.tsx). */
+const collision: CollisionDetection = () => [];
 
 /** The part following the pointer (or the keyboard) while it is carried. */
 const CarryOverlay = memo(function CarryOverlay() {
-  const { active } = useDndContext();
-  const carrying = active?.data.current as CarryData | undefined;
+  const { active, activatorEvent } = useDndContext();
+  // Only the pointer needs a part under it; carried with the keys, the slot it is over lights up.
+  const carrying = typeof KeyboardEvent !== "undefined" && activatorEvent instanceof KeyboardEvent ? undefined : (active?.data.current as CarryData | undefined);
   // A wrapper that is always there, so the overlay coming and going never changes the
   // structure of the editor's children (sibling selectors would restyle the whole editor).
   return (
@@ -104,16 +104,18 @@ export function EditorApp() {
     useSensor(KeyboardSensor, { coordinateGetter }),
   );
 
-  /** The slot under a point that takes the carried part, if any. */
-  const slotAt = (x: number, y: number, c: CarryData): Place | null => {
+  /** What lies under a point: a slot that takes the carried part, or the palette. */
+  const targetAt = (x: number, y: number, c: CarryData): { place: Place | null; palette: boolean } => {
     const pane = root.current?.querySelector('[data-testid="diagram-pane"]');
+    const palette = root.current?.querySelector('[data-testid="palette"]');
     for (const el of document.elementsFromPoint(x, y)) {
+      if (palette?.contains(el)) return { place: null, palette: true };
       const g = el.closest('[data-place]');
       if (!g || !pane?.contains(g)) continue;
       const place = parsePlaceKey(g.getAttribute('data-place') ?? '');
-      return place && accepts(c.part, place) ? place : null;
+      return { place: place && accepts(c.part, place) ? place : null, palette: false };
     }
-    return null;
+    return { place: null, palette: false };
   };
 
   const announced = useRef<string | null>(null);
@@ -126,7 +128,12 @@ export function EditorApp() {
         return `Picked up ${partWordsWithHand(c.part)}${c.from ? ` from ${placeWords(c.from)}` : ''}. Arrow keys move between the slots that take it; Space puts it down; Escape puts it back.`;
       },
       onDragMove() {
-        const hover = carry.ui.getState().hover;
+        const { hover, overPalette, carrying } = carry.ui.getState();
+        if (overPalette && carrying?.from) {
+          if (announced.current === 'palette') return undefined;
+          announced.current = 'palette';
+          return 'Over the parts palette: drop to take the part off.';
+        }
         const key = hover ? placeKey(hover) : '';
         if (key === announced.current) return undefined;
         announced.current = key;
@@ -135,13 +142,7 @@ export function EditorApp() {
         const p = there ? store.getState().catalog.byPartNumber.get(there) : undefined;
         return `Over ${placeWords(hover)}, ${p ? `holding a ${partWords(p)}` : there ? `holding part ${there}` : 'empty'}.`;
       },
-      onDragOver({ over }) {
-        if (over?.id === PALETTE_DROP_ID) {
-          announced.current = PALETTE_DROP_ID;
-          return 'Over the parts palette: drop to take the part off.';
-        }
-        return undefined;
-      },
+      onDragOver: () => undefined,
       // The result of a drop is read from the editor's own live region (with the findings).
       onDragEnd: () => '',
       onDragCancel({ active }) {
@@ -155,7 +156,7 @@ export function EditorApp() {
   const onDragStart = (_e: DragStartEvent) => {
     coordinateGetter.reset();
     const c = carry.data;
-    carry.ui.setState({ carrying: c.part ? { part: c.part, from: c.from } : null, hover: null });
+    carry.ui.setState({ carrying: c.part ? { part: c.part, from: c.from } : null, hover: null, overPalette: false });
   };
 
   const onDragMove = (e: DragMoveEvent) => {
@@ -163,16 +164,17 @@ export function EditorApp() {
     const c = carry.ui.getState().carrying;
     // Keyboard moves name their slot in the coordinate getter; pointer moves are found here.
     if (!c || !(start instanceof PointerEvent || start instanceof MouseEvent)) return;
-    if (e.over?.id === PALETTE_DROP_ID) return setHover(null);
-    setHover(slotAt(start.clientX + e.delta.x, start.clientY + e.delta.y, c));
+    const t = targetAt(start.clientX + e.delta.x, start.clientY + e.delta.y, c);
+    if (t.palette !== carry.ui.getState().overPalette) carry.ui.setState({ overPalette: t.palette });
+    setHover(t.place);
   };
 
-  const onDragEnd = (e: DragEndEvent) => {
-    const { carrying: c, hover } = carry.ui.getState();
-    carry.ui.setState({ carrying: null, hover: null });
+  const onDragEnd = (_e: DragEndEvent) => {
+    const { carrying: c, hover, overPalette } = carry.ui.getState();
+    carry.ui.setState({ carrying: null, hover: null, overPalette: false });
     if (!c) return;
     const s = store.getState();
-    if (e.over?.id === PALETTE_DROP_ID) {
+    if (overPalette) {
       if (c.from) s.removePart(c.from);
       return;
     }
@@ -204,7 +206,7 @@ export function EditorApp() {
           onDragStart={onDragStart}
           onDragMove={onDragMove}
           onDragEnd={onDragEnd}
-          onDragCancel={() => carry.ui.setState({ carrying: null, hover: null })}
+          onDragCancel={() => carry.ui.setState({ carrying: null, hover: null, overPalette: false })}
           accessibility={{ announcements, screenReaderInstructions: { draggable: INSTRUCTIONS } }}
         >
           <CarryHandle carry={carry} disabled={!canEdit} />

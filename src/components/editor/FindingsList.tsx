@@ -18,7 +18,7 @@ export function FindingsList() {
   const counts = countBySeverity(findings);
 
   return (
-    <section aria-labelledby="findings-h" className="rounded-lg border border-steel-200 bg-white p-3 shadow-sm" data-testid="findings">
+    <section aria-labelledby="findings-h" className="rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-3 shadow-sm" data-testid="findings">
       <h2 id="findings-h" className="text-base font-semibold">
         Findings <span className="font-normal text-ink-muted">({findings.length})</span>
       </h2>
@@ -54,7 +54,7 @@ export function FindingsList() {
                     <span className="min-w-0">
                       <span className="block font-semibold text-ink">
                         <span className="sr-only">{st.words}: </span>
-                        {f.title}
+                        {f.title.charAt(0).toUpperCase() + f.title.slice(1)}
                       </span>
                       <span className="block text-xs" style={{ color: st.colour }}>
                         {st.words} · {f.places.map(placeWords).join('; ')}

@@ -3,8 +3,7 @@
  * what is on the shelf. Each part is picked up with the mouse, or with Space and carried with
  * the arrow keys; a click puts it into the selected slot when it goes there.
  */
-import { useDroppable } from '@dnd-kit/core';
-import { isPickUpKey, useCarry } from './carry';
+import { isPickUpKey, useCarry, useCarryUi } from './carry';
 import { INSTRUCTIONS_ID } from './instructions';
 import { memo, useDeferredValue, useMemo, useState } from 'react';
 import type { CatalogPart, ElementType, Side, Zone } from '../../lib/domain/schemas';
@@ -18,7 +17,6 @@ import type { StockCount } from './store/types';
 
 type TypeFilter = 'all' | ElementType | 'cover-plate' | 'rotor-bar';
 
-export const PALETTE_DROP_ID = 'palette';
 
 /** "Fine-wire", "Fine-wire concave", "Right cover plate", "Rasp bar". */
 function shortName(p: CatalogPart): string {
@@ -201,22 +199,27 @@ function PaletteHint() {
   );
 }
 
-/** The palette is also where a placed part is dropped to take it off. */
-export function Palette() {
-  const { setNodeRef, isOver, active } = useDroppable({ id: PALETTE_DROP_ID, resizeObserverConfig: { disabled: true } });
-  const carryingPlaced = !!(active?.data.current as { from?: unknown } | undefined)?.from;
+/** While a placed part is carried: the palette is where it comes off. */
+function TakeOffHint() {
+  const fromSlot = useCarryUi((s) => !!s.carrying?.from);
+  const over = useCarryUi((s) => s.overPalette);
+  if (!fromSlot) return null;
   return (
-    <section
-      ref={setNodeRef}
-      aria-labelledby="palette-h"
-      className={`rounded-lg border bg-white p-3 shadow-sm ${isOver && carryingPlaced ? 'border-iris-500 ring-2 ring-iris-300' : 'border-steel-200'}`}
-      data-testid="palette"
-    >
+    <div className={`mt-2 rounded border border-dashed p-2 text-center text-sm ${over ? 'border-iris-600 bg-iris-100 font-semibold text-iris-800' : 'border-iris-400 bg-iris-50 text-iris-700'}`}>
+      Drop here to take the part off
+    </div>
+  );
+}
+
+/** The parts palette (also where a placed part is dropped to take it off). */
+export function Palette() {
+  return (
+    <section aria-labelledby="palette-h" className="rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-3 shadow-sm" data-testid="palette">
       <h2 id="palette-h" className="text-base font-semibold">
         Parts
       </h2>
       <PaletteHint />
-      <div className={carryingPlaced ? 'mt-2 rounded border border-dashed border-iris-400 bg-iris-50 p-2 text-center text-sm text-iris-700' : 'hidden'}>Drop here to take the part off</div>
+      <TakeOffHint />
       <PaletteContents />
     </section>
   );

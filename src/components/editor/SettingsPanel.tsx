@@ -232,7 +232,7 @@ function ComputedFacts() {
 
 export function SettingsPanel() {
   return (
-    <section aria-labelledby="settings-h" className="rounded-lg border border-steel-200 bg-white p-3 shadow-sm" data-testid="settings">
+    <section aria-labelledby="settings-h" className="rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-3 shadow-sm" data-testid="settings">
       <div className="flex items-center justify-between gap-2">
         <h2 id="settings-h" className="text-base font-semibold">
           Settings

@@ -3,9 +3,9 @@
  * placed parts do not register a draggable each: when one is picked up (pointer down, or Space /
  * Enter), it hands its element and part to the single carry handle, which starts the drag. The
  * slot under the part is worked out here too (pointer position, or the keyboard's next slot),
- * not by one dnd-kit droppable per slot. dnd-kit re-renders every hook user on each drag event;
- * with one handle and one drop zone (the palette) a drag re-renders two small components instead
- * of every slot and palette entry.
+ * not by dnd-kit droppables. dnd-kit re-renders every hook user on each drag event; with one
+ * handle and no droppables a drag re-renders two small components instead of every slot and
+ * palette entry.
  */
 import { useDraggable } from '@dnd-kit/core';
 import { createContext, useContext, useLayoutEffect, type KeyboardEvent, type PointerEvent } from 'react';
@@ -25,6 +25,8 @@ export interface CarryUi {
   carrying: CarryData | null;
   /** The slot the part would go into if dropped now (only slots that take it). */
   hover: Place | null;
+  /** The pointer is over the parts palette (a placed part dropped there comes off). */
+  overPalette: boolean;
 }
 
 type StartEvent = PointerEvent<Element> | KeyboardEvent<Element>;
@@ -40,7 +42,7 @@ export interface Carry {
 export function createCarry(): Carry {
   return {
     data: { part: null },
-    ui: createStore<CarryUi>()(() => ({ carrying: null, hover: null })),
+    ui: createStore<CarryUi>()(() => ({ carrying: null, hover: null, overPalette: false })),
     begin: () => {},
   };
 }

@@ -1,7 +1,9 @@
 /** The drawing's content: family, catalog, layout and its findings, and the edits on them. */
 import { checkLayout } from '../../../lib/domain/rules';
 import { indexCatalog } from '../../../lib/domain/catalog';
-import type { Layout } from '../../../lib/domain/schemas';
+import type { Layout, Place } from '../../../lib/domain/schemas';
+
+const NO_PLACES: Place[] = [];
 import { partAtPlaceWords, partWords, placeWords } from '../../cage/words';
 import { findingsHereWords } from './announce';
 import { accepts, movedLayout, partNumberAt, withPartAt } from './layout-edits';
@@ -14,11 +16,19 @@ export const createDiagramSlice =
     let seq = 0;
     const announcement = (text: string) => ({ text, seq: ++seq });
     /** Every edit passes here: the rules run at once, so findings always match the layout. */
-    const commit = (layout: Layout, said: string | ((findings: ReturnType<typeof checkLayout>) => string)) => {
+    const commit = (layout: Layout, said: string | ((findings: ReturnType<typeof checkLayout>) => string), select?: Place) => {
       const findings = checkLayout(get().family, catalog, layout);
       const text = typeof said === 'string' ? said : said(findings);
-      // A finding chosen before the edit may no longer exist; drop the choice.
-      set({ layout, findings, announcement: announcement(text), activeFinding: null, highlightPlaces: [] });
+      // A finding chosen before the edit may no longer exist; drop the choice. One set() per
+      // edit: one undo step, one round of subscribers.
+      set({
+        layout,
+        findings,
+        announcement: announcement(text),
+        activeFinding: null,
+        highlightPlaces: NO_PLACES,
+        ...(select ? { selectedPlace: select } : {}),
+      });
     };
     const partName = (pn: string | undefined) => {
       const p = pn ? catalog.byPartNumber.get(pn) : undefined;
@@ -47,8 +57,7 @@ export const createDiagramSlice =
         commit(withPartAt(get().layout, place, partNumber), (f) => {
           const replaced = before ? ` It replaces the ${partName(before)}.` : '';
           return `Placed ${partAtPlaceWords(part, place)}.${replaced} ${findingsHereWords(f, place)}`;
-        });
-        get().select(place);
+        }, place);
         return true;
       },
 
@@ -64,8 +73,8 @@ export const createDiagramSlice =
           there
             ? `Swapped: ${partName(moving)} now at ${placeWords(to)}, ${partName(there)} now at ${placeWords(from)}. ${findingsHereWords(f, to)}`
             : `Moved ${partName(moving)} from ${placeWords(from)} to ${placeWords(to)}. ${findingsHereWords(f, to)}`,
+          to,
         );
-        get().select(to);
         return true;
       },
 
