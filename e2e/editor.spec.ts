@@ -55,6 +55,13 @@ test.describe('cage editor', () => {
       for (const side of ['left', 'right']) await expect(slot(page, `element:${p}:${side}`)).toHaveAttribute('aria-label', new RegExp(`^${side[0]!.toUpperCase()}${side.slice(1)}, position ${p}: `));
     await expect(slot(page, 'element:1:left')).toHaveAttribute('aria-label', /fine-wire element, left hand/);
     await expect(page.getByTestId('tip-speed')).toContainText('m/s');
+    // Pointing at a slot shows its part, opening and how the crop's kernel passes.
+    await slot(page, 'element:1:left').hover();
+    const details = page.getByTestId('slot-details');
+    await expect(details).toContainText('Left, position 1: fine-wire element, left hand');
+    await expect(details).toContainText('opening 5.0 mm × 25.0 mm · open area 38 %');
+    await expect(details).toContainText(/Wheat kernels \([\d.]+ mm across\) pass, [\d.]+ mm to spare/);
+    await page.mouse.move(5, 5);
     await shot(page, 'editor-desktop', false);
     await shot(page, 'editor-desktop-full');
   });

@@ -258,7 +258,7 @@ export function CageDiagram(props: CageDiagramProps) {
       style={{ display: 'block', maxWidth: '100%', height: 'auto' }}
     >
       <PatternDefs prefix={prefix} />
-      <Frame family={family} layout={layout} geo={geo} compact={compact} />
+      <Frame family={family} vaneSetting={layout.vaneSetting} vaneControl={layout.vaneControl} geo={geo} compact={compact} />
       {slots}
       {geo.endView && (
         <EndView family={family} {...geo.endView} clearanceMm={layout.clearanceMm} diameterMm={drum.diameterMm} units={units} />
@@ -269,7 +269,19 @@ export function CageDiagram(props: CageDiagramProps) {
 }
 
 /** Everything that is not a slot: axis, zone bands, headers, band labels, vanes, rotor rows. */
-const Frame = memo(function Frame({ family, layout, geo, compact }: { family: MachineFamily; layout: Layout; geo: DiagramGeometry; compact: boolean }) {
+const Frame = memo(function Frame({
+  family,
+  vaneSetting,
+  vaneControl,
+  geo,
+  compact,
+}: {
+  family: MachineFamily;
+  vaneSetting: Layout['vaneSetting'];
+  vaneControl: Layout['vaneControl'];
+  geo: DiagramGeometry;
+  compact: boolean;
+}) {
   const { labelW, colW, drawingRight } = geo;
   const fs = compact ? 10.5 : 12;
   const zonesInOrder: { zone: 'threshing' | 'separating'; positions: number[] }[] = [];
@@ -280,9 +292,9 @@ const Frame = memo(function Frame({ family, layout, geo, compact }: { family: Ma
   }
   const cageTop = geo.coverTop.left.y;
   const cageBottom = geo.coverTop.right.y + geo.coverTop.right.h;
-  const lean = VANE_LEAN_DEG[layout.vaneSetting];
-  const adjustable = layout.vaneControl !== 'fixed';
-  const vaneWords = `vanes ${layout.vaneSetting.replace('-', ' ')}`;
+  const lean = VANE_LEAN_DEG[vaneSetting];
+  const adjustable = vaneControl !== 'fixed';
+  const vaneWords = `vanes ${vaneSetting.replace('-', ' ')}`;
   const rowLabel = (lines: string[], y: number, h: number) => (
     <text x={labelW - 10} y={y + h / 2 - (lines.length - 1) * (fs * 0.6) + fs * 0.35} textAnchor="end" fontSize={fs} fill={INK_SOFT}>
       {lines.map((l, i) => (
@@ -385,7 +397,7 @@ const Frame = memo(function Frame({ family, layout, geo, compact }: { family: Ma
               compact
                 ? ['Top ' + (side === 'left' ? 'L' : 'R')]
                 : side === 'left'
-                  ? ['Cage top, left', vaneWords, adjustable ? `${layout.vaneControl} linkage` : 'fixed vanes']
+                  ? ['Cage top, left', vaneWords, adjustable ? `${vaneControl} linkage` : 'fixed vanes']
                   : ['Cage top, right', vaneWords],
               band.y,
               band.h,

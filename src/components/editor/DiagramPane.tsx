@@ -10,6 +10,7 @@ import { CageDiagram, type SlotAttrs, type SlotInfo } from '../cage/CageDiagram'
 import { diagramGeometry, slotBox } from '../cage/geometry';
 import { IRIS } from '../cage/palette';
 import { isPickUpKey, useCarry, useCarryUi } from './carry';
+import { SlotDetails } from './SlotDetails';
 import { ARROW_DIRECTION, slotsFor, stepPlace } from './keyboard';
 import { useEditor, useEditorStoreApi } from './store/context';
 
@@ -60,6 +61,10 @@ const EditorSlot = memo(function EditorSlot({ info, attrs, canEdit, children }: 
       onClick={() => store.getState().select(info.place)}
       onFocus={() => {
         if (!info.selected) store.getState().select(info.place);
+      }}
+      onPointerEnter={() => carry.ui.setState({ pointed: info.place })}
+      onPointerLeave={() => {
+        if (carry.ui.getState().pointed === info.place) carry.ui.setState({ pointed: null });
       }}
       className="cage-slot"
       style={{ cursor: movable ? 'grab' : 'pointer', outline: 'none', touchAction: movable ? 'none' : undefined }}
@@ -171,6 +176,9 @@ export function DiagramPane() {
         endView={GEOMETRY_OPTIONS.endView}
         title={`Cage diagram, ${family.name}: the cage unrolled, front on the left`}
       />
+      <div className="mt-2 border-t border-steel-100 px-1 pt-2">
+        <SlotDetails />
+      </div>
     </div>
   );
 }

@@ -27,6 +27,8 @@ export interface CarryUi {
   hover: Place | null;
   /** The pointer is over the parts palette (a placed part dropped there comes off). */
   overPalette: boolean;
+  /** The slot under the pointer when nothing is carried (its details show under the drawing). */
+  pointed: Place | null;
 }
 
 type StartEvent = PointerEvent<Element> | KeyboardEvent<Element>;
@@ -42,7 +44,7 @@ export interface Carry {
 export function createCarry(): Carry {
   return {
     data: { part: null },
-    ui: createStore<CarryUi>()(() => ({ carrying: null, hover: null, overPalette: false })),
+    ui: createStore<CarryUi>()(() => ({ carrying: null, hover: null, overPalette: false, pointed: null })),
     begin: () => {},
   };
 }

@@ -1,0 +1,61 @@
+/**
+ * What the slot under the pointer (or the selected one) holds: part, part number, opening sizes
+ * and open area, and how the opening compares with the crop's kernel. Shown under the drawing.
+ */
+import { passageMargin } from '../../lib/domain/cage-metrics';
+import { cropPrograms } from '../../lib/domain/crops';
+import { placeKey } from '../../lib/domain/places';
+import { formatLength, mm, type UnitSystem } from '../../lib/domain/units';
+import type { CatalogPart, CropId, Place } from '../../lib/domain/schemas';
+import { openingWords, partWordsWithHand, placeWords } from '../cage/words';
+import { useCarryUi } from './carry';
+import { useEditor } from './store/context';
+import { partNumberAt } from './store/layout-edits';
+
+function kernelWords(part: CatalogPart, crop: CropId, units: UnitSystem): string | null {
+  if (part.kind !== 'element') return null;
+  const c = cropPrograms[crop];
+  const margin = passageMargin(part.openingMm, c.kernel);
+  const across = formatLength(mm(c.passingSizeMm), units);
+  if (margin === null) return `No opening: ${c.name.toLowerCase()} (${across} across) does not pass here.`;
+  return margin > 0
+    ? `${c.name} kernels (${across} across) pass, ${formatLength(mm(margin), units)} to spare.`
+    : `${c.name} kernels (${across} across) do not pass: short by ${formatLength(mm(-margin), units)}.`;
+}
+
+export function SlotDetails() {
+  const hovered = useCarryUi((s) => s.pointed);
+  const selected = useEditor((s) => s.selectedPlace);
+  const place: Place | null = hovered ?? (selected && selected.kind !== 'setting' ? selected : null);
+  const partNumber = useEditor((s) => (place ? partNumberAt(s.layout, place) : undefined));
+  const part = useEditor((s) => (partNumber ? s.catalog.byPartNumber.get(partNumber) : undefined));
+  const crop = useEditor((s) => s.layout.crop);
+  const units = useEditor((s) => s.units);
+  if (!place) {
+    return <p className="text-sm text-ink-muted" data-testid="slot-details">Point at a slot, or select one, to see what it holds.</p>;
+  }
+  const where = placeWords(place);
+  return (
+    <div className="text-sm" data-testid="slot-details" data-detail-of={placeKey(place)} aria-live="off">
+      <p>
+        <span className="font-semibold">{where.charAt(0).toUpperCase() + where.slice(1)}:</span>{' '}
+        {part ? (
+          <>
+            {partWordsWithHand(part)} <span className="text-ink-muted">· {part.partNumber}</span>
+            {part.kind === 'element' && (
+              <span className="text-ink-muted">
+                {' '}
+                · {openingWords(part, units)} · open area {Math.round(part.openArea * 100)} %
+              </span>
+            )}
+          </>
+        ) : partNumber ? (
+          `part ${partNumber}, not in the catalog`
+        ) : (
+          <span className="text-ink-muted">empty</span>
+        )}
+      </p>
+      {part && kernelWords(part, crop, units) && <p className="text-ink-soft">{kernelWords(part, crop, units)}</p>}
+    </div>
+  );
+}
