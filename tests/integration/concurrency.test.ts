@@ -7,7 +7,12 @@ describe('concurrent edits', () => {
   it('two clients saving the same version: one 409 carrying the newer version, both edits kept', async () => {
     const a = await signedIn('operator');
     const b = await signedIn('technician');
-    const { layout } = await firstLayout(a);
+    // A layout of its own, so the seeded ones (which decks and shares point at) stay as they are.
+    const { machineId, layout: seeded } = await firstLayout(a);
+    const seededBody = (await a.get(`/api/layouts/${seeded.id}`)).body.current.body;
+    const made = await a.post(`/api/machines/${machineId}/layouts`, { name: 'conflict test', body: seededBody });
+    expect(made.status).toBe(201);
+    const layout = made.body.layout;
     const got = await a.get(`/api/layouts/${layout.id}`);
     const base = got.body.current;
     const editA = { ...base.body, rotorRpm: base.body.rotorRpm + 10 };

@@ -19,12 +19,16 @@ let wheatVersionId: string;
 
 const NO_UUID = '00000000-0000-4000-8000-000000000000';
 
+/** Version 1 of the machine's seeded layout: the one the demo deck shows. Other suites add layouts and versions. */
 async function versionIdOf(c: Client, nickname: string) {
   const machine = await machineByNickname(c, nickname);
-  const layout = await firstLayoutOf(c, machine.id);
-  const res = await c.get(`/api/layouts/${layout.id}`);
+  const list = await c.get(`/api/machines/${machine.id}/layouts`);
+  expect(list.status).toBe(200);
+  const layouts = list.body.layouts as { id: string; createdAt: string }[];
+  const seeded = [...layouts].sort((x, y) => x.createdAt.localeCompare(y.createdAt))[0]!;
+  const res = await c.get(`/api/layouts/${seeded.id}/versions/1`);
   expect(res.status).toBe(200);
-  return res.body.current.id as string;
+  return res.body.id as string;
 }
 
 async function newDeck(c: Client, title = uniq('Deck')) {
