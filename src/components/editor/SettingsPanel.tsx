@@ -167,7 +167,7 @@ function SettingsFields() {
         />
         <p className="mt-1 text-xs text-ink-muted">{program.clearanceAdvice.split('(')[0]!.trim()}</p>
         <FieldFinding field="clearanceMm" />
-        <EndViewBeside family={family} clearanceMm={clearanceMm} drum={drum} units={units} className="mx-auto mt-2 max-w-[15rem]" />
+        <EndViewBeside family={family} clearanceMm={clearanceMm} drum={drum} units={units} className="mx-auto mt-2 max-w-[18rem]" />
       </div>
 
       <div className="grid grid-cols-2 gap-2">
