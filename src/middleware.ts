@@ -26,23 +26,23 @@ const CSP = [
   "frame-ancestors 'none'",
 ].join('; ');
 
+function setSecurityHeaders(h: Headers) {
+  if (!h.has('content-security-policy')) h.set('content-security-policy', CSP);
+  h.set('x-content-type-options', 'nosniff');
+  h.set('referrer-policy', 'same-origin');
+  h.set('x-frame-options', 'DENY');
+  h.set('permissions-policy', 'camera=(self), geolocation=(), microphone=()');
+}
+
 const securityHeaders = defineMiddleware(async (_ctx, next) => {
   const res = await next();
-  const h = res.headers;
   try {
-    if (!h.has('content-security-policy')) h.set('content-security-policy', CSP);
-    h.set('x-content-type-options', 'nosniff');
-    h.set('referrer-policy', 'same-origin');
-    h.set('x-frame-options', 'DENY');
-    h.set('permissions-policy', 'camera=(self), geolocation=(), microphone=()');
+    setSecurityHeaders(res.headers);
     return res;
   } catch {
-    // Some responses (redirects made by Response.redirect) have immutable headers.
+    // Some responses (redirects made by Response.redirect) have immutable headers: copy them.
     const copy = new Response(res.body, res);
-    copy.headers.set('content-security-policy', CSP);
-    copy.headers.set('x-content-type-options', 'nosniff');
-    copy.headers.set('referrer-policy', 'same-origin');
-    copy.headers.set('x-frame-options', 'DENY');
+    setSecurityHeaders(copy.headers);
     return copy;
   }
 });

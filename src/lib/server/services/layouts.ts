@@ -47,15 +47,17 @@ function assertFamily(body: Layout, familyId: string) {
   }
 }
 
-async function layoutRowForActor(actor: Actor, layoutId: string): Promise<LayoutRow> {
+/** The layout if the actor may see it, with its machine's family (one query). */
+async function layoutRowForActor(actor: Actor, layoutId: string): Promise<LayoutRow & { familyId: string }> {
   const db = await getDb();
-  const [row] = await db
-    .select()
+  const [found] = await db
+    .select({ layout: layouts, familyId: machines.familyId })
     .from(layouts)
+    .innerJoin(machines, eq(machines.id, layouts.machineId))
     .where(and(eq(layouts.id, layoutId), inArray(layouts.orgId, actor.visibleOrgIds)))
     .limit(1);
-  if (!row) throw notFound('Layout not found', 'layoutId');
-  return row;
+  if (!found) throw notFound('Layout not found', 'layoutId');
+  return { ...found.layout, familyId: found.familyId };
 }
 
 const versionColumns = {
@@ -188,7 +190,7 @@ export async function createLayout(actor: Actor, machineId: string, input: z.inf
  */
 export async function saveVersion(actor: Actor, layoutId: string, input: z.infer<typeof saveVersionSchema>) {
   const row = await layoutRowForActor(actor, layoutId);
-  assertFamily(input.body, (await machineForActor(actor, row.machineId)).machine.familyId);
+  assertFamily(input.body, row.familyId);
   return appendVersion(actor, row, input, 'save', {});
 }
 
