@@ -18,6 +18,7 @@ import {
 import { useMemo, useState } from 'react';
 import type { CatalogPart } from '../../lib/domain/schemas';
 import { getJson } from '../fleet/api';
+import { PagerButtons } from '../shared/PagerButtons';
 
 interface PartRow {
   partNumber: string;
@@ -198,12 +199,7 @@ function Table({ families, canEdit }: PartsTableProps) {
           {canEdit ? '' : ' · read only'}
         </p>
         <div className="flex gap-2">
-          <button type="button" className="btn" onClick={() => table.previousPage()} disabled={!table.getCanPreviousPage()}>
-            Previous
-          </button>
-          <button type="button" className="btn" onClick={() => table.nextPage()} disabled={!table.getCanNextPage()}>
-            Next
-          </button>
+          <PagerButtons table={table} />
         </div>
       </nav>
     </div>

@@ -14,6 +14,7 @@ import {
 } from '@tanstack/react-table';
 import { useEffect, useMemo, useState } from 'react';
 import { getJson } from './api';
+import { PagerButtons } from '../shared/PagerButtons';
 
 export interface MachineListItem {
   id: string;
@@ -276,12 +277,7 @@ function Table({ initial, orgs, families }: MachinesTableProps) {
               ))}
             </select>
           </label>
-          <button type="button" className="btn" onClick={() => table.previousPage()} disabled={!table.getCanPreviousPage()}>
-            Previous
-          </button>
-          <button type="button" className="btn" onClick={() => table.nextPage()} disabled={!table.getCanNextPage()}>
-            Next
-          </button>
+          <PagerButtons table={table} />
         </div>
       </nav>
     </div>
