@@ -158,6 +158,8 @@ test.describe('cage editor', () => {
     const to = slot(page, 'element:3:left');
     await from.focus();
     await page.keyboard.press('Space');
+    // A keyboard user hears the part picked up before moving it.
+    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Picked up fine-wire element');
     await page.keyboard.press('ArrowRight');
     await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over left, position 3, holding a wide-wire element');
     await page.keyboard.press('Space');

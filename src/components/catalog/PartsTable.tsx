@@ -35,6 +35,9 @@ export interface PartsTableProps {
 
 const KIND_WORDS: Record<string, string> = { element: 'Element', 'cover-plate': 'Cover plate', 'rotor-bar': 'Rotor bar' };
 const col = createColumnHelper<PartRow>();
+// One empty array for every render while loading: a fresh `[]` each time makes the table reset
+// its page on every render, and that reset schedules another render, without end.
+const NO_ROWS: PartRow[] = [];
 const money = (c: number) => (c / 100).toLocaleString('en', { minimumFractionDigits: 2, maximumFractionDigits: 2 });
 
 function detail(p: CatalogPart): string {
@@ -82,7 +85,7 @@ function Table({ families, canEdit }: PartsTableProps) {
   );
 
   const table = useReactTable({
-    data: data?.parts ?? [],
+    data: data?.parts ?? NO_ROWS,
     columns,
     state: { sorting, columnFilters: filters, globalFilter: search },
     onSortingChange: setSorting,

@@ -31,7 +31,7 @@ const EditorSlot = memo(function EditorSlot({ info, attrs, canEdit, children }: 
   const movable = canEdit && !!info.part;
 
   const onKeyDown = (e: KeyboardEvent<SVGGElement>) => {
-    if (carry.ui.getState().carrying) return; // the keyboard sensor has the keys while a part is carried
+    if (carry.starting || carry.ui.getState().carrying) return; // the keyboard sensor has the keys while a part is carried
     const dir = ARROW_DIRECTION[e.key];
     if (dir) {
       e.preventDefault();

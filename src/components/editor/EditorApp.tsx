@@ -78,7 +78,7 @@ export function EditorApp() {
   const [carry] = useState(createCarry);
   const root = useRef<HTMLDivElement>(null);
 
-  useShortcuts(useCallback(() => carry.ui.getState().carrying !== null || store.getState().conflict !== null, [carry, store]));
+  useShortcuts(useCallback(() => carry.starting || carry.ui.getState().carrying !== null || store.getState().conflict !== null, [carry, store]));
 
   const setHover = useCallback(
     (place: Place | null) => {
@@ -155,6 +155,7 @@ export function EditorApp() {
 
   const onDragStart = (_e: DragStartEvent) => {
     coordinateGetter.reset();
+    carry.starting = false;
     const c = carry.data;
     carry.ui.setState({ carrying: c.part ? { part: c.part, from: c.from } : null, hover: null, overPalette: false });
   };
@@ -171,6 +172,7 @@ export function EditorApp() {
 
   const onDragEnd = (_e: DragEndEvent) => {
     const { carrying: c, hover, overPalette } = carry.ui.getState();
+    carry.starting = false;
     carry.ui.setState({ carrying: null, hover: null, overPalette: false });
     if (!c) return;
     const s = store.getState();
@@ -206,7 +208,10 @@ export function EditorApp() {
           onDragStart={onDragStart}
           onDragMove={onDragMove}
           onDragEnd={onDragEnd}
-          onDragCancel={() => carry.ui.setState({ carrying: null, hover: null, overPalette: false })}
+          onDragCancel={() => {
+            carry.starting = false;
+            carry.ui.setState({ carrying: null, hover: null, overPalette: false });
+          }}
           accessibility={{ announcements, screenReaderInstructions: { draggable: INSTRUCTIONS } }}
         >
           <CarryHandle carry={carry} disabled={!canEdit} />

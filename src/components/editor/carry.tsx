@@ -37,6 +37,12 @@ export interface Carry {
   /** The object dnd-kit holds as the draggable's data; filled in when a drag starts. */
   readonly data: { part: CatalogPart | null; from?: Place };
   readonly ui: StoreApi<CarryUi>;
+  /**
+   * A key has picked a part up but dnd-kit has not started the drag yet (it starts in an effect,
+   * and its keyboard sensor listens only from the next task). Keys in that gap belong to the drag,
+   * not to the drawing's own arrow-key moves.
+   */
+  starting: boolean;
   /** Start carrying `part` (from `from`, or the palette) with this pointer or key event on `node`. */
   begin: (e: StartEvent, part: CatalogPart, from: Place | undefined, node: Element) => void;
 }
@@ -45,6 +51,7 @@ export function createCarry(): Carry {
   return {
     data: { part: null },
     ui: createStore<CarryUi>()(() => ({ carrying: null, hover: null, overPalette: false, pointed: null })),
+    starting: false,
     begin: () => {},
   };
 }
@@ -76,7 +83,11 @@ export function CarryHandle({ carry, disabled }: { carry: Carry; disabled: boole
       setNodeRef(node as HTMLElement);
       setActivatorNodeRef(node as HTMLElement);
       if (e.type === 'pointerdown') listeners.onPointerDown?.(e);
-      else if (e.type === 'keydown') listeners.onKeyDown?.(e);
+      else if (e.type === 'keydown') {
+        listeners.onKeyDown?.(e);
+        // The keyboard sensor prevents the default of a key it starts a drag with.
+        if (e.nativeEvent.defaultPrevented) carry.starting = true;
+      }
     };
   });
   return null;

@@ -46,6 +46,8 @@ const SORTABLE = new Set(['nickname', 'serial', 'family', 'org', 'updatedAt']);
 const DRUM: Record<string, string> = { full: 'Full', slim: 'Slim' };
 const VANES: Record<string, string> = { fixed: 'Fixed', manual: 'Manual', powered: 'Powered' };
 const col = createColumnHelper<MachineListItem>();
+// A stable empty array while loading, so the table does not see new data on every render.
+const NO_ROWS: MachineListItem[] = [];
 
 const dateFmt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric' });
 
@@ -114,7 +116,7 @@ function Table({ initial, orgs, families }: MachinesTableProps) {
 
   const total = data?.total ?? 0;
   const table = useReactTable({
-    data: data?.items ?? [],
+    data: data?.items ?? NO_ROWS,
     columns,
     state: { sorting, pagination },
     onSortingChange: (updater) => {
