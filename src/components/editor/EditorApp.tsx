@@ -48,17 +48,19 @@ const CarryOverlay = memo(function CarryOverlay() {
   const carrying = typeof KeyboardEvent !== "undefined" && activatorEvent instanceof KeyboardEvent ? undefined : (active?.data.current as CarryData | undefined);
   // A wrapper that is always there, so the overlay coming and going never changes the
   // structure of the editor's children (sibling selectors would restyle the whole editor).
+  // The overlay itself is there only while the pointer carries a part (it has no drop
+  // animation to finish): a keyboard drop then does not update it.
   return (
     <div className="editor-carry">
-      <DragOverlay dropAnimation={null}>
-        {carrying?.part ? (
+      {carrying?.part ? (
+        <DragOverlay dropAnimation={null}>
           <div className="pointer-events-none flex items-center gap-2 rounded-md border border-iris-500 bg-white px-2 py-1.5 text-sm font-semibold shadow-lg">
             <PartSwatch part={carrying.part} id="overlay" />
             {partTitle(carrying.part)}
             {carrying.part.kind === 'element' ? ` · ${carrying.part.hand === 'left' ? 'L' : 'R'}` : ''}
           </div>
-        ) : null}
-      </DragOverlay>
+        </DragOverlay>
+      ) : null}
     </div>
   );
 });

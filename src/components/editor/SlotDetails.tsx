@@ -9,7 +9,7 @@ import { formatLength, mm, type UnitSystem } from '../../lib/domain/units';
 import type { CatalogPart, CropId, Place } from '../../lib/domain/schemas';
 import { openingWords, partWordsWithHand, placeWords } from '../cage/words';
 import { useCarryUi } from './carry';
-import { useEditor } from './store/context';
+import { useEditor, useEditorLazy } from './store/context';
 import { partNumberAt } from './store/layout-edits';
 
 function kernelWords(part: CatalogPart, crop: CropId, units: UnitSystem): string | null {
@@ -25,12 +25,15 @@ function kernelWords(part: CatalogPart, crop: CropId, units: UnitSystem): string
 
 export function SlotDetails() {
   const hovered = useCarryUi((s) => s.pointed);
-  const selected = useEditor((s) => s.selectedPlace);
+  // The details line follows an edit a moment after the drawing does (see useEditorLazy).
+  const selected = useEditorLazy((s) => s.selectedPlace);
+  const layout = useEditorLazy((s) => s.layout);
+  const units = useEditorLazy((s) => s.units);
+  const catalog = useEditor((s) => s.catalog);
   const place: Place | null = hovered ?? (selected && selected.kind !== 'setting' ? selected : null);
-  const partNumber = useEditor((s) => (place ? partNumberAt(s.layout, place) : undefined));
-  const part = useEditor((s) => (partNumber ? s.catalog.byPartNumber.get(partNumber) : undefined));
-  const crop = useEditor((s) => s.layout.crop);
-  const units = useEditor((s) => s.units);
+  const partNumber = place ? partNumberAt(layout, place) : undefined;
+  const part = partNumber ? catalog.byPartNumber.get(partNumber) : undefined;
+  const crop = layout.crop;
   if (!place) {
     return <p className="text-sm text-ink-muted" data-testid="slot-details">Point at a slot, or select one, to see what it holds.</p>;
   }

@@ -1,16 +1,15 @@
 /** The bar above the drawing: undo, redo, remove, save with a note, and where the layout stands. */
 import { commandById, keyLabel, runCommand, type CommandId } from './commands';
 import { isDirty } from './store/create-editor-store';
-import { useEditor, useEditorHistory, useEditorStoreApi } from './store/context';
+import { useEditor, useEditorLazy, useEditorStoreApi } from './store/context';
 
 const isMac = () => typeof navigator !== 'undefined' && /Mac|iPhone|iPad/.test(navigator.platform);
 
 function CommandButton({ id, primary = false, icon }: { id: CommandId; primary?: boolean; icon?: string }) {
   const store = useEditorStoreApi();
   const cmd = commandById(id);
-  const enabled = useEditor((s) => cmd.enabled(s, store.temporal.getState()));
-  // re-render when history length changes (undo/redo enablement)
-  useEditorHistory((h) => h.pastStates.length + ':' + h.futureStates.length);
+  // Follows the state and the undo history, just after an edit's own commit.
+  const enabled = useEditorLazy((s, h) => cmd.enabled(s, h));
   const shortcut = cmd.keys[0] ? keyLabel(cmd.keys[0], isMac()) : '';
   return (
     <button
@@ -49,10 +48,10 @@ function NoteField() {
 
 export function Toolbar() {
   const canEdit = useEditor((s) => s.canEdit);
-  const dirty = useEditor(isDirty);
-  const saveState = useEditor((s) => s.saveState);
-  const saveError = useEditor((s) => s.saveError);
-  const baseVersion = useEditor((s) => s.baseVersion);
+  const dirty = useEditorLazy(isDirty);
+  const saveState = useEditorLazy((s) => s.saveState);
+  const saveError = useEditorLazy((s) => s.saveError);
+  const baseVersion = useEditorLazy((s) => s.baseVersion);
 
   const status = !canEdit
     ? `Version ${baseVersion} · read only`

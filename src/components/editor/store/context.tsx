@@ -1,5 +1,5 @@
 /** The island's store in React context, created once from the page's props. */
-import { createContext, useContext, useState, type ReactNode } from 'react';
+import { createContext, startTransition, useContext, useEffect, useRef, useState, type ReactNode } from 'react';
 import { useStore } from 'zustand';
 import type { TemporalState } from 'zundo';
 import { createEditorStore } from './create-editor-store';
@@ -25,4 +25,35 @@ export function useEditor<T>(selector: (s: EditorState) => T): T {
 
 export function useEditorHistory<T>(selector: (s: TemporalState<Tracked>) => T): T {
   return useStore(useEditorStoreApi().temporal, selector);
+}
+
+/**
+ * A selector for what may follow an edit a moment later (toolbar state, the details line, a
+ * setting's own findings): it re-renders in a transition after the edit's own commit, so a drop
+ * shows its part and findings first. Reads the undo history too. Primitive or stable results
+ * only (compared with Object.is).
+ */
+export function useEditorLazy<T>(selector: (s: EditorState, h: TemporalState<Tracked>) => T): T {
+  const store = useEditorStoreApi();
+  const [value, setValue] = useState(() => selector(store.getState(), store.temporal.getState()));
+  const latest = useRef({ selector, value });
+  latest.current = { selector, value };
+  useEffect(() => {
+    let last = latest.current.value;
+    const check = () => {
+      const v = latest.current.selector(store.getState(), store.temporal.getState());
+      if (Object.is(v, last)) return;
+      last = v;
+      startTransition(() => setValue(v));
+    };
+    check(); // a change between render and subscription
+    const offState = store.subscribe(check);
+    // The history is written after the state; a step's undo button follows it.
+    const offHistory = store.temporal.subscribe(check);
+    return () => {
+      offState();
+      offHistory();
+    };
+  }, [store]);
+  return value;
 }

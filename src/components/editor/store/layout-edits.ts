@@ -2,7 +2,11 @@
  * Pure edits of a layout: what sits at a place, put, take away, move or swap. Each returns a new
  * layout object (or the same one when nothing changes), so undo can keep references.
  */
-import type { CatalogPart, Layout, Place } from '../../../lib/domain/schemas';
+import type { CatalogPart, Layout, Place, Side } from '../../../lib/domain/schemas';
+
+// Left before right. A plain comparison: String#localeCompare builds a collator, which costs
+// more than the rest of an edit.
+const sideOrder = (a: Side, b: Side) => (a === b ? 0 : a === 'left' ? -1 : 1);
 
 /** Whether a part of this kind goes into a slot of this kind at all (fit is the rules' job). */
 export function accepts(part: Pick<CatalogPart, 'kind'>, place: Place): boolean {
@@ -32,13 +36,13 @@ export function withPartAt(layout: Layout, place: Place, partNumber: string | nu
     case 'element': {
       const rest = layout.elements.filter((e) => !(e.position === place.position && e.side === place.side));
       const elements = partNumber ? [...rest, { position: place.position, side: place.side, partNumber }] : rest;
-      elements.sort((a, b) => a.position - b.position || a.side.localeCompare(b.side));
+      elements.sort((a, b) => a.position - b.position || sideOrder(a.side, b.side));
       return { ...layout, elements };
     }
     case 'cover': {
       const rest = layout.coverPlates.filter((c) => !(c.section === place.section && c.side === place.side));
       const coverPlates = partNumber ? [...rest, { section: place.section, side: place.side, partNumber }] : rest;
-      coverPlates.sort((a, b) => a.section - b.section || a.side.localeCompare(b.side));
+      coverPlates.sort((a, b) => a.section - b.section || sideOrder(a.side, b.side));
       return { ...layout, coverPlates };
     }
     case 'bar': {
