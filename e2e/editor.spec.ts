@@ -157,15 +157,20 @@ test.describe('cage editor', () => {
     const from = slot(page, 'element:2:left');
     const to = slot(page, 'element:3:left');
     await from.focus();
+    // Quick keys: the arrow may come before dnd-kit listens for keys; the editor passes it on.
     await page.keyboard.press('Space');
-    // A keyboard user hears the part picked up before moving it.
-    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Picked up fine-wire element');
     await page.keyboard.press('ArrowRight');
     await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over left, position 3, holding a wide-wire element');
     await page.keyboard.press('Space');
     await expect(announcer(page)).toContainText('Swapped: fine-wire element now at left, position 3, wide-wire element now at left, position 2');
     await expect(to).toHaveAttribute('aria-label', /fine-wire element/);
     await expect(from).toHaveAttribute('aria-label', /wide-wire element/);
+
+    // Leaving with the swap unsaved asks first (the browser's own question).
+    await expect(page.getByTestId('save-status')).toContainText('Unsaved changes');
+    const asked = new Promise<string>((resolve) => page.once('dialog', (d) => void d.dismiss().then(() => resolve(d.type()))));
+    await page.close({ runBeforeUnload: true });
+    expect(await asked).toBe('beforeunload');
   });
 
   test('mouse: a placed part dragged onto the palette comes off, and the empty half is a finding', async ({ page }) => {

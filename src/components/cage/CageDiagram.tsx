@@ -35,7 +35,7 @@
  * Every slot's <g> carries data-place="<placeKey>" ('element:3:right', 'cover:2:left',
  * 'bar:1:4') and an aria-label naming the place, what is in it and its findings.
  */
-import { memo, useId, useMemo, type ReactNode, type SVGProps } from 'react';
+import { memo, useId, useMemo, useRef, type ReactNode, type SVGProps } from 'react';
 import { asCatalogIndex, type CatalogIndex } from '../../lib/domain/catalog';
 import { allPlaces, placeKey } from '../../lib/domain/places';
 import type { CatalogPart, Finding, Layout, MachineFamily, Place, Side } from '../../lib/domain/schemas';
@@ -74,6 +74,19 @@ export interface CageDiagramProps {
 const SIDES: readonly Side[] = ['left', 'right'];
 const EMPTY: readonly Finding[] = [];
 const NO_PLACES: readonly Place[] = [];
+
+/** What a drawn slot was made from; an unchanged slot keeps its element from the last render. */
+interface DrawnSlot {
+  partNumber: string | undefined;
+  findings: string;
+  selected: boolean;
+  highlighted: boolean;
+  changed: boolean;
+  node: ReactNode;
+}
+
+/** The findings at a place as far as the slot shows them (its marks and accessible name). */
+const findingsSignature = (fs: readonly Finding[]) => (fs.length === 0 ? '' : fs.map((f) => `${f.severity}\u0001${f.code}\u0001${f.title}`).join('\u0002'));
 
 function capitalise(s: string) {
   return s.charAt(0).toUpperCase() + s.slice(1);
@@ -217,30 +230,53 @@ export function CageDiagram(props: CageDiagramProps) {
     };
   };
 
+  // Between renders, a slot whose part, findings, selection, highlight and change mark are the
+  // same keeps its element, and React skips it without comparing props: an edit redraws the
+  // slots it touched, not every slot of the cage.
+  const drawn = useRef<{ inputs: readonly unknown[]; slots: Map<string, DrawnSlot> } | null>(null);
+  const inputs = [family, geo, cat, units, compact, prefix, slotProps, renderSlot, inLine];
+  if (!drawn.current || drawn.current.inputs.some((v, i) => v !== inputs[i])) drawn.current = { inputs, slots: new Map() };
+  const cache = drawn.current.slots;
+
   const slots: ReactNode[] = [];
   for (const place of places) {
+    const key = placeKey(place);
+    const partNumber = occupant.get(key);
+    const fsig = findingsSignature(byPlace.get(key) ?? EMPTY);
+    const selected = key === selectedKey;
+    const highlighted = highlightKeys.has(key);
+    const changed = diffKeys.has(key);
+    const before = cache.get(key);
+    if (before && before.partNumber === partNumber && before.findings === fsig && before.selected === selected && before.highlighted === highlighted && before.changed === changed) {
+      slots.push(before.node);
+      continue;
+    }
     const box = slotBox(family, geo, place);
     if (!box) continue;
+    let node: ReactNode = null;
     if (place.kind === 'element') {
       const info = infoFor(place, box, true);
-      slots.push(
+      node = (
         <Slot key={info.key} info={info} slotProps={slotProps} renderSlot={renderSlot}
-          drawing={<ElementSlot info={info} side={place.side} prefix={prefix} units={units} compact={compact} />} />,
+          drawing={<ElementSlot info={info} side={place.side} prefix={prefix} units={units} compact={compact} />} />
       );
     } else if (place.kind === 'cover') {
       const section = family.cageTopSections.find((s) => s.index === place.section)!;
       const info = infoFor(place, box, section.coverPlateSides.includes(place.side));
-      slots.push(
+      node = (
         <Slot key={info.key} info={info} slotProps={slotProps} renderSlot={renderSlot}
-          drawing={<CoverSlot info={info} prefix={prefix} compact={compact} />} />,
+          drawing={<CoverSlot info={info} prefix={prefix} compact={compact} />} />
       );
     } else if (place.kind === 'bar') {
       const info = infoFor(place, box, true);
-      slots.push(
+      node = (
         <Slot key={info.key} info={info} slotProps={slotProps} renderSlot={renderSlot}
-          drawing={<BarSlot info={info} inLine={inLine.has(info.key)} compact={compact} />} />,
+          drawing={<BarSlot info={info} inLine={inLine.has(info.key)} compact={compact} />} />
       );
     }
+    if (!node) continue;
+    cache.set(key, { partNumber, findings: fsig, selected, highlighted, changed, node });
+    slots.push(node);
   }
 
   const drum = family.drumOptions.find((d) => d.id === layout.drum) ?? family.drumOptions[0]!;

@@ -4,6 +4,7 @@
  * Drawn centred on (x, y) with the given size, for use inside the diagram's SVG or in a small
  * standalone <svg> (see SeverityBadge).
  */
+import { memo } from 'react';
 import type { Severity } from '../../lib/domain/schemas';
 import { SEVERITY_STYLE } from './palette';
 
@@ -43,10 +44,10 @@ export function SeverityIcon({ severity, x, y, size = 18 }: { severity: Severity
 }
 
 /** A small inline icon for HTML lists (findings list, legends). */
-export function SeverityBadge({ severity, size = 16, className }: { severity: Severity; size?: number; className?: string }) {
+export const SeverityBadge = memo(function SeverityBadge({ severity, size = 16, className }: { severity: Severity; size?: number; className?: string }) {
   return (
     <svg width={size} height={size} viewBox={`0 0 ${size} ${size}`} className={className} aria-hidden="true" focusable="false">
       <SeverityIcon severity={severity} x={size / 2} y={size / 2} size={size - 1.5} />
     </svg>
   );
-}
+});

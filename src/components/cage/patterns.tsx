@@ -5,6 +5,7 @@
  * as solid plate, close-bar with bars and wires packed tighter. Each pattern id carries the
  * diagram instance's prefix so two diagrams on one page (a compare view) never share ids.
  */
+import { memo } from 'react';
 import type React from 'react';
 import type { ElementType } from '../../lib/domain/schemas';
 import { STEEL } from './palette';
@@ -54,7 +55,7 @@ function BarsAndWires({ w, h, barW, wires, ghost = [] }: { w: number; h: number;
 type PatternName = Parameters<typeof patternId>[1];
 
 /** All patterns, or `only` the named ones (a swatch needs one). */
-export function PatternDefs({ prefix, only }: { prefix: string; only?: readonly PatternName[] }) {
+export const PatternDefs = memo(function PatternDefs({ prefix, only }: { prefix: string; only?: readonly PatternName[] }) {
   const id = (n: PatternName) => patternId(prefix, n);
   const all = (
     <>
@@ -103,7 +104,7 @@ export function PatternDefs({ prefix, only }: { prefix: string; only?: readonly 
   const wanted = new Set(only.map(id));
   const kids = (all.props as { children: React.ReactElement<{ id: string }>[] }).children;
   return <defs>{kids.filter((k) => wanted.has(k.props.id))}</defs>;
-}
+});
 
 /** A swatch of one element pattern, for legends and the palette (its own tiny SVG). */
 export function ElementSwatch({ type, prefix, width = 44, height = 26 }: { type: ElementType; prefix: string; width?: number; height?: number }) {

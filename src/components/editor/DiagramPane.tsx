@@ -5,11 +5,11 @@
  */
 import { memo, useCallback, useEffect, useMemo, useRef, type KeyboardEvent, type ReactNode } from 'react';
 import { allPlaces, placeKey } from '../../lib/domain/places';
-import type { MachineFamily } from '../../lib/domain/schemas';
+import type { MachineFamily, Place } from '../../lib/domain/schemas';
 import { CageDiagram, type SlotAttrs, type SlotInfo } from '../cage/CageDiagram';
 import { diagramGeometry, slotBox } from '../cage/geometry';
 import { IRIS } from '../cage/palette';
-import { isPickUpKey, useCarry, useCarryUi } from './carry';
+import { isPickUpKey, keepKeyForSensor, useCarry, useCarryUi } from './carry';
 import { SlotDetails } from './SlotDetails';
 import { ARROW_DIRECTION, slotsFor, stepPlace } from './keyboard';
 import { useEditor, useEditorStoreApi } from './store/context';
@@ -24,14 +24,22 @@ interface EditorSlotProps {
   children: ReactNode;
 }
 
+const selectsNoSlot = (s: { selectedPlace: Place | null }) => s.selectedPlace === null || s.selectedPlace.kind === 'setting';
+const never = () => false;
+
 const EditorSlot = memo(function EditorSlot({ info, attrs, canEdit, children }: EditorSlotProps) {
   const store = useEditorStoreApi();
   const carry = useCarry();
-  const tabStop = useEditor((s) => (s.selectedPlace ? placeKey(s.selectedPlace) === info.key : info.key === firstElementKey(s.family)));
+  // The drawing's one tab stop: the selected slot, or its first element slot while no slot is
+  // selected. Only that first slot watches the selection; the rest know it from `info`.
+  const first = useEditor((s) => info.key === firstElementKey(s.family));
+  const noSlotSelected = useEditor(first ? selectsNoSlot : never);
+  const tabStop = info.selected || (first && noSlotSelected);
   const movable = canEdit && !!info.part;
 
   const onKeyDown = (e: KeyboardEvent<SVGGElement>) => {
-    if (carry.starting || carry.ui.getState().carrying) return; // the keyboard sensor has the keys while a part is carried
+    // The keyboard sensor has the keys while a part is carried.
+    if (carry.starting || carry.ui.getState().carrying) return keepKeyForSensor(e, carry);
     const dir = ARROW_DIRECTION[e.key];
     if (dir) {
       e.preventDefault();

@@ -172,7 +172,8 @@ export function EditorApp() {
     setHover(t.place);
   };
 
-  const onDragEnd = (_e: DragEndEvent) => {
+  /** Puts the carried part where it was dropped (or takes it off over the palette). */
+  const drop = () => {
     const { carrying: c, hover, overPalette } = carry.ui.getState();
     carry.starting = false;
     carry.ui.setState({ carrying: null, hover: null, overPalette: false });
@@ -185,6 +186,21 @@ export function EditorApp() {
     if (!hover || !accepts(c.part, hover)) return;
     if (c.from) s.movePart(c.from, hover);
     else s.placePart(c.part.partNumber, hover);
+  };
+
+  // dnd-kit asks before it ends a drag whether to cancel the drop, and waits for the answer.
+  // The drop is made right there, and the answer (never cancel) comes a task later: the part
+  // and its findings are committed first and may be painted before dnd-kit tidies its own
+  // state, which re-renders its context twice.
+  const cancelDrop = () => {
+    drop();
+    return new Promise<boolean>((resolve) => setTimeout(() => resolve(false), 0));
+  };
+
+  const onDragEnd = (_e: DragEndEvent) => {
+    // Made in cancelDrop; this only makes sure nothing is left marked as carried.
+    carry.starting = false;
+    if (carry.ui.getState().carrying) carry.ui.setState({ carrying: null, hover: null, overPalette: false });
   };
 
   return (
@@ -207,6 +223,7 @@ export function EditorApp() {
         <DndContext
           sensors={sensors}
           collisionDetection={collision}
+          cancelDrop={cancelDrop}
           onDragStart={onDragStart}
           onDragMove={onDragMove}
           onDragEnd={onDragEnd}

@@ -3,7 +3,7 @@
  * what is on the shelf. Each part is picked up with the mouse, or with Space and carried with
  * the arrow keys; a click puts it into the selected slot when it goes there.
  */
-import { isPickUpKey, useCarry, useCarryUi } from './carry';
+import { isPickUpKey, keepKeyForSensor, useCarry, useCarryUi } from './carry';
 import { INSTRUCTIONS_ID } from './instructions';
 import { memo, useDeferredValue, useMemo, useState } from 'react';
 import type { CatalogPart, ElementType, Side, Zone } from '../../lib/domain/schemas';
@@ -69,7 +69,9 @@ const PaletteItem = memo(function PaletteItem({ part, units, stock, canEdit }: {
         disabled={!canEdit}
         onPointerDown={(e) => carry.begin(e, part, undefined, e.currentTarget)}
         onKeyDown={(e) => {
-          if (isPickUpKey(e)) carry.begin(e, part, undefined, e.currentTarget);
+          // While a part is carried, the keyboard sensor has the keys (Space drops it).
+          if (carry.starting || carry.ui.getState().carrying) keepKeyForSensor(e, carry);
+          else if (isPickUpKey(e)) carry.begin(e, part, undefined, e.currentTarget);
         }}
         onClick={() => {
           const s = store.getState();

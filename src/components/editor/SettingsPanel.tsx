@@ -22,14 +22,26 @@ const VANE_WORDS = { 'very-slow': 'Very slow', slow: 'Slow', medium: 'Medium', f
 const CONTROL_WORDS = { fixed: 'Fixed', manual: 'Manually adjusted', powered: 'Powered' } as const;
 const SEP = '\u0001';
 
+/** The findings pinned to one setting, packed in a string (worked out once per findings list). */
+function packedFindingsOf(field: SettingField) {
+  let seen: EditorState['findings'] | null = null;
+  let packed = '';
+  return (s: EditorState) => {
+    if (s.findings !== seen) {
+      seen = s.findings;
+      packed = s.findings
+        .filter((f) => f.places.some((p) => p.kind === 'setting' && p.field === field))
+        .map((f) => `${f.severity}${SEP}${f.title}`)
+        .join('\n');
+    }
+    return packed;
+  };
+}
+
 /** Findings pinned to one setting, read as a string so unrelated edits do not re-render it. */
 function FieldFinding({ field }: { field: SettingField }) {
-  const packed = useEditor((s: EditorState) =>
-    s.findings
-      .filter((f) => f.places.some((p) => p.kind === 'setting' && p.field === field))
-      .map((f) => `${f.severity}${SEP}${f.title}`)
-      .join('\n'),
-  );
+  const select = useMemo(() => packedFindingsOf(field), [field]);
+  const packed = useEditor(select);
   if (!packed) return null;
   return (
     <ul className="mt-1 flex flex-col gap-0.5">

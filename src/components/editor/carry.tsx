@@ -69,6 +69,29 @@ export function useCarryUi<T>(selector: (s: CarryUi) => T): T {
   return useStore(useCarry().ui, selector);
 }
 
+/** The keys dnd-kit's keyboard sensor acts on while a part is carried. */
+const SENSOR_KEYS = new Set(['Space', 'Enter', 'Escape', 'Tab', 'ArrowRight', 'ArrowLeft', 'ArrowUp', 'ArrowDown']);
+const replayed = new WeakSet<Event>();
+
+/**
+ * For a key that reached a carried part's own handler: the keyboard sensor starts listening a
+ * task after the pick-up, and a busy browser runs queued key presses before that task. A key
+ * the sensor did not take (it prevents the default of every key it handles) is played again
+ * once, a task later, when the sensor listens. Without this a quick Space, arrow could lose
+ * the arrow.
+ */
+export function keepKeyForSensor(e: KeyboardEvent<Element>, carry: Carry) {
+  const native = e.nativeEvent;
+  if (!SENSOR_KEYS.has(native.code) || replayed.has(native)) return;
+  const target = e.currentTarget;
+  setTimeout(() => {
+    if (native.defaultPrevented || !(carry.starting || carry.ui.getState().carrying)) return;
+    const again = new globalThis.KeyboardEvent('keydown', { key: native.key, code: native.code, shiftKey: native.shiftKey, bubbles: true, cancelable: true });
+    replayed.add(again);
+    target.dispatchEvent(again);
+  }, 0);
+}
+
 /** Whether a key starts carrying (the keyboard sensor's start keys). */
 export const isPickUpKey = (e: { code: string; key: string }) => e.code === 'Space' || e.code === 'Enter' || e.key === ' ' || e.key === 'Enter';
 
