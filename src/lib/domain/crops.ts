@@ -37,6 +37,8 @@ export const cropProgramSchema = z.object({
   /** Long fibres that rope around the rotor. */
   stringy: z.boolean(),
   suggested: z.object({ threshing: elementTypeSchema, separating: elementTypeSchema }),
+  /** Blank plates (no openings) have a place in this crop's cage (common practice: sunflower). */
+  blankPlatesUsed: z.boolean().optional(),
   rotorBars: z.object({
     /** Straight interrupter bars across in-line rasp bars: wanted only where grain hides in husks. */
     straight: z.enum(['wanted', 'not-needed']),
@@ -287,6 +289,7 @@ const drafts: Draft[] = [
     heavyStraw: false,
     stringy: false,
     suggested: { threshing: 'round-bar', separating: 'wide-wire' },
+    blankPlatesUsed: true,
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only (common practice).' },
     tipSpeedMs: { min: 7.5, max: 10.5, source: SRC.ndsuEb25 },
     bushel: {

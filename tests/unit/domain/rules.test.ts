@@ -247,6 +247,18 @@ describe('crop', () => {
     expect(codes(run(start('wheat')))).not.toContain('CROP_OPENING_TOO_SMALL');
     expect(codes(run(setElement(start('sunflower'), 1, 'left', 'CW-BL-L-04')))).not.toContain('CROP_OPENING_TOO_SMALL');
   });
+  // Blank plates belong in crops such as sunflower, where whole heads must not drop through;
+  // elsewhere they close separating area (common practice, no published source).
+  it('CROP_BLANK_PLATE fires for a blank plate in wheat, in either zone', () => {
+    const f = expectFires(run(setElement(start('wheat'), 3, 'right', 'CW-BL-R-04')), 'CROP_BLANK_PLATE', 'hurts-crop');
+    expect(f.places).toEqual([{ kind: 'element', position: 3, side: 'right' }]);
+    expect(f.fix).toContain('wide-wire');
+    expect(expectFires(run(setElement(start('wheat'), 1, 'left', 'CW-BL-L-04')), 'CROP_BLANK_PLATE', 'hurts-crop').fix).toContain('fine-wire');
+  });
+  it('CROP_BLANK_PLATE does not fire in sunflower, nor for perforated plates in edible beans', () => {
+    expect(codes(run(setElement(start('sunflower'), 1, 'left', 'CW-BL-L-04')))).not.toContain('CROP_BLANK_PLATE');
+    expect(codes(run(start('edible-beans')))).not.toContain('CROP_BLANK_PLATE');
+  });
   it('CROP_AGGRESSIVE_FRAGILE fires for close-bar with soybeans', () => {
     expectFires(run(setElement(start('soybeans'), 1, 'left', 'CW-CB-L-04')), 'CROP_AGGRESSIVE_FRAGILE', 'hurts-crop');
   });

@@ -112,6 +112,17 @@ function checkCrop(ctx: RuleContext, part: ElementPart, position: number, side: 
       `Fit a ${elementWord(zone === 'threshing' ? crop.suggested.threshing : crop.suggested.separating)} element here.`,
     );
   }
+  if (part.elementType === 'blank' && !crop.blankPlatesUsed) {
+    emit(
+      ctx,
+      'CROP_BLANK_PLATE',
+      'hurts-crop',
+      [place],
+      `Blank plate in a ${cropWord} cage`,
+      `A blank plate has no openings: ${cropWord} threshed over ${halfWords(position, side)} cannot fall through there and rides on to the positions behind it, which loads them and raises rotor loss. Blank plates are for crops such as sunflower, where whole heads must not drop through (common practice).`,
+      `Fit a ${elementWord(zone === 'threshing' ? crop.suggested.threshing : crop.suggested.separating)} element here, unless this half is meant to be closed.`,
+    );
+  }
   if (crop.fragile && AGGRESSIVE_ELEMENT_TYPES.has(part.elementType)) {
     emit(
       ctx,
