@@ -201,6 +201,26 @@ describe('inspections with photos in an S3-compatible bucket', () => {
     expect((await dev.fetch(up.body.url)).status).toBe(200);
   });
 
+  it('drops a phone photo’s location and device metadata and stores it upright', async () => {
+    const insp = (await tech.post(`/api/machines/${haldaneMachine}/inspections`, {})).body;
+    const item = insp.items[2];
+    // 90 × 60 pixels, stored turned (orientation 6: shown a quarter turn clockwise), with GPS.
+    const phone = await sharp({ create: { width: 90, height: 60, channels: 3, background: '#6b7b8d' } })
+      .jpeg()
+      .withExif({ IFD0: { Make: 'InventedCam', Model: 'Field 1' }, IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '52/1 30/1 0/1', GPSLongitudeRef: 'W', GPSLongitude: '106/1 40/1 0/1' } })
+      .withMetadata({ orientation: 6 })
+      .toBuffer();
+    expect((await sharp(phone).metadata()).exif).toBeDefined();
+    const up = await upload(tech, insp.id, item.id, form(new Uint8Array(phone), 'IMG_2041.jpg', 'image/jpeg'));
+    expect(up.status).toBe(201);
+    expect(up.body).toMatchObject({ contentType: 'image/jpeg', width: 60, height: 90 });
+    const stored = Buffer.from(await (await tech.fetch(up.body.url)).arrayBuffer());
+    const meta = await sharp(stored).metadata();
+    expect([meta.width, meta.height, meta.exif, meta.xmp, meta.orientation]).toEqual([60, 90, undefined, undefined, undefined]);
+    expect(stored.toString('latin1')).not.toContain('InventedCam');
+    expect(up.body.bytes).toBe(stored.byteLength);
+  });
+
   it('refuses a text file named .jpg (415), an image-looking fake (415) and an oversize file (413), storing nothing', async () => {
     const insp = (await tech.post(`/api/machines/${haldaneMachine}/inspections`, {})).body;
     const item = insp.items[1];

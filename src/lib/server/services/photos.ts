@@ -63,7 +63,21 @@ export async function readPhotoUpload(request: Request): Promise<UploadedPhoto> 
     throw notAnImage();
   }
   if (!meta.width || !meta.height) throw notAnImage();
-  return { bytes, type: sniffed, width: meta.width, height: meta.height };
+  return withoutMetadata(bytes, sniffed, meta);
+}
+
+/**
+ * Phones write where a picture was taken (GPS), when, and with what device into its metadata,
+ * and a farm's location is the farm's business. A photo that carries EXIF, XMP or IPTC is stored
+ * re-encoded by sharp: turned upright (the turn was in EXIF), same format, colour profile kept,
+ * metadata dropped. A photo without any is stored byte for byte.
+ */
+async function withoutMetadata(bytes: Uint8Array, type: ImageType, meta: sharp.Metadata): Promise<UploadedPhoto> {
+  if (!meta.exif && !meta.xmp && !meta.iptc) return { bytes, type, width: meta.width!, height: meta.height! };
+  const upright = sharp(bytes, { failOn: 'error' }).rotate().keepIccProfile();
+  const encoded = type === 'image/jpeg' ? upright.jpeg({ quality: 92 }) : type === 'image/png' ? upright.png() : upright.webp({ quality: 92 });
+  const { data, info } = await encoded.toBuffer({ resolveWithObject: true });
+  return { bytes: new Uint8Array(data), type, width: info.width, height: info.height };
 }
 
 async function readCapped(request: Request, limit: number): Promise<Uint8Array<ArrayBuffer>> {
