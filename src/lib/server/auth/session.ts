@@ -23,16 +23,46 @@ function readCookie(header: string, name: string): string | null {
   return joined || null;
 }
 
+/**
+ * Tokens decoded lately, by cookie name and token: decrypting one (key derivation, AES, HMAC)
+ * costs more than the rest of a small request. A token decodes to the same user until it
+ * expires, so a hit is checked against the expiry only; the user's role and memberships are
+ * still read from the store on every request. Oldest entries go first past the cap.
+ */
+const DECODED_CAP = 1000;
+const decoded = new Map<string, { uid: string; expiresAt: number }>();
+let decodedWith: string | undefined;
+
+function remember(key: string, uid: string, exp: unknown) {
+  if (typeof exp !== 'number') return;
+  if (decoded.size >= DECODED_CAP) decoded.delete(decoded.keys().next().value!);
+  decoded.set(key, { uid, expiresAt: exp * 1000 });
+}
+
 export async function sessionUserId(request: Request): Promise<string | null> {
   const header = request.headers.get('cookie');
   const secret = process.env.AUTH_SECRET;
   if (!header || !secret) return null;
+  if (secret !== decodedWith) {
+    decoded.clear();
+    decodedWith = secret;
+  }
   for (const name of COOKIE_NAMES) {
     const token = readCookie(header, name);
     if (!token) continue;
+    const key = `${name}\u0000${token}`;
+    const known = decoded.get(key);
+    if (known) {
+      if (Date.now() < known.expiresAt) return known.uid;
+      decoded.delete(key);
+      return null; // expired
+    }
     try {
       const payload = await decode({ token, secret, salt: name });
-      if (payload && typeof payload.uid === 'string') return payload.uid;
+      if (payload && typeof payload.uid === 'string') {
+        remember(key, payload.uid, payload.exp);
+        return payload.uid;
+      }
     } catch {
       return null; // tampered, expired or made with another secret
     }
