@@ -104,8 +104,18 @@ describe('machines list', () => {
 
     const creek = await tomas.get('/api/machines?q=creek');
     expect(creek.body.items.map((m: any) => m.nickname)).toEqual(['Creekside']);
+    expect(creek.body.total).toBe(1);
+    // A text query also matches the farm's name; the total counts what matches.
+    const haldane = await tomas.get('/api/machines?q=haldane&pageSize=100');
+    expect(haldane.body.total).toBe(haldane.body.items.length);
+    expect(haldane.body.items.every((m: any) => m.orgName === 'Haldane Brothers')).toBe(true);
     const byFarm = await tomas.get(`/api/machines?orgId=${creekside.orgId}&pageSize=100`);
     expect(byFarm.body.items.every((m: any) => m.orgName === 'Haldane Brothers')).toBe(true);
+    expect(byFarm.body.total).toBe(byFarm.body.items.length);
+    // Past the last page: no rows, and the total still says how many there are.
+    const past = await tomas.get('/api/machines?pageSize=2&page=99');
+    expect(past.body.items).toEqual([]);
+    expect(past.body.total).toBe(all.body.total);
     // A query term matching only another farm's machine finds nothing for Olive.
     expect((await olive.get('/api/machines?q=creekside')).body.items).toEqual([]);
     // LIKE wildcards in the query are taken literally.
