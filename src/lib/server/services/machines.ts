@@ -147,11 +147,9 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
     );
   }
   const where = and(...conditions);
-  // The page, then the total. A window count over the filtered rows would make the store join
-  // and sort every row before it could stop at the page; counting on its own is cheap, and
-  // without a text query it needs the machines table only.
+  // One round trip: the page and the total (a window count over the filtered rows).
   const rows = await db
-    .select(listColumns)
+    .select({ ...listColumns, total: sql<number>`count(*) over ()`.mapWith(Number) })
     .from(machines)
     .innerJoin(families, eq(families.id, machines.familyId))
     .innerJoin(organisations, eq(organisations.id, machines.orgId))
@@ -159,16 +157,19 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
     .orderBy(desc_ ? desc(column) : asc(column), asc(machines.id))
     .limit(query.pageSize)
     .offset((query.page - 1) * query.pageSize);
-  const [c] = query.q
-    ? await db
-        .select({ n: count() })
-        .from(machines)
-        .innerJoin(families, eq(families.id, machines.familyId))
-        .innerJoin(organisations, eq(organisations.id, machines.orgId))
-        .where(where)
-    : await db.select({ n: count() }).from(machines).where(where);
-  const n = c?.n ?? 0;
-  return { items: rows, total: n, page: query.page, pageSize: query.pageSize, sort: query.sort, q: query.q };
+  let n = rows[0]?.total;
+  if (n === undefined) {
+    // Past the last page (or nothing matches): count separately so the pager still knows the total.
+    const [c] = await db
+      .select({ n: count() })
+      .from(machines)
+      .innerJoin(families, eq(families.id, machines.familyId))
+      .innerJoin(organisations, eq(organisations.id, machines.orgId))
+      .where(where);
+    n = c?.n ?? 0;
+  }
+  const items = rows.map(({ total: _t, ...item }) => item);
+  return { items, total: n, page: query.page, pageSize: query.pageSize, sort: query.sort, q: query.q };
 }
 
 function assertMachineFitsFamily(family: MachineFamily, drum: string, vaneControl: string) {
