@@ -347,6 +347,14 @@ describe('layouts: start, history, restore, compare, copy', () => {
     const history = await olive.get(`/api/layouts/${layout.id}/versions`);
     expect(history.body.versions.map((v: any) => v.version)).toEqual([4, 3, 2, 1]);
     expect(history.body.versions.map((v: any) => v.note)).toEqual(['Restored from version 1', 'faster vanes', 'slower', 'test start']);
+    expect(history.body).toMatchObject({ total: 4, page: 1, pageSize: 50 });
+    // A page at a time, newest first; a bad page size is named.
+    const second = await olive.get(`/api/layouts/${layout.id}/versions?pageSize=3&page=2`);
+    expect(second.body.versions.map((v: any) => v.version)).toEqual([1]);
+    expect(second.body.total).toBe(4);
+    const bad = await olive.get(`/api/layouts/${layout.id}/versions?pageSize=0`);
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.field).toBe('pageSize');
     const overview = await olive.get(`/api/machines/${northQuarter.id}`);
     const trail = overview.body.activity.filter((a: any) => a.entityId === layout.id).map((a: any) => a.action);
     expect(trail).toEqual(['restore', 'save', 'save', 'create']);

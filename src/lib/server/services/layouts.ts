@@ -1,4 +1,4 @@
-import { and, desc, eq, inArray, sql } from 'drizzle-orm';
+import { and, count, desc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../db';
 import { families, layouts, layoutVersions, machines, organisations, users } from '../../../db/schema';
@@ -128,16 +128,30 @@ export async function getLayout(actor: Actor, layoutId: string) {
   return row;
 }
 
-export async function listVersions(actor: Actor, layoutId: string) {
+/** ?page=1&pageSize=50 on the versions list: newest first. */
+export const versionListQuerySchema = z.object({
+  page: z.coerce.number().int().min(1).max(100_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(50),
+});
+export type VersionListQuery = z.infer<typeof versionListQuerySchema>;
+
+/**
+ * A layout's versions, newest first: one page of them with the total when `paging` is given
+ * (the API), or all of them (the history and compare pages of one layout).
+ */
+export async function listVersions(actor: Actor, layoutId: string, paging?: VersionListQuery) {
   const row = await layoutRowForActor(actor, layoutId);
   const db = await getDb();
-  const versions = await db
+  const query = db
     .select({ id: layoutVersions.id, version: layoutVersions.version, note: layoutVersions.note, createdAt: layoutVersions.createdAt, createdByName: users.name })
     .from(layoutVersions)
     .leftJoin(users, eq(users.id, layoutVersions.createdBy))
     .where(eq(layoutVersions.layoutId, row.id))
     .orderBy(desc(layoutVersions.version));
-  return { layout: row, versions };
+  if (!paging) return { layout: row, versions: await query };
+  const versions = await query.limit(paging.pageSize).offset((paging.page - 1) * paging.pageSize);
+  const [c] = await db.select({ n: count() }).from(layoutVersions).where(eq(layoutVersions.layoutId, row.id));
+  return { layout: row, versions, total: c?.n ?? 0, page: paging.page, pageSize: paging.pageSize };
 }
 
 export async function getVersion(actor: Actor, layoutId: string, version: number) {
