@@ -1,7 +1,7 @@
 import { defineMiddleware, sequence } from 'astro:middleware';
 import { sessionUserId } from './lib/server/auth/session';
-import { getDb } from './lib/server/db';
-import { loadActor } from './lib/server/access';
+import { store } from './lib/server/db';
+import { actorFor } from './lib/server/access';
 import { errorResponse } from './lib/server/http';
 import { DataDirInUseError } from './lib/server/data-dir-lock';
 
@@ -55,7 +55,7 @@ const identity = defineMiddleware(async (ctx, next) => {
   try {
     if (!path.startsWith('/api/auth/') && !path.startsWith('/_astro/')) {
       const uid = await sessionUserId(ctx.request);
-      if (uid) ctx.locals.actor = await loadActor(await getDb(), uid);
+      if (uid) ctx.locals.actor = await actorFor(await store(), uid);
     }
   } catch (err) {
     if (err instanceof DataDirInUseError) return errorResponse(503, err.message);

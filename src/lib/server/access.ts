@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import type { Db } from './db';
+import type { Db, Store } from './db';
 import type { Role } from '../../db/schema';
 
 /** The signed-in person as every route sees them: identity, role and what they may see. */
@@ -50,6 +50,45 @@ export async function loadActor(db: Db, userId: string): Promise<Actor | null> {
     homeOrgId: home.org_id,
     homeOrgKind: home.org_kind,
   };
+}
+
+/**
+ * Actors loaded lately, by user id, kept only with the embedded store: then this process is the
+ * one owner of the data, and every change to users, memberships and organisations goes through
+ * it and calls `forgetActors()` (services/users.ts, services/orgs.ts). With a PostgreSQL server
+ * other processes may write, so every request reads the store. An entry lives a few seconds at
+ * most as a second guard. A load that overlaps a change is not kept (the generation moved on).
+ */
+const ACTOR_TTL_MS = 3000;
+const ACTOR_CAP = 2000;
+const recentActors = new Map<string, { actor: Actor; at: number }>();
+let actorGeneration = 0;
+
+/** Drops every kept actor: call after a write to users, memberships or organisations commits. */
+export function forgetActors(): void {
+  actorGeneration++;
+  recentActors.clear();
+}
+
+/** The actor for a signed-in user id, from the store or from the last few seconds (see above). */
+export async function actorFor(store: Pick<Store, 'db' | 'mode'>, userId: string): Promise<Actor | null> {
+  if (store.mode !== 'pglite') return loadActor(store.db, userId);
+  const now = Date.now();
+  const kept = recentActors.get(userId);
+  if (kept && now - kept.at < ACTOR_TTL_MS) return kept.actor;
+  const generation = actorGeneration;
+  const actor = await loadActor(store.db, userId);
+  if (actor && generation === actorGeneration) {
+    if (recentActors.size >= ACTOR_CAP) recentActors.delete(recentActors.keys().next().value!);
+    recentActors.set(userId, { actor: freeze(actor), at: now });
+  }
+  return actor;
+}
+
+function freeze(actor: Actor): Actor {
+  Object.freeze(actor.memberOrgIds);
+  Object.freeze(actor.visibleOrgIds);
+  return Object.freeze(actor);
 }
 
 export function canSeeOrg(actor: Actor, orgId: string): boolean {

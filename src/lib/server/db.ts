@@ -12,7 +12,7 @@ import { seedDemo } from './seed';
 
 export type Db = PgliteDatabase<typeof schema>;
 
-interface Store {
+export interface Store {
   db: Db;
   mode: 'pglite' | 'postgres';
   close: () => Promise<void>;

@@ -2,7 +2,7 @@ import { and, count, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../db';
 import { machines, memberships, organisations } from '../../../db/schema';
-import type { Actor } from '../access';
+import { forgetActors, type Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError } from '../http';
 
@@ -33,7 +33,7 @@ export const createOrgSchema = z.object({
 
 /**
  * An admin adds a customer farm served by their dealer; the dealer's staff see it at once
- * (visibility is read from the database on every request).
+ * (their memberships are read from the store, and the kept actors are dropped once it is added).
  */
 export async function createFarm(actor: Actor, input: z.infer<typeof createOrgSchema>) {
   if (actor.homeOrgKind !== 'dealer') throw new HttpError(403, 'Only a dealer’s administrator adds customer farms.');
@@ -43,7 +43,7 @@ export async function createFarm(actor: Actor, input: z.infer<typeof createOrgSc
     .from(organisations)
     .where(and(eq(organisations.dealerId, actor.homeOrgId), sql`lower(${organisations.name}) = lower(${input.name})`));
   if ((dupe?.n ?? 0) > 0) throw new HttpError(409, `name: a customer farm called “${input.name}” already exists`, 'name');
-  return db.transaction(async (tx) => {
+  const farm = await db.transaction(async (tx) => {
     const [row] = await tx
       .insert(organisations)
       .values({ name: input.name, kind: 'farm', dealerId: actor.homeOrgId, ownerEmail: input.ownerEmail ?? null })
@@ -51,4 +51,7 @@ export async function createFarm(actor: Actor, input: z.infer<typeof createOrgSc
     await audit(tx, actor, 'create', 'organisation', row!.id, { name: row!.name, kind: 'farm' }, row!.id);
     return row!;
   });
+  // The dealer's staff see the new farm on their next request.
+  forgetActors();
+  return farm;
 }

@@ -2,7 +2,7 @@ import { eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../db';
 import { memberships, organisations, users } from '../../../db/schema';
-import type { Actor } from '../access';
+import { forgetActors, type Actor } from '../access';
 import { audit } from '../audit';
 
 export const preferencesSchema = z.object({ unitSystem: z.enum(['metric', 'imperial']) }).strict();
@@ -18,6 +18,7 @@ export async function updatePreferences(actor: Actor, prefs: z.infer<typeof pref
     await tx.update(users).set({ unitSystem: prefs.unitSystem }).where(eq(users.id, actor.id));
     await audit(tx, actor, 'update', 'user-preferences', actor.id, prefs);
   });
+  forgetActors();
   return { ...me(actor), ...prefs };
 }
 
