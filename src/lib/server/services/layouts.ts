@@ -1,4 +1,4 @@
-import { and, count, desc, eq, inArray, sql } from 'drizzle-orm';
+import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../db';
 import { families, layouts, layoutVersions, machines, organisations, users } from '../../../db/schema';
@@ -150,8 +150,9 @@ export async function listVersions(actor: Actor, layoutId: string, paging?: Vers
     .orderBy(desc(layoutVersions.version));
   if (!paging) return { layout: row, versions: await query };
   const versions = await query.limit(paging.pageSize).offset((paging.page - 1) * paging.pageSize);
-  const [c] = await db.select({ n: count() }).from(layoutVersions).where(eq(layoutVersions.layoutId, row.id));
-  return { layout: row, versions, total: c?.n ?? 0, page: paging.page, pageSize: paging.pageSize };
+  // Versions are 1, 2, … up to the current one: every save and restore adds the next number
+  // (guarded by the version it started from) and none is ever removed, so no count is needed.
+  return { layout: row, versions, total: row.currentVersion, page: paging.page, pageSize: paging.pageSize };
 }
 
 export async function getVersion(actor: Actor, layoutId: string, version: number) {
