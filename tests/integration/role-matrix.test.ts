@@ -21,7 +21,7 @@ const UNKNOWN_ID = '00000000-0000-4000-8000-00000000beef';
 function send(c: Client, method: Method, path: string, body: unknown, multipart = false, png?: Uint8Array) {
   if (multipart) {
     const form = new FormData();
-    form.append('file', new Blob([png ?? new Uint8Array()], { type: 'image/png' }), 'x.png');
+    form.append('file', new Blob([(png ?? new Uint8Array()) as BlobPart], { type: 'image/png' }), 'x.png');
     return c.fetch(path, { method, body: form });
   }
   if (method === 'GET' || body === undefined) return c.fetch(path, { method });

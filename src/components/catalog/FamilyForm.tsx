@@ -8,7 +8,7 @@
 import { useState } from 'react';
 import { useFieldArray, useForm, type FieldErrors, type Resolver } from 'react-hook-form';
 import { machineFamilySchema, type MachineFamily } from '../../lib/domain/schemas';
-import { ApiError, sendJson } from '../fleet/api';
+import { ApiError, sendJson } from '../shared/api';
 
 type BarCell = 'none' | 'place' | 'inline';
 

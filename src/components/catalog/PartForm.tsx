@@ -15,7 +15,7 @@ import {
   slugSchema,
   type CatalogPart,
 } from '../../lib/domain/schemas';
-import { ApiError, sendJson } from '../fleet/api';
+import { ApiError, sendJson } from '../shared/api';
 
 export interface FamilyOption {
   id: string;

@@ -3,7 +3,7 @@
  * sorted, filtered and paged in the browser with TanStack Table (a catalog is a few hundred
  * rows at most).
  */
-import { QueryClient, QueryClientProvider, useQuery } from '@tanstack/react-query';
+import { useQuery } from '@tanstack/react-query';
 import {
   createColumnHelper,
   flexRender,
@@ -17,8 +17,10 @@ import {
 } from '@tanstack/react-table';
 import { useMemo, useState } from 'react';
 import type { CatalogPart } from '../../lib/domain/schemas';
-import { getJson } from '../fleet/api';
+import { getJson } from '../shared/api';
 import { PagerButtons } from '../shared/PagerButtons';
+import { QueryIsland } from '../shared/QueryIsland';
+import { SortableHead } from '../shared/SortableHead';
 
 interface PartRow {
   partNumber: string;
@@ -153,29 +155,7 @@ function Table({ families, canEdit }: PartsTableProps) {
       <div className="mt-3 overflow-x-auto rounded-lg border border-steel-200 bg-white">
         <table className="w-full text-sm" data-testid="parts-table">
           <caption className="sr-only">Catalog parts, sortable by the column headers</caption>
-          <thead className="bg-steel-100 text-left">
-            {table.getHeaderGroups().map((hg) => (
-              <tr key={hg.id}>
-                {hg.headers.map((h) => {
-                  const dir = h.column.getIsSorted();
-                  return (
-                    <th key={h.id} scope="col" className="px-3 py-2 font-semibold" aria-sort={dir === 'asc' ? 'ascending' : dir === 'desc' ? 'descending' : undefined}>
-                      {h.column.getCanSort() ? (
-                        <button type="button" className="inline-flex items-center gap-1 font-semibold hover:underline" onClick={h.column.getToggleSortingHandler()}>
-                          {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden="true" className="text-xs text-ink-muted">
-                            {dir === 'asc' ? '▲' : dir === 'desc' ? '▼' : '↕'}
-                          </span>
-                        </button>
-                      ) : (
-                        flexRender(h.column.columnDef.header, h.getContext())
-                      )}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
+          <SortableHead table={table} />
           <tbody>
             {table.getRowModel().rows.map((row) => (
               <tr key={row.id} className={`border-t border-steel-100 ${row.original.active ? '' : 'text-ink-muted'}`}>
@@ -210,10 +190,9 @@ function Table({ families, canEdit }: PartsTableProps) {
 }
 
 export default function PartsTable(props: PartsTableProps) {
-  const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { staleTime: 30_000, retry: 1 } } }));
   return (
-    <QueryClientProvider client={client}>
+    <QueryIsland staleTime={30_000}>
       <Table {...props} />
-    </QueryClientProvider>
+    </QueryIsland>
   );
 }

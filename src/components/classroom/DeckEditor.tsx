@@ -4,7 +4,7 @@
  * choosing two slides to compare, and the read-only share links.
  */
 import { useId, useState } from 'react';
-import { api } from './api';
+import { sendJson } from '../shared/api';
 import type { DeckEditorProps, EditorSlide } from './editor-types';
 import { SharePanel } from './SharePanel';
 import { SlideCard } from './SlideCard';
@@ -38,7 +38,7 @@ export function DeckEditor(props: DeckEditorProps) {
 
   const saveTitle = () =>
     act(async () => {
-      const r = await api<{ deck: { title: string } }>('PATCH', `/api/decks/${deck.id}`, { title });
+      const r = await sendJson<{ deck: { title: string } }>('PATCH', `/api/decks/${deck.id}`, { title });
       setSavedTitle(r.deck.title);
       setTitle(r.deck.title);
       setAnnounce('Deck title saved.');
@@ -46,7 +46,7 @@ export function DeckEditor(props: DeckEditorProps) {
 
   const add = () =>
     act(async () => {
-      const r = await api<{ slide: EditorSlide }>('POST', `/api/decks/${deck.id}/slides`, { title: newTitle, notes: newNotes, ...draftToSource(draft) });
+      const r = await sendJson<{ slide: EditorSlide }>('POST', `/api/decks/${deck.id}/slides`, { title: newTitle, notes: newNotes, ...draftToSource(draft) });
       const next = [...slides, r.slide];
       setSlides(next);
       setNewTitle('');
@@ -59,7 +59,7 @@ export function DeckEditor(props: DeckEditorProps) {
       const order = slides.map((s) => s.id);
       const [moved] = order.splice(index, 1);
       order.splice(index + delta, 0, moved!);
-      const r = await api<{ slides: EditorSlide[] }>('PUT', `/api/decks/${deck.id}/slides`, { order });
+      const r = await sendJson<{ slides: EditorSlide[] }>('PUT', `/api/decks/${deck.id}/slides`, { order });
       setSlides(r.slides);
       setAnnounce(`Slide moved to position ${index + delta + 1}.`);
     });
@@ -67,7 +67,7 @@ export function DeckEditor(props: DeckEditorProps) {
   const remove = (slide: EditorSlide, index: number) => {
     if (!window.confirm(`Delete slide ${index + 1}, “${slide.title}”?`)) return;
     return act(async () => {
-      await api('DELETE', `/api/decks/${deck.id}/slides/${slide.id}`);
+      await sendJson('DELETE', `/api/decks/${deck.id}/slides/${slide.id}`);
       setSlides((list) => list.filter((s) => s.id !== slide.id).map((s, i) => ({ ...s, position: i + 1 })));
       setAnnounce(`Slide “${slide.title}” deleted.`);
     });
@@ -76,7 +76,7 @@ export function DeckEditor(props: DeckEditorProps) {
   const removeDeck = () => {
     if (!window.confirm(`Delete the deck “${savedTitle}” with all its slides and share links?`)) return;
     return act(async () => {
-      await api('DELETE', `/api/decks/${deck.id}`);
+      await sendJson('DELETE', `/api/decks/${deck.id}`);
       window.location.assign('/classroom');
     });
   };

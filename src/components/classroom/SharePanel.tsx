@@ -1,6 +1,6 @@
 /** Read-only links to the deck: create one (shown once, with its address), list and revoke. */
 import { useId, useState } from 'react';
-import { api } from './api';
+import { sendJson } from '../shared/api';
 import type { ShareLinkRow } from './editor-types';
 
 const STATUS_WORDS = { active: 'Active', revoked: 'Revoked', expired: 'Expired' } as const;
@@ -15,7 +15,7 @@ export function SharePanel({ deckId, initial }: { deckId: string; initial: Share
   const [error, setError] = useState<string | null>(null);
   const [copied, setCopied] = useState(false);
 
-  const reload = async () => setLinks((await api<{ links: ShareLinkRow[] }>('GET', `/api/decks/${deckId}/share`)).links);
+  const reload = async () => setLinks((await sendJson<{ links: ShareLinkRow[] }>('GET', `/api/decks/${deckId}/share`)).links);
 
   const create = async () => {
     setError(null);
@@ -23,7 +23,7 @@ export function SharePanel({ deckId, initial }: { deckId: string; initial: Share
     try {
       // A date picked here means "until the end of that day" in the viewer's time zone.
       const expiresAt = until ? new Date(`${until}T23:59:59`).toISOString() : null;
-      const r = await api<{ path: string }>('POST', `/api/decks/${deckId}/share`, { label, expiresAt });
+      const r = await sendJson<{ path: string }>('POST', `/api/decks/${deckId}/share`, { label, expiresAt });
       setFresh(new URL(r.path, window.location.origin).toString());
       setLabel('');
       setUntil('');
@@ -36,7 +36,7 @@ export function SharePanel({ deckId, initial }: { deckId: string; initial: Share
   const revoke = async (linkId?: string) => {
     setError(null);
     try {
-      await api('DELETE', `/api/decks/${deckId}/share${linkId ? `?link=${linkId}` : ''}`);
+      await sendJson('DELETE', `/api/decks/${deckId}/share${linkId ? `?link=${linkId}` : ''}`);
       setFresh(null);
       await reload();
     } catch (err) {

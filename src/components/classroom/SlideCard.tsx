@@ -2,7 +2,7 @@
 import { useId, useMemo, useState } from 'react';
 import { CageDiagram } from '../cage/CageDiagram';
 import { checkLayout } from '../../lib/domain/rules';
-import { api } from './api';
+import { sendJson } from '../shared/api';
 import type { DeckEditorProps, EditorSlide } from './editor-types';
 import { draftToSource, initialDraft, SourcePicker, type SourceDraft } from './SourcePicker';
 import { sourceWords } from './types';
@@ -37,7 +37,7 @@ export function SlideCard(props: Props) {
     setSaving(true);
     setSavedNote('');
     try {
-      const { slide: updated } = await api<{ slide: EditorSlide }>('PATCH', `/api/decks/${deckId}/slides/${slide.id}`, body);
+      const { slide: updated } = await sendJson<{ slide: EditorSlide }>('PATCH', `/api/decks/${deckId}/slides/${slide.id}`, body);
       onChanged(updated);
       setTitle(updated.title);
       setNotes(updated.notes);

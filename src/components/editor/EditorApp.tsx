@@ -175,8 +175,7 @@ export function EditorApp() {
   /** Puts the carried part where it was dropped (or takes it off over the palette). */
   const drop = () => {
     const { carrying: c, hover, overPalette } = carry.ui.getState();
-    carry.starting = false;
-    carry.ui.setState({ carrying: null, hover: null, overPalette: false });
+    carry.end();
     if (!c) return;
     const s = store.getState();
     if (overPalette) {
@@ -197,11 +196,8 @@ export function EditorApp() {
     return new Promise<boolean>((resolve) => setTimeout(() => resolve(false), 0));
   };
 
-  const onDragEnd = (_e: DragEndEvent) => {
-    // Made in cancelDrop; this only makes sure nothing is left marked as carried.
-    carry.starting = false;
-    if (carry.ui.getState().carrying) carry.ui.setState({ carrying: null, hover: null, overPalette: false });
-  };
+  // The drop was made in cancelDrop; this only makes sure nothing is left marked as carried.
+  const onDragEnd = (_e: DragEndEvent) => carry.end();
 
   return (
     <div ref={root} className="cage-editor flex flex-col gap-3" data-testid="cage-editor">
@@ -227,10 +223,7 @@ export function EditorApp() {
           onDragStart={onDragStart}
           onDragMove={onDragMove}
           onDragEnd={onDragEnd}
-          onDragCancel={() => {
-            carry.starting = false;
-            carry.ui.setState({ carrying: null, hover: null, overPalette: false });
-          }}
+          onDragCancel={() => carry.end()}
           accessibility={{ announcements, screenReaderInstructions: { draggable: INSTRUCTIONS } }}
         >
           <CarryHandle carry={carry} disabled={!canEdit} />

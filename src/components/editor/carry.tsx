@@ -45,6 +45,8 @@ export interface Carry {
   starting: boolean;
   /** Start carrying `part` (from `from`, or the palette) with this pointer or key event on `node`. */
   begin: (e: StartEvent, part: CatalogPart, from: Place | undefined, node: Element) => void;
+  /** Nothing is carried any more (dropped, put back, or tidied after a drop). */
+  end: () => void;
 }
 
 export function createCarry(): Carry {
@@ -53,6 +55,11 @@ export function createCarry(): Carry {
     ui: createStore<CarryUi>()(() => ({ carrying: null, hover: null, overPalette: false, pointed: null })),
     starting: false,
     begin: () => {},
+    end() {
+      this.starting = false;
+      const { carrying, hover, overPalette } = this.ui.getState();
+      if (carrying || hover || overPalette) this.ui.setState({ carrying: null, hover: null, overPalette: false });
+    },
   };
 }
 

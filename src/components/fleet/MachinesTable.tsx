@@ -3,7 +3,7 @@
  * fetched with TanStack Query and laid out with TanStack Table. The query lives in the URL, so
  * a reload or the back button keeps the view.
  */
-import { keepPreviousData, QueryClient, QueryClientProvider, useQuery } from '@tanstack/react-query';
+import { keepPreviousData, useQuery } from '@tanstack/react-query';
 import {
   createColumnHelper,
   flexRender,
@@ -13,8 +13,10 @@ import {
   type SortingState,
 } from '@tanstack/react-table';
 import { useEffect, useMemo, useState } from 'react';
-import { getJson } from './api';
+import { getJson } from '../shared/api';
 import { PagerButtons } from '../shared/PagerButtons';
+import { QueryIsland } from '../shared/QueryIsland';
+import { SortableHead } from '../shared/SortableHead';
 
 export interface MachineListItem {
   id: string;
@@ -42,7 +44,6 @@ export interface MachinesTableProps {
   families: { id: string; name: string }[];
 }
 
-const SORTABLE = new Set(['nickname', 'serial', 'family', 'org', 'updatedAt']);
 const DRUM: Record<string, string> = { full: 'Full', slim: 'Slim' };
 const VANES: Record<string, string> = { fixed: 'Fixed', manual: 'Manual', powered: 'Powered' };
 const col = createColumnHelper<MachineListItem>();
@@ -201,36 +202,7 @@ function Table({ initial, orgs, families }: MachinesTableProps) {
       <div className="mt-3 overflow-x-auto rounded-lg border border-steel-200 bg-white">
         <table className="w-full text-sm" aria-busy={isFetching} data-testid="machines-table">
           <caption className="sr-only">Machines, sortable by the column headers</caption>
-          <thead className="bg-steel-100 text-left">
-            {table.getHeaderGroups().map((hg) => (
-              <tr key={hg.id}>
-                {hg.headers.map((h) => {
-                  const sortable = SORTABLE.has(h.column.id);
-                  const dir = h.column.getIsSorted();
-                  return (
-                    <th
-                      key={h.id}
-                      scope="col"
-                      className="px-3 py-2 font-semibold"
-                      aria-sort={dir === 'asc' ? 'ascending' : dir === 'desc' ? 'descending' : undefined}
-                    >
-                      {sortable ? (
-                        <button type="button" className="inline-flex items-center gap-1 font-semibold hover:underline" onClick={h.column.getToggleSortingHandler()}>
-                          {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden="true" className="text-xs text-ink-muted">
-                            {dir === 'asc' ? '▲' : dir === 'desc' ? '▼' : '↕'}
-                          </span>
-                          <span className="sr-only">{dir ? `, sorted ${dir === 'asc' ? 'ascending' : 'descending'}` : ', sort'}</span>
-                        </button>
-                      ) : (
-                        flexRender(h.column.columnDef.header, h.getContext())
-                      )}
-                    </th>
-                  );
-                })}
-              </tr>
-            ))}
-          </thead>
+          <SortableHead table={table} />
           <tbody>
             {table.getRowModel().rows.map((row) => (
               <tr key={row.id} className="border-t border-steel-100 hover:bg-steel-50">
@@ -287,10 +259,9 @@ function Table({ initial, orgs, families }: MachinesTableProps) {
 }
 
 export default function MachinesTable(props: MachinesTableProps) {
-  const [client] = useState(() => new QueryClient({ defaultOptions: { queries: { staleTime: 10_000, retry: 1 } } }));
   return (
-    <QueryClientProvider client={client}>
+    <QueryIsland staleTime={10_000}>
       <Table {...props} />
-    </QueryClientProvider>
+    </QueryIsland>
   );
 }

@@ -6,7 +6,7 @@
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { countSeverities, suggestSeverity, type ChecklistKind, type ReplacementLine } from '../../lib/domain/inspection';
 import type { UnitSystem } from '../../lib/domain/units';
-import { ApiError, sendJson } from './api';
+import { ApiError, sendJson } from '../shared/api';
 import { LineCard, type LineChange } from './LineCard';
 import { SeverityMark } from './SeverityMark';
 import { SurveyReadings } from './SurveyReadings';

@@ -1,6 +1,7 @@
 /** A line's photos as thumbnails, and the button that takes or picks a new one. */
 import { useId, useState } from 'react';
-import { ApiError, remove, sendPhoto } from './api';
+import { ApiError, sendJson } from '../shared/api';
+import { sendPhoto } from './api';
 import type { PhotoView } from './types';
 
 /** Same limit as the server (which decides); checked here only to spare a phone the upload. */
@@ -44,7 +45,7 @@ export function PhotoStrip({ inspectionId, itemId, label, photos, editable, onCh
   async function drop(photo: PhotoView) {
     setError(null);
     try {
-      await remove(photo.url);
+      await sendJson('DELETE', photo.url);
       onChange(photos.filter((p) => p.id !== photo.id));
     } catch (err) {
       setError(err instanceof ApiError ? err.message : 'The photo could not be removed.');

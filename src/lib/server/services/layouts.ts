@@ -1,6 +1,6 @@
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb } from '../db';
+import { getDb, type Db } from '../db';
 import { families, layouts, layoutVersions, machines, organisations, users } from '../../../db/schema';
 import { cropIdSchema, layoutSchema, type Layout } from '../../domain/schemas';
 import { starterLayout } from '../../domain/demo-catalog';
@@ -135,24 +135,53 @@ export const versionListQuerySchema = z.object({
 });
 export type VersionListQuery = z.infer<typeof versionListQuerySchema>;
 
-/**
- * A layout's versions, newest first: one page of them with the total when `paging` is given
- * (the API), or all of them (the history and compare pages of one layout).
- */
-export async function listVersions(actor: Actor, layoutId: string, paging?: VersionListQuery) {
-  const row = await layoutRowForActor(actor, layoutId);
-  const db = await getDb();
-  const query = db
+/** A layout's versions, newest first (the caller has checked the actor may see the layout). */
+function versionsQuery(layoutId: string, db: Db) {
+  return db
     .select({ id: layoutVersions.id, version: layoutVersions.version, note: layoutVersions.note, createdAt: layoutVersions.createdAt, createdByName: users.name })
     .from(layoutVersions)
     .leftJoin(users, eq(users.id, layoutVersions.createdBy))
-    .where(eq(layoutVersions.layoutId, row.id))
+    .where(eq(layoutVersions.layoutId, layoutId))
     .orderBy(desc(layoutVersions.version));
+}
+
+/**
+ * A layout's versions, newest first: one page of them with the total when `paging` is given
+ * (the API), or all of them.
+ */
+export async function listVersions(actor: Actor, layoutId: string, paging?: VersionListQuery) {
+  const row = await layoutRowForActor(actor, layoutId);
+  const query = versionsQuery(row.id, await getDb());
   if (!paging) return { layout: row, versions: await query };
   const versions = await query.limit(paging.pageSize).offset((paging.page - 1) * paging.pageSize);
   // Versions are 1, 2, … up to the current one: every save and restore adds the next number
   // (guarded by the version it started from) and none is ever removed, so no count is needed.
   return { layout: row, versions, total: row.currentVersion, page: paging.page, pageSize: paging.pageSize };
+}
+
+const layoutPageParams = z.object({ id: z.uuid(), layoutId: z.uuid() });
+
+/**
+ * For the pages under /machines/:id/layouts/:layoutId: the layout (as getLayout gives it, with
+ * every version when asked) when both ids are well formed and it is a layout of that machine
+ * the actor may see; null otherwise, and the page answers 404.
+ */
+export async function layoutOnMachine(actor: Actor, params: Record<string, string | undefined>) {
+  const ids = layoutPageParams.safeParse(params);
+  if (!ids.success) return null;
+  try {
+    const l = await getLayout(actor, ids.data.layoutId);
+    return l.machine.id === ids.data.id ? l : null;
+  } catch (e) {
+    if (e instanceof HttpError && e.status === 404) return null;
+    throw e;
+  }
+}
+
+/** layoutOnMachine with the layout's versions, newest first (no second access check). */
+export async function layoutOnMachineWithVersions(actor: Actor, params: Record<string, string | undefined>) {
+  const l = await layoutOnMachine(actor, params);
+  return l && { ...l, versions: await versionsQuery(l.layout.id, await getDb()) };
 }
 
 export async function getVersion(actor: Actor, layoutId: string, version: number) {
