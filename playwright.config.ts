@@ -13,6 +13,8 @@ export default defineConfig({
   testDir: './e2e',
   outputDir: './test-results',
   fullyParallel: false,
+  // A stray test.only must not shrink the suite in CI.
+  forbidOnly: !!process.env.CI,
   workers: 1,
   retries: 0,
   timeout: 60_000,

@@ -6,6 +6,8 @@ import { fileURLToPath } from 'node:url';
 export default defineConfig({
   resolve: { alias: { '~': fileURLToPath(new URL('./src', import.meta.url)) } },
   test: {
+    // A stray .only fails the run in CI instead of quietly shrinking the suite.
+    allowOnly: !process.env.CI,
     projects: [
       {
         extends: true,

@@ -4,6 +4,8 @@ import { buildOnce, removeDir, startServer } from './server';
 declare module 'vitest' {
   export interface ProvidedContext {
     baseUrl: string;
+    /** The suite server's data directory (in server mode it names its database: server.ts). */
+    dataDir: string;
   }
 }
 
@@ -12,6 +14,7 @@ export default async function setup(project: TestProject) {
   buildOnce();
   const server = await startServer();
   project.provide('baseUrl', server.baseUrl);
+  project.provide('dataDir', server.dataDir);
   return async () => {
     await server.stop();
     if (!process.env.DATABASE_URL) removeDir(server.dataDir);

@@ -46,7 +46,7 @@ export interface RunningServer {
  * server, so a test that starts its own server starts from a fresh store, as it does with the
  * embedded store, and two servers on one data directory share one database.
  */
-async function databaseFor(dataDir: string): Promise<string | undefined> {
+export async function databaseFor(dataDir: string): Promise<string | undefined> {
   const base = process.env.DATABASE_URL;
   if (!base) return undefined;
   const name = 'cw_it_' + createHash('sha1').update(dataDir).digest('hex').slice(0, 16);
