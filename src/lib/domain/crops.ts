@@ -184,7 +184,7 @@ const drafts: Draft[] = [
     suggested: { threshing: 'round-bar', separating: 'wide-wire' },
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only; pulses do not need straight bars (common practice).' },
     tipSpeedMs: { min: 11.9, max: 15.9, source: SRC.manitoba },
-    bushel: { usLb: { value: 60, source: '[mem] 60 lb' }, canadaPerTonne: canada(36.744) },
+    bushel: { usLb: { value: 60, source: `derived from ${SRC.alberta}: 36.7440 bu/t is a 60 lb bushel` }, canadaPerTonne: canada(36.744) },
     publishedLossCount: null,
     startClearanceMm: { value: 25, source: '[mem]' },
     clearanceAdvice: 'Concave as wide as still threshes all pods (NDSU Crop & Pest Report, 2008); lowest rotor speed that threshes.',
