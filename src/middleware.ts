@@ -2,7 +2,7 @@ import { defineMiddleware, sequence } from 'astro:middleware';
 import { sessionUserId } from './lib/server/auth/session';
 import { store } from './lib/server/db';
 import { actorFor } from './lib/server/access';
-import { errorResponse } from './lib/server/http';
+import { errorResponse, HttpError } from './lib/server/http';
 import { DataDirInUseError } from './lib/server/data-dir-lock';
 
 /**
@@ -66,7 +66,23 @@ const identity = defineMiddleware(async (ctx, next) => {
     const nextUrl = encodeURIComponent(path + ctx.url.search);
     return ctx.redirect(`/signin?next=${nextUrl}`, 303);
   }
-  return next();
+  if (isApi) return next();
+  try {
+    return await next();
+  } catch (err) {
+    // A page that lets a refusal through (a form that is not a form, one too large) answers with
+    // its status and message, never a 500; anything else is still a fault.
+    if (err instanceof HttpError && err.status < 500) return errorPage(err.status, err.message);
+    throw err;
+  }
 });
+
+function errorPage(status: number, message: string): Response {
+  const text = message.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+  return new Response(`<!doctype html><html lang="en"><meta charset="utf-8"><title>Cagewright</title><main><h1>That did not work</h1><p>${text}</p><p><a href="/">Back to the start</a></p></main></html>`, {
+    status,
+    headers: { 'content-type': 'text/html; charset=utf-8', 'cache-control': 'no-store' },
+  });
+}
 
 export const onRequest = sequence(securityHeaders, identity);

@@ -128,4 +128,20 @@ describe('page role matrix', () => {
     }
     expect(problems).toEqual([]);
   }, 120_000);
+
+  it('never answers a POST that is not a form with a 5xx, on any page, for any role', async () => {
+    const problems: string[] = [];
+    for (const page of pages) {
+      const row = PAGES[page];
+      if (!row) continue;
+      const path = fill(page, row.params?.(f));
+      for (const role of ROLES) {
+        for (const [type, body] of [['application/json', '{"action":"save"}'], ['text/plain', 'action=save']] as const) {
+          const res = await clients.own[role].fetch(path, { method: 'POST', headers: { 'content-type': type }, body });
+          if (res.status >= 500) problems.push(`${path} as ${role}, ${type}: ${res.status}`);
+        }
+      }
+    }
+    expect(problems).toEqual([]);
+  }, 120_000);
 });

@@ -17,6 +17,18 @@ export class HttpError extends Error {
 
 export const notFound = (what = 'Not found', field?: string) => new HttpError(404, what, field);
 
+/**
+ * For `.catch(...)` on a lookup: a 404 from it becomes the error `make` builds (a missing version
+ * named as a bad field, say); anything else (a database outage) is passed on untouched, so it is
+ * logged and answered as a 500 instead of passing for "not found".
+ */
+export function whenNotFound(make: () => Error) {
+  return (err: unknown): never => {
+    if (err instanceof HttpError && err.status === 404) throw make();
+    throw err;
+  };
+}
+
 export function json(data: unknown, status = 200, headers: Record<string, string> = {}): Response {
   return new Response(JSON.stringify(data), {
     status,

@@ -6,7 +6,7 @@ import { checkLayout } from '../../domain/rules';
 import { layoutSchema, type Layout } from '../../domain/schemas';
 import type { Actor } from '../access';
 import { audit } from '../audit';
-import { HttpError } from '../http';
+import { HttpError, whenNotFound } from '../http';
 import { checkStateless } from './check';
 import { catalogForFamily, machineForActor } from './machines';
 import { versionOf } from './layouts';
@@ -49,9 +49,9 @@ export async function putInstalled(actor: Actor, machineId: string, input: z.inf
     if (!l || l.machineId !== ctx.machine.id)
       throw new HttpError(400, 'fromLayout.layoutId: not a layout of this machine', 'fromLayout.layoutId');
     layout = (
-      await versionOf(l.id, input.fromLayout.version).catch(() => {
-        throw new HttpError(400, `fromLayout.version: this layout has no version ${input.fromLayout!.version}`, 'fromLayout.version');
-      })
+      await versionOf(l.id, input.fromLayout.version).catch(
+        whenNotFound(() => new HttpError(400, `fromLayout.version: this layout has no version ${input.fromLayout!.version}`, 'fromLayout.version')),
+      )
     ).body;
     source = { fromLayout: l.id, version: input.fromLayout.version };
   } else {

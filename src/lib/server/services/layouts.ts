@@ -8,7 +8,7 @@ import { checkLayout } from '../../domain/rules';
 import { diffLayouts } from '../../domain/diff';
 import type { Actor } from '../access';
 import { audit } from '../audit';
-import { HttpError, notFound } from '../http';
+import { HttpError, notFound, whenNotFound } from '../http';
 import { catalogForFamily, machineForActor } from './machines';
 
 /** Who may change layouts. Trainers read them (for class) but do not change customers' plans. */
@@ -290,9 +290,9 @@ export const restoreSchema = z.object({
  */
 export async function restoreVersion(actor: Actor, layoutId: string, input: z.infer<typeof restoreSchema>) {
   const row = await layoutRowForActor(actor, layoutId);
-  const old = await versionOf(row.id, input.version).catch(() => {
-    throw new HttpError(400, `version: this layout has no version ${input.version}`, 'version');
-  });
+  const old = await versionOf(row.id, input.version).catch(
+    whenNotFound(() => new HttpError(400, `version: this layout has no version ${input.version}`, 'version')),
+  );
   if (input.version === row.currentVersion) {
     throw new HttpError(400, `version: version ${input.version} is already the current one`, 'version');
   }
@@ -322,12 +322,10 @@ export const copySchema = z.object({
  */
 export async function copyLayout(actor: Actor, layoutId: string, input: z.infer<typeof copySchema>) {
   const row = await layoutRowForActor(actor, layoutId);
-  const source = await versionOf(row.id, input.version ?? row.currentVersion).catch(() => {
-    throw new HttpError(400, `version: this layout has no version ${input.version}`, 'version');
-  });
-  const target = await machineForActor(actor, input.machineId).catch(() => {
-    throw notFound('Machine not found', 'machineId');
-  });
+  const source = await versionOf(row.id, input.version ?? row.currentVersion).catch(
+    whenNotFound(() => new HttpError(400, `version: this layout has no version ${input.version}`, 'version')),
+  );
+  const target = await machineForActor(actor, input.machineId).catch(whenNotFound(() => notFound('Machine not found', 'machineId')));
   if (target.machine.familyId !== source.body.familyId) {
     throw new HttpError(
       400,
@@ -374,12 +372,8 @@ export async function copyLayout(actor: Actor, layoutId: string, input: z.infer<
 export async function compareVersions(actor: Actor, layoutId: string, a: number, b: number) {
   const row = await layoutRowForActor(actor, layoutId);
   const [va, vb, ctx] = await Promise.all([
-    versionOf(row.id, a).catch(() => {
-      throw notFound(`This layout has no version ${a}`, 'a');
-    }),
-    versionOf(row.id, b).catch(() => {
-      throw notFound(`This layout has no version ${b}`, 'b');
-    }),
+    versionOf(row.id, a).catch(whenNotFound(() => notFound(`This layout has no version ${a}`, 'a'))),
+    versionOf(row.id, b).catch(whenNotFound(() => notFound(`This layout has no version ${b}`, 'b'))),
     machineForActor(actor, row.machineId),
   ]);
   const catalog = await catalogForFamily(ctx.family.id);

@@ -27,7 +27,7 @@ import { cropIdSchema, partNumberSchema, type CatalogPart } from '../../domain/s
 import { billOfMaterials, bomLine, planModeSchema } from '../../domain/planner';
 import type { Actor } from '../access';
 import { audit } from '../audit';
-import { HttpError, notFound } from '../http';
+import { HttpError, notFound, whenNotFound } from '../http';
 import { getVersion, getLayout } from './layouts';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
 import { sendMail } from './mail';
@@ -318,12 +318,12 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
     detail = { crop: input.crop, mode: input.mode, fingerprint: plan.fingerprint };
     autoNote = `For the change to ${input.crop.replace('-', ' ')} on ${proposal.machine.nickname}.`;
   } else if (input.from === 'layout') {
-    const { layout, machine, family } = await getLayout(actor, input.layoutId).catch(() => {
-      throw new HttpError(404, 'Layout not found', 'layoutId');
-    });
-    const version = await getVersion(actor, layout.id, input.version ?? layout.currentVersion).catch(() => {
-      throw new HttpError(400, `version: this layout has no version ${input.version}`, 'version');
-    });
+    const { layout, machine, family } = await getLayout(actor, input.layoutId).catch(
+      whenNotFound(() => new HttpError(404, 'Layout not found', 'layoutId')),
+    );
+    const version = await getVersion(actor, layout.id, input.version ?? layout.currentVersion).catch(
+      whenNotFound(() => new HttpError(400, `version: this layout has no version ${input.version}`, 'version')),
+    );
     const [catalog, installed, shelf] = await Promise.all([catalogForFamily(family.id), installedLayout(machine.id), shelfOf(machine.orgId)]);
     const bom = billOfMaterials(indexCatalog(catalog), version.body, installed?.layout ?? null, shelf);
     if (bom.unknown.length)

@@ -12,7 +12,7 @@ import { checkLayout } from '../../domain/rules';
 import { cropIdSchema, type Layout } from '../../domain/schemas';
 import { planCropChange, planModeSchema, planSummaryWords, type Plan, type PlanOk } from '../../domain/planner';
 import type { Actor } from '../access';
-import { HttpError } from '../http';
+import { HttpError, whenNotFound } from '../http';
 import { createLayout, getLayout, saveVersion } from './layouts';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
 
@@ -124,9 +124,7 @@ export async function acceptPlan(actor: Actor, input: AcceptPlan) {
   }
   const note = input.note?.trim() || planNote(proposal.installed, plan);
   if (input.layoutId) {
-    const { layout } = await getLayout(actor, input.layoutId).catch(() => {
-      throw new HttpError(404, 'Layout not found', 'layoutId');
-    });
+    const { layout } = await getLayout(actor, input.layoutId).catch(whenNotFound(() => new HttpError(404, 'Layout not found', 'layoutId')));
     if (layout.machineId !== proposal.machine.id) throw new HttpError(400, 'layoutId: that layout belongs to another machine', 'layoutId');
     const version = await saveVersion(actor, layout.id, { baseVersion: input.baseVersion!, body: plan.layout, note });
     return { layoutId: layout.id, version: version.version, machineId: proposal.machine.id, created: false, plan };
