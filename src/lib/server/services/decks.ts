@@ -4,7 +4,7 @@
  * organisation (the dealer, for trainers and technicians) and are seen by its staff.
  * Read-only share links for decks use the same token scheme as layout links (sharing.ts).
  */
-import { and, asc, count, desc, eq, inArray, isNotNull, isNull, max, or, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, inArray, isNull, max, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, type Db } from '../db';
 import { deckSlides, decks, layouts, layoutVersions, machines, organisations, shareLinks, users } from '../../../db/schema';
@@ -15,13 +15,12 @@ import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
 import { renderNotes } from '../markdown';
 import { catalogForFamily, familyById } from './machines';
-import { hashToken, newToken } from './sharing';
+import { hashToken, lookUpToken, newToken, statusOf, type ShareStatus } from '../share-links';
 
 /** Who builds, changes and presents decks: the dealer's trainers and technicians. */
 export const DECK_ROLES = ['trainer', 'technician'] as const;
 
 export const MAX_SLIDES = 200;
-const TOKEN_RE = /^[A-Za-z0-9_-]{43}$/;
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
@@ -409,13 +408,7 @@ export async function reorderSlides(actor: Actor, deckId: string, input: z.infer
 // ---------------------------------------------------------------------------------------------
 // Read-only share links
 
-export type DeckShareStatus = 'active' | 'revoked' | 'expired';
-
-function statusOf(row: { revokedAt: Date | null; expiresAt: Date | null }, now = new Date()): DeckShareStatus {
-  if (row.revokedAt) return 'revoked';
-  if (row.expiresAt && row.expiresAt.getTime() <= now.getTime()) return 'expired';
-  return 'active';
-}
+export type DeckShareStatus = ShareStatus;
 
 const linkColumns = {
   id: shareLinks.id,
@@ -489,17 +482,10 @@ export type ResolvedDeckShare =
  * expiry: gone (410). The slides show what the deck's own organisation may see. Nothing is written.
  */
 export async function resolveDeckShareToken(token: string): Promise<ResolvedDeckShare> {
-  if (!TOKEN_RE.test(token)) return { status: 'not-found' };
+  const found = await lookUpToken(token, 'deck');
+  if (found.status !== 'ok') return found;
+  const { row } = found;
   const db = await getDb();
-  const [row] = await db
-    .select()
-    .from(shareLinks)
-    .where(and(eq(shareLinks.tokenHash, hashToken(token)), isNotNull(shareLinks.deckId)))
-    .limit(1);
-  if (!row) return { status: 'not-found' };
-  const status = statusOf(row);
-  if (status === 'revoked') return { status: 'not-found' };
-  if (status === 'expired') return { status: 'expired', expiresAt: row.expiresAt! };
   const [deck] = await db.select(deckColumns).from(decks).leftJoin(users, eq(users.id, decks.createdBy)).where(eq(decks.id, row.deckId!)).limit(1);
   if (!deck) return { status: 'not-found' };
   // The deck's organisation and, for a dealer, its customer farms.
@@ -515,7 +501,7 @@ export async function resolveDeckShareToken(token: string): Promise<ResolvedDeck
 // Choices for the deck editor
 
 /** The current version of every layout on the machines the actor may see, to put on a slide. */
-export async function layoutChoices(actor: Actor) {
+export async function slideLayoutChoices(actor: Actor) {
   const db = await getDb();
   const rows = await db
     .select({

@@ -613,7 +613,7 @@ export async function advancePartsRequest(actor: Actor, id: string, status: Part
 }
 
 /** The saved layouts a request can be made from: the current version of each, newest first. */
-export async function layoutChoices(actor: Actor) {
+export async function requestLayoutChoices(actor: Actor) {
   const db = await getDb();
   return db
     .select({

@@ -1,4 +1,3 @@
-import { createHash, randomBytes } from 'node:crypto';
 import { and, desc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../db';
@@ -10,16 +9,11 @@ import type { Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
 import { familyById } from './machines';
+import { hashToken, lookUpToken, newToken, statusOf } from '../share-links';
 
 /** Who may share and revoke: the same people who may change layouts. */
 export const SHARE_WRITERS = ['operator', 'technician', 'admin'] as const;
 
-/** 32 random bytes (256 bits), base64url: 43 characters. Only its SHA-256 is stored. */
-const TOKEN_BYTES = 32;
-const TOKEN_RE = /^[A-Za-z0-9_-]{43}$/;
-
-export const newToken = () => randomBytes(TOKEN_BYTES).toString('base64url');
-export const hashToken = (token: string) => createHash('sha256').update(token, 'utf8').digest('hex');
 
 export const createShareSchema = z.object({
   layoutId: z.uuid(),
@@ -38,13 +32,7 @@ export const shareListQuerySchema = z.object({
   status: z.enum(['active', 'all']).default('all'),
 });
 
-export type ShareStatus = 'active' | 'revoked' | 'expired';
-
-function statusOf(row: { revokedAt: Date | null; expiresAt: Date | null }, now = new Date()): ShareStatus {
-  if (row.revokedAt) return 'revoked';
-  if (row.expiresAt && row.expiresAt.getTime() <= now.getTime()) return 'expired';
-  return 'active';
-}
+export type { ShareStatus } from '../share-links';
 
 export async function createShareLink(actor: Actor, input: z.infer<typeof createShareSchema>) {
   const db = await getDb();
@@ -144,14 +132,10 @@ export type ResolvedShare =
  * a link past its expiry is gone (410). Nothing is written on the way.
  */
 export async function resolveShareToken(token: string): Promise<ResolvedShare> {
-  if (!TOKEN_RE.test(token)) return { status: 'not-found' };
-  const db = await getDb();
-  const [row] = await db.select().from(shareLinks).where(eq(shareLinks.tokenHash, hashToken(token))).limit(1);
-  if (!row || !row.layoutVersionId) return { status: 'not-found' };
-  const status = statusOf(row);
-  if (status === 'revoked') return { status: 'not-found' };
-  if (status === 'expired') return { status: 'expired', expiresAt: row.expiresAt! };
-  const view = await shareView(row.layoutVersionId);
+  const found = await lookUpToken(token, 'layout');
+  if (found.status !== 'ok') return found;
+  const { row } = found;
+  const view = await shareView(row.layoutVersionId!);
   if (!view) return { status: 'not-found' };
   return { status: 'ok', view: { ...view, link: { label: row.label, expiresAt: row.expiresAt, createdAt: row.createdAt } } };
 }
