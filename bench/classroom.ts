@@ -7,7 +7,8 @@
 import { compareLayouts } from '../src/lib/classroom/compare';
 import { cropPathModel, kernelFate, seeded } from '../src/lib/classroom/crop-path';
 import { cropIds } from '../src/lib/domain/crops';
-import { demoCatalog, demoFamilies, starterLayout } from '../src/lib/domain/demo-catalog';
+import { demoCatalog, demoFamilies } from '../src/lib/domain/demo-catalog';
+import { starterLayout } from '../src/lib/domain/starter';
 import { indexCatalog } from '../src/lib/domain/catalog';
 import { renderNotes } from '../src/lib/server/markdown';
 

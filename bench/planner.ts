@@ -9,7 +9,8 @@
 import { performance } from 'node:perf_hooks';
 import { cropIds } from '../src/lib/domain/crops';
 import { indexCatalog } from '../src/lib/domain/catalog';
-import { demoCatalog, demoFamilies, starterLayout } from '../src/lib/domain/demo-catalog';
+import { demoCatalog, demoFamilies } from '../src/lib/domain/demo-catalog';
+import { starterLayout } from '../src/lib/domain/starter';
 import { planCropChange, type PlanMode } from '../src/lib/domain/planner';
 import type { CropId, Layout, MachineFamily } from '../src/lib/domain/schemas';
 

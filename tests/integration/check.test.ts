@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { Client, signedIn } from './client';
-import { demoCatalog, demoFamilies, starterLayout } from '../../src/lib/domain/demo-catalog';
+import { demoCatalog, demoFamilies } from '../../src/lib/domain/demo-catalog';
+import { starterLayout } from '../../src/lib/domain/starter';
 
 const family = demoFamilies.find((f) => f.cageKind === 'modular')!;
 const valid = starterLayout(family, 'wheat', demoCatalog);

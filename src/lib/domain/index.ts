@@ -7,4 +7,5 @@ export * from './catalog';
 export * from './compute';
 export { checkLayout, checkPlacement, placePart, hasBlockingFindings, countBySeverity } from './rules';
 export * from './demo-catalog';
+export * from './starter';
 export * from './check-input';

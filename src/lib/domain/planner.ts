@@ -9,7 +9,7 @@
 import { z } from 'zod';
 import { asCatalogIndex, type CatalogIndex } from './catalog';
 import { cropPrograms, type CropProgram } from './crops';
-import { starterLayout } from './demo-catalog';
+import { starterLayout } from './starter';
 import { placeKey } from './places';
 import { checkLayout } from './rules';
 import type { CatalogPart, CropId, DrumId, Finding, Layout, MachineFamily, VaneControl } from './schemas';

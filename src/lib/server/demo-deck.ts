@@ -6,7 +6,8 @@
 import { eq, inArray } from 'drizzle-orm';
 import type { Db } from './db';
 import * as t from '../../db/schema';
-import { demoCatalog, demoFamilies, starterLayout } from '../domain/demo-catalog';
+import { demoCatalog, demoFamilies } from '../domain/demo-catalog';
+import { starterLayout } from '../domain/starter';
 import type { Layout } from '../domain/schemas';
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];

@@ -1,6 +1,7 @@
 import type { Db } from './db';
 import * as t from '../../db/schema';
-import { demoCatalog, demoFamilies, starterLayout } from '../domain/demo-catalog';
+import { demoCatalog, demoFamilies } from '../domain/demo-catalog';
+import { starterLayout } from '../domain/starter';
 import type { CropId, DrumId, Layout, MachineFamily, VaneControl } from '../domain/schemas';
 import { hashPassword } from './auth/passwords';
 import { seedDemoDeck } from './demo-deck';

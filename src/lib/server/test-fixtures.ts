@@ -1,6 +1,7 @@
 import type { Db } from './db';
 import * as t from '../../db/schema';
-import { demoCatalog, demoFamilies, starterLayout } from '../domain/demo-catalog';
+import { demoCatalog, demoFamilies } from '../domain/demo-catalog';
+import { starterLayout } from '../domain/starter';
 import { hashPassword } from './auth/passwords';
 import { DEMO_PASSWORD } from './seed';
 

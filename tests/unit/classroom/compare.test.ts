@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { compareLayouts, settingValueWords } from '../../../src/lib/classroom/compare';
-import { demoCatalog, starterLayout, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
+import { demoCatalog, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
+import { starterLayout } from '../../../src/lib/domain/starter';
 import { placeKey } from '../../../src/lib/domain/places';
 
 const side = (layout: ReturnType<typeof starterLayout>) => ({ family: tamarackM4, catalog: demoCatalog, layout });

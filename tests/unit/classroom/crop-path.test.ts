@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { cropPathModel, kernelFate, seeded, TURNS_PER_POSITION } from '../../../src/lib/classroom/crop-path';
-import { demoCatalog, starterLayout, tamarackM4, sedgeS6 } from '../../../src/lib/domain/demo-catalog';
+import { demoCatalog, tamarackM4, sedgeS6 } from '../../../src/lib/domain/demo-catalog';
+import { starterLayout } from '../../../src/lib/domain/starter';
 import type { Layout } from '../../../src/lib/domain/schemas';
 
 // The crop-path view is a teaching illustration on Cagewright's own scale (no published

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { readFileSync } from 'node:fs';
-import { demoCatalog, sedgeS6, starterLayout, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
+import { demoCatalog, sedgeS6, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
+import { starterLayout } from '../../../src/lib/domain/starter';
 import {
   describeDifference,
   describePlace,

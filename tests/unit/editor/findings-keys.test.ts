@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { findingKeys } from '../../../src/components/editor/FindingsList';
-import { demoCatalog, starterLayout, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
+import { demoCatalog, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
+import { starterLayout } from '../../../src/lib/domain/starter';
 import { checkLayout } from '../../../src/lib/domain/rules';
 import type { Finding, Layout } from '../../../src/lib/domain/schemas';
 

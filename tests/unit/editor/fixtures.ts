@@ -1,4 +1,5 @@
-import { demoCatalog, sedgeS6, starterLayout, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
+import { demoCatalog, sedgeS6, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
+import { starterLayout } from '../../../src/lib/domain/starter';
 import type { CatalogPart, Layout, MachineFamily } from '../../../src/lib/domain/schemas';
 import type { EditorApi, SavedVersion } from '../../../src/components/editor/store/api';
 import type { EditorInit } from '../../../src/components/editor/store/types';

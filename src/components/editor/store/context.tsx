@@ -23,10 +23,6 @@ export function useEditor<T>(selector: (s: EditorState) => T): T {
   return useStore(useEditorStoreApi(), selector);
 }
 
-export function useEditorHistory<T>(selector: (s: TemporalState<Tracked>) => T): T {
-  return useStore(useEditorStoreApi().temporal, selector);
-}
-
 /**
  * A selector for what may follow an edit a moment later (toolbar state, the details line, a
  * setting's own findings): it re-renders in a transition after the edit's own commit, so a drop

@@ -9,7 +9,7 @@ import { catalogParts, deckSlides, decks, layouts, layoutVersions, machines, org
 import { computeSettings, type Settings } from '../../domain/compute';
 import { cropIdSchema, slugSchema, type CatalogPart, type CropId, type Finding, type Layout, type MachineFamily } from '../../domain/schemas';
 import { cropPrograms } from '../../domain/crops';
-import { starterLayout } from '../../domain/demo-catalog';
+import { starterLayout } from '../../domain/starter';
 import { checkLayout } from '../../domain/rules';
 import type { Actor } from '../access';
 import { HttpError, notFound } from '../http';

@@ -9,7 +9,7 @@ import { z } from 'zod';
 import { getDb, type Db } from '../db';
 import { deckSlides, decks, layouts, layoutVersions, machines, organisations, shareLinks, users } from '../../../db/schema';
 import { cropIdSchema, layoutSchema, slugSchema, type Layout } from '../../domain/schemas';
-import { starterLayout } from '../../domain/demo-catalog';
+import { starterLayout } from '../../domain/starter';
 import type { Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';

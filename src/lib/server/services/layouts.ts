@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { getDb, type Db } from '../db';
 import { families, layouts, layoutVersions, machines, organisations, users } from '../../../db/schema';
 import { cropIdSchema, layoutSchema, type Layout } from '../../domain/schemas';
-import { starterLayout } from '../../domain/demo-catalog';
+import { starterLayout } from '../../domain/starter';
 import { checkLayout } from '../../domain/rules';
 import { diffLayouts } from '../../domain/diff';
 import type { Actor } from '../access';

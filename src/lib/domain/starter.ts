@@ -1,0 +1,122 @@
+/**
+ * A starting layout for a family and a crop: what a new layout, a teaching sample and the planner's
+ * target begin from. Domain logic over any catalog (demo or a dealer's), kept out of the demo data.
+ */
+import { cropPrograms } from './crops';
+import { indexFamily } from './catalog';
+import { drumFor } from './compute';
+import { middleRpm, rpmWindow } from './speed';
+import { passageMargin } from './cage-metrics';
+import type {
+  CatalogPart,
+  CropId,
+  DrumId,
+  ElementPart,
+  ElementRole,
+  Layout,
+  MachineFamily,
+  Side,
+  VaneControl,
+  VaneSetting,
+  Zone,
+} from './schemas';
+import { LAYOUT_FORMAT } from './schemas';
+
+const HANDS: readonly Side[] = ['left', 'right'];
+
+export interface StarterOptions {
+  drum?: DrumId;
+  vaneControl?: VaneControl;
+}
+
+function vaneSettingFor(crop: CropId): VaneSetting {
+  const c = cropPrograms[crop];
+  if (c.threshability === 'hard') return 'slow';
+  if (c.fragile) return 'fast';
+  return 'medium';
+}
+
+/**
+ * A layout for `family` in `crop` that the rules pass (advice at most): the crop's suggested
+ * element in each half-position, correctly handed and of the right role, rasp bars on every
+ * rotor place (straight bars across the in-line ones for corn, discharge bars for hemp), rotor
+ * speed in the middle of the crop's window, and a right cover plate for hard-threshing crops.
+ * Falls back to any element of the family that fits and passes the kernel when the suggested
+ * type is missing from the catalog.
+ */
+export function starterLayout(
+  family: MachineFamily,
+  crop: CropId,
+  catalog: readonly CatalogPart[],
+  options: StarterOptions = {},
+): Layout {
+  const c = cropPrograms[crop];
+  const mine = catalog.filter((p) => p.fitGroup === family.fitGroup);
+  const elements = mine.filter((p): p is ElementPart => p.kind === 'element');
+  const roleFor = (zone: Zone): ElementRole[] =>
+    family.cageKind === 'split' ? [zone === 'threshing' ? 'concave' : 'grate'] : ['either'];
+  const pick = (zone: Zone, hand: Side): ElementPart | undefined => {
+    const fits = elements.filter((e) => e.hand === hand && e.zones.includes(zone) && roleFor(zone).includes(e.role));
+    const want = zone === 'threshing' ? c.suggested.threshing : c.suggested.separating;
+    return (
+      fits.find((e) => e.elementType === want) ??
+      fits.find((e) => (passageMargin(e.openingMm, c.kernel) ?? 0) > 0)
+    );
+  };
+
+  const layoutElements: Layout['elements'] = [];
+  for (const p of family.positions)
+    for (const side of HANDS) {
+      const part = pick(p.zone, side);
+      if (part) layoutElements.push({ position: p.index, side, partNumber: part.partNumber });
+    }
+
+  const bar = (kind: string) => mine.find((p) => p.kind === 'rotor-bar' && p.barKind === kind)?.partNumber;
+  const rasp = bar('rasp');
+  const straight = c.rotorBars.straight === 'wanted' ? bar('straight') : undefined;
+  const discharge = c.rotorBars.discharge === 'wanted' ? bar('discharge') : undefined;
+  const fam = indexFamily(family);
+  const rear = family.rearPosition;
+  // Discharge bars: a pair on the first two rows at the rear, and the extra pair one position
+  // ahead on the rows opposite them.
+  const rows = family.rotorBarRows;
+  const rearRows = rows.slice(0, 2).map((r) => r.index);
+  const oppositeRows = rearRows
+    .map((ri) => rows.find((r) => Math.abs(((r.angleDeg - (fam.rowAngle.get(ri) ?? 0) + 360) % 360) - 180) < 1)?.index)
+    .filter((x): x is number => x !== undefined);
+  const rotorBars: Layout['rotorBars'] = [];
+  for (const place of family.rotorBarPlaces) {
+    let partNumber = rasp;
+    if (straight && place.inLine) partNumber = straight;
+    if (discharge && place.position === rear && rearRows.includes(place.row)) partNumber = discharge;
+    if (discharge && place.position === rear - 1 && oppositeRows.length === 2 && oppositeRows.includes(place.row))
+      partNumber = discharge;
+    if (partNumber) rotorBars.push({ row: place.row, position: place.position, partNumber });
+  }
+
+  const drumId: DrumId =
+    options.drum ?? (family.drumOptions.some((d) => d.id === 'full') ? 'full' : family.drumOptions[0]!.id);
+  const drum = drumFor(family, drumId);
+  const vaneControl = options.vaneControl ?? family.vaneControls[0]!;
+
+  const coverPlates: Layout['coverPlates'] = [];
+  if (c.threshability === 'hard') {
+    const section = family.cageTopSections.find((s) => s.coverPlateSides.includes('right'));
+    const plate = mine.find((p) => p.kind === 'cover-plate' && p.side === 'right');
+    if (section && plate) coverPlates.push({ section: section.index, side: 'right', partNumber: plate.partNumber });
+  }
+
+  return {
+    format: LAYOUT_FORMAT,
+    familyId: family.id,
+    crop,
+    drum: drumId,
+    vaneControl,
+    vaneSetting: vaneSettingFor(crop),
+    rotorRpm: middleRpm(rpmWindow(c, { id: drumId, diameterMm: drum.diameterMm })),
+    clearanceMm: c.startClearanceMm.value,
+    elements: layoutElements,
+    coverPlates,
+    rotorBars,
+  };
+}
