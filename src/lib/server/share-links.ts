@@ -6,7 +6,7 @@ import { shareLinks } from '../../db/schema';
 /**
  * Read-only share links, for layouts and decks alike: the token (32 random bytes, base64url,
  * 43 characters; only its SHA-256 is stored), a link's status, and what a token resolves to.
- * The services for layouts (services/sharing.ts) and decks (services/decks.ts) build on this.
+ * The services for layouts (services/sharing.ts) and decks (services/decks/shares.ts) build on this.
  */
 const TOKEN_BYTES = 32;
 const TOKEN_RE = /^[A-Za-z0-9_-]{43}$/;
