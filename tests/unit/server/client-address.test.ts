@@ -1,5 +1,4 @@
 import { describe, expect, it } from 'vitest';
-// @ts-expect-error plain ESM script without types
 import { clientAddress, trustedProxies } from '../../../scripts/serve-app.mjs';
 
 describe('client address (scripts/serve-app.mjs)', () => {
