@@ -89,11 +89,14 @@ const signInContext = defineMiddleware(async (ctx, next) => {
   const location = res.headers.get('location');
   const until = location ? /[?&]code=throttled-(\d+)/.exec(location) : null;
   if (until) {
-    const seconds = Math.max(1, Number(until[1]) - Math.floor(Date.now() / 1000));
+    const seconds = String(Math.max(1, Number(until[1]) - Math.floor(Date.now() / 1000)));
     try {
-      res.headers.set('retry-after', String(seconds));
+      res.headers.set('retry-after', seconds);
     } catch {
-      // immutable headers: the page still says when to try again
+      // A redirect made by Response.redirect has immutable headers: copy it.
+      const copy = new Response(res.body, res);
+      copy.headers.set('retry-after', seconds);
+      return copy;
     }
   }
   return res;
