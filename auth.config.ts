@@ -1,7 +1,7 @@
 import Credentials from '@auth/core/providers/credentials';
 import { defineConfig } from 'auth-astro';
 import { verifyCredentials } from './src/lib/server/auth/credentials';
-import { endSession, SESSION_MAX_AGE_S } from './src/lib/server/auth/sessions';
+import { endSession, sessionIsOpen, SESSION_MAX_AGE_S } from './src/lib/server/auth/sessions';
 import { forgetActors } from './src/lib/server/access';
 import { getDb } from './src/lib/server/db';
 
@@ -36,13 +36,17 @@ export default defineConfig({
     },
   },
   callbacks: {
-    jwt({ token, user }) {
+    async jwt({ token, user }) {
       if (user?.id) {
         token.uid = user.id;
         token.role = (user as { role?: string }).role;
         // The session row opened at sign-in (auth/sessions.ts); the middleware checks it.
         token.sid = (user as { sid?: string }).sid;
+        return token;
       }
+      // Auth.js's own session endpoint: an ended session answers as signed out (and the
+      // cookie is cleared), as our middleware does for every other route.
+      if (typeof token.sid !== 'string' || !(await sessionIsOpen(await getDb(), token.sid))) return null;
       return token;
     },
     session({ session, token }) {

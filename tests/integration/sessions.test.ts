@@ -15,6 +15,9 @@ async function as(email: string, password = DEMO_PASSWORD) {
 
 async function expectRefused(c: Client) {
   expect((await c.get('/api/me')).status).toBe(401);
+  // Auth.js's own session endpoint agrees: no user.
+  const session = await c.copy().get('/api/auth/session');
+  expect(session.body?.user).toBeUndefined();
   const page = await c.fetch('/machines');
   expect(page.status).toBe(303);
   expect(page.headers.get('location')).toBe('/signin?next=%2Fmachines');
@@ -102,5 +105,37 @@ describe('password change', () => {
     // Put the fixture's password back for the other suites.
     expect((await fresh.post('/api/me/password', { currentPassword: newPassword, newPassword: DEMO_PASSWORD })).status).toBe(200);
     await as(email);
+  });
+});
+
+describe('password page', () => {
+  const post = (c: Client, fields: Record<string, string>) =>
+    c.fetch('/account/password', {
+      method: 'POST',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      body: new URLSearchParams(fields).toString(),
+    });
+
+  it('works without JavaScript: names the problem, then signs out everywhere on success', async () => {
+    const email = OTHER.operator;
+    const c = await as(email);
+    const elsewhere = await as(email);
+    expect((await c.fetch('/account/password')).status).toBe(200);
+    const wrong = await post(c, { currentPassword: 'nope', newPassword: 'june-fenwick-new-2026', repeatPassword: 'june-fenwick-new-2026' });
+    expect(wrong.status).toBe(400);
+    expect(await wrong.text()).toMatch(/Current password: that is not your current password/);
+    const mismatch = await post(c, { currentPassword: DEMO_PASSWORD, newPassword: 'june-fenwick-new-2026', repeatPassword: 'something-else-2026' });
+    expect(mismatch.status).toBe(400);
+    expect(await mismatch.text()).toMatch(/New password again: type the same new password twice/);
+    expect((await elsewhere.get('/api/me')).status).toBe(200);
+
+    const ok = await post(c, { currentPassword: DEMO_PASSWORD, newPassword: 'june-fenwick-new-2026', repeatPassword: 'june-fenwick-new-2026' });
+    expect(ok.status).toBe(303);
+    expect(ok.headers.get('location')).toBe('/signin?notice=password-changed');
+    expect(c.hasSession()).toBe(false);
+    expect(await (await c.fetch('/signin?notice=password-changed')).text()).toMatch(/signed out everywhere/);
+    await expectRefused(elsewhere);
+    const fresh = await as(email, 'june-fenwick-new-2026');
+    expect((await fresh.post('/api/me/password', { currentPassword: 'june-fenwick-new-2026', newPassword: DEMO_PASSWORD })).status).toBe(200);
   });
 });

@@ -18,6 +18,12 @@ export async function startSession(db: Exec, userId: string): Promise<string> {
   return id;
 }
 
+/** Whether a session is open: not ended, not expired. */
+export async function sessionIsOpen(db: Exec, sessionId: string): Promise<boolean> {
+  const res = await db.execute(sql`select 1 from sessions where id = ${sessionId} and ended_at is null and expires_at > now()`);
+  return res.rows.length > 0;
+}
+
 /** Ends one session (sign-out). Returns whether it was still open. */
 export async function endSession(db: Exec, sessionId: string, reason = 'signed-out'): Promise<boolean> {
   const res = await db.execute(sql`
