@@ -1,13 +1,16 @@
 import Credentials from '@auth/core/providers/credentials';
 import { defineConfig } from 'auth-astro';
 import { verifyCredentials } from './src/lib/server/auth/credentials';
+import { endSession, sessionIsOpen, SESSION_MAX_AGE_S } from './src/lib/server/auth/sessions';
+import { forgetActors } from './src/lib/server/access';
+import { getDb } from './src/lib/server/db';
 
 // The secret is read at run time (scripts/start.mjs generates one into the data directory
 // on first start), not baked into the build.
 export default defineConfig({
   secret: process.env.AUTH_SECRET,
   trustHost: true,
-  session: { strategy: 'jwt', maxAge: 12 * 60 * 60 },
+  session: { strategy: 'jwt', maxAge: SESSION_MAX_AGE_S },
   // A wrong password is an everyday event, not a server error: keep it out of the error log.
   logger: {
     error(error) {
@@ -23,12 +26,27 @@ export default defineConfig({
       authorize: (credentials) => verifyCredentials(credentials),
     }),
   ],
+  events: {
+    // Sign-out ends the session row, so the old cookie is refused by every server process.
+    async signOut(message) {
+      const sid = 'token' in message ? message.token?.sid : undefined;
+      if (typeof sid !== 'string') return;
+      await endSession(await getDb(), sid);
+      forgetActors();
+    },
+  },
   callbacks: {
-    jwt({ token, user }) {
+    async jwt({ token, user }) {
       if (user?.id) {
         token.uid = user.id;
         token.role = (user as { role?: string }).role;
+        // The session row opened at sign-in (auth/sessions.ts); the middleware checks it.
+        token.sid = (user as { sid?: string }).sid;
+        return token;
       }
+      // Auth.js's own session endpoint: an ended session answers as signed out (and the
+      // cookie is cleared), as our middleware does for every other route.
+      if (typeof token.sid !== 'string' || !(await sessionIsOpen(await getDb(), token.sid))) return null;
       return token;
     },
     session({ session, token }) {

@@ -53,8 +53,9 @@ test('signed-out visitors are sent to sign in, then back where they were going',
   await expect(page).toHaveURL(/\/machines$/);
 });
 
-test('sign out ends the session', async ({ page, context }) => {
+test('sign out ends the session, also for a copy of the old cookie', async ({ page, context, browser }) => {
   await signIn(page, 'operator');
+  const kept = await context.cookies();
   await page.getByRole('link', { name: 'Sign out' }).click();
   await page.getByRole('button', { name: 'Sign out' }).click();
   await expect(page).toHaveURL(/\/signin/);
@@ -62,4 +63,25 @@ test('sign out ends the session', async ({ page, context }) => {
   expect(cookies.some((c) => c.name.includes('session-token'))).toBe(false);
   await page.goto('/');
   await expect(page).toHaveURL(/\/signin/);
+  // Someone who kept the cookie from before is signed out too: the server ended the session.
+  const other = await browser.newContext();
+  await other.addCookies(kept);
+  const again = await other.newPage();
+  await again.goto('/machines');
+  await expect(again).toHaveURL(/\/signin\?next=%2Fmachines/);
+  await other.close();
+});
+
+test('too many failed attempts: the page says when to try again', async ({ page }) => {
+  const email = 'nobody-here@e2e.example'; // an address without an account, so no real user waits
+  for (let i = 0; i < 6; i++) {
+    await page.goto('/signin');
+    await page.getByLabel('E-mail address').fill(email);
+    await page.getByLabel('Password').fill(`guess-${i}`);
+    await page.getByRole('button', { name: 'Sign in' }).click();
+    await expect(page.getByRole('alert')).toBeVisible();
+  }
+  await expect(page.getByRole('alert')).toContainText(/You can try again in \d+ seconds/);
+  await expect(page.getByRole('alert')).toContainText('not locked');
+  await shot(page, 'signin-throttled');
 });

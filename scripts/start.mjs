@@ -6,6 +6,7 @@ import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
 import { resolve, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
+import { serveApp } from './serve-app.mjs';
 
 const dataDir = resolve(process.env.CAGEWRIGHT_DATA_DIR ?? 'data');
 process.env.CAGEWRIGHT_DATA_DIR = dataDir;
@@ -43,7 +44,11 @@ const started = Date.now();
 // The fakes start while the server loads; the app reads their addresses lazily, and the store
 // (whose demo seed stores photos) opens only at the health check below, after both are up.
 globalThis.__cagewrightBootReady = Promise.all(fakes);
-await Promise.all([import(pathToFileURL(entry).href), globalThis.__cagewrightBootReady]);
+// Astro's own standalone server would take the client address from X-Forwarded-For as sent:
+// serve its handler through ours instead, which decides the address (scripts/serve-app.mjs).
+process.env.ASTRO_NODE_AUTOSTART = 'disabled';
+const [app] = await Promise.all([import(pathToFileURL(entry).href), globalThis.__cagewrightBootReady]);
+await serveApp(app.handler, { host: process.env.HOST, port: process.env.PORT });
 
 const base = `http://${process.env.HOST}:${process.env.PORT}`;
 for (let attempt = 0; ; attempt++) {

@@ -1,5 +1,6 @@
 import { defineMiddleware, sequence } from 'astro:middleware';
-import { sessionUserId } from './lib/server/auth/session';
+import { sessionRef } from './lib/server/auth/session';
+import { withClientAddress } from './lib/server/auth/client-address';
 import { store } from './lib/server/db';
 import { actorFor } from './lib/server/access';
 import { errorResponse, HttpError } from './lib/server/http';
@@ -54,8 +55,8 @@ const identity = defineMiddleware(async (ctx, next) => {
   const isApi = path.startsWith('/api/');
   try {
     if (!path.startsWith('/api/auth/') && !path.startsWith('/_astro/')) {
-      const uid = await sessionUserId(ctx.request);
-      if (uid) ctx.locals.actor = await actorFor(await store(), uid);
+      const ref = await sessionRef(ctx.request);
+      if (ref) ctx.locals.actor = await actorFor(await store(), ref.uid, ref.sid);
     }
   } catch (err) {
     if (err instanceof DataDirInUseError) return errorResponse(503, err.message);
@@ -85,4 +86,36 @@ function errorPage(status: number, message: string): Response {
   });
 }
 
-export const onRequest = sequence(securityHeaders, identity);
+function clientAddressOf(ctx: { clientAddress: string }): string | null {
+  try {
+    return ctx.clientAddress; // decided by scripts/start.mjs (see auth/client-address.ts)
+  } catch {
+    return null;
+  }
+}
+
+/**
+ * Auth.js's routes run knowing the client address (the sign-in throttle counts by it). A
+ * throttled sign-in redirects to /signin?code=throttled-<unix seconds>; the same time also goes
+ * out as Retry-After for clients that read headers.
+ */
+const signInContext = defineMiddleware(async (ctx, next) => {
+  if (!ctx.url.pathname.startsWith('/api/auth/')) return next();
+  const res = await withClientAddress(clientAddressOf(ctx), next);
+  const location = res.headers.get('location');
+  const until = location ? /[?&]code=throttled-(\d+)/.exec(location) : null;
+  if (until) {
+    const seconds = String(Math.max(1, Number(until[1]) - Math.floor(Date.now() / 1000)));
+    try {
+      res.headers.set('retry-after', seconds);
+    } catch {
+      // A redirect made by Response.redirect has immutable headers: copy it.
+      const copy = new Response(res.body, res);
+      copy.headers.set('retry-after', seconds);
+      return copy;
+    }
+  }
+  return res;
+});
+
+export const onRequest = sequence(securityHeaders, identity, signInContext);

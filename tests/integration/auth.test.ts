@@ -69,13 +69,16 @@ describe('sign-in and roles', () => {
     }
   });
 
-  it('throttles repeated wrong passwords for one address', async () => {
+  it('throttles repeated wrong passwords for one account, and says when to try again', async () => {
     const email = DEMO.operator2;
     for (let i = 0; i < 5; i++) await new Client().signIn(email, `wrong-${i}`);
     const c = new Client();
     const res = await c.signIn(email); // the right password, but too soon
     expect(c.hasSession()).toBe(false);
-    expect(new URL(res.headers.get('location')!, 'http://x').searchParams.get('code')).toBe('throttled');
+    const where = new URL(res.headers.get('location')!, 'http://x');
+    expect(where.searchParams.get('code')).toMatch(/^throttled-\d+$/);
+    const page = await (await c.fetch(where.pathname + where.search)).text();
+    expect(page).toMatch(/You can try again in (\d+ seconds?|about \d+ minutes?)/);
   });
 
   it('validates preference updates and names the field', async () => {

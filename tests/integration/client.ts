@@ -23,6 +23,13 @@ export class Client {
     }
   }
 
+  /** Another client holding the same cookies (an old cookie kept by someone), optionally for another server. */
+  copy(baseUrl = this.baseUrl): Client {
+    const c = new Client(baseUrl);
+    c.cookies = new Map(this.cookies);
+    return c;
+  }
+
   hasSession() {
     return [...this.cookies.keys()].some((k) => k.includes('session-token'));
   }
@@ -58,14 +65,25 @@ export class Client {
   patch = <T = any>(path: string, body?: unknown) => this.json<T>('PATCH', path, body);
   delete = <T = any>(path: string) => this.json<T>('DELETE', path);
 
+  /** Signs out through Auth.js's sign-out endpoint, as our /signout form does. */
+  async signOut(): Promise<Response> {
+    const { csrfToken } = (await (await this.fetch('/api/auth/csrf')).json()) as { csrfToken: string };
+    const form = new URLSearchParams({ csrfToken, callbackUrl: '/signin' });
+    return this.fetch('/api/auth/signout', {
+      method: 'POST',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      body: form.toString(),
+    });
+  }
+
   /** Signs in through Auth.js's credentials callback, as our sign-in form does. */
-  async signIn(email: string, password = DEMO_PASSWORD): Promise<Response> {
+  async signIn(email: string, password = DEMO_PASSWORD, headers: Record<string, string> = {}): Promise<Response> {
     const csrfRes = await this.fetch('/api/auth/csrf');
     const { csrfToken } = (await csrfRes.json()) as { csrfToken: string };
     const form = new URLSearchParams({ csrfToken, email, password, callbackUrl: '/' });
     return this.fetch('/api/auth/callback/credentials', {
       method: 'POST',
-      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      headers: { 'content-type': 'application/x-www-form-urlencoded', ...headers },
       body: form.toString(),
     });
   }

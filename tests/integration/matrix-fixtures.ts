@@ -27,6 +27,8 @@ export interface Fixtures {
   itemId: string;
   photoId: string;
   partsRequestId: string;
+  /** A member of the demo dealer (the trainer): their id, that dealer's id and their role there. */
+  member: { userId: string; orgId: string; role: string };
   /** A tiny valid PNG for upload routes. */
   png: Uint8Array;
 }
@@ -91,5 +93,9 @@ export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures>
   expect(pr.status, JSON.stringify(pr.body)).toBe(201);
   const partsRequestId: string = pr.body.id ?? pr.body.request?.id;
 
-  return { machineId, familyId, family: family.family?.spec ?? family.family ?? family, part: part.part?.spec ?? part.part ?? part, layoutId, layoutBody, partNumber, shareLinkId, deckId, slideId, inspectionId, itemId, photoId, partsRequestId, png: PNG_1PX };
+  const people = (await own.admin.get('/api/admin/users')).body.users as { id: string; email: string; orgId: string; role: string }[];
+  const trainer = people.find((p) => p.email === DEMO.trainer)!;
+  const member = { userId: trainer.id, orgId: trainer.orgId, role: trainer.role };
+
+  return { member, machineId, familyId, family: family.family?.spec ?? family.family ?? family, part: part.part?.spec ?? part.part ?? part, layoutId, layoutBody, partNumber, shareLinkId, deckId, slideId, inspectionId, itemId, photoId, partsRequestId, png: PNG_1PX };
 }

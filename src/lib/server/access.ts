@@ -18,8 +18,12 @@ export interface Actor {
   homeOrgKind: 'farm' | 'dealer';
 }
 
-/** One round trip: the user, their memberships and, for dealer staff, the dealer's farms. */
-export async function loadActor(db: Db, userId: string): Promise<Actor | null> {
+/**
+ * One round trip: the user, their memberships and, for dealer staff, the dealer's farms, but
+ * only while the session `sessionId` of that user is open (not ended, not expired): a signed-out
+ * or revoked session loads no actor.
+ */
+export async function loadActor(db: Db, userId: string, sessionId: string): Promise<Actor | null> {
   const result = await db.execute(sql`
     select u.id, u.email, u.name, u.unit_system, m.org_id, m.role, o.kind as org_kind,
       case when o.kind = 'dealer' and m.role in ('technician', 'trainer', 'admin')
@@ -28,6 +32,7 @@ export async function loadActor(db: Db, userId: string): Promise<Actor | null> {
     from users u
     join memberships m on m.user_id = u.id
     join organisations o on o.id = m.org_id
+    join sessions s on s.id = ${sessionId} and s.user_id = u.id and s.ended_at is null and s.expires_at > now()
     where u.id = ${userId}
     order by o.kind, o.name`);
   const rows = result.rows as {
@@ -53,9 +58,10 @@ export async function loadActor(db: Db, userId: string): Promise<Actor | null> {
 }
 
 /**
- * Actors loaded lately, by user id, kept only with the embedded store: then this process is the
- * one owner of the data, and every change to users, memberships and organisations goes through
- * it and calls `forgetActors()` (services/users.ts, services/orgs.ts). With a PostgreSQL server
+ * Actors loaded lately, by session id, kept only with the embedded store: then this process is
+ * the one owner of the data, and every change to users, memberships, organisations and sessions
+ * goes through it and calls `forgetActors()` (services/users.ts, services/orgs.ts, sign-out in
+ * auth.config.ts). With a PostgreSQL server
  * other processes may write, so every request reads the store. An entry lives a few seconds at
  * most as a second guard. A load that overlaps a change is not kept (the generation moved on).
  */
@@ -64,23 +70,24 @@ const ACTOR_CAP = 2000;
 const recentActors = new Map<string, { actor: Actor; at: number }>();
 let actorGeneration = 0;
 
-/** Drops every kept actor: call after a write to users, memberships or organisations commits. */
+/** Drops every kept actor: call after a write to users, memberships, organisations or sessions commits. */
 export function forgetActors(): void {
   actorGeneration++;
   recentActors.clear();
 }
 
-/** The actor for a signed-in user id, from the store or from the last few seconds (see above). */
-export async function actorFor(store: Pick<Store, 'db' | 'mode'>, userId: string): Promise<Actor | null> {
-  if (store.mode !== 'pglite') return loadActor(store.db, userId);
+/** The actor for an open session, from the store or from the last few seconds (see above). */
+export async function actorFor(store: Pick<Store, 'db' | 'mode'>, userId: string, sessionId: string): Promise<Actor | null> {
+  if (store.mode !== 'pglite') return loadActor(store.db, userId, sessionId);
   const now = Date.now();
-  const kept = recentActors.get(userId);
+  const key = `${userId}\u0000${sessionId}`;
+  const kept = recentActors.get(key);
   if (kept && now - kept.at < ACTOR_TTL_MS) return kept.actor;
   const generation = actorGeneration;
-  const actor = await loadActor(store.db, userId);
+  const actor = await loadActor(store.db, userId, sessionId);
   if (actor && generation === actorGeneration) {
     if (recentActors.size >= ACTOR_CAP) recentActors.delete(recentActors.keys().next().value!);
-    recentActors.set(userId, { actor: freeze(actor), at: now });
+    recentActors.set(key, { actor: freeze(actor), at: now });
   }
   return actor;
 }

@@ -2,9 +2,12 @@ import { CredentialsSignin } from '@auth/core/errors';
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../db';
+import { audit } from '../audit';
 import { users, memberships } from '../../../db/schema';
 import { DECOY_HASH, verifyPassword } from './passwords';
-import { recordFailure, recordSuccess, waitFor } from './throttle';
+import { reserveSignIn, signInSucceeded } from './throttle';
+import { startSession } from './sessions';
+import { currentClientAddress } from './client-address';
 
 export const signInSchema = z.object({
   email: z.email({ error: 'Enter a valid e-mail address.' }).max(254, { error: 'The e-mail address is too long.' }),
@@ -22,6 +25,11 @@ class SignInProblem extends CredentialsSignin {
   }
 }
 
+/** `throttled-<unix seconds>`: the page tells the user when to try again. */
+export function throttledCode(retryAt: Date) {
+  return `throttled-${Math.ceil(retryAt.getTime() / 1000)}`;
+}
+
 export async function verifyCredentials(raw: Partial<Record<string, unknown>>) {
   const parsed = signInSchema.safeParse({ email: raw.email, password: raw.password });
   if (!parsed.success) {
@@ -29,20 +37,25 @@ export async function verifyCredentials(raw: Partial<Record<string, unknown>>) {
     throw new SignInProblem(`invalid_${String(issue?.path[0] ?? 'form')}`);
   }
   const { email, password } = parsed.data;
-  if (waitFor(email) > 0) throw new SignInProblem('throttled');
-
+  const address = currentClientAddress();
+  const typed = email.trim().toLowerCase();
   const db = await getDb();
-  const [user] = await db.select().from(users).where(eq(users.email, email.toLowerCase())).limit(1);
+
+  // Reserve the attempt before the password is checked (see throttle.ts).
+  const reservation = await reserveSignIn(db, typed, address);
+  if (!reservation.ok) {
+    await audit(db, null, 'signin-throttled', 'signin', null, { email: typed, address, retryAt: reservation.retryAt.toISOString() });
+    throw new SignInProblem(throttledCode(reservation.retryAt));
+  }
+
+  const [user] = await db.select().from(users).where(eq(users.email, typed)).limit(1);
   const ok = await verifyPassword(password, user?.passwordHash ?? DECOY_HASH);
-  if (!user || !ok) {
-    recordFailure(email);
+  const [membership] = user && ok ? await db.select().from(memberships).where(eq(memberships.userId, user.id)).limit(1) : [];
+  if (!user || !ok || !membership) {
+    await audit(db, null, 'signin-failed', 'signin', user?.id ?? null, { email: typed, address });
     return null;
   }
-  const [membership] = await db.select().from(memberships).where(eq(memberships.userId, user.id)).limit(1);
-  if (!membership) {
-    recordFailure(email);
-    return null;
-  }
-  recordSuccess(email);
-  return { id: user.id, email: user.email, name: user.name, role: membership.role };
+  await signInSucceeded(db, typed, address);
+  const sid = await startSession(db, user.id);
+  return { id: user.id, email: user.email, name: user.name, role: membership.role, sid };
 }

@@ -1,10 +1,12 @@
 import { decode } from '@auth/core/jwt';
 
 /**
- * Reads the signed-in user's id straight from Auth.js's session cookie. Going through the full
+ * Reads the signed-in user's id and session id straight from Auth.js's session cookie. Going through the full
  * Auth.js session endpoint on every request would rebuild a request and re-encrypt a rolling
  * token each time; decoding is all the middleware needs. Sessions therefore last their
- * `maxAge` from sign-in (see auth.config.ts).
+ * `maxAge` from sign-in (see auth.config.ts). Whether the session is still open (not signed
+ * out, not ended by a password, role or membership change) is not decided here: the actor load
+ * in access.ts checks the session row on every request.
  */
 const COOKIE_NAMES = ['__Secure-authjs.session-token', 'authjs.session-token'];
 
@@ -26,20 +28,26 @@ function readCookie(header: string, name: string): string | null {
 /**
  * Tokens decoded lately, by cookie name and token: decrypting one (key derivation, AES, HMAC)
  * costs more than the rest of a small request. A token decodes to the same user until it
- * expires, so a hit is checked against the expiry only; the user's role and memberships are
- * still read from the store on every request. Oldest entries go first past the cap.
+ * expires, so a hit is checked against the expiry only; the session row, the user's role and
+ * memberships are still read from the store on every request (access.ts). Oldest entries go first past the cap.
  */
 const DECODED_CAP = 1000;
-const decoded = new Map<string, { uid: string; expiresAt: number }>();
-let decodedWith: string | undefined;
-
-function remember(key: string, uid: string, exp: unknown) {
-  if (typeof exp !== 'number') return;
-  if (decoded.size >= DECODED_CAP) decoded.delete(decoded.keys().next().value!);
-  decoded.set(key, { uid, expiresAt: exp * 1000 });
+export interface SessionRef {
+  uid: string;
+  sid: string;
 }
 
-export async function sessionUserId(request: Request): Promise<string | null> {
+const decoded = new Map<string, SessionRef & { expiresAt: number }>();
+let decodedWith: string | undefined;
+
+function remember(key: string, ref: SessionRef, exp: unknown) {
+  if (typeof exp !== 'number') return;
+  if (decoded.size >= DECODED_CAP) decoded.delete(decoded.keys().next().value!);
+  decoded.set(key, { ...ref, expiresAt: exp * 1000 });
+}
+
+/** The user and session a request's cookie names, or null (no cookie, bad, expired, no session id). */
+export async function sessionRef(request: Request): Promise<SessionRef | null> {
   const header = request.headers.get('cookie');
   const secret = process.env.AUTH_SECRET;
   if (!header || !secret) return null;
@@ -53,15 +61,17 @@ export async function sessionUserId(request: Request): Promise<string | null> {
     const key = `${name}\u0000${token}`;
     const known = decoded.get(key);
     if (known) {
-      if (Date.now() < known.expiresAt) return known.uid;
+      if (Date.now() < known.expiresAt) return { uid: known.uid, sid: known.sid };
       decoded.delete(key);
       return null; // expired
     }
     try {
       const payload = await decode({ token, secret, salt: name });
-      if (payload && typeof payload.uid === 'string') {
-        remember(key, payload.uid, payload.exp);
-        return payload.uid;
+      // Tokens from before session rows existed carry no sid: they are refused.
+      if (payload && typeof payload.uid === 'string' && typeof payload.sid === 'string') {
+        const ref = { uid: payload.uid, sid: payload.sid };
+        remember(key, ref, payload.exp);
+        return ref;
       }
     } catch {
       return null; // tampered, expired or made with another secret
