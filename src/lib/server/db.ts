@@ -90,6 +90,8 @@ export function store(): Promise<Store> {
           if (process.env.CAGEWRIGHT_TEST_FIXTURES === '1') await (await import('./test-fixtures')).seedTestFixtures(s.db);
         }
       }
+      // Sends a stopped server left half-done, and photo objects no row names (services/maintenance.ts).
+      await (await import('./services/maintenance')).startMaintenance(s);
       return s;
     });
     holder.__cagewrightStore = opening;
