@@ -91,7 +91,10 @@ export function store(): Promise<Store> {
         }
       }
       // Sends a stopped server left half-done, and photo objects no row names (services/maintenance.ts).
-      await (await import('./services/maintenance')).startMaintenance(s);
+      // A failure here is logged, never a reason to refuse to serve.
+      await (await import('./services/maintenance'))
+        .startMaintenance(s)
+        .catch((err) => console.error('cagewright: start-up housekeeping failed:', err instanceof Error ? err.message : err));
       return s;
     });
     holder.__cagewrightStore = opening;
