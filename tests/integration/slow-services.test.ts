@@ -10,7 +10,10 @@ import { Client, DEMO } from './client';
 import { mailbox, ownMachine } from './planner-helpers';
 import { databaseFor, removeDir, startServer, type RunningServer } from './server';
 import { startFakeS3 } from '../../scripts/fakes/s3.mjs';
-import { startFakeSmtp } from '../../scripts/fakes/smtp.mjs';
+import { startFakeSmtp as startFakeSmtpUntyped } from '../../scripts/fakes/smtp.mjs';
+
+// The fake's parameter type is inferred from its `= {}` default, which leaves out `dataDir`.
+const startFakeSmtp = startFakeSmtpUntyped as (o: { dataDir: string; setEnv?: boolean }) => ReturnType<typeof startFakeSmtpUntyped>;
 
 process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED = 'true';
 
