@@ -40,7 +40,29 @@ if (existsSync(ownerFile)) {
   } catch {}
 }
 
-if (owner?.pid && alive(owner.pid)) {
+// The same rule as the server's (src/lib/server/data-dir-lock.ts): an owner is gone only when it
+// provably is (this host, its process not running); one from another host, another boot or an
+// unreadable file could be alive, so the backup refuses rather than open the files beside it.
+const myBootId = (() => {
+  try {
+    return readFileSync('/proc/sys/kernel/random/boot_id', 'utf8').trim();
+  } catch {
+    return null;
+  }
+})();
+const myHost = (await import('node:os')).hostname();
+if (existsSync(ownerFile) && !process.argv.includes('--force-unlock')) {
+  const sameMachine = owner && owner.host === myHost && !(owner.bootId && myBootId && owner.bootId !== myBootId);
+  if (!owner?.pid || !sameMachine) {
+    console.error(
+      `backup refused: the data directory is held by ${owner?.pid ? `process ${owner.pid} on ${owner.host}` : 'an unreadable owner file'}, which may still be running. ` +
+        'Run the backup on that machine, or pass --force-unlock once you are sure no server uses the directory.',
+    );
+    process.exit(1);
+  }
+}
+
+if (owner?.pid && owner.host === myHost && alive(owner.pid)) {
   const port = owner.port ?? process.env.PORT ?? '4321';
   const token = readFileSync(join(dataDir, 'backup-token'), 'utf8').trim();
   const res = await fetch(`http://127.0.0.1:${port}/api/admin/backup`, {

@@ -13,6 +13,9 @@ process.env.CAGEWRIGHT_DATA_DIR = dataDir;
 process.env.HOST ??= '127.0.0.1';
 process.env.PORT ??= '4321';
 process.env.NODE_ENV ??= 'production';
+// `--force-unlock`: take over the data directory from an owner that is not provably gone (see
+// src/lib/server/data-dir-lock.ts). Only after checking that no other server uses it.
+if (process.argv.includes('--force-unlock')) process.env.CAGEWRIGHT_FORCE_UNLOCK = '1';
 
 if (!process.env.AUTH_SECRET) {
   mkdirSync(dataDir, { recursive: true });

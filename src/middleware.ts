@@ -59,7 +59,11 @@ const identity = defineMiddleware(async (ctx, next) => {
       if (ref) ctx.locals.actor = await actorFor(await store(), ref.uid, ref.sid);
     }
   } catch (err) {
-    if (err instanceof DataDirInUseError) return errorResponse(503, err.message);
+    if (err instanceof DataDirInUseError) {
+      // The details (path, holder's process) are for the console, never for a response.
+      console.error(`cagewright: ${err.message}`);
+      return errorResponse(503, err.publicMessage, undefined, { code: 'data-dir-in-use' });
+    }
     console.error('cagewright: could not read the session:', err);
   }
   if (!ctx.locals.actor && !isPublic(path)) {

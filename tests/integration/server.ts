@@ -37,6 +37,8 @@ export interface RunningServer {
   port: number;
   dataDir: string;
   child: ChildProcess;
+  /** Everything the server printed so far (stdout and stderr). */
+  output: () => string;
   stop: (signal?: NodeJS.Signals) => Promise<number | null>;
 }
 
@@ -63,11 +65,11 @@ export async function databaseFor(dataDir: string): Promise<string | undefined> 
   return url.toString();
 }
 
-export async function startServer(opts: { dataDir?: string; env?: Record<string, string> } = {}): Promise<RunningServer> {
+export async function startServer(opts: { dataDir?: string; env?: Record<string, string>; args?: string[] } = {}): Promise<RunningServer> {
   const port = await freePort();
   const dataDir = opts.dataDir ?? mkdtempSync(join(tmpdir(), 'cagewright-it-'));
   const databaseUrl = await databaseFor(dataDir);
-  const child = spawn(process.execPath, ['scripts/start.mjs'], {
+  const child = spawn(process.execPath, ['scripts/start.mjs', ...(opts.args ?? [])], {
     env: {
       ...process.env,
       PORT: String(port),
@@ -112,6 +114,7 @@ export async function startServer(opts: { dataDir?: string; env?: Record<string,
     port,
     dataDir,
     child,
+    output: () => output,
     stop: async (signal = 'SIGTERM') => {
       if (child.exitCode === null) child.kill(signal);
       return exited;

@@ -2,7 +2,8 @@ import { pgTable, text, uuid, timestamp, jsonb, index } from 'drizzle-orm/pg-cor
 import { organisations, users } from './orgs';
 import { machines } from './fleet';
 
-export const partsRequestStatuses = ['draft', 'sent', 'acknowledged', 'ready', 'picked-up'] as const;
+/** `sending`: claimed for sending, until the mail server accepts (then `sent`) or fails (back to `draft`). */
+export const partsRequestStatuses = ['draft', 'sending', 'sent', 'acknowledged', 'ready', 'picked-up'] as const;
 
 export interface PartsRequestLine {
   partNumber: string;
@@ -28,6 +29,10 @@ export const partsRequests = pgTable(
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
     sentAt: timestamp('sent_at', { withTimezone: true }),
+    /** When sending began (status `sending`); a request left sending too long is returned to draft. */
+    sendingSince: timestamp('sending_since', { withTimezone: true }),
+    /** Why the last send failed, shown with the draft until it is sent. */
+    sendError: text('send_error'),
   },
   (t) => [index('parts_requests_org_idx').on(t.orgId), index('parts_requests_dealer_idx').on(t.dealerOrgId)],
 );

@@ -90,6 +90,11 @@ export function store(): Promise<Store> {
           if (process.env.CAGEWRIGHT_TEST_FIXTURES === '1') await (await import('./test-fixtures')).seedTestFixtures(s.db);
         }
       }
+      // Sends a stopped server left half-done, and photo objects no row names (services/maintenance.ts).
+      // A failure here is logged, never a reason to refuse to serve.
+      await (await import('./services/maintenance'))
+        .startMaintenance(s)
+        .catch((err) => console.error('cagewright: start-up housekeeping failed:', err instanceof Error ? err.message : err));
       return s;
     });
     holder.__cagewrightStore = opening;

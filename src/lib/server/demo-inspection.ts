@@ -5,6 +5,7 @@ import * as t from '../../db/schema';
 import { buildChecklist, clearanceReadingKey, countSeverities, replacementLines, type ConditionId, type InspectionSeverity } from '../domain/inspection';
 import type { CatalogPart } from '../domain/schemas';
 import { storage, type ObjectStorage } from './storage';
+import { ServiceUnavailableError } from './deadline';
 import { makeThumbnail, photoKeys } from './services/photos';
 
 /** The demo machine inspected before the season, and who did it (all invented). */
@@ -96,10 +97,27 @@ export async function seedDemoInspection(db: Db, store: ObjectStorage = storage(
     pictures.length = 0;
   }
 
+  // The photos go to the object store before the transaction (a slow store never holds the
+  // database), the rows after; objects of a failed seed are left to the orphan sweep.
+  const inspectionId = crypto.randomUUID();
+  const stored: { itemKey: string; bytes: Uint8Array; photoId: string; keys: ReturnType<typeof photoKeys> }[] = [];
+  for (const p of pictures) {
+    const photoId = crypto.randomUUID();
+    const keys = photoKeys(inspectionId, photoId, 'image/jpeg');
+    try {
+      await store.put(keys.original, p.bytes, 'image/jpeg');
+      await store.put(keys.thumb, p.thumb, 'image/jpeg');
+      stored.push({ itemKey: p.itemKey, bytes: p.bytes, photoId, keys });
+    } catch (err) {
+      console.error(`cagewright: a demo photo could not be stored (${store.where}); the demo inspection goes without it:`, err);
+      if (err instanceof ServiceUnavailableError && err.timedOut) break; // the store is away: don't wait for each photo
+    }
+  }
+
   await db.transaction(async (tx) => {
     const [insp] = await tx
       .insert(t.inspections)
-      .values({ machineId: machine.id, orgId: machine.orgId, status: 'finished', title: 'Pre-season inspection', startedBy: inspector.id, startedAt, finishedAt })
+      .values({ id: inspectionId, machineId: machine.id, orgId: machine.orgId, status: 'finished', title: 'Pre-season inspection', startedBy: inspector.id, startedAt, finishedAt })
       .returning();
     const items: { id: string; placeKey: string; partNumber: string | null; severity: InspectionSeverity }[] = [];
     for (const [i, l] of lines.entries()) {
@@ -119,19 +137,10 @@ export async function seedDemoInspection(db: Db, store: ObjectStorage = storage(
         .returning();
       items.push({ id: row!.id, placeKey: row!.placeKey, partNumber: row!.partNumber, severity });
     }
-    for (const p of pictures) {
+    for (const p of stored) {
       const item = items.find((x) => x.placeKey === p.itemKey)!;
-      const photoId = crypto.randomUUID();
-      const keys = photoKeys(insp!.id, photoId, 'image/jpeg');
-      try {
-        await store.put(keys.original, p.bytes, 'image/jpeg');
-        await store.put(keys.thumb, p.thumb, 'image/jpeg');
-      } catch (err) {
-        console.error(`cagewright: a demo photo could not be stored (${store.where}); the demo inspection goes without it:`, err);
-        continue;
-      }
       await tx.insert(t.photos).values({
-        id: photoId, itemId: item.id, orgId: machine.orgId, storageKey: keys.original, thumbKey: keys.thumb,
+        id: p.photoId, itemId: item.id, orgId: machine.orgId, storageKey: p.keys.original, thumbKey: p.keys.thumb,
         contentType: 'image/jpeg', bytes: p.bytes.byteLength, createdBy: inspector.id, createdAt: new Date(startedAt.getTime() + 30 * 60 * 1000),
       });
     }

@@ -44,6 +44,18 @@ function contract(name: string, make: () => ObjectStorage) {
       await expect(s.delete('inspections/a1/p3.jpg')).resolves.toBeUndefined();
     });
 
+    it('lists the objects under a prefix with when they were written', async () => {
+      const s = make();
+      const before = Date.now() - 60_000;
+      await s.put('inspections/l1/a.jpg', bytes(1), 'image/jpeg');
+      await s.put('inspections/l1/b-thumb.jpg', bytes(2), 'image/jpeg');
+      await s.put('other/l1/c.jpg', bytes(3), 'image/jpeg');
+      const listed: { key: string; lastModified: Date }[] = [];
+      for await (const o of s.list('inspections/l1/')) listed.push(o);
+      expect(listed.map((o) => o.key).sort()).toEqual(['inspections/l1/a.jpg', 'inspections/l1/b-thumb.jpg']);
+      for (const o of listed) expect(o.lastModified.getTime()).toBeGreaterThan(before);
+    });
+
     it('refuses keys that could leave its folder', async () => {
       const s = make();
       for (const key of ['../etc/passwd', 'a/../../b', '/abs', 'a//b', '', 'A/b', 'a/b c', '..', 'a/./b']) {

@@ -2,8 +2,10 @@
  * Parts requests: a bill of materials a farm (or its dealer's technician on its behalf) sends to
  * the dealer's parts desk. Made from a crop-change plan, from a saved layout (what it needs
  * beyond what is installed and on the shelf), from inspection findings, or by hand. A draft can
- * be edited and deleted; submitting stores it as sent and e-mails the parts desk and the owner;
- * the dealer's technicians then move it through acknowledged → ready → picked up.
+ * be edited and deleted; submitting is an outbox: the request is `sending` while the mail server
+ * is asked, `sent` once it accepted (only then may the desk act), and back to `draft` with the
+ * reason if it failed; the dealer's technicians then move it through acknowledged → ready →
+ * picked up. A request left `sending` by a crash is returned to draft (`recoverStuckSends`).
  *
  * Lines keep the description and unit price the catalog had when they were added, so a sent
  * request reads the same later; part numbers are always checked against the machine's catalog.
@@ -30,7 +32,7 @@ import { audit } from '../audit';
 import { HttpError, notFound, whenNotFound } from '../http';
 import { getVersion, getLayout } from './layouts';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
-import { sendMail } from './mail';
+import { mailDeadlineMs, sendMail } from './mail';
 import { proposePlan, requirePlan, shelfOf } from './planner';
 
 export type PartsRequestStatus = (typeof partsRequestStatuses)[number];
@@ -49,6 +51,7 @@ export const NEXT_STATUS: Partial<Record<PartsRequestStatus, PartsRequestStatus>
 
 export const STATUS_WORDS: Record<PartsRequestStatus, string> = {
   draft: 'Draft',
+  sending: 'Being sent',
   sent: 'Sent to the parts desk',
   acknowledged: 'Acknowledged',
   ready: 'Ready for pick-up',
@@ -128,6 +131,8 @@ export interface PartsRequestView {
   createdAt: Date;
   updatedAt: Date;
   sentAt: Date | null;
+  /** Why the last send failed (the request is a draft again), until it is sent. */
+  sendError: string | null;
   createdByName: string | null;
   /** What this actor may do with it now. */
   can: { edit: boolean; submit: boolean; delete: boolean; advance: boolean };
@@ -193,6 +198,7 @@ async function viewOf(actor: Actor, row: Row, db: Db): Promise<PartsRequestView>
     createdAt: row.createdAt,
     updatedAt: row.updatedAt,
     sentAt: row.sentAt,
+    sendError: row.sendError ?? null,
     createdByName: creator[0]?.name ?? null,
     can: permissions(actor, row),
     nextStatus: NEXT_STATUS[row.status] ?? null,
@@ -209,7 +215,8 @@ export async function listPartsRequests(actor: Actor, query: z.infer<typeof list
   const conditions = [visibleTo(actor)];
   if (query.status) conditions.push(eq(partsRequests.status, query.status));
   if (query.scope === 'incoming') {
-    conditions.push(inArray(partsRequests.dealerOrgId, actor.memberOrgIds), sql`${partsRequests.status} <> 'draft'`);
+    // Not drafts, nor requests still being sent: the desk sees a request once the mail server took it.
+    conditions.push(inArray(partsRequests.dealerOrgId, actor.memberOrgIds), sql`${partsRequests.status} not in ('draft', 'sending')`);
   } else if (query.scope === 'own') {
     conditions.push(inArray(partsRequests.orgId, actor.memberOrgIds));
   }
@@ -228,6 +235,7 @@ export async function listPartsRequests(actor: Actor, query: z.infer<typeof list
       createdAt: partsRequests.createdAt,
       updatedAt: partsRequests.updatedAt,
       sentAt: partsRequests.sentAt,
+      sendError: partsRequests.sendError,
     })
     .from(partsRequests)
     .innerJoin(organisations, eq(organisations.id, partsRequests.orgId))
@@ -511,11 +519,19 @@ function mailText(view: PartsRequestView, actor: Actor, link: string): string {
   ].join('\n');
 }
 
+/** Why a send failed, in the words the request page and the API show. */
+function failureWords(err: unknown): string {
+  if (err instanceof HttpError) return err.message;
+  return 'The mail could not be sent.';
+}
+
 /**
- * Sends a draft to the dealer's parts desk, copying the owner. The status moves to sent first
- * (so two clicks cannot send twice); if the mail server refuses, it goes back to draft and the
- * caller hears so (502). A request with no lines, or a farm without a dealer's parts desk, is
- * refused before anything is written or sent.
+ * Sends a draft to the dealer's parts desk, copying the owner, as an outbox: the request is
+ * claimed as `sending` (so two clicks cannot send twice, and the desk cannot act on it yet), the
+ * mail server is asked outside any transaction and within its deadline, and then the request is
+ * `sent`; if the mail server refuses or does not answer, it goes back to draft with the reason,
+ * and the caller hears so (502, or 504 when it timed out). A request with no lines, or a farm
+ * without a dealer's parts desk, is refused before anything is written or sent.
  */
 export async function submitPartsRequest(actor: Actor, id: string, origin: string) {
   assertWriter(actor);
@@ -531,7 +547,7 @@ export async function submitPartsRequest(actor: Actor, id: string, origin: strin
   const claimed = await db.transaction(async (tx) => {
     const moved = await tx
       .update(partsRequests)
-      .set({ status: 'sent', sentAt: sql`now()`, updatedAt: sql`now()` })
+      .set({ status: 'sending', sendingSince: sql`now()`, sendError: null, updatedAt: sql`now()` })
       .where(and(eq(partsRequests.id, row.id), eq(partsRequests.status, 'draft')))
       .returning({ id: partsRequests.id });
     if (!moved.length) return false;
@@ -543,8 +559,9 @@ export async function submitPartsRequest(actor: Actor, id: string, origin: strin
   const sent = { ...view, status: 'sent' as const };
   const cc = view.org.ownerEmail && view.org.ownerEmail !== desk ? [view.org.ownerEmail] : [];
   const machineWords = view.machine ? `: ${view.machine.nickname} (${view.machine.familyName})` : '';
+  let info: Awaited<ReturnType<typeof sendMail>>;
   try {
-    const info = await sendMail({
+    info = await sendMail({
       to: [desk],
       cc,
       replyTo: actor.email,
@@ -552,18 +569,56 @@ export async function submitPartsRequest(actor: Actor, id: string, origin: strin
       text: mailText(sent, actor, `${origin}/parts-requests/${view.id}`),
       attachments: [{ filename: csvFileName(view), content: partsRequestCsv(view), contentType: 'text/csv' }],
     });
-    await audit(db, actor, 'mailed', 'parts-request', row.id, { messageId: info.messageId, accepted: info.accepted }, row.orgId);
   } catch (err) {
+    const reason = failureWords(err);
     await db.transaction(async (tx) => {
       await tx
         .update(partsRequests)
-        .set({ status: 'draft', sentAt: null, updatedAt: sql`now()` })
-        .where(and(eq(partsRequests.id, row.id), eq(partsRequests.status, 'sent')));
-      await audit(tx, actor, 'submit-failed', 'parts-request', row.id, { reason: err instanceof Error ? err.message : String(err) }, row.orgId);
+        .set({ status: 'draft', sentAt: null, sendingSince: null, sendError: reason, updatedAt: sql`now()` })
+        .where(and(eq(partsRequests.id, row.id), eq(partsRequests.status, 'sending')));
+      await audit(tx, actor, 'submit-failed', 'parts-request', row.id, { reason }, row.orgId);
     });
-    throw err instanceof HttpError ? err : new HttpError(502, 'The mail could not be sent; the request stays a draft.');
+    const status = err instanceof HttpError && err.status >= 500 ? err.status : 502;
+    throw new HttpError(status, `${reason} The request is a draft again.`, 'mail', { status: 'draft', reason });
   }
+  await db.transaction(async (tx) => {
+    const done = await tx
+      .update(partsRequests)
+      .set({ status: 'sent', sentAt: sql`now()`, sendingSince: null, sendError: null, updatedAt: sql`now()` })
+      .where(and(eq(partsRequests.id, row.id), eq(partsRequests.status, 'sending')))
+      .returning({ id: partsRequests.id });
+    // Not sending any more: it was returned to draft as stuck while the mail server took its time.
+    await audit(tx, actor, done.length ? 'mailed' : 'mailed-late', 'parts-request', row.id, { messageId: info.messageId, accepted: info.accepted }, row.orgId);
+  });
   return getPartsRequest(actor, id);
+}
+
+/** The reason a request left `sending` by a stopped server shows once it is a draft again. */
+export const STUCK_SEND_REASON =
+  'The server stopped while this request was being sent, so it may not have reached the parts desk. Check with the desk, or send it again.';
+
+/**
+ * Returns requests left `sending` to draft, with the reason. At the start of the embedded store
+ * every one is stuck (this process is the store's only user); with a PostgreSQL server another
+ * instance may be sending right now, so only those sending for longer than a mail deadline and a
+ * margin. Returns how many were returned.
+ */
+export async function recoverStuckSends(db: Db, opts: { olderThanMs?: number } = {}): Promise<number> {
+  const olderThanMs = opts.olderThanMs ?? mailDeadlineMs() + 60_000;
+  return db.transaction(async (tx) => {
+    const rows = await tx
+      .update(partsRequests)
+      .set({ status: 'draft', sentAt: null, sendingSince: null, sendError: STUCK_SEND_REASON, updatedAt: sql`now()` })
+      .where(
+        and(
+          eq(partsRequests.status, 'sending'),
+          sql`(${partsRequests.sendingSince} is null or ${partsRequests.sendingSince} <= now() - make_interval(secs => ${olderThanMs / 1000}))`,
+        ),
+      )
+      .returning({ id: partsRequests.id, orgId: partsRequests.orgId });
+    for (const r of rows) await audit(tx, null, 'send-recovered', 'parts-request', r.id, { reason: STUCK_SEND_REASON }, r.orgId);
+    return rows.length;
+  });
 }
 
 /**
@@ -576,6 +631,8 @@ export async function advancePartsRequest(actor: Actor, id: string, status: Part
   const row = await rowForActor(actor, id, db);
   if (!row.dealerOrgId || !actor.memberOrgIds.includes(row.dealerOrgId) || !(DESK_ROLES as readonly string[]).includes(actor.role))
     throw new HttpError(403, 'Only the parts desk of the dealer the request went to moves its status.');
+  if (row.status === 'sending')
+    throw new HttpError(409, 'This request is still being sent; the parts desk can acknowledge it once the mail server has accepted it.', 'status');
   const next = NEXT_STATUS[row.status];
   if (!next) throw new HttpError(409, `This request is ${STATUS_WORDS[row.status].toLowerCase()}; its status does not move on from here.`, 'status');
   if (status !== next) throw new HttpError(409, `status: this request is ${STATUS_WORDS[row.status].toLowerCase()}; the next status is “${next}”.`, 'status', { next });

@@ -145,10 +145,23 @@ export async function photoTarget(actor: Actor, inspectionId: string, itemId: st
   return item;
 }
 
+/** What the user hears when the object store is away; the details go to the server log. */
+function storeAway(err: unknown, what: string, words = 'The photo store did not answer in time, so nothing was saved. Try again in a moment.'): HttpError {
+  console.error(`cagewright: ${what}:`, err instanceof Error ? err.message : err);
+  return new HttpError(503, words, 'photo');
+}
+
+/** Removes objects in the background: the store is away, the user hears at once, and the orphan sweep catches what this misses. */
+function removeLater(store: ObjectStorage, keys: string[]) {
+  void Promise.allSettled(keys.map((k) => store.delete(k)));
+}
+
 /**
- * Stores a photo and its thumbnail for a line of an open inspection. The objects are written
- * first and the row last, inside one transaction; if anything fails the objects are removed
- * again, so a refused or failed upload leaves nothing behind.
+ * Stores a photo and its thumbnail for a line of an open inspection. The objects are stored
+ * first, outside any database transaction (a slow object store must never hold the store's
+ * connection), and the row is written after both are in place. If anything fails the objects
+ * are removed again; if the process dies between the two, the orphan sweep
+ * (`services/maintenance.ts`) removes objects no row names.
  */
 export async function addPhoto(
   actor: Actor,
@@ -165,9 +178,15 @@ export async function addPhoto(
   const photoId = crypto.randomUUID();
   const keys = photoKeys(item.inspectionId, photoId, photo.type);
   try {
+    await store.put(keys.original, photo.bytes, photo.type);
+    await store.put(keys.thumb, thumb, 'image/jpeg');
+  } catch (err) {
+    removeLater(store, [keys.original, keys.thumb]);
+    if (err instanceof HttpError) throw err;
+    throw storeAway(err, `storing photo ${photoId} failed`);
+  }
+  try {
     return await db.transaction(async (tx) => {
-      await store.put(keys.original, photo.bytes, photo.type);
-      await store.put(keys.thumb, thumb, 'image/jpeg');
       const [row] = await tx
         .insert(photos)
         .values({
@@ -195,6 +214,7 @@ export async function addPhoto(
       };
     });
   } catch (err) {
+    // The store answered a moment ago: remove the objects before answering.
     await Promise.allSettled([store.delete(keys.original), store.delete(keys.thumb)]);
     throw err;
   }
@@ -227,7 +247,12 @@ export async function photoForActor(actor: Actor, photoId: string, db?: Db) {
 export async function photoResponse(actor: Actor, photoId: string, thumb: boolean): Promise<Response> {
   const row = await photoForActor(actor, photoId);
   const key = thumb && row.thumbKey ? row.thumbKey : row.storageKey;
-  const obj = await storage().get(key);
+  let obj;
+  try {
+    obj = await storage().get(key);
+  } catch (err) {
+    throw storeAway(err, `reading photo ${row.id} failed`, 'The photo store did not answer in time. Try again in a moment.');
+  }
   if (!obj) throw notFound('The photo file is missing from storage', 'id');
   const type = thumb && row.thumbKey ? 'image/jpeg' : row.contentType;
   const headers: Record<string, string> = {
@@ -242,7 +267,7 @@ export async function photoResponse(actor: Actor, photoId: string, thumb: boolea
   return new Response(obj.body, { status: 200, headers });
 }
 
-/** Removes a photo from an open inspection (row first, then the files). */
+/** Removes a photo from an open inspection (row first, then the files; the orphan sweep catches a miss). */
 export async function deletePhoto(actor: Actor, photoId: string) {
   const db = await getDb();
   const row = await photoForActor(actor, photoId, db);
@@ -251,6 +276,8 @@ export async function deletePhoto(actor: Actor, photoId: string) {
     await tx.delete(photos).where(eq(photos.id, row.id));
     await audit(tx, actor, 'delete-photo', 'inspection', row.inspectionId, { photoId: row.id }, row.orgId);
   });
+  // The row is gone, so the photo is gone for everyone; the files follow (outside any
+  // transaction, each call bounded by the store's deadline; the orphan sweep catches a miss).
   const store = storage();
   await Promise.allSettled([store.delete(row.storageKey), row.thumbKey ? store.delete(row.thumbKey) : Promise.resolve()]);
   return { deleted: row.id };

@@ -1,6 +1,6 @@
 import { createReadStream } from 'node:fs';
-import { mkdir, readFile, rename, rm, stat, writeFile } from 'node:fs/promises';
-import { dirname, join, resolve } from 'node:path';
+import { mkdir, readdir, readFile, rename, rm, stat, writeFile } from 'node:fs/promises';
+import { dirname, join, relative, resolve, sep } from 'node:path';
 import { Readable } from 'node:stream';
 import { randomBytes } from 'node:crypto';
 import { assertKey, type ObjectStorage, type StoredObject } from './types';
@@ -46,6 +46,31 @@ export function diskStorage(root: string): ObjectStorage {
       const path = pathOf(key);
       await rm(path, { force: true });
       await rm(`${path}.type`, { force: true });
+    },
+    async *list(prefix) {
+      // Walk the folder; type files and half-written temporaries are not objects.
+      const walk = async function* (dir: string): AsyncGenerator<{ key: string; lastModified: Date }> {
+        let entries;
+        try {
+          entries = await readdir(dir, { withFileTypes: true });
+        } catch {
+          return;
+        }
+        for (const e of entries) {
+          const full = join(dir, e.name);
+          if (e.isDirectory()) yield* walk(full);
+          else if (e.isFile() && !e.name.endsWith('.type') && !e.name.endsWith('.part')) {
+            const key = relative(base, full).split(sep).join('/');
+            if (!key.startsWith(prefix)) continue;
+            try {
+              yield { key, lastModified: (await stat(full)).mtime };
+            } catch {
+              /* removed meanwhile */
+            }
+          }
+        }
+      };
+      yield* walk(base);
     },
   };
 }

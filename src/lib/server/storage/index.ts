@@ -1,7 +1,8 @@
 import { join } from 'node:path';
 import { dataDir } from '../db';
 import { diskStorage } from './disk';
-import { s3Storage } from './s3';
+import { envMs } from '../deadline';
+import { S3_CONNECT_TIMEOUT_MS, S3_TIMEOUT_MS, s3Storage } from './s3';
 import type { ObjectStorage } from './types';
 
 export type { ObjectStorage, StoredObject } from './types';
@@ -12,6 +13,8 @@ export { readAll } from './types';
  * - CAGEWRIGHT_STORAGE=disk forces files under <data dir>/uploads;
  * - S3_ENDPOINT and S3_BUCKET (with S3_ACCESS_KEY_ID / S3_SECRET_ACCESS_KEY, S3_REGION) select
  *   an S3-compatible bucket; `npm start` starts a local fake and sets these when none is given;
+ *   S3_CONNECT_TIMEOUT_MS (default 5000) and S3_TIMEOUT_MS (a whole call, default 30000) bound
+ *   every call to it;
  * - otherwise files under <data dir>/uploads.
  */
 export function storageFromEnv(env: NodeJS.ProcessEnv = process.env): ObjectStorage {
@@ -24,6 +27,8 @@ export function storageFromEnv(env: NodeJS.ProcessEnv = process.env): ObjectStor
       region: env.S3_REGION ?? 'us-east-1',
       accessKeyId: env.S3_ACCESS_KEY_ID,
       secretAccessKey: env.S3_SECRET_ACCESS_KEY,
+      connectTimeoutMs: envMs('S3_CONNECT_TIMEOUT_MS', S3_CONNECT_TIMEOUT_MS, env),
+      timeoutMs: envMs('S3_TIMEOUT_MS', S3_TIMEOUT_MS, env),
     });
   }
   return diskStorage(join(dataDir(), 'uploads'));

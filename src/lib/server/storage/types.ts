@@ -15,6 +15,13 @@ export interface ObjectStorage {
   get(key: string): Promise<StoredObject | null>;
   /** Removes the object; removing a missing key is not an error. */
   delete(key: string): Promise<void>;
+  /** Every object whose key starts with `prefix`, with when it was last written. */
+  list(prefix: string): AsyncIterable<ListedObject>;
+}
+
+export interface ListedObject {
+  key: string;
+  lastModified: Date;
 }
 
 /**
