@@ -226,3 +226,44 @@ function importError(problems: ImportProblem[]): HttpError {
   const more = problems.length > 1 ? ` (and ${problems.length - 1} more)` : '';
   return new HttpError(400, `csv: ${where}: ${first.message}${more}; nothing was imported`, 'csv', { problems: problems.slice(0, 100) });
 }
+
+/**
+ * Saves the price list page: for each part number, a price in currency units, or blank for the
+ * list price. Only the entries that differ from what is stored are written, in one transaction;
+ * a bad amount is named by its part number and nothing is written.
+ */
+export async function savePriceTable(actor: Actor, entries: Record<string, string>) {
+  const current = await listPriceList(actor);
+  const dealerId = current.dealer.id;
+  const byNumber = new Map(current.items.map((i) => [i.partNumber, i]));
+  const errors: Record<string, string> = {};
+  const set: { partNumber: string; priceCents: number }[] = [];
+  const clear: string[] = [];
+  for (const [partNumber, text] of Object.entries(entries)) {
+    const item = byNumber.get(partNumber);
+    if (!item) {
+      errors[partNumber] = 'not in the catalog';
+      continue;
+    }
+    if (!text.trim()) {
+      if (item.dealerPriceCents !== null) clear.push(partNumber);
+      continue;
+    }
+    const cents = parsePrice(text);
+    if (cents === null || cents > MAX_PRICE_CENTS) errors[partNumber] = `“${text.trim().slice(0, 20)}” is not an amount (e.g. 1185.00)`;
+    else if (cents !== item.dealerPriceCents) set.push({ partNumber, priceCents: cents });
+  }
+  if (Object.keys(errors).length) return { ok: false as const, errors };
+  if (!set.length && !clear.length) return { ok: true as const, changed: 0 };
+  const db = await getDb();
+  await db.transaction(async (tx) => {
+    if (set.length)
+      await tx
+        .insert(dealerPrices)
+        .values(set.map((v) => ({ dealerId, ...v })))
+        .onConflictDoUpdate({ target: [dealerPrices.dealerId, dealerPrices.partNumber], set: { priceCents: sql`excluded.price_cents`, updatedAt: sql`now()` } });
+    if (clear.length) await tx.delete(dealerPrices).where(and(eq(dealerPrices.dealerId, dealerId), inArray(dealerPrices.partNumber, clear)));
+    await audit(tx, actor, 'save-prices', 'dealer-price', null, { set: set.length, cleared: clear.length }, dealerId);
+  });
+  return { ok: true as const, changed: set.length + clear.length };
+}
