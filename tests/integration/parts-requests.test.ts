@@ -11,7 +11,7 @@ let machineId: string;
 let devMachineId: string;
 
 beforeAll(async () => {
-  [olive, dev, tomas, admin] = await Promise.all([signedIn('operator'), signedIn('operator2'), signedIn('technician'), signedIn('admin')]);
+  [olive, dev, tomas, admin] = await Promise.all([signedIn('operator'), signedIn('operator2'), signedIn('technician'), signedIn('dealerAdmin')]);
   ({ machineId } = await ownMachine(olive, 'Parts test machine'));
   ({ machineId: devMachineId } = await ownMachine(dev, 'Haldane parts test machine'));
 });
