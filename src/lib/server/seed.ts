@@ -67,10 +67,8 @@ export async function seedDemo(db: Db) {
     // The dealer keeps a few of most parts; farms keep a handful of spares.
     const dealerStock = demoCatalog.map((p, i) => ({ orgId: kestrel!.id, partNumber: p.partNumber, quantity: (i * 7) % 5 }));
     await tx.insert(t.stock).values(dealerStock);
-    // The dealer's own price list: every part, a few below the catalog's list price.
-    await tx.insert(t.dealerPrices).values(
-      demoCatalog.map((p, i) => ({ dealerId: kestrel!.id, partNumber: p.partNumber, priceCents: i % 4 === 0 ? Math.round(p.priceCents * 0.95) : p.priceCents })),
-    );
+    // The dealer's own price list, started at the catalog's list prices (its administrator edits it).
+    await tx.insert(t.dealerPrices).values(demoCatalog.map((p) => ({ dealerId: kestrel!.id, partNumber: p.partNumber, priceCents: p.priceCents })));
 
     const modular = familyOfKind('modular');
     const split = familyOfKind('split');
