@@ -28,8 +28,10 @@ test('the instance administrator keeps the catalog and takes backups, but sees n
   await expect(page.getByTestId('instance-glance')).toContainText('Dealers');
   await shot(page, 'home-instance-admin');
   await page.goto('/admin/backup');
-  await expect(page.getByRole('button', { name: 'Download a backup' })).toBeVisible();
   await shot(page, 'admin-backup');
+  const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Download a backup' }).click()]);
+  expect(download.suggestedFilename()).toMatch(/^cagewright-.*\.tar\.gz$/);
+  await download.delete();
   const res = await page.goto('/admin/prices');
   expect(res?.status()).toBe(403);
 });
