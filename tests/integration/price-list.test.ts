@@ -134,6 +134,10 @@ describe('the dealer price list', () => {
       { row: 1, column: 'part number', message: expect.any(String) },
       { row: 1, column: 'price', message: expect.any(String) },
     ]);
+    // Broken CSV: the row is named, and a lone column is no excuse to blame the delimiter.
+    const broken = await ada.post('/api/price-list/import', { csv: `part number,price\n${PART},1.00\n"unterminated` });
+    expect(broken.status).toBe(400);
+    expect(broken.body.error.problems).toEqual([{ row: 3, column: '', message: expect.stringContaining('not valid CSV') }]);
     for (const csv of bad.slice(2)) {
       const res = await ada.post('/api/price-list/import', { csv });
       expect(res.status, csv).toBe(400);

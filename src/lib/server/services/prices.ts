@@ -183,7 +183,8 @@ export async function importPriceList(actor: Actor, csv: string) {
   const priceCol = header.findIndex((h) => PRICE_COLUMNS.includes(h));
   if (partCol < 0) problems.push({ row: 1, column: 'part number', message: 'the header row needs a “part number” column' });
   if (priceCol < 0) problems.push({ row: 1, column: 'price', message: 'the header row needs a “price” column' });
-  for (const e of parsed.errors.slice(0, 20))
+  // A one-column file makes papaparse guess the delimiter and warn; a comma it is.
+  for (const e of parsed.errors.filter((x) => x.type !== 'Delimiter').slice(0, 20))
     problems.push({ row: (e.row ?? 0) + 1, column: '', message: `the file is not valid CSV here (${e.message})` });
   if (rows.length - 1 > MAX_IMPORT_ROWS) problems.push({ row: MAX_IMPORT_ROWS + 2, column: '', message: `at most ${MAX_IMPORT_ROWS} rows in one import` });
   if (rows.length < 2 && partCol >= 0 && priceCol >= 0) problems.push({ row: 2, column: 'part number', message: 'the file has no rows under its header' });
