@@ -146,6 +146,7 @@ describe('role matrix', () => {
       expect(ours.priceCents).not.toBe(100);
       const theirs = (await stranger.get('/api/price-list')).body;
       expect(theirs.dealer.name).toBe('Brackenridge Ag Supply');
+      expect((await stranger.delete(`/api/price-list/${f.partNumber}`)).status).toBe(200);
     }, 120_000);
 
     it('backups: only the instance administrator; a dealer’s administrator gets 403', async () => {
