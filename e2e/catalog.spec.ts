@@ -1,8 +1,8 @@
 import { test, expect } from '@playwright/test';
 import { shot, signIn } from './helpers';
 
-test('admin adds a part through the form: bad input is named in the browser, then saved and listed', async ({ page }) => {
-  await signIn(page, 'admin', '/admin/catalog');
+test('the instance administrator adds a part through the form: bad input is named in the browser, then saved and listed', async ({ page }) => {
+  await signIn(page, 'instanceAdmin', '/admin/catalog');
   await page.goto('/admin/catalog');
   const parts = page.getByTestId('parts-table');
   await expect(parts.getByRole('link', { name: 'CW-BL-L-04' })).toBeVisible();
@@ -13,7 +13,7 @@ test('admin adds a part through the form: bad input is named in the browser, the
   await shot(page, 'catalog-admin');
 
   // Sort by price, then filter to cover plates.
-  await parts.getByRole('button', { name: /Unit price/ }).click();
+  await parts.getByRole('button', { name: /List price/ }).click();
   await page.getByLabel('Kind').selectOption('cover-plate');
   await expect(parts.locator('tbody tr')).toHaveCount(4);
 
@@ -25,7 +25,7 @@ test('admin adds a part through the form: bad input is named in the browser, the
   await form.getByLabel('Part number').fill('cw-br-xx');
   await form.getByLabel('Name').fill('Rasp bar, heavy duty, Sedge S6');
   await form.getByLabel('Mass, kg').fill('-3');
-  await form.getByLabel('Unit price, cents').fill('9900');
+  await form.getByLabel(/List price, cents/).fill('9900');
   await form.getByLabel('Bar kind').selectOption('rasp');
   await form.getByRole('button', { name: 'Add part' }).click();
   await expect(page.getByRole('alert')).toContainText('check the marked fields');
@@ -42,8 +42,8 @@ test('admin adds a part through the form: bad input is named in the browser, the
   await expect(page.getByTestId('parts-table').getByRole('link', { name: 'CW-BR-HD-06' })).toBeVisible();
 });
 
-test('admin cannot strand machines by removing a drum their family has; the server names the field', async ({ page }) => {
-  await signIn(page, 'admin', '/admin/catalog/families/tamarack-m4');
+test('the instance administrator cannot strand machines by removing a drum their family has; the server names the field', async ({ page }) => {
+  await signIn(page, 'instanceAdmin', '/admin/catalog/families/tamarack-m4');
   await page.goto('/admin/catalog/families/tamarack-m4');
   const form = page.getByTestId('family-form');
   await expect(form.getByLabel('Name', { exact: true })).toHaveValue('Tamarack M4');

@@ -163,8 +163,8 @@ test('technician: machine → versions → compare → share → opens signed ou
   await after.close();
 });
 
-test('an admin adds a customer farm from the organisations page; a blank name is refused', async ({ page }) => {
-  await signIn(page, 'admin', '/orgs');
+test('a dealer administrator adds a customer farm from the organisations page; a blank name is refused', async ({ page }) => {
+  await signIn(page, 'dealerAdmin', '/orgs');
   await page.goto('/machines');
   await page.getByRole('link', { name: 'Organisations' }).click();
   await expect(page.getByTestId('orgs-table')).toContainText('Larkspur Farms');

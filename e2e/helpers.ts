@@ -7,7 +7,8 @@ export const DEMO = {
   operator2: { email: 'dev@haldane.example', name: 'Dev' },
   technician: { email: 'tomas@kestrel.example', name: 'Tomas' },
   trainer: { email: 'priya@kestrel.example', name: 'Priya' },
-  admin: { email: 'admin@kestrel.example', name: 'Ada' },
+  dealerAdmin: { email: 'admin@kestrel.example', name: 'Ada' },
+  instanceAdmin: { email: 'noor@cagewright.example', name: 'Noor' },
 } as const;
 
 export async function signIn(page: Page, who: keyof typeof DEMO, next = '/') {

@@ -69,10 +69,10 @@ test('plan a crop change, accept it, make a parts request and send it; the desk 
   await shot(page, 'parts-request-print');
   await page.emulateMedia({ media: 'screen' });
 
-  // The message in the fake mailbox, as the admin sees it.
+  // The message in the fake mailbox, as the dealer's administrator sees it.
   const adminContext = await browser.newContext();
   const admin = await adminContext.newPage();
-  await signIn(admin, 'admin', '/admin/mailbox');
+  await signIn(admin, 'dealerAdmin', '/admin/mailbox');
   await admin.goto('/admin/mailbox');
   const message = admin.getByTestId('mailbox').locator('li').filter({ hasText: number }).first();
   await expect(message).toContainText(`Parts request ${number} from Larkspur Farms: North Quarter (Tamarack M4)`);

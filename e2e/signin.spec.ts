@@ -5,18 +5,27 @@ const ROLE_TEXT = {
   operator: 'Operator',
   technician: 'Service technician',
   trainer: 'Trainer',
-  admin: 'Administrator',
+  dealerAdmin: 'Dealer administrator',
+  instanceAdmin: 'Instance administrator',
 } as const;
 
-for (const role of ['operator', 'technician', 'trainer', 'admin'] as const) {
+for (const role of ['operator', 'technician', 'trainer', 'dealerAdmin', 'instanceAdmin'] as const) {
   test(`${role} signs in on our page and lands on a home page for the role`, async ({ page }) => {
     await signIn(page, role);
     await expect(page).toHaveURL(/\/$/);
     await expect(page.getByTestId('home-heading')).toContainText(DEMO[role].name);
     await expect(page.getByTestId('role-label')).toHaveText(ROLE_TEXT[role]);
     const nav = page.getByRole('navigation', { name: 'Main' });
-    if (role === 'admin') await expect(nav.getByRole('link', { name: 'Catalog' })).toBeVisible();
-    else await expect(nav.getByRole('link', { name: 'Mailbox' })).toHaveCount(0);
+    if (role === 'instanceAdmin') {
+      await expect(nav.getByRole('link', { name: 'Catalog' })).toBeVisible();
+      await expect(nav.getByRole('link', { name: 'Backup' })).toBeVisible();
+      await expect(nav.getByRole('link', { name: 'Machines' })).toHaveCount(0);
+    } else await expect(nav.getByRole('link', { name: 'Backup' })).toHaveCount(0);
+    if (role === 'dealerAdmin') {
+      await expect(nav.getByRole('link', { name: 'Price list' })).toBeVisible();
+      await expect(nav.getByRole('link', { name: 'Mailbox' })).toBeVisible();
+    }
+    if (!role.endsWith('Admin')) await expect(nav.getByRole('link', { name: 'Mailbox' })).toHaveCount(0);
     if (role === 'trainer') await expect(nav.getByRole('link', { name: 'Classroom' })).toBeVisible();
     if (role === 'operator') await expect(nav.getByRole('link', { name: 'Crop change' })).toBeVisible();
     await shot(page, `home-${role}`);

@@ -3,9 +3,17 @@
 // - Embedded store with the server running: asks the server for a snapshot (it owns the files).
 // - Embedded store with no server: opens the store itself (taking the data-dir lock) and dumps it.
 // - PostgreSQL server mode (DATABASE_URL): runs pg_dump.
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { chmodSync, existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import { dirname, join, resolve } from 'node:path';
+import { withoutSecrets } from './lib/backup-archive.mjs';
+
+// Archives hold every tenant's data: only the server's user may read them.
+process.umask(0o077);
+const writePrivate = (file, data) => {
+  writeFileSync(file, data, { mode: 0o600 });
+  chmodSync(file, 0o600);
+};
 
 const args = process.argv.slice(2);
 const outArg = args.indexOf('--out');
@@ -26,6 +34,7 @@ if (process.env.DATABASE_URL) {
   mkdirSync(dirname(out), { recursive: true });
   const r = spawnSync('pg_dump', ['--no-owner', '--file', out, process.env.DATABASE_URL], { stdio: 'inherit' });
   if (r.status !== 0) process.exit(r.status ?? 1);
+  chmodSync(out, 0o600);
   console.log(`backup written: ${out} (restore with: psql "$DATABASE_URL" -f ${out})`);
   process.exit(0);
 }
@@ -73,7 +82,7 @@ if (owner?.pid && owner.host === myHost && alive(owner.pid)) {
     console.error(`backup failed: the server answered ${res.status} ${await res.text()}`);
     process.exit(1);
   }
-  writeFileSync(out, Buffer.from(await res.arrayBuffer()));
+  writePrivate(out, await withoutSecrets(Buffer.from(await res.arrayBuffer())));
   console.log(`backup written from the running server (pid ${owner.pid}): ${out}`);
 } else {
   const { PGlite } = await import('@electric-sql/pglite');
@@ -88,7 +97,7 @@ if (owner?.pid && owner.host === myHost && alive(owner.pid)) {
     await db.query('CHECKPOINT');
     const blob = await db.dumpDataDir('gzip');
     await db.close();
-    writeFileSync(out, Buffer.from(await blob.arrayBuffer()));
+    writePrivate(out, await withoutSecrets(Buffer.from(await blob.arrayBuffer())));
     console.log(`backup written: ${out}`);
   } finally {
     rmSync(ownerFile, { force: true });
@@ -101,6 +110,7 @@ const fileDirs = ['uploads', 's3'].filter((d) => existsSync(join(dataDir, d)));
 if (fileDirs.length) {
   const filesOut = out.replace(/\.tar\.gz$/, '') + '-files.tar.gz';
   const r = spawnSync('tar', ['-czf', filesOut, '-C', dataDir, ...fileDirs], { stdio: 'inherit' });
+  chmodSync(filesOut, 0o600);
   if (r.status !== 0) {
     console.error('backup of the photo files failed');
     process.exit(1);

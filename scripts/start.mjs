@@ -2,7 +2,7 @@
 // Starts the built server: makes sure an AUTH_SECRET exists (generated once into the data
 // directory), starts Astro's standalone server, then opens the store (migrations and the demo
 // seed run here, at boot) and prints where to go.
-import { existsSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { randomBytes } from 'node:crypto';
 import { resolve, join } from 'node:path';
 import { pathToFileURL } from 'node:url';
@@ -24,11 +24,13 @@ if (!process.env.AUTH_SECRET) {
   process.env.AUTH_SECRET = readFileSync(file, 'utf8').trim();
 }
 
-// `npm run backup` proves it runs on this machine with this token (see /api/admin/backup).
+// `npm run backup` proves it runs on this machine with this token (see /api/admin/backup). A new
+// one at every start: a token that ever left the host (an old copy of the directory) opens nothing.
 {
   mkdirSync(dataDir, { recursive: true });
   const file = join(dataDir, 'backup-token');
-  if (!existsSync(file)) writeFileSync(file, randomBytes(32).toString('base64url'), { mode: 0o600 });
+  rmSync(file, { force: true });
+  writeFileSync(file, randomBytes(32).toString('base64url'), { mode: 0o600, flag: 'wx' });
 }
 
 const outDir = resolve(process.env.CAGEWRIGHT_OUT_DIR ?? 'dist');

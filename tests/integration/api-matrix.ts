@@ -6,11 +6,15 @@ import type { Fixtures, Role } from './matrix-fixtures';
  * properties.
  */
 export type Method = 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
-const ALL: Role[] = ['operator', 'technician', 'trainer', 'admin'];
-const WRITERS: Role[] = ['operator', 'technician', 'admin'];
-const DESK: Role[] = ['technician', 'admin'];
+const ALL: Role[] = ['operator', 'technician', 'trainer', 'dealer_admin', 'instance_admin'];
+const WRITERS: Role[] = ['operator', 'technician', 'dealer_admin'];
+const DESK: Role[] = ['technician', 'dealer_admin'];
 const DECK: Role[] = ['trainer', 'technician'];
-const ADMIN: Role[] = ['admin'];
+/** Both administrators; what each sees is scoped (tenancy tests in role-matrix.test.ts). */
+const ADMINS: Role[] = ['dealer_admin', 'instance_admin'];
+const INSTANCE: Role[] = ['instance_admin'];
+const DEALER_ADMIN: Role[] = ['dealer_admin'];
+const PRICE_READERS: Role[] = ['technician', 'dealer_admin'];
 
 export interface Row {
   allowed: Role[] | 'public';
@@ -33,21 +37,21 @@ const deck = (f: Fixtures) => ({ id: f.deckId });
 const request = (f: Fixtures) => ({ id: f.partsRequestId });
 
 export const MATRIX: Record<string, Row> = {
-  'POST /api/admin/backup': { allowed: ADMIN, other: 'none', why: 'not an organisation resource' },
+  'POST /api/admin/backup': { allowed: INSTANCE, other: 'none', why: 'the whole installation: instance administrator only' },
   'GET /api/admin/backup': { allowed: 'public', other: 'none', why: 'answers 405 to everyone' },
-  'GET /api/admin/mailbox': { allowed: ADMIN, other: 'none', why: 'the development mailbox' },
-  'GET /api/admin/stats': { allowed: ADMIN, other: 'none', why: 'table counts only' },
-  'GET /api/admin/users': { allowed: ADMIN, other: 'not-listed' },
-  'PUT /api/admin/users/[id]': { allowed: ADMIN, params: (f) => ({ id: f.member.userId }), body: (f) => ({ orgId: f.member.orgId, role: f.member.role }), other: 'not-found' },
+  'GET /api/admin/mailbox': { allowed: ADMINS, other: 'none', why: 'scoped to the dealer: tenancy tests below' },
+  'GET /api/admin/stats': { allowed: ADMINS, other: 'none', why: 'scoped to the dealer: tenancy tests below' },
+  'GET /api/admin/users': { allowed: ADMINS, other: 'not-listed' },
+  'PUT /api/admin/users/[id]': { allowed: DEALER_ADMIN, params: (f) => ({ id: f.member.userId }), body: (f) => ({ orgId: f.member.orgId, role: f.member.role }), other: 'not-found' },
   'GET /api/catalog/families': { allowed: ALL, other: 'none', why: 'the catalog is shared' },
-  'POST /api/catalog/families': { allowed: ADMIN, body: (f) => ({ ...f.family, id: 'matrix-family', name: 'Matrix family' }), other: 'none', why: 'the catalog is shared' },
+  'POST /api/catalog/families': { allowed: INSTANCE, body: (f) => ({ ...f.family, id: 'matrix-family', name: 'Matrix family' }), other: 'none', why: 'the catalog is shared' },
   'GET /api/catalog/families/[id]': { allowed: ALL, params: (f) => ({ id: f.familyId }), other: 'none', why: 'the catalog is shared' },
-  'PUT /api/catalog/families/[id]': { allowed: ADMIN, params: (f) => ({ id: f.familyId }), body: (f) => f.family, other: 'none', why: 'the catalog is shared' },
+  'PUT /api/catalog/families/[id]': { allowed: INSTANCE, params: (f) => ({ id: f.familyId }), body: (f) => f.family, other: 'none', why: 'the catalog is shared' },
   'GET /api/catalog/parts': { allowed: ALL, other: 'none', why: 'the catalog is shared' },
-  'POST /api/catalog/parts': { allowed: ADMIN, body: (f) => ({ familyId: f.familyId, part: { ...f.part, partNumber: 'CW-MX-L-99' } }), other: 'none', why: 'the catalog is shared' },
+  'POST /api/catalog/parts': { allowed: INSTANCE, body: (f) => ({ familyId: f.familyId, part: { ...f.part, partNumber: 'CW-MX-L-99' } }), other: 'none', why: 'the catalog is shared' },
   'GET /api/catalog/parts/[partNumber]': { allowed: ALL, params: (f) => ({ partNumber: f.partNumber }), other: 'none', why: 'the catalog is shared' },
-  'PUT /api/catalog/parts/[partNumber]': { allowed: ADMIN, params: (f) => ({ partNumber: f.partNumber }), body: (f) => ({ familyId: f.familyId, part: f.part }), other: 'none', why: 'the catalog is shared' },
-  'DELETE /api/catalog/parts/[partNumber]': { allowed: ADMIN, params: (f) => ({ partNumber: f.partNumber }), other: 'none', why: 'the catalog is shared' },
+  'PUT /api/catalog/parts/[partNumber]': { allowed: INSTANCE, params: (f) => ({ partNumber: f.partNumber }), body: (f) => ({ familyId: f.familyId, part: f.part }), other: 'none', why: 'the catalog is shared' },
+  'DELETE /api/catalog/parts/[partNumber]': { allowed: INSTANCE, params: (f) => ({ partNumber: f.partNumber }), other: 'none', why: 'the catalog is shared' },
   'POST /api/check': { allowed: ALL, body: (f) => ({ layout: f.layoutBody }), other: 'none', why: 'stateless' },
   'GET /api/decks': { allowed: DECK, other: 'not-listed' },
   'POST /api/decks': { allowed: DECK, body: () => ({ title: 'A deck' }), other: 'none', why: 'creates in the caller’s own organisation' },
@@ -91,7 +95,7 @@ export const MATRIX: Record<string, Row> = {
   'PUT /api/me': { allowed: ALL, body: () => ({ unitSystem: 'metric' }), other: 'none', why: 'the caller themself' },
   'POST /api/me/password': { allowed: ALL, body: () => ({ currentPassword: 'not-the-password', newPassword: 'a-new-password-2026' }), other: 'none', why: 'the caller themself' },
   'GET /api/orgs': { allowed: ALL, other: 'not-listed' },
-  'POST /api/orgs': { allowed: ADMIN, body: () => ({ name: 'Matrix Farm' }), other: 'none', why: 'creates a farm for the admin’s own dealer' },
+  'POST /api/orgs': { allowed: DEALER_ADMIN, body: () => ({ name: 'Matrix Farm' }), other: 'none', why: 'creates a farm for the admin’s own dealer' },
   'GET /api/parts-requests': { allowed: ALL, other: 'not-listed' },
   'POST /api/parts-requests': { allowed: WRITERS, body: (f) => ({ from: 'manual', machineId: f.machineId, lines: [{ partNumber: f.partNumber, quantity: 1 }] }), other: 'not-found' },
   'GET /api/parts-requests/[id]': { allowed: ALL, params: request, other: 'not-found' },
@@ -103,6 +107,10 @@ export const MATRIX: Record<string, Row> = {
   'DELETE /api/photos/[id]': { allowed: WRITERS, params: (f) => ({ id: f.photoId }), other: 'not-found' },
   'POST /api/plans': { allowed: WRITERS, body: (f) => ({ machineId: f.machineId, crop: 'field-peas' }), other: 'not-found' },
   'POST /api/plans/accept': { allowed: WRITERS, body: (f) => ({ machineId: f.machineId, crop: 'field-peas' }), other: 'not-found' },
+  'GET /api/price-list': { allowed: PRICE_READERS, other: 'none', why: 'always the caller’s own dealer: tenancy tests below' },
+  'POST /api/price-list/import': { allowed: DEALER_ADMIN, body: (f) => ({ csv: `part number,price\n${f.partNumber},1.00` }), other: 'none', why: 'always the caller’s own dealer' },
+  'PUT /api/price-list/[partNumber]': { allowed: DEALER_ADMIN, params: (f) => ({ partNumber: f.partNumber }), body: () => ({ priceCents: 100 }), other: 'none', why: 'always the caller’s own dealer' },
+  'DELETE /api/price-list/[partNumber]': { allowed: DEALER_ADMIN, params: (f) => ({ partNumber: f.partNumber }), other: 'none', why: 'always the caller’s own dealer' },
   'GET /api/share-links': { allowed: ALL, other: 'not-listed' },
   'POST /api/share-links': { allowed: WRITERS, body: (f) => ({ layoutId: f.layoutId, version: 1 }), other: 'not-found' },
   'DELETE /api/share-links/[id]': { allowed: WRITERS, params: (f) => ({ id: f.shareLinkId }), other: 'not-found' },

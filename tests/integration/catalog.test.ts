@@ -4,10 +4,11 @@ import { uniq } from './fleet-helpers';
 
 let olive: Client;
 let tomas: Client;
-let ada: Client;
+let noor: Client; // instance administrator: keeps the catalog
+let ada: Client; // a dealer's administrator: reads it, never changes it
 
 beforeAll(async () => {
-  [olive, tomas, ada] = await Promise.all([signedIn('operator'), signedIn('technician'), signedIn('admin')]);
+  [olive, tomas, noor, ada] = await Promise.all([signedIn('operator'), signedIn('technician'), signedIn('instanceAdmin'), signedIn('dealerAdmin')]);
 });
 
 /** An invented three-position modular family with one drum and fixed vanes. */
@@ -62,10 +63,10 @@ function element(familyId: string, partNumber: string) {
 }
 
 async function familyCount() {
-  return ((await ada.get('/api/catalog/families')).body.families as unknown[]).length;
+  return ((await noor.get('/api/catalog/families')).body.families as unknown[]).length;
 }
 async function partCount(familyId?: string) {
-  return ((await ada.get(`/api/catalog/parts?status=all${familyId ? `&familyId=${familyId}` : ''}`)).body.parts as unknown[]).length;
+  return ((await noor.get(`/api/catalog/parts?status=all${familyId ? `&familyId=${familyId}` : ''}`)).body.parts as unknown[]).length;
 }
 
 describe('machine families', () => {
@@ -85,26 +86,28 @@ describe('machine families', () => {
     expect((await olive.get('/api/catalog/families/Not%20A%20Slug')).status).toBe(404);
   });
 
-  it('are added and edited by an admin only', async () => {
+  it('are added and edited by an instance administrator only', async () => {
     const id = uniq('willow').toLowerCase();
     const spec = willow(id);
     expect((await new Client().post('/api/catalog/families', spec)).status).toBe(401);
     expect((await tomas.post('/api/catalog/families', spec)).status).toBe(403);
     expect((await olive.post('/api/catalog/families', spec)).status).toBe(403);
-    const created = await ada.post('/api/catalog/families', spec);
+    expect((await ada.post('/api/catalog/families', spec)).status).toBe(403);
+    const created = await noor.post('/api/catalog/families', spec);
     expect(created.status, JSON.stringify(created.body)).toBe(201);
     expect(created.body.family).toMatchObject({ id, name: spec.name });
-    const dup = await ada.post('/api/catalog/families', spec);
+    const dup = await noor.post('/api/catalog/families', spec);
     expect(dup.status).toBe(409);
     expect(dup.body.error.field).toBe('id');
 
     const renamed = { ...spec, name: 'Willow W3 (2nd series)', drumOptions: [...spec.drumOptions, { id: 'slim', label: 'Slim drum', diameterMm: 700 }] };
     expect((await tomas.put(`/api/catalog/families/${id}`, renamed)).status).toBe(403);
-    const put = await ada.put(`/api/catalog/families/${id}`, renamed);
+    expect((await ada.put(`/api/catalog/families/${id}`, renamed)).status).toBe(403);
+    const put = await noor.put(`/api/catalog/families/${id}`, renamed);
     expect(put.status).toBe(200);
     expect(put.body.family.name).toBe('Willow W3 (2nd series)');
     expect((await olive.get(`/api/catalog/families/${id}`)).body.family.spec.drumOptions).toHaveLength(2);
-    const otherId = await ada.put(`/api/catalog/families/${id}`, { ...renamed, id: 'tamarack-m4' });
+    const otherId = await noor.put(`/api/catalog/families/${id}`, { ...renamed, id: 'tamarack-m4' });
     expect(otherId.status).toBe(400);
     expect(otherId.body.error.field).toBe('id');
   });
@@ -113,13 +116,13 @@ describe('machine families', () => {
     const res = await olive.get('/api/catalog/families/tamarack-m4');
     const spec = res.body.family.spec;
     // North Quarter has the slim drum and powered vanes.
-    const noSlim = await ada.put('/api/catalog/families/tamarack-m4', { ...spec, drumOptions: spec.drumOptions.filter((d: any) => d.id !== 'slim') });
+    const noSlim = await noor.put('/api/catalog/families/tamarack-m4', { ...spec, drumOptions: spec.drumOptions.filter((d: any) => d.id !== 'slim') });
     expect(noSlim.status).toBe(409);
     expect(noSlim.body.error.field).toBe('drumOptions');
-    const noPowered = await ada.put('/api/catalog/families/tamarack-m4', { ...spec, vaneControls: ['fixed'] });
+    const noPowered = await noor.put('/api/catalog/families/tamarack-m4', { ...spec, vaneControls: ['fixed'] });
     expect(noPowered.status).toBe(409);
     expect(noPowered.body.error.field).toBe('vaneControls');
-    const newGroup = await ada.put('/api/catalog/families/tamarack-m4', { ...spec, fitGroup: 'other-group' });
+    const newGroup = await noor.put('/api/catalog/families/tamarack-m4', { ...spec, fitGroup: 'other-group' });
     expect(newGroup.status).toBe(409);
     expect(newGroup.body.error.field).toBe('fitGroup');
     expect((await olive.get('/api/catalog/families/tamarack-m4')).body.family.spec).toEqual(spec);
@@ -139,7 +142,7 @@ describe('machine families', () => {
       [{ ...base, rotorBarPlaces: [{ row: 7, position: 1, inLine: false }] }, 'rotorBarPlaces.0.row'],
     ];
     for (const [body, field] of cases) {
-      const res = await ada.post('/api/catalog/families', body);
+      const res = await noor.post('/api/catalog/families', body);
       expect(res.status, field).toBe(400);
       expect(res.body.error.field).toBe(field);
     }
@@ -151,7 +154,7 @@ describe('catalog parts', () => {
   let familyId: string;
   beforeAll(async () => {
     familyId = uniq('parts').toLowerCase();
-    expect((await ada.post('/api/catalog/families', willow(familyId))).status).toBe(201);
+    expect((await noor.post('/api/catalog/families', willow(familyId))).status).toBe(201);
   });
 
   it('are listed and filtered for anyone signed in', async () => {
@@ -171,26 +174,29 @@ describe('catalog parts', () => {
     expect((await olive.get('/api/catalog/parts?kind=wheel')).body.error.field).toBe('kind');
   });
 
-  it('are added, edited and retired by an admin only', async () => {
+  it('are added, edited and retired by an instance administrator only', async () => {
     const pn = `CW-FW-L-${familyId.slice(-4).toUpperCase()}`.replace(/[^A-Z0-9-]/g, 'X');
     const body = element(familyId, pn);
     expect((await new Client().post('/api/catalog/parts', body)).status).toBe(401);
     expect((await tomas.post('/api/catalog/parts', body)).status).toBe(403);
-    const created = await ada.post('/api/catalog/parts', body);
+    expect((await ada.post('/api/catalog/parts', body)).status).toBe(403);
+    const created = await noor.post('/api/catalog/parts', body);
     expect(created.status, JSON.stringify(created.body)).toBe(201);
     expect(created.body.part).toMatchObject({ partNumber: pn, familyId, kind: 'element', active: true });
-    const dup = await ada.post('/api/catalog/parts', body);
+    const dup = await noor.post('/api/catalog/parts', body);
     expect(dup.status).toBe(409);
     expect(dup.body.error.field).toBe('part.partNumber');
 
     const cheaper = { ...body, part: { ...body.part, priceCents: 95_000 } };
     expect((await olive.put(`/api/catalog/parts/${pn}`, cheaper)).status).toBe(403);
-    const put = await ada.put(`/api/catalog/parts/${pn}`, cheaper);
+    // A dealer's administrator changes no part's technical data or list price, their own dealer's or another's.
+    expect((await ada.put(`/api/catalog/parts/${pn}`, cheaper)).status).toBe(403);
+    const put = await noor.put(`/api/catalog/parts/${pn}`, cheaper);
     expect(put.status).toBe(200);
     expect(put.body.part.spec.priceCents).toBe(95_000);
-    const renumber = await ada.put(`/api/catalog/parts/${pn}`, { ...body, part: { ...body.part, partNumber: 'CW-OTHER-1' } });
+    const renumber = await noor.put(`/api/catalog/parts/${pn}`, { ...body, part: { ...body.part, partNumber: 'CW-OTHER-1' } });
     expect(renumber.body.error.field).toBe('part.partNumber');
-    const rekind = await ada.put(`/api/catalog/parts/${pn}`, {
+    const rekind = await noor.put(`/api/catalog/parts/${pn}`, {
       familyId,
       part: { kind: 'rotor-bar', partNumber: pn, name: 'x', fitGroup: familyId, massKg: 5, priceCents: 1, barKind: 'rasp' },
     });
@@ -198,7 +204,8 @@ describe('catalog parts', () => {
     expect(rekind.body.error.field).toBe('part.kind');
 
     expect((await tomas.delete(`/api/catalog/parts/${pn}`)).status).toBe(403);
-    const retired = await ada.delete(`/api/catalog/parts/${pn}`);
+    expect((await ada.delete(`/api/catalog/parts/${pn}`)).status).toBe(403);
+    const retired = await noor.delete(`/api/catalog/parts/${pn}`);
     expect(retired.status).toBe(200);
     expect(retired.body.part.active).toBe(false);
     const active = await olive.get(`/api/catalog/parts?familyId=${familyId}`);
@@ -223,7 +230,7 @@ describe('catalog parts', () => {
       [{ ...body, active: 'yes' }, 'active'],
     ];
     for (const [input, field] of cases) {
-      const res = await ada.post('/api/catalog/parts', input);
+      const res = await noor.post('/api/catalog/parts', input);
       expect(res.status, field).toBe(400);
       expect(res.body.error.field).toBe(field);
     }

@@ -12,7 +12,7 @@ describe('POST /api/check', () => {
   });
 
   it('returns findings and computed settings for a valid layout, for every role', async () => {
-    for (const who of ['operator', 'technician', 'trainer', 'admin'] as const) {
+    for (const who of ['operator', 'technician', 'trainer', 'dealerAdmin', 'instanceAdmin'] as const) {
       const c = await signedIn(who);
       const res = await c.post('/api/check', { layout: valid });
       expect(res.status).toBe(200);

@@ -96,7 +96,8 @@ export const DEMO = {
   operator2: 'dev@haldane.example',
   technician: 'tomas@kestrel.example',
   trainer: 'priya@kestrel.example',
-  admin: 'admin@kestrel.example',
+  dealerAdmin: 'admin@kestrel.example',
+  instanceAdmin: 'noor@cagewright.example',
 } as const;
 
 export async function signedIn(who: keyof typeof DEMO): Promise<Client> {

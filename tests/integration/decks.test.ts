@@ -45,7 +45,7 @@ async function slidesOf(c: Client, deckId: string) {
 }
 
 beforeAll(async () => {
-  [priya, tomas, olive, ada] = await Promise.all([signedIn('trainer'), signedIn('technician'), signedIn('operator'), signedIn('admin')]);
+  [priya, tomas, olive, ada] = await Promise.all([signedIn('trainer'), signedIn('technician'), signedIn('operator'), signedIn('dealerAdmin')]);
   wheatVersionId = await versionIdOf(priya, 'North Quarter');
 });
 

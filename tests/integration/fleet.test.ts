@@ -20,7 +20,7 @@ beforeAll(async () => {
     signedIn('operator2'),
     signedIn('technician'),
     signedIn('trainer'),
-    signedIn('admin'),
+    signedIn('dealerAdmin'),
   ]);
   northQuarter = await machineByNickname(tomas, 'North Quarter');
   creekside = await machineByNickname(tomas, 'Creekside');

@@ -12,7 +12,7 @@ function expectSecurityHeaders(res: Response, where: string) {
 
 describe('security headers', () => {
   it('are on every page (signed in and signed out), whatever its status', async () => {
-    const admin = await signedIn('admin');
+    const admin = await signedIn('instanceAdmin');
     const anon = new Client();
     const pages = pageRoutes();
     expect(pages.length).toBeGreaterThan(3);

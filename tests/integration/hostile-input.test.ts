@@ -60,7 +60,7 @@ describe('hostile input on every write route', () => {
     f = await loadFixtures(clients.own);
   }, 60_000);
 
-  const counts = async () => (await clients.own.admin.get('/api/admin/stats')).body.counts as Record<string, number>;
+  const counts = async () => (await clients.own.instance_admin.get('/api/admin/stats')).body.counts as Record<string, number>;
 
   it('covers the write routes', () => {
     expect(writes.length).toBeGreaterThan(20);
@@ -69,7 +69,7 @@ describe('hostile input on every write route', () => {
   for (const w of writes) {
     it(`${w.key}: 4xx with a JSON error, never 5xx, nothing written`, async () => {
       const row = MATRIX[w.key]!;
-      const role = row.allowed === 'public' ? 'admin' : row.allowed.includes('admin') ? 'admin' : row.allowed[0]!;
+      const role = row.allowed === 'public' ? 'instance_admin' : row.allowed.includes('dealer_admin') ? 'dealer_admin' : row.allowed[0]!;
       const c: Client = clients.own[role];
       const path = fill(w.route, row.params?.(f)) + (row.query?.(f) ?? '');
       const valid = row.body!(f);

@@ -1,16 +1,29 @@
 import { expect } from 'vitest';
 import { Client, DEMO, DEMO_PASSWORD, machineWithLayout } from './client';
 
-/** The second dealer's people (see src/lib/server/test-fixtures.ts): strangers to the demo's data. */
+/**
+ * Strangers to the demo's data: the second dealer's people (see src/lib/server/test-fixtures.ts),
+ * and the instance administrator, who runs the installation but is no member of any tenant.
+ */
 export const OTHER = {
   operator: 'op@fenwick.example',
   technician: 'tech@brackenridge.example',
   trainer: 'trainer@brackenridge.example',
-  admin: 'admin@brackenridge.example',
+  dealer_admin: 'admin@brackenridge.example',
+  instance_admin: DEMO.instanceAdmin,
 } as const;
 
-export type Role = 'operator' | 'technician' | 'trainer' | 'admin';
-export const ROLES: Role[] = ['operator', 'technician', 'trainer', 'admin'];
+export type Role = 'operator' | 'technician' | 'trainer' | 'dealer_admin' | 'instance_admin';
+export const ROLES: Role[] = ['operator', 'technician', 'trainer', 'dealer_admin', 'instance_admin'];
+
+/** The demo's own people by role key. */
+const OWN: Record<Role, string> = {
+  operator: DEMO.operator,
+  technician: DEMO.technician,
+  trainer: DEMO.trainer,
+  dealer_admin: DEMO.dealerAdmin,
+  instance_admin: DEMO.instanceAdmin,
+};
 
 export interface Fixtures {
   machineId: string;
@@ -48,8 +61,8 @@ export async function clientsByRole() {
   const own = {} as Record<Role, Client>;
   const other = {} as Record<Role, Client>;
   for (const r of ROLES) {
-    own[r] = await as(DEMO[r]);
-    other[r] = await as(OTHER[r]);
+    own[r] = await as(OWN[r]);
+    other[r] = r === 'instance_admin' ? own[r] : await as(OTHER[r]);
   }
   return { own, other, signedOut: new Client() };
 }
@@ -68,8 +81,8 @@ export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures>
   const layoutBody = (await olive.get(`/api/layouts/${layoutId}`)).body.current.body;
   const partNumber: string = (layoutBody.elements as { partNumber: string }[])[0]!.partNumber;
 
-  const family = (await own.admin.get(`/api/catalog/families/${familyId}`)).body;
-  const part = (await own.admin.get(`/api/catalog/parts/${partNumber}`)).body;
+  const family = (await own.instance_admin.get(`/api/catalog/families/${familyId}`)).body;
+  const part = (await own.instance_admin.get(`/api/catalog/parts/${partNumber}`)).body;
 
   const share = await own.technician.post('/api/share-links', { layoutId, version: 1, label: 'matrix' });
   expect(share.status).toBe(201);
@@ -93,7 +106,7 @@ export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures>
   expect(pr.status, JSON.stringify(pr.body)).toBe(201);
   const partsRequestId: string = pr.body.id ?? pr.body.request?.id;
 
-  const people = (await own.admin.get('/api/admin/users')).body.users as { id: string; email: string; orgId: string; role: string }[];
+  const people = (await own.dealer_admin.get('/api/admin/users')).body.users as { id: string; email: string; orgId: string; role: string }[];
   const trainer = people.find((p) => p.email === DEMO.trainer)!;
   const member = { userId: trainer.id, orgId: trainer.orgId, role: trainer.role };
 

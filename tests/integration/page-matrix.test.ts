@@ -22,11 +22,15 @@ interface PageRow {
   publicStatus?: number;
 }
 
-const ALL: Role[] = ['operator', 'technician', 'trainer', 'admin'];
-const WRITERS: Role[] = ['operator', 'technician', 'admin'];
-const CATALOG_READERS: Role[] = ['technician', 'admin'];
-const ADMIN: Role[] = ['admin'];
+const ALL: Role[] = ['operator', 'technician', 'trainer', 'dealer_admin', 'instance_admin'];
+const WRITERS: Role[] = ['operator', 'technician', 'dealer_admin'];
+const CATALOG_READERS: Role[] = ['technician', 'dealer_admin', 'instance_admin'];
+const INSTANCE: Role[] = ['instance_admin'];
+const ADMINS: Role[] = ['dealer_admin', 'instance_admin'];
+const PRICE_READERS: Role[] = ['technician', 'dealer_admin'];
 const DECK: Role[] = ['trainer', 'technician'];
+/** Runs the installation, belongs to no tenant: a farm's or dealer's resource is a 404 to them. */
+const STRANGERS_TO_TENANTS: Role[] = ['instance_admin'];
 
 const machine = (f: Fixtures) => ({ id: f.machineId });
 const layoutOf = (f: Fixtures) => ({ id: f.machineId, layoutId: f.layoutId });
@@ -34,12 +38,15 @@ const deck = (f: Fixtures) => ({ deckId: f.deckId });
 
 const PAGES: Record<string, PageRow> = {
   '/': { allowed: ALL, other: 'own-data' },
+  '/account/password': { allowed: ALL, other: 'own-data' },
+  '/admin/backup': { allowed: INSTANCE, other: 'own-data' },
   '/admin/catalog': { allowed: CATALOG_READERS, other: 'own-data' },
   '/admin/catalog/families/[id]': { allowed: CATALOG_READERS, params: (f) => ({ id: f.familyId }), other: 'own-data' },
-  '/admin/catalog/families/new': { allowed: ADMIN, other: 'own-data' },
+  '/admin/catalog/families/new': { allowed: INSTANCE, other: 'own-data' },
   '/admin/catalog/parts/[partNumber]': { allowed: CATALOG_READERS, params: (f) => ({ partNumber: f.partNumber }), other: 'own-data' },
-  '/admin/catalog/parts/new': { allowed: ADMIN, other: 'own-data' },
-  '/admin/mailbox': { allowed: ADMIN, other: 'own-data' },
+  '/admin/catalog/parts/new': { allowed: INSTANCE, other: 'own-data' },
+  '/admin/mailbox': { allowed: ADMINS, other: 'own-data' },
+  '/admin/prices': { allowed: PRICE_READERS, other: 'own-data' },
   '/classroom': { allowed: DECK, other: 'own-data' },
   '/classroom/[deckId]': { allowed: DECK, params: deck, other: 'not-found' },
   '/classroom/[deckId]/present': { allowed: DECK, params: deck, other: 'not-found' },
@@ -97,7 +104,8 @@ describe('page role matrix', () => {
       }
       for (const role of ROLES) {
         const res = await clients.own[role].fetch(path);
-        const want = row.allowed.includes(role) ? 200 : 403;
+        const stranger = row.other === 'not-found' && STRANGERS_TO_TENANTS.includes(role);
+        const want = !row.allowed.includes(role) ? 403 : stranger ? 404 : 200;
         if (res.status !== want) problems.push(`${path} as ${role}: ${res.status}, expected ${want}`);
       }
     }

@@ -39,7 +39,8 @@ export async function mailbox(admin: Client) {
   const res = await admin.get('/api/admin/mailbox?limit=500');
   expect(res.status).toBe(200);
   return res.body as {
-    dir: string | null;
+    local: boolean;
+    scope: 'instance' | 'dealer';
     total: number;
     messages: {
       id: string;

@@ -9,7 +9,7 @@ let machineId: string;
 
 beforeAll(async () => {
   olive = await signedIn('operator');
-  admin = await signedIn('admin');
+  admin = await signedIn('dealerAdmin');
   ({ machineId } = await ownMachine(olive, 'Planner test machine'));
 });
 
@@ -155,6 +155,6 @@ describe('the planner page', () => {
     const trainer = await signedIn('trainer');
     const res = await trainer.fetch('/planner');
     expect(res.status).toBe(403);
-    expect(await res.text()).toMatch(/for operators, technicians and administrators/);
+    expect(await res.text()).toMatch(/for operators, technicians and dealer administrators/);
   });
 });

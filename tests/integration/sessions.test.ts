@@ -39,7 +39,7 @@ describe('sign-out', () => {
 
 describe('role change', () => {
   it('ends every session of that person; they sign in again under the new role', async () => {
-    const admin = await as(OTHER.admin);
+    const admin = await as(OTHER.dealer_admin);
     const people = (await admin.get('/api/admin/users')).body.users as { id: string; email: string; orgId: string; role: string }[];
     const mara = people.find((p) => p.email === OTHER.trainer)!;
     const s1 = await as(OTHER.trainer);
@@ -61,11 +61,11 @@ describe('role change', () => {
   });
 
   it('refuses bad input by field, another dealer’s people as 404, and one’s own role', async () => {
-    const admin = await as(OTHER.admin);
-    const ownAdmin = await signedIn('admin');
+    const admin = await as(OTHER.dealer_admin);
+    const ownAdmin = await signedIn('dealerAdmin');
     const people = (await admin.get('/api/admin/users')).body.users as { id: string; email: string; orgId: string; role: string }[];
     const mara = people.find((p) => p.email === OTHER.trainer)!;
-    const self = people.find((p) => p.email === OTHER.admin)!;
+    const self = people.find((p) => p.email === OTHER.dealer_admin)!;
     const s = await as(OTHER.trainer);
     expect((await admin.put(`/api/admin/users/${mara.id}`, { orgId: mara.orgId, role: 'wizard' })).body.error.field).toBe('role');
     expect((await admin.put(`/api/admin/users/${mara.id}`, { orgId: 'x', role: 'operator' })).body.error.field).toBe('orgId');

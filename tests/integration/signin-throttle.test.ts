@@ -37,7 +37,7 @@ const stats = async (admin: Client) => (await admin.get('/api/admin/stats')).bod
 describe('sign-in throttle', () => {
   it('100 parallel wrong passwords for one account from 100 addresses: at most the limit are checked, every one audited', async () => {
     const admin = new Client(server.baseUrl);
-    await admin.signIn(DEMO.admin, undefined, from(9000));
+    await admin.signIn(DEMO.instanceAdmin, undefined, from(9000));
     const before = await stats(admin);
     const results = await Promise.all(Array.from({ length: 100 }, (_, i) => attempt(DEMO.trainer, `wrong-${i}`, from(i))));
     // A checked password answers "credentials"; a refused reservation "throttled-<time>".

@@ -118,7 +118,7 @@ describe('a slow or hanging service never freezes the store', () => {
     tech = new Client(server.baseUrl);
     olive = new Client(server.baseUrl);
     admin = new Client(server.baseUrl);
-    await Promise.all([tech.signIn(DEMO.technician), olive.signIn(DEMO.operator), admin.signIn(DEMO.admin)]);
+    await Promise.all([tech.signIn(DEMO.technician), olive.signIn(DEMO.operator), admin.signIn(DEMO.dealerAdmin)]);
   };
 
   beforeAll(async () => {

@@ -104,7 +104,7 @@ describe.skipIf(!PG)('two server processes on one PostgreSQL database (skipped w
   });
 
   it('share role changes: a role changed on one ends the person’s sessions on the other', async () => {
-    const { c: admin } = await signIn(a, OTHER.admin);
+    const { c: admin } = await signIn(a, OTHER.dealer_admin);
     const people = (await admin.get('/api/admin/users')).body.users as { id: string; email: string; orgId: string }[];
     const mara = people.find((p) => p.email === OTHER.trainer)!;
     const { c: onB } = await signIn(b, OTHER.trainer);

@@ -188,7 +188,7 @@ export default function PartForm({ families, existing, readOnly = false }: PartF
           <input id="f-part-massKg" className="field-input" type="number" step="0.1" {...register('part.massKg', num)} />
         </Field>
         <Field
-          label="Unit price, cents"
+          label="List price, cents (dealers may set their own)"
           path="part.priceCents"
           errors={errors}
           hint={Number.isFinite(price) ? `= ${(Number(price) / 100).toLocaleString('en', { minimumFractionDigits: 2 })}` : 'Whole cents: 118500 is 1,185.00'}

@@ -76,7 +76,7 @@ function Table({ families, canEdit }: PartsTableProps) {
       col.accessor('kind', { header: 'Kind', cell: (c) => KIND_WORDS[c.getValue()], filterFn: 'equals' }),
       col.accessor((r) => detail(r.spec), { id: 'detail', header: 'Details', enableSorting: false }),
       col.accessor((r) => r.spec.massKg, { id: 'mass', header: 'Mass, kg', cell: (c) => c.getValue().toFixed(1) }),
-      col.accessor((r) => r.spec.priceCents, { id: 'price', header: 'Unit price', cell: (c) => money(c.getValue()) }),
+      col.accessor((r) => r.spec.priceCents, { id: 'price', header: 'List price', cell: (c) => money(c.getValue()) }),
       col.accessor('active', {
         header: 'Status',
         cell: (c) => (c.getValue() ? 'Active' : 'Retired'),

@@ -34,3 +34,18 @@ export const stock = pgTable(
   },
   (t) => [primaryKey({ columns: [t.orgId, t.partNumber] })],
 );
+
+/**
+ * A dealer's own price for a catalog part, in whole cents. Where a dealer has no price for a
+ * part, the catalog's list price (`spec.priceCents`, kept by the instance administrators) applies.
+ */
+export const dealerPrices = pgTable(
+  'dealer_prices',
+  {
+    dealerId: uuid('dealer_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+    partNumber: text('part_number').notNull().references(() => catalogParts.partNumber),
+    priceCents: integer('price_cents').notNull(),
+    updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [primaryKey({ columns: [t.dealerId, t.partNumber] })],
+);

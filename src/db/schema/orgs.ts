@@ -1,10 +1,13 @@
 import { pgTable, text, uuid, timestamp, primaryKey, index } from 'drizzle-orm/pg-core';
 
-/** A farm or a dealer. A farm may name the dealer that serves it. */
+/**
+ * A farm, a dealer, or the installation itself ('instance': holds the instance administrators,
+ * who run the installation and see no tenant's machines). A farm may name the dealer that serves it.
+ */
 export const organisations = pgTable('organisations', {
   id: uuid('id').primaryKey().defaultRandom(),
   name: text('name').notNull(),
-  kind: text('kind', { enum: ['farm', 'dealer'] }).notNull(),
+  kind: text('kind', { enum: ['farm', 'dealer', 'instance'] }).notNull(),
   dealerId: uuid('dealer_id'),
   partsDeskEmail: text('parts_desk_email'),
   ownerEmail: text('owner_email'),
@@ -20,7 +23,12 @@ export const users = pgTable('users', {
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
-export const roles = ['operator', 'technician', 'trainer', 'admin'] as const;
+/**
+ * Roles are held per membership. `instance_admin` runs the installation (backups, instance
+ * settings, the shared machine-family catalog); `dealer_admin` runs one dealer (its people,
+ * customer farms, price list, stock and mailbox).
+ */
+export const roles = ['operator', 'technician', 'trainer', 'dealer_admin', 'instance_admin'] as const;
 export type Role = (typeof roles)[number];
 
 /** A user's place in an organisation, with the role they hold there. */

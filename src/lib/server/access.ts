@@ -15,7 +15,7 @@ export interface Actor {
   visibleOrgIds: string[];
   /** The organisation the user acts for by default (the first membership). */
   homeOrgId: string;
-  homeOrgKind: 'farm' | 'dealer';
+  homeOrgKind: 'farm' | 'dealer' | 'instance';
 }
 
 /**
@@ -26,7 +26,7 @@ export interface Actor {
 export async function loadActor(db: Db, userId: string, sessionId: string): Promise<Actor | null> {
   const result = await db.execute(sql`
     select u.id, u.email, u.name, u.unit_system, m.org_id, m.role, o.kind as org_kind,
-      case when o.kind = 'dealer' and m.role in ('technician', 'trainer', 'admin')
+      case when o.kind = 'dealer' and m.role in ('technician', 'trainer', 'dealer_admin')
         then (select coalesce(array_agg(f.id::text), '{}') from organisations f where f.kind = 'farm' and f.dealer_id = o.id)
         else '{}'::text[] end as customer_ids
     from users u
@@ -37,7 +37,7 @@ export async function loadActor(db: Db, userId: string, sessionId: string): Prom
     order by o.kind, o.name`);
   const rows = result.rows as {
     id: string; email: string; name: string; unit_system: 'metric' | 'imperial';
-    org_id: string; role: Role; org_kind: 'farm' | 'dealer'; customer_ids: string[];
+    org_id: string; role: Role; org_kind: 'farm' | 'dealer' | 'instance'; customer_ids: string[];
   }[];
   // Dealer memberships sort first ('dealer' < 'farm'), so dealer staff act for the dealer.
   const home = rows[0];
@@ -102,4 +102,18 @@ export function canSeeOrg(actor: Actor, orgId: string): boolean {
   return actor.visibleOrgIds.includes(orgId);
 }
 
-export const ALL_ROLES: readonly Role[] = ['operator', 'technician', 'trainer', 'admin'];
+export const ALL_ROLES: readonly Role[] = ['operator', 'technician', 'trainer', 'dealer_admin', 'instance_admin'];
+
+/** Runs the installation: backups, instance settings, the shared machine-family catalog. */
+export const INSTANCE_ADMINS = ['instance_admin'] as const satisfies readonly Role[];
+/** Runs one dealer: its people, customer farms, price list, stock and mailbox. */
+export const DEALER_ADMINS = ['dealer_admin'] as const satisfies readonly Role[];
+/** Either administrator; what each sees is scoped in the service (see `isInstanceAdmin`). */
+export const ADMIN_ROLES = ['dealer_admin', 'instance_admin'] as const satisfies readonly Role[];
+
+export const isInstanceAdmin = (actor: Pick<Actor, 'role'>): boolean => actor.role === 'instance_admin';
+
+/** The dealer an actor works for (dealer staff), or null (farm people, instance administrators). */
+export function dealerOf(actor: Pick<Actor, 'homeOrgId' | 'homeOrgKind'>): string | null {
+  return actor.homeOrgKind === 'dealer' ? actor.homeOrgId : null;
+}

@@ -18,7 +18,8 @@ export const DEMO_USERS = [
   { email: 'dev@haldane.example', name: 'Dev Haldane', org: 'haldane', role: 'operator' },
   { email: 'tomas@kestrel.example', name: 'Tomas Reyes', org: 'kestrel', role: 'technician' },
   { email: 'priya@kestrel.example', name: 'Priya Nand', org: 'kestrel', role: 'trainer' },
-  { email: 'admin@kestrel.example', name: 'Ada Brennan', org: 'kestrel', role: 'admin' },
+  { email: 'admin@kestrel.example', name: 'Ada Brennan', org: 'kestrel', role: 'dealer_admin' },
+  { email: 'noor@cagewright.example', name: 'Noor Ashdown', org: 'instance', role: 'instance_admin' },
 ] as const;
 
 function familyOfKind(kind: MachineFamily['cageKind']): MachineFamily {
@@ -46,7 +47,9 @@ export async function seedDemo(db: Db) {
     const [haldane] = await tx.insert(t.organisations).values({
       name: 'Haldane Brothers', kind: 'farm', dealerId: kestrel!.id, ownerEmail: 'dev@haldane.example',
     }).returning();
-    const orgs = { kestrel: kestrel!, larkspur: larkspur!, haldane: haldane! };
+    // The installation itself: holds the instance administrator, who sees no tenant's machines.
+    const [instance] = await tx.insert(t.organisations).values({ name: 'Cagewright installation', kind: 'instance' }).returning();
+    const orgs = { kestrel: kestrel!, larkspur: larkspur!, haldane: haldane!, instance: instance! };
 
     const userIds: Record<string, string> = {};
     for (const u of DEMO_USERS) {
@@ -65,6 +68,8 @@ export async function seedDemo(db: Db) {
     // The dealer keeps a few of most parts; farms keep a handful of spares.
     const dealerStock = demoCatalog.map((p, i) => ({ orgId: kestrel!.id, partNumber: p.partNumber, quantity: (i * 7) % 5 }));
     await tx.insert(t.stock).values(dealerStock);
+    // The dealer's own price list, started at the catalog's list prices (its administrator edits it).
+    await tx.insert(t.dealerPrices).values(demoCatalog.map((p) => ({ dealerId: kestrel!.id, partNumber: p.partNumber, priceCents: p.priceCents })));
 
     const modular = familyOfKind('modular');
     const split = familyOfKind('split');

@@ -25,7 +25,7 @@ export async function seedTestFixtures(db: Db) {
     const people = [
       [FIXTURE_USERS.otherTechnician, 'Rowan Pike', dealer!.id, 'technician'],
       [FIXTURE_USERS.otherTrainer, 'Mara Quill', dealer!.id, 'trainer'],
-      [FIXTURE_USERS.otherAdmin, 'Ivo Stenner', dealer!.id, 'admin'],
+      [FIXTURE_USERS.otherAdmin, 'Ivo Stenner', dealer!.id, 'dealer_admin'],
       [FIXTURE_USERS.otherOperator, 'June Fenwick', farm!.id, 'operator'],
     ] as const;
     let operatorId = '';

@@ -7,7 +7,7 @@ const checkRequestSchema = z.object({ layout: z.unknown().refine((v) => v !== un
 
 /** Stateless: the findings and computed settings for a layout; nothing is written. */
 export const POST = route(async (ctx) => {
-  requireActor(ctx);
+  const actor = requireActor(ctx);
   const { layout } = await readJson(ctx.request, checkRequestSchema);
-  return checkStateless(layout);
+  return checkStateless(layout, actor.homeOrgId);
 });

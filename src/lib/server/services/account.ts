@@ -1,12 +1,15 @@
 import { and, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../db';
-import { memberships, roles, users } from '../../../db/schema';
+import { memberships, users } from '../../../db/schema';
 import { forgetActors, type Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import { ACCOUNT_FREE, reserve } from '../auth/throttle';
+
+/** Roles a dealer administrator may give within their dealer. */
+const TENANT_ROLES = ['operator', 'technician', 'trainer', 'dealer_admin'] as const;
 
 export const passwordChangeSchema = z
   .object({
@@ -53,7 +56,8 @@ export async function changePassword(actor: Actor, input: z.infer<typeof passwor
 export const roleChangeSchema = z
   .object({
     orgId: z.uuid({ error: 'name the organisation by its id' }),
-    role: z.enum(roles, { error: `one of: ${roles.join(', ')}` }),
+    // An installation's administrator is made on the host (`npm run instance-admin`), never here.
+    role: z.enum(TENANT_ROLES, { error: `one of: ${TENANT_ROLES.join(', ')}` }),
   })
   .strict();
 

@@ -1,10 +1,10 @@
 import { and, count, desc, eq, inArray } from 'drizzle-orm';
 import { getDb } from '../db';
-import { machines, organisations, partsRequests, decks, families } from '../../../db/schema';
+import { machines, organisations, partsRequests, decks, families, users } from '../../../db/schema';
 import type { Actor } from '../access';
 
 export interface HomeSummary {
-  orgs: { id: string; name: string; kind: 'farm' | 'dealer' }[];
+  orgs: { id: string; name: string; kind: 'farm' | 'dealer' | 'instance' }[];
   machines: { id: string; nickname: string; serial: string; familyName: string; orgName: string }[];
   openPartsRequests: number;
   decks: number;
@@ -31,4 +31,15 @@ export async function homeSummary(actor: Actor): Promise<HomeSummary> {
     db.select({ n: count() }).from(decks).where(inArray(decks.orgId, visible)),
   ]);
   return { orgs, machines: machineRows, openPartsRequests: requests?.n ?? 0, decks: deckCount?.n ?? 0 };
+}
+
+/** The instance administrator's overview: how many dealers, farms and people the installation holds. */
+export async function instanceSummary() {
+  const db = await getDb();
+  const [orgs, [people]] = await Promise.all([
+    db.select({ kind: organisations.kind, n: count() }).from(organisations).groupBy(organisations.kind),
+    db.select({ n: count() }).from(users),
+  ]);
+  const of = (kind: string) => orgs.find((o) => o.kind === kind)?.n ?? 0;
+  return { dealers: of('dealer'), farms: of('farm'), users: people?.n ?? 0 };
 }

@@ -25,7 +25,7 @@ import { catalogForFamily, installedLayout, machineForActor } from './machines';
 import { addLinesToDraftRequest } from './parts-requests';
 
 /** Who may start, fill in and finish an inspection. Everyone who can see the machine may read. */
-export const INSPECTION_WRITERS = ['operator', 'technician', 'admin'] as const;
+export const INSPECTION_WRITERS = ['operator', 'technician', 'dealer_admin'] as const;
 
 export type InspectionRow = typeof inspections.$inferSelect;
 export type InspectionItemRow = typeof inspectionItems.$inferSelect;
@@ -134,7 +134,7 @@ export async function startInspection(actor: Actor, machineId: string, input: z.
   const current = await installedLayout(ctx.machine.id, dbArg);
   if (!current)
     throw new HttpError(409, 'Nothing is recorded as installed on this machine yet, so there is no checklist to build. Record what is installed first.', 'machineId');
-  const catalog = await catalogForFamily(ctx.family.id, dbArg);
+  const catalog = await catalogForFamily(ctx.family.id, dbArg, ctx.machine.orgId);
   const lines = buildChecklist(ctx.family, current.layout, catalog);
   const db = dbArg ?? (await getDb());
   const title = input.title || 'Pre-season inspection';
@@ -353,7 +353,7 @@ export async function finishInspection(actor: Actor, id: string) {
   const ctx = await machineForActor(actor, row.machineId, db);
   const [items, catalog, current] = await Promise.all([
     db.select().from(inspectionItems).where(eq(inspectionItems.inspectionId, row.id)).orderBy(asc(inspectionItems.position)),
-    catalogForFamily(ctx.family.id, db),
+    catalogForFamily(ctx.family.id, db, ctx.machine.orgId),
     installedLayout(ctx.machine.id, db),
   ]);
   const { lines, unknown } = replacementLines(items, current?.layout ?? null, catalog);

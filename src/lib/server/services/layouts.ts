@@ -12,7 +12,7 @@ import { HttpError, notFound, whenNotFound } from '../http';
 import { catalogForFamily, machineForActor } from './machines';
 
 /** Who may change layouts. Trainers read them (for class) but do not change customers' plans. */
-export const LAYOUT_WRITERS = ['operator', 'technician', 'admin'] as const;
+export const LAYOUT_WRITERS = ['operator', 'technician', 'dealer_admin'] as const;
 
 export const createLayoutSchema = z.object({
   name: z.string().trim().min(1).max(120),
@@ -376,7 +376,7 @@ export async function compareVersions(actor: Actor, layoutId: string, a: number,
     versionOf(row.id, b).catch(whenNotFound(() => notFound(`This layout has no version ${b}`, 'b'))),
     machineForActor(actor, row.machineId),
   ]);
-  const catalog = await catalogForFamily(ctx.family.id);
+  const catalog = await catalogForFamily(ctx.family.id, undefined, ctx.machine.orgId);
   return {
     layout: row,
     machine: ctx.machine,

@@ -6,6 +6,7 @@ import { drumIdSchema, slugSchema, vaneControlSchema, type CatalogPart, type Mac
 import type { Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
+import { priceCatalogFor } from './prices';
 
 export type MachineRow = typeof machines.$inferSelect;
 
@@ -29,14 +30,19 @@ export async function machineForActor(actor: Actor, machineId: string, db?: Db):
   return row;
 }
 
-/** The active catalog parts that fit a family. */
-export async function catalogForFamily(familyId: string, db?: Db): Promise<CatalogPart[]> {
+/**
+ * The active catalog parts that fit a family. With `priceFor` (an organisation id) each part
+ * carries the price of the dealer serving that organisation (services/prices.ts); without it,
+ * the catalog's list price.
+ */
+export async function catalogForFamily(familyId: string, db?: Db, priceFor?: string): Promise<CatalogPart[]> {
   const d = db ?? (await getDb());
   const rows = await d
     .select({ spec: catalogParts.spec })
     .from(catalogParts)
     .where(and(eq(catalogParts.familyId, familyId), eq(catalogParts.active, true)));
-  return rows.map((r) => r.spec);
+  const catalog = rows.map((r) => r.spec);
+  return priceFor ? priceCatalogFor(catalog, priceFor, d) : catalog;
 }
 
 export async function familyById(familyId: string, db?: Db): Promise<MachineFamily | null> {
@@ -55,7 +61,7 @@ export async function installedLayout(machineId: string, db?: Db) {
 // Fleet: list, create, update and delete machines
 
 /** Who may add, change and remove machines. Trainers look but do not touch customers' fleets. */
-export const MACHINE_WRITERS = ['operator', 'technician', 'admin'] as const;
+export const MACHINE_WRITERS = ['operator', 'technician', 'dealer_admin'] as const;
 
 const text = (max: number) => z.string().trim().max(max);
 

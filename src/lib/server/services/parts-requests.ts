@@ -39,9 +39,9 @@ export type PartsRequestStatus = (typeof partsRequestStatuses)[number];
 export type PartsRequestSource = 'plan' | 'layout' | 'inspection' | 'manual';
 
 /** Who may make, edit, delete and submit requests. */
-export const PARTS_WRITERS = ['operator', 'technician', 'admin'] as const;
+export const PARTS_WRITERS = ['operator', 'technician', 'dealer_admin'] as const;
 /** Who moves a sent request through the parts desk's statuses (staff of the dealer it went to). */
-export const DESK_ROLES = ['technician', 'admin'] as const;
+export const DESK_ROLES = ['technician', 'dealer_admin'] as const;
 
 export const NEXT_STATUS: Partial<Record<PartsRequestStatus, PartsRequestStatus>> = {
   sent: 'acknowledged',
@@ -332,7 +332,7 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
     const version = await getVersion(actor, layout.id, input.version ?? layout.currentVersion).catch(
       whenNotFound(() => new HttpError(400, `version: this layout has no version ${input.version}`, 'version')),
     );
-    const [catalog, installed, shelf] = await Promise.all([catalogForFamily(family.id), installedLayout(machine.id), shelfOf(machine.orgId)]);
+    const [catalog, installed, shelf] = await Promise.all([catalogForFamily(family.id, undefined, machine.orgId), installedLayout(machine.id), shelfOf(machine.orgId)]);
     const bom = billOfMaterials(indexCatalog(catalog), version.body, installed?.layout ?? null, shelf);
     if (bom.unknown.length)
       throw new HttpError(400, `layoutId: the layout holds part numbers the catalog does not know (${bom.unknown.join(', ')})`, 'layoutId');
@@ -344,7 +344,7 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
     autoNote = `Parts for “${layout.name}” version ${version.version} on ${machine.nickname}.`;
   } else {
     const ctx = await machineForActor(actor, input.machineId);
-    lines = linesFromInput(input.lines, await catalogForFamily(ctx.family.id), 'lines', ctx.family.name);
+    lines = linesFromInput(input.lines, await catalogForFamily(ctx.family.id, undefined, ctx.machine.orgId), 'lines', ctx.family.name);
     machineId = ctx.machine.id;
     orgId = ctx.machine.orgId;
   }
@@ -376,7 +376,7 @@ export async function addLinesToDraftRequest(
 ): Promise<PartsRequestView> {
   const ctx = await machineForActor(actor, machineId);
   if (!(PARTS_WRITERS as readonly string[]).includes(actor.role)) throw new HttpError(403, `This needs one of these roles: ${PARTS_WRITERS.join(', ')}.`);
-  const added = linesFromInput(lines, await catalogForFamily(ctx.family.id), 'lines', ctx.family.name);
+  const added = linesFromInput(lines, await catalogForFamily(ctx.family.id, undefined, ctx.machine.orgId), 'lines', ctx.family.name);
   if (!added.length) throw new HttpError(400, 'lines: give at least one part with a quantity', 'lines');
   const db = await getDb();
   const id = await db.transaction(async (tx) => {
@@ -425,7 +425,7 @@ async function catalogOfRequest(row: Row): Promise<{ catalog: CatalogPart[]; fam
     .where(eq(machines.id, row.machineId))
     .limit(1);
   if (!m) return { catalog: [], familyName: 'this machine' };
-  return { catalog: await catalogForFamily(m.familyId), familyName: m.familyName };
+  return { catalog: await catalogForFamily(m.familyId, undefined, row.orgId), familyName: m.familyName };
 }
 
 export async function updatePartsRequest(actor: Actor, id: string, input: z.infer<typeof updatePartsRequestSchema>) {

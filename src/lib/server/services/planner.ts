@@ -17,7 +17,7 @@ import { createLayout, getLayout, saveVersion } from './layouts';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
 
 /** Who may run the planner and accept its plans (trainers look at layouts, they do not plan). */
-export const PLAN_ROLES = ['operator', 'technician', 'admin'] as const;
+export const PLAN_ROLES = ['operator', 'technician', 'dealer_admin'] as const;
 
 export const planRequestSchema = z.object({
   machineId: z.uuid(),
@@ -53,7 +53,7 @@ export async function shelfOf(orgId: string): Promise<Record<string, number>> {
 export async function planInputs(actor: Actor, machineId: string) {
   const ctx = await machineForActor(actor, machineId);
   const [catalog, installed, shelf] = await Promise.all([
-    catalogForFamily(ctx.family.id),
+    catalogForFamily(ctx.family.id, undefined, ctx.machine.orgId),
     installedLayout(ctx.machine.id),
     shelfOf(ctx.machine.orgId),
   ]);

@@ -5,6 +5,7 @@ import { catalogParts, layouts, layoutVersions, machines, organisations, shareLi
 import { computeSettings } from '../../domain/compute';
 import { checkLayout } from '../../domain/rules';
 import type { CatalogPart } from '../../domain/schemas';
+import { priceCatalogFor } from './prices';
 import type { Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
@@ -12,7 +13,7 @@ import { familyById } from './machines';
 import { hashToken, lookUpToken, newToken, statusOf } from '../share-links';
 
 /** Who may share and revoke: the same people who may change layouts. */
-export const SHARE_WRITERS = ['operator', 'technician', 'admin'] as const;
+export const SHARE_WRITERS = ['operator', 'technician', 'dealer_admin'] as const;
 
 
 export const createShareSchema = z.object({
@@ -152,6 +153,7 @@ async function shareView(layoutVersionId: string) {
       machineNickname: machines.nickname,
       machineSerial: machines.serial,
       familyId: machines.familyId,
+      orgId: machines.orgId,
       orgName: organisations.name,
     })
     .from(layoutVersions)
@@ -164,9 +166,12 @@ async function shareView(layoutVersionId: string) {
   const family = await familyById(v.familyId);
   if (!family) return null;
   // Retired parts still describe what an older version names, so the shared view lists them too.
-  const catalog: CatalogPart[] = (
-    await db.select({ spec: catalogParts.spec }).from(catalogParts).where(eq(catalogParts.familyId, family.id))
-  ).map((r) => r.spec);
+  // Prices as the machine's dealer charges them (services/prices.ts).
+  const catalog: CatalogPart[] = await priceCatalogFor(
+    (await db.select({ spec: catalogParts.spec }).from(catalogParts).where(eq(catalogParts.familyId, family.id))).map((r) => r.spec),
+    v.orgId,
+    db,
+  );
   return {
     ...v,
     family,

@@ -1,6 +1,7 @@
-import { count } from 'drizzle-orm';
+import { count, inArray, sql, type SQL } from 'drizzle-orm';
 import { getDb } from '../db';
 import * as t from '../../../db/schema';
+import { dealerOf, isInstanceAdmin, type Actor } from '../access';
 
 const TABLES = {
   organisations: t.organisations,
@@ -8,6 +9,7 @@ const TABLES = {
   memberships: t.memberships,
   families: t.families,
   catalogParts: t.catalogParts,
+  dealerPrices: t.dealerPrices,
   stock: t.stock,
   machines: t.machines,
   installed: t.installed,
@@ -23,14 +25,55 @@ const TABLES = {
   auditLog: t.auditLog,
 } as const;
 
-/** Row counts of every table: the admin's overview, and how tests prove nothing was written. */
-export async function tableCounts(): Promise<Record<keyof typeof TABLES, number>> {
+type Counts = Record<keyof typeof TABLES, number>;
+
+/**
+ * Which rows of each table concern a dealer: its own and its customer farms' (the actor's
+ * visible organisations). The machine families and the catalog are shared by every dealer.
+ */
+function scopeOf(visible: string[], dealerId: string | null): Record<keyof typeof TABLES, SQL | undefined> {
+  const ids = sql.join(visible.map((id) => sql`${id}::uuid`), sql`, `);
+  const inVisible = (col: SQL) => sql`${col} in (${ids})`;
+  return {
+    organisations: inArray(t.organisations.id, visible),
+    users: sql`exists (select 1 from ${t.memberships} m where m.user_id = ${t.users.id} and ${inVisible(sql`m.org_id`)})`,
+    memberships: inArray(t.memberships.orgId, visible),
+    families: undefined,
+    catalogParts: undefined,
+    dealerPrices: inArray(t.dealerPrices.dealerId, visible),
+    stock: inArray(t.stock.orgId, visible),
+    machines: inArray(t.machines.orgId, visible),
+    installed: sql`exists (select 1 from ${t.machines} m where m.id = ${t.installed.machineId} and ${inVisible(sql`m.org_id`)})`,
+    layouts: inArray(t.layouts.orgId, visible),
+    layoutVersions: sql`exists (select 1 from ${t.layouts} l where l.id = ${t.layoutVersions.layoutId} and ${inVisible(sql`l.org_id`)})`,
+    shareLinks: inArray(t.shareLinks.orgId, visible),
+    inspections: inArray(t.inspections.orgId, visible),
+    inspectionItems: sql`exists (select 1 from ${t.inspections} i where i.id = ${t.inspectionItems.inspectionId} and ${inVisible(sql`i.org_id`)})`,
+    photos: inArray(t.photos.orgId, visible),
+    partsRequests: dealerId
+      ? sql`(${inVisible(sql`${t.partsRequests.orgId}`)} or ${t.partsRequests.dealerOrgId} = ${dealerId}::uuid)`
+      : inArray(t.partsRequests.orgId, visible),
+    decks: inArray(t.decks.orgId, visible),
+    deckSlides: sql`exists (select 1 from ${t.decks} d where d.id = ${t.deckSlides.deckId} and ${inVisible(sql`d.org_id`)})`,
+    auditLog: inArray(t.auditLog.orgId, visible),
+  };
+}
+
+/**
+ * Row counts of every table: the administrators' overview, and how tests prove nothing was
+ * written. The instance administrator (and the server itself, with no actor) counts every row;
+ * a dealer administrator counts only what concerns their dealer and its customer farms.
+ */
+export async function tableCounts(actor?: Actor): Promise<Counts> {
   const db = await getDb();
+  const scoped = actor && !isInstanceAdmin(actor);
+  const scope = scoped ? scopeOf(actor.visibleOrgIds.length ? actor.visibleOrgIds : ['00000000-0000-0000-0000-000000000000'], dealerOf(actor)) : null;
   const entries = await Promise.all(
     Object.entries(TABLES).map(async ([name, table]) => {
-      const [row] = await db.select({ n: count() }).from(table);
+      const where = scope?.[name as keyof typeof TABLES];
+      const [row] = await db.select({ n: count() }).from(table).where(where);
       return [name, row?.n ?? 0] as const;
     }),
   );
-  return Object.fromEntries(entries) as Record<keyof typeof TABLES, number>;
+  return Object.fromEntries(entries) as Counts;
 }

@@ -2,7 +2,7 @@ import { eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../db';
 import { memberships, organisations, users } from '../../../db/schema';
-import { forgetActors, type Actor } from '../access';
+import { forgetActors, isInstanceAdmin, type Actor } from '../access';
 import { audit } from '../audit';
 
 export const preferencesSchema = z.object({ unitSystem: z.enum(['metric', 'imperial']) }).strict();
@@ -22,14 +22,18 @@ export async function updatePreferences(actor: Actor, prefs: z.infer<typeof pref
   return { ...me(actor), ...prefs };
 }
 
-/** Users of the organisations the admin can see, with their roles. */
+/**
+ * Users with their roles: of the organisations a dealer administrator sees (their dealer and its
+ * customer farms); of every organisation for the instance administrator, who runs the installation.
+ */
 export async function listUsers(actor: Actor) {
   const db = await getDb();
-  return db
+  const q = db
     .select({ id: users.id, email: users.email, name: users.name, role: memberships.role, orgId: organisations.id, orgName: organisations.name })
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .innerJoin(organisations, eq(organisations.id, memberships.orgId))
-    .where(inArray(memberships.orgId, actor.visibleOrgIds))
+    .where(isInstanceAdmin(actor) ? undefined : inArray(memberships.orgId, actor.visibleOrgIds))
     .orderBy(organisations.name, users.name);
+  return q;
 }

@@ -3,16 +3,31 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { APIContext } from 'astro';
 import { dataDir, store } from '../../../lib/server/db';
+import { INSTANCE_ADMINS } from '../../../lib/server/access';
 import { errorResponse, HttpError, requireActor, route } from '../../../lib/server/http';
+import { withoutSecrets } from '../../../../scripts/lib/backup-archive.mjs';
 
 /**
- * A consistent snapshot of the embedded store while the server runs. Admins may call it; so may
- * `npm run backup` on the same machine, which proves itself with the token the start script
- * wrote into the data directory (readable only by the server's user).
+ * A consistent snapshot of the embedded store while the server runs, for an instance
+ * administrator, or for `npm run backup` on the same host. The script proves it runs here with
+ * the token the start script writes into the data directory at every start (readable only by
+ * the server's user, never archived, so an old archive's token opens nothing), and only over
+ * the loopback interface. The archive never carries the session secret, the token or the owner
+ * file (scripts/lib/backup-archive.mjs).
  */
+function isLoopback(ctx: APIContext): boolean {
+  let address = '';
+  try {
+    address = ctx.clientAddress;
+  } catch {
+    return false;
+  }
+  return address === '127.0.0.1' || address === '::1' || address === '::ffff:127.0.0.1';
+}
+
 function localTokenMatches(ctx: APIContext): boolean {
   const sent = ctx.request.headers.get('x-cagewright-backup-token');
-  if (!sent) return false;
+  if (!sent || !isLoopback(ctx)) return false;
   let expected: string;
   try {
     expected = readFileSync(join(dataDir(), 'backup-token'), 'utf8').trim();
@@ -21,16 +36,17 @@ function localTokenMatches(ctx: APIContext): boolean {
   }
   const a = Buffer.from(sent);
   const b = Buffer.from(expected);
-  return a.length === b.length && timingSafeEqual(a, b);
+  return expected.length >= 32 && a.length === b.length && timingSafeEqual(a, b);
 }
 
 export const POST = route(async (ctx) => {
-  if (!localTokenMatches(ctx)) requireActor(ctx, ['admin']);
+  if (!localTokenMatches(ctx)) requireActor(ctx, INSTANCE_ADMINS);
   const s = await store();
   if (!s.dump) throw new HttpError(501, 'The server uses a PostgreSQL server: back it up with pg_dump (npm run backup does).');
   const blob = await s.dump();
+  const archive = await withoutSecrets(new Uint8Array(await blob.arrayBuffer()));
   const stamp = new Date().toISOString().replace(/[:.]/g, '-');
-  return new Response(blob, {
+  return new Response(new Uint8Array(archive), {
     status: 200,
     headers: {
       'content-type': 'application/gzip',

@@ -1,9 +1,10 @@
 import { parseId, readJson, requireActor, route } from '../../../../lib/server/http';
+import { DEALER_ADMINS } from '../../../../lib/server/access';
 import { changeRole, roleChangeSchema } from '../../../../lib/server/services/account';
 
-/** Changes a person's role in one of the administrator's organisations; their sessions end. */
+/** A dealer administrator changes a person's role in their own dealer; their sessions end. */
 export const PUT = route(async (ctx) => {
-  const actor = requireActor(ctx, ['admin']);
+  const actor = requireActor(ctx, DEALER_ADMINS);
   const userId = parseId(ctx.params.id);
   const input = await readJson(ctx.request, roleChangeSchema);
   return changeRole(actor, userId, input);

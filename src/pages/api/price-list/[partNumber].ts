@@ -1,0 +1,23 @@
+import { partNumberSchema } from '../../../lib/domain/schemas';
+import { notFound, readJson, requireActor, route } from '../../../lib/server/http';
+import { clearDealerPrice, PRICE_WRITERS, setDealerPrice, setPriceSchema } from '../../../lib/server/services/prices';
+
+function partNumber(raw: string | undefined): string {
+  const parsed = partNumberSchema.safeParse(raw);
+  if (!parsed.success) throw notFound('Part not found', 'partNumber');
+  return parsed.data;
+}
+
+/** `{ priceCents }`: the caller's dealer's price for this part. */
+export const PUT = route(async (ctx) => {
+  const actor = requireActor(ctx, PRICE_WRITERS);
+  const pn = partNumber(ctx.params.partNumber);
+  const { priceCents } = await readJson(ctx.request, setPriceSchema);
+  return setDealerPrice(actor, pn, priceCents);
+});
+
+/** Drops the dealer's own price: the catalog's list price applies again. */
+export const DELETE = route(async (ctx) => {
+  const actor = requireActor(ctx, PRICE_WRITERS);
+  return clearDealerPrice(actor, partNumber(ctx.params.partNumber));
+});
