@@ -43,7 +43,15 @@ const started = Date.now();
 // The fakes start while the server loads; the app reads their addresses lazily, and the store
 // (whose demo seed stores photos) opens only at the health check below, after both are up.
 globalThis.__cagewrightBootReady = Promise.all(fakes);
-await Promise.all([import(pathToFileURL(entry).href), globalThis.__cagewrightBootReady]);
+// We start Astro's standalone server ourselves (instead of on import) to reach its http server:
+// files it serves itself (/_astro/*, /fonts/*, the favicon) never pass the middleware, so the
+// headers every answer needs are set here, before any handler runs; pages and the API set the rest.
+process.env.ASTRO_NODE_AUTOSTART = 'disabled';
+const [app] = await Promise.all([import(pathToFileURL(entry).href), globalThis.__cagewrightBootReady]);
+const { server: astroServer } = app.startServer();
+astroServer.server.prependListener('request', (_req, res) => {
+  res.setHeader('x-content-type-options', 'nosniff');
+});
 
 const base = `http://${process.env.HOST}:${process.env.PORT}`;
 for (let attempt = 0; ; attempt++) {

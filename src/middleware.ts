@@ -2,7 +2,8 @@ import { defineMiddleware, sequence } from 'astro:middleware';
 import { sessionUserId } from './lib/server/auth/session';
 import { store } from './lib/server/db';
 import { actorFor } from './lib/server/access';
-import { errorResponse } from './lib/server/http';
+import { errorResponse, HttpError, refuseUnstorable } from './lib/server/http';
+import { setSecurityHeaders } from './lib/server/security-headers';
 import { DataDirInUseError } from './lib/server/data-dir-lock';
 
 /**
@@ -13,38 +14,62 @@ const PUBLIC = [/^\/signin\/?$/, /^\/api\/auth\//, /^\/share\//, /^\/api\/health
 
 const isPublic = (path: string) => PUBLIC.some((re) => re.test(path));
 
-const CSP = [
-  "default-src 'self'",
-  "script-src 'self' 'unsafe-inline'",
-  "style-src 'self' 'unsafe-inline'",
-  "img-src 'self' data: blob:",
-  "font-src 'self'",
-  "connect-src 'self'",
-  "object-src 'none'",
-  "base-uri 'self'",
-  "form-action 'self'",
-  "frame-ancestors 'none'",
-].join('; ');
+/** The longest query parameter value any route reads; longer ones are refused. */
+const MAX_QUERY_VALUE = 2000;
 
-function setSecurityHeaders(h: Headers) {
-  if (!h.has('content-security-policy')) h.set('content-security-policy', CSP);
-  h.set('x-content-type-options', 'nosniff');
-  h.set('referrer-policy', 'same-origin');
-  h.set('x-frame-options', 'DENY');
-  h.set('permissions-policy', 'camera=(self), geolocation=(), microphone=()');
+const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+
+/** A refusal in the form the caller reads: JSON for the API, a small page for people. */
+function refusal(path: string, err: HttpError): Response {
+  if (path.startsWith('/api/')) return errorResponse(err.status, err.message, err.field, err.extra);
+  const page = `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1"><title>Cagewright: request refused</title></head><body><main><h1>That request could not be used</h1><p${err.field ? ` data-field="${escapeHtml(err.field)}"` : ''}>${escapeHtml(err.message)}</p><p><a href="/">Back to Cagewright</a></p></main></body></html>`;
+  return new Response(page, { status: err.status, headers: { 'content-type': 'text/html; charset=utf-8' } });
 }
 
-const securityHeaders = defineMiddleware(async (_ctx, next) => {
-  const res = await next();
+const securityHeaders = defineMiddleware(async (ctx, next) => {
+  let res: Response;
   try {
-    setSecurityHeaders(res.headers);
+    res = await next();
+  } catch (err) {
+    // A page that reads a form refuses bad input by throwing (readForm): answer with its status.
+    if (err instanceof HttpError) res = refusal(ctx.url.pathname, err);
+    else throw err;
+  }
+  const apply = (h: Headers) => {
+    const html = (h.get('content-type') ?? '').toLowerCase().startsWith('text/html');
+    setSecurityHeaders(h, { html, signedIn: !!ctx.locals.actor });
+    // The rest of a refused upload is not read: close the connection so the server drops it.
+    if (res.status === 413) h.set('connection', 'close');
+  };
+  try {
+    apply(res.headers);
     return res;
   } catch {
     // Some responses (redirects made by Response.redirect) have immutable headers: copy them.
     const copy = new Response(res.body, res);
-    setSecurityHeaders(copy.headers);
+    apply(copy.headers);
     return copy;
   }
+});
+
+/**
+ * Query and path parameters are checked once, here, for every route: a NUL character or a lone
+ * surrogate (in a name or a value), or a value longer than any route reads, is a 400 naming the
+ * parameter before any route or the store sees it. JSON bodies and forms are checked where they
+ * are read (readJson, readForm).
+ */
+const inputGuard = defineMiddleware(async (ctx, next) => {
+  try {
+    for (const [name, value] of ctx.url.searchParams) {
+      refuseUnstorable({ [name]: value });
+      if (value.length > MAX_QUERY_VALUE) throw new HttpError(400, `${name}: too long (at most ${MAX_QUERY_VALUE} characters)`, name);
+    }
+    refuseUnstorable(Object.fromEntries(Object.entries(ctx.params ?? {}).filter(([, v]) => typeof v === 'string')));
+  } catch (err) {
+    if (err instanceof HttpError) return refusal(ctx.url.pathname, err);
+    throw err;
+  }
+  return next();
 });
 
 const identity = defineMiddleware(async (ctx, next) => {
@@ -69,4 +94,4 @@ const identity = defineMiddleware(async (ctx, next) => {
   return next();
 });
 
-export const onRequest = sequence(securityHeaders, identity);
+export const onRequest = sequence(securityHeaders, inputGuard, identity);
