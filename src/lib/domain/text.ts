@@ -24,24 +24,34 @@ export const visibleText = (s: string) => s.replace(/\u0000/g, '\\0').replace(/[
 
 /**
  * The first string in a parsed value (object keys included) that the store cannot keep, as a
- * field path such as `lines.2.description`; null when every string is fine. Depth is bounded
- * by the JSON parser's own input; the walk is iterative so deep nesting cannot overflow it.
+ * field path such as `lines.2.description`; null when every string is fine. The walk is
+ * iterative and each entry points at its parent (the path is built only for the culprit), so a
+ * deeply nested body costs time in proportion to its size and cannot overflow the stack.
  */
 export function findUnstorable(value: unknown, prefix: (string | number)[] = []): string | null {
-  const stack: { v: unknown; path: (string | number)[] }[] = [{ v: value, path: prefix }];
+  interface Entry {
+    v: unknown;
+    key: string | number | null;
+    parent: Entry | null;
+  }
+  const pathOf = (e: Entry | null, last?: string): string => {
+    const keys: (string | number)[] = last === undefined ? [] : [last];
+    for (let at = e; at; at = at.parent) if (at.key !== null) keys.push(at.key);
+    return [...prefix, ...keys.reverse()].map(String).join('.') || 'body';
+  };
+  const stack: Entry[] = [{ v: value, key: null, parent: null }];
   while (stack.length) {
-    const { v, path } = stack.pop()!;
+    const e = stack.pop()!;
+    const v = e.v;
     if (typeof v === 'string') {
-      if (!isStorableText(v)) return fieldPath(path);
+      if (!isStorableText(v)) return pathOf(e);
     } else if (Array.isArray(v)) {
-      for (let i = v.length - 1; i >= 0; i--) stack.push({ v: v[i], path: [...path, i] });
+      for (let i = v.length - 1; i >= 0; i--) stack.push({ v: v[i], key: i, parent: e });
     } else if (v && typeof v === 'object') {
       const entries = Object.entries(v as Record<string, unknown>);
-      for (const [k] of entries) if (!isStorableText(k)) return fieldPath([...path, visibleText(k)]);
-      for (let i = entries.length - 1; i >= 0; i--) stack.push({ v: entries[i]![1], path: [...path, entries[i]![0]] });
+      for (const [k] of entries) if (!isStorableText(k)) return pathOf(e, visibleText(k));
+      for (let i = entries.length - 1; i >= 0; i--) stack.push({ v: entries[i]![1], key: entries[i]![0], parent: e });
     }
   }
   return null;
 }
-
-const fieldPath = (path: (string | number)[]) => path.map(String).join('.') || 'body';
