@@ -49,8 +49,17 @@ globalThis.__cagewrightBootReady = Promise.all(fakes);
 process.env.ASTRO_NODE_AUTOSTART = 'disabled';
 const [app] = await Promise.all([import(pathToFileURL(entry).href), globalThis.__cagewrightBootReady]);
 const { server: astroServer } = app.startServer();
+// Same rule as src/lib/server/security-headers.ts: HSTS only when the public URL is https.
+const httpsOnly = (() => {
+  try {
+    return new URL(process.env.CAGEWRIGHT_PUBLIC_URL?.trim() ?? '').protocol === 'https:';
+  } catch {
+    return false;
+  }
+})();
 astroServer.server.prependListener('request', (_req, res) => {
   res.setHeader('x-content-type-options', 'nosniff');
+  if (httpsOnly) res.setHeader('strict-transport-security', 'max-age=31536000');
 });
 
 const base = `http://${process.env.HOST}:${process.env.PORT}`;
