@@ -57,9 +57,20 @@ const httpsOnly = (() => {
     return false;
   }
 })();
-astroServer.server.prependListener('request', (_req, res) => {
+astroServer.server.prependListener('request', (req, res) => {
   res.setHeader('x-content-type-options', 'nosniff');
   if (httpsOnly) res.setHeader('strict-transport-security', 'max-age=31536000');
+  // A body refused before it was read to the end (413 while streaming): the answer is sent, then
+  // the rest is read and dropped for a moment so the client can read the answer (closing at once
+  // would reset the connection under it), and the connection is closed if it keeps coming.
+  res.once('finish', () => {
+    if (req.complete || req.destroyed) return;
+    req.on('data', () => {});
+    req.resume();
+    const timer = setTimeout(() => req.socket?.destroy(), 2000);
+    timer.unref();
+    req.once('end', () => clearTimeout(timer));
+  });
 });
 
 const base = `http://${process.env.HOST}:${process.env.PORT}`;

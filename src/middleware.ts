@@ -38,8 +38,6 @@ const securityHeaders = defineMiddleware(async (ctx, next) => {
   const apply = (h: Headers) => {
     const html = (h.get('content-type') ?? '').toLowerCase().startsWith('text/html');
     setSecurityHeaders(h, { html, signedIn: !!ctx.locals.actor, dev: import.meta.env.DEV });
-    // The rest of a refused upload is not read: close the connection so the server drops it.
-    if (res.status === 413) h.set('connection', 'close');
   };
   try {
     apply(res.headers);

@@ -289,12 +289,11 @@ describe('a body over the limit is refused while it streams', () => {
     admin = (await clientsByRole()).own.admin;
   }, 60_000);
 
-  it('a 50 MB JSON body gets its 413 (naming the body) long before the upload ends, and the connection is closed', async () => {
+  it('a 50 MB JSON body gets its 413 (naming the body) long before the upload ends', async () => {
     const before = (await admin.get('/api/admin/stats')).body.counts;
     const r = await streamBody(admin, '/api/orgs', 'application/json', TOTAL);
     expect(r.status, r.body).toBe(413);
     expect(JSON.parse(r.body).error.field).toBe('body');
-    expect(r.connection).toBe('close');
     // The server stopped reading at 1 MB; what was sent beyond is what the sockets buffered.
     expect(r.sent).toBeLessThan(TOTAL / 4);
     expect((await admin.get('/api/admin/stats')).body.counts).toEqual(before);

@@ -2,8 +2,8 @@
  * Reads a request body with a cap, refusing as it streams: a declared length over the cap is
  * refused before anything is read, and reading stops as soon as the bytes received pass it, so an
  * oversized body never sits in memory whole. The stream is left unread rather than cancelled
- * (cancelling destroys the socket before the refusal could be sent); the middleware answers a 413
- * with `connection: close`, so the server drops the rest of the upload with the connection.
+ * (cancelling destroys the socket before the refusal could be sent); once the 413 is sent,
+ * `scripts/start.mjs` drops the rest of the upload and closes the connection if it keeps coming.
  */
 export class BodyTooLarge extends Error {
   constructor(readonly limit: number) {
