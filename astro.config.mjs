@@ -24,6 +24,10 @@ export default defineConfig({
     checkOrigin: true,
     allowedDomains: [{ hostname: 'localhost' }, { hostname: '127.0.0.1' }, ...extraHosts],
   },
+  // Astro hashes every script it renders inline (the island bootstrap and hydration scripts) and
+  // sends the hashes in the page's Content-Security-Policy header, so pages need no
+  // 'unsafe-inline' for scripts; src/lib/server/security-headers.ts adds the other directives.
+  experimental: { csp: true },
   vite: {
     ssr: { external: ['@electric-sql/pglite', 'pg', 'nodemailer', 'smtp-server', 's3rver'] },
   },

@@ -51,9 +51,34 @@ const started = Date.now();
 globalThis.__cagewrightBootReady = Promise.all(fakes);
 // Astro's own standalone server would take the client address from X-Forwarded-For as sent:
 // serve its handler through ours instead, which decides the address (scripts/serve-app.mjs).
+// Files Astro serves itself (/_astro/*, /fonts/*, the favicon) never pass the middleware, so the
+// headers every answer needs are set on our server, before any handler runs.
 process.env.ASTRO_NODE_AUTOSTART = 'disabled';
 const [app] = await Promise.all([import(pathToFileURL(entry).href), globalThis.__cagewrightBootReady]);
-await serveApp(app.handler, { host: process.env.HOST, port: process.env.PORT });
+const astroServer = await serveApp(app.handler, { host: process.env.HOST, port: process.env.PORT });
+// Same rule as src/lib/server/security-headers.ts: HSTS only when the public URL is https.
+const httpsOnly = (() => {
+  try {
+    return new URL(process.env.CAGEWRIGHT_PUBLIC_URL?.trim() ?? '').protocol === 'https:';
+  } catch {
+    return false;
+  }
+})();
+astroServer.prependListener('request', (req, res) => {
+  res.setHeader('x-content-type-options', 'nosniff');
+  if (httpsOnly) res.setHeader('strict-transport-security', 'max-age=31536000');
+  // A body refused before it was read to the end (413 while streaming): the answer is sent, then
+  // the rest is read and dropped for a moment so the client can read the answer (closing at once
+  // would reset the connection under it), and the connection is closed if it keeps coming.
+  res.once('finish', () => {
+    if (req.complete || req.destroyed) return;
+    req.on('data', () => {});
+    req.resume();
+    const timer = setTimeout(() => req.socket?.destroy(), 2000);
+    timer.unref();
+    req.once('end', () => clearTimeout(timer));
+  });
+});
 
 const base = `http://${process.env.HOST}:${process.env.PORT}`;
 for (let attempt = 0; ; attempt++) {

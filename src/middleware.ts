@@ -3,7 +3,8 @@ import { sessionRef } from './lib/server/auth/session';
 import { withClientAddress } from './lib/server/auth/client-address';
 import { store } from './lib/server/db';
 import { actorFor } from './lib/server/access';
-import { errorResponse, HttpError } from './lib/server/http';
+import { errorResponse, HttpError, refuseUnstorable } from './lib/server/http';
+import { setSecurityHeaders } from './lib/server/security-headers';
 import { DataDirInUseError } from './lib/server/data-dir-lock';
 
 /**
@@ -14,38 +15,60 @@ const PUBLIC = [/^\/signin\/?$/, /^\/api\/auth\//, /^\/share\//, /^\/api\/health
 
 const isPublic = (path: string) => PUBLIC.some((re) => re.test(path));
 
-const CSP = [
-  "default-src 'self'",
-  "script-src 'self' 'unsafe-inline'",
-  "style-src 'self' 'unsafe-inline'",
-  "img-src 'self' data: blob:",
-  "font-src 'self'",
-  "connect-src 'self'",
-  "object-src 'none'",
-  "base-uri 'self'",
-  "form-action 'self'",
-  "frame-ancestors 'none'",
-].join('; ');
+/** The longest query parameter value any route reads; longer ones are refused. */
+const MAX_QUERY_VALUE = 2000;
 
-function setSecurityHeaders(h: Headers) {
-  if (!h.has('content-security-policy')) h.set('content-security-policy', CSP);
-  h.set('x-content-type-options', 'nosniff');
-  h.set('referrer-policy', 'same-origin');
-  h.set('x-frame-options', 'DENY');
-  h.set('permissions-policy', 'camera=(self), geolocation=(), microphone=()');
+const escapeHtml = (s: string) => s.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+
+/** A refusal in the form the caller reads: JSON for the API, a small page for people. */
+function refusal(path: string, err: HttpError): Response {
+  if (path.startsWith('/api/')) return errorResponse(err.status, err.message, err.field, err.extra);
+  const page = `<!doctype html><html lang="en"><head><meta charset="utf-8"><meta name="viewport" content="width=device-width, initial-scale=1"><title>Cagewright: request refused</title></head><body><main><h1>That request could not be used</h1><p${err.field ? ` data-field="${escapeHtml(err.field)}"` : ''}>${escapeHtml(err.message)}</p><p><a href="/">Back to Cagewright</a></p></main></body></html>`;
+  return new Response(page, { status: err.status, headers: { 'content-type': 'text/html; charset=utf-8' } });
 }
 
-const securityHeaders = defineMiddleware(async (_ctx, next) => {
-  const res = await next();
+const securityHeaders = defineMiddleware(async (ctx, next) => {
+  let res: Response;
   try {
-    setSecurityHeaders(res.headers);
+    res = await next();
+  } catch (err) {
+    // A page that reads a form refuses bad input by throwing (readForm): answer with its status.
+    if (err instanceof HttpError) res = refusal(ctx.url.pathname, err);
+    else throw err;
+  }
+  const apply = (h: Headers) => {
+    const html = (h.get('content-type') ?? '').toLowerCase().startsWith('text/html');
+    setSecurityHeaders(h, { html, signedIn: !!ctx.locals.actor, dev: import.meta.env.DEV });
+  };
+  try {
+    apply(res.headers);
     return res;
   } catch {
     // Some responses (redirects made by Response.redirect) have immutable headers: copy them.
     const copy = new Response(res.body, res);
-    setSecurityHeaders(copy.headers);
+    apply(copy.headers);
     return copy;
   }
+});
+
+/**
+ * Query and path parameters are checked once, here, for every route: a NUL character or a lone
+ * surrogate (in a name or a value), or a value longer than any route reads, is a 400 naming the
+ * parameter before any route or the store sees it. JSON bodies and forms are checked where they
+ * are read (readJson, readForm).
+ */
+const inputGuard = defineMiddleware(async (ctx, next) => {
+  try {
+    for (const [name, value] of ctx.url.searchParams) {
+      refuseUnstorable({ [name]: value });
+      if (value.length > MAX_QUERY_VALUE) throw new HttpError(400, `${name}: too long (at most ${MAX_QUERY_VALUE} characters)`, name);
+    }
+    refuseUnstorable(Object.fromEntries(Object.entries(ctx.params ?? {}).filter(([, v]) => typeof v === 'string')));
+  } catch (err) {
+    if (err instanceof HttpError) return refusal(ctx.url.pathname, err);
+    throw err;
+  }
+  return next();
 });
 
 const identity = defineMiddleware(async (ctx, next) => {
@@ -71,24 +94,8 @@ const identity = defineMiddleware(async (ctx, next) => {
     const nextUrl = encodeURIComponent(path + ctx.url.search);
     return ctx.redirect(`/signin?next=${nextUrl}`, 303);
   }
-  if (isApi) return next();
-  try {
-    return await next();
-  } catch (err) {
-    // A page that lets a refusal through (a form that is not a form, one too large) answers with
-    // its status and message, never a 500; anything else is still a fault.
-    if (err instanceof HttpError && err.status < 500) return errorPage(err.status, err.message);
-    throw err;
-  }
+  return next();
 });
-
-function errorPage(status: number, message: string): Response {
-  const text = message.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
-  return new Response(`<!doctype html><html lang="en"><meta charset="utf-8"><title>Cagewright</title><main><h1>That did not work</h1><p>${text}</p><p><a href="/">Back to the start</a></p></main></html>`, {
-    status,
-    headers: { 'content-type': 'text/html; charset=utf-8', 'cache-control': 'no-store' },
-  });
-}
 
 function clientAddressOf(ctx: { clientAddress: string }): string | null {
   try {
@@ -122,4 +129,4 @@ const signInContext = defineMiddleware(async (ctx, next) => {
   return res;
 });
 
-export const onRequest = sequence(securityHeaders, identity, signInContext);
+export const onRequest = sequence(securityHeaders, inputGuard, identity, signInContext);

@@ -9,3 +9,4 @@ export { checkLayout, checkPlacement, placePart, hasBlockingFindings, countBySev
 export * from './demo-catalog';
 export * from './starter';
 export * from './check-input';
+export * from './text';

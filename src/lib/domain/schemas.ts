@@ -8,6 +8,7 @@
  * zod refuses `.pick()`/`.omit()` on refined objects (forms may want a subset).
  */
 import { z } from 'zod';
+import { storableString } from './text';
 
 // ---------------------------------------------------------------------------------------------
 // Enumerations
@@ -117,7 +118,7 @@ export type CagePosition = z.infer<typeof cagePositionSchema>;
 
 export const drumOptionSchema = z.object({
   id: drumIdSchema,
-  label: z.string().min(1).max(60),
+  label: storableString().min(1).max(60),
   /** Across the rasp bars. */
   diameterMm: z.number().min(200).max(1500),
 });
@@ -150,7 +151,7 @@ export type RotorBarPlace = z.infer<typeof rotorBarPlaceSchema>;
 
 export const machineFamilyBaseSchema = z.object({
   id: slugSchema,
-  name: z.string().min(1).max(80),
+  name: storableString().min(1).max(80),
   /** Parts fit a family when their fitGroup matches. Families of one generation may share it. */
   fitGroup: slugSchema,
   cageKind: cageKindSchema,
@@ -209,7 +210,7 @@ export type MachineFamily = z.infer<typeof machineFamilySchema>;
 
 const partCommon = {
   partNumber: partNumberSchema,
-  name: z.string().min(1).max(120),
+  name: storableString().min(1).max(120),
   fitGroup: slugSchema,
   massKg: z.number().positive().max(500),
   /** Unit price in cents of the catalog currency. */
@@ -293,7 +294,7 @@ export const layoutBaseSchema = z.object({
   coverPlates: z.array(placedCoverPlateSchema).max(64),
   /** What is bolted at each rotor bar place; a place absent here has nothing bolted on. */
   rotorBars: z.array(placedRotorBarSchema).max(256),
-  note: z.string().max(2000).optional(),
+  note: storableString().max(2000).optional(),
 });
 
 export const layoutSchema = layoutBaseSchema.superRefine((l, ctx) => {

@@ -1,5 +1,6 @@
 import type { ZodType } from 'zod';
-import { HttpError } from './http';
+import { HttpError, refuseUnstorable } from './http';
+import { BodyTooLarge, readCapped } from './body';
 
 /**
  * Plain HTML forms posted to Astro pages (they work without JavaScript): read the fields,
@@ -11,13 +12,34 @@ export type FormResult<T> = { ok: true; data: T } | { ok: false; errors: FieldEr
 
 const MAX_FORM_BYTES = 100_000;
 
-/** The posted fields as strings; blank optional fields become absent. */
-export async function readForm(request: Request): Promise<Record<string, string>> {
+/**
+ * The posted form, read with a cap as it streams (413 past MAX_FORM_BYTES, whatever the declared
+ * length), with every field name and text value checked for characters the store cannot keep
+ * (400 naming the field). Pages use this instead of `request.formData()`.
+ */
+export async function readFormData(request: Request): Promise<FormData> {
   const type = request.headers.get('content-type') ?? '';
   if (!/application\/x-www-form-urlencoded|multipart\/form-data/i.test(type)) throw new HttpError(415, 'Send the form as a form.', 'content-type');
-  const len = Number(request.headers.get('content-length') ?? 0);
-  if (len > MAX_FORM_BYTES) throw new HttpError(413, 'The form is too large.', 'body');
-  const form = await request.formData();
+  let bytes: Uint8Array<ArrayBuffer>;
+  try {
+    bytes = await readCapped(request, MAX_FORM_BYTES);
+  } catch (err) {
+    if (err instanceof BodyTooLarge) throw new HttpError(413, 'The form is too large.', 'body');
+    throw new HttpError(400, 'The form could not be read.', 'body');
+  }
+  let form: FormData;
+  try {
+    form = await new Response(bytes, { headers: { 'content-type': type } }).formData();
+  } catch {
+    throw new HttpError(400, 'The form could not be read.', 'body');
+  }
+  for (const [k, v] of form.entries()) refuseUnstorable({ [k]: typeof v === 'string' ? v : '' });
+  return form;
+}
+
+/** The posted fields as strings; blank optional fields become absent. */
+export async function readForm(request: Request): Promise<Record<string, string>> {
+  const form = await readFormData(request);
   const out: Record<string, string> = {};
   for (const [k, v] of form.entries()) if (typeof v === 'string') out[k] = v;
   return out;

@@ -2,6 +2,8 @@ import type { APIContext } from 'astro';
 import { z, type ZodType } from 'zod';
 import type { Role } from '../../db/schema';
 import type { Actor } from './access';
+import { findUnstorable, UNSTORABLE_MESSAGE } from '../domain/text';
+import { BodyTooLarge, readCapped } from './body';
 
 /** An error a route maps to a status and a JSON body; `field` names the offending input. */
 export class HttpError extends Error {
@@ -51,27 +53,55 @@ function zodToHttp(error: z.ZodError, prefix?: string): HttpError {
   return new HttpError(400, `${field}: ${issue?.message ?? 'invalid'}`, field, { issues });
 }
 
-const MAX_JSON_BYTES = 1_000_000;
+/** The largest JSON body a route reads (bytes); larger ones are refused while they stream. */
+export const MAX_JSON_BYTES = 1_000_000;
 
-export async function readJson<T>(request: Request, schema: ZodType<T>): Promise<T> {
+/** NUL characters and lone surrogates anywhere in the input (keys included) → 400 naming the field. */
+export function refuseUnstorable(value: unknown, prefix?: string) {
+  const field = findUnstorable(value, prefix ? [prefix] : []);
+  if (field) throw new HttpError(400, `${field}: ${UNSTORABLE_MESSAGE}`, field);
+}
+
+const utf8 = new TextDecoder('utf-8', { fatal: true });
+
+/**
+ * The JSON body validated by `schema`: 415 for another content type, 413 as soon as more than
+ * MAX_JSON_BYTES arrive (the body is counted as it streams, never buffered whole), 400 naming the
+ * field for bad UTF-8, bad JSON, characters the store cannot keep, or a schema failure.
+ */
+export async function readJson<T>(request: Request, schema: ZodType<T>, limit = MAX_JSON_BYTES): Promise<T> {
   const type = request.headers.get('content-type') ?? '';
   if (!type.toLowerCase().includes('application/json')) {
     throw new HttpError(415, 'Send the body as application/json.', 'content-type');
   }
-  const text = await request.text();
-  if (text.length > MAX_JSON_BYTES) throw new HttpError(413, 'The body is too large.', 'body');
+  let bytes: Uint8Array;
+  try {
+    bytes = await readCapped(request, limit);
+  } catch (err) {
+    if (err instanceof BodyTooLarge) throw new HttpError(413, `The body is too large (at most ${limit} bytes).`, 'body');
+    throw new HttpError(400, 'The body could not be read.', 'body');
+  }
+  let text: string;
+  try {
+    text = utf8.decode(bytes);
+  } catch {
+    throw new HttpError(400, 'The body is not valid UTF-8.', 'body');
+  }
   let raw: unknown;
   try {
     raw = JSON.parse(text);
   } catch {
     throw new HttpError(400, 'The body is not valid JSON.', 'body');
   }
+  refuseUnstorable(raw);
   const parsed = schema.safeParse(raw);
   if (!parsed.success) throw zodToHttp(parsed.error);
   return parsed.data;
 }
 
+/** Query or path parameters validated by `schema` (unstorable characters refused first). */
 export function parseParams<T>(value: unknown, schema: ZodType<T>, prefix?: string): T {
+  refuseUnstorable(value, prefix);
   const parsed = schema.safeParse(value);
   if (!parsed.success) throw zodToHttp(parsed.error, prefix);
   return parsed.data;

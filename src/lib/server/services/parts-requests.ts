@@ -11,7 +11,7 @@
  * request reads the same later; part numbers are always checked against the machine's catalog.
  */
 import { and, desc, eq, inArray, or, sql } from 'drizzle-orm';
-import Papa from 'papaparse';
+import { toCsv } from '../csv';
 import { z } from 'zod';
 import { getDb, type Db } from '../db';
 import {
@@ -479,16 +479,16 @@ export async function deletePartsRequest(actor: Actor, id: string) {
 
 const money = (cents: number) => (cents / 100).toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: 2 });
 
-/** The request as a CSV file (papaparse): one row per line and a total row. */
+/** The request as a CSV file (papaparse, formulas neutralised): one row per line and a total row. */
 export function partsRequestCsv(view: Pick<PartsRequestView, 'lines' | 'totalCents' | 'totalQuantity'>): string {
   const plain = (cents: number) => (cents / 100).toFixed(2);
-  return Papa.unparse({
-    fields: ['Part number', 'Description', 'Hand', 'Quantity', 'Unit price', 'Line total'],
-    data: [
+  return toCsv(
+    ['Part number', 'Description', 'Hand', 'Quantity', 'Unit price', 'Line total'],
+    [
       ...view.lines.map((l) => [l.partNumber, l.description, l.hand ?? '', l.quantity, plain(l.unitPriceCents), plain(l.lineTotalCents)]),
       ['', 'Total', '', view.totalQuantity, '', plain(view.totalCents)],
     ],
-  });
+  );
 }
 
 export function csvFileName(view: Pick<PartsRequestView, 'number'>) {

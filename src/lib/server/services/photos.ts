@@ -7,6 +7,7 @@ import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
 import { IMAGE_EXTENSION, sniffImageType, type ImageType } from '../image-sniff';
 import { storage, type ObjectStorage } from '../storage';
+import { BodyTooLarge, readCapped } from '../body';
 
 /** The largest photo accepted: a full-resolution phone picture fits comfortably. */
 export const MAX_PHOTO_BYTES = 8 * 1024 * 1024;
@@ -14,12 +15,29 @@ export const MAX_PHOTO_BYTES = 8 * 1024 * 1024;
 const MULTIPART_OVERHEAD = 64 * 1024;
 /** Enough to show every side of a worn element; a cap keeps one line from filling the store. */
 export const MAX_PHOTOS_PER_ITEM = 12;
+/**
+ * The most pixels a photo may have (width × height), read from its header before anything is
+ * decoded: a small file can declare a huge picture (a 31 KB PNG of 16000 × 16000 takes seconds of
+ * CPU and a gigabyte to decode). 40 megapixels is above any phone camera's normal output.
+ * `CAGEWRIGHT_MAX_PHOTO_PIXELS` changes it.
+ */
+export const DEFAULT_MAX_PHOTO_PIXELS = 40_000_000;
+export function maxPhotoPixels(env: NodeJS.ProcessEnv = process.env): number {
+  const n = Number(env.CAGEWRIGHT_MAX_PHOTO_PIXELS);
+  return Number.isInteger(n) && n > 0 ? n : DEFAULT_MAX_PHOTO_PIXELS;
+}
 /** Thumbnails fit in this box (pixels), JPEG. */
 const THUMB_BOX = 480;
 
 const megabytes = (n: number) => `${Math.round(n / (1024 * 1024))} MB`;
 const tooLarge = () => new HttpError(413, `The photo is larger than ${megabytes(MAX_PHOTO_BYTES)}. Take it at a lower resolution or crop it.`, 'photo');
 const notAnImage = () => new HttpError(415, 'That file is not a JPEG, PNG or WebP photo.', 'photo');
+const tooManyPixels = (w: number, h: number, max: number) =>
+  new HttpError(413, `photo: the picture is ${w} × ${h} pixels; at most ${Math.floor(max / 1e6)} megapixels are accepted. Take it at a lower resolution.`, 'photo', {
+    width: w,
+    height: h,
+    maxPixels: max,
+  });
 
 export interface UploadedPhoto {
   bytes: Uint8Array;
@@ -31,21 +49,25 @@ export interface UploadedPhoto {
 /**
  * Reads a multipart/form-data upload with a `photo` field, refusing early: a declared length
  * over the limit is refused before reading, and reading stops as soon as the body passes it.
- * The type comes from the file's bytes, and the image must decode.
+ * The type comes from the file's bytes; the size in pixels from the image's header, before
+ * anything is decoded; then the image is decoded and re-encoded without metadata.
  */
 export async function readPhotoUpload(request: Request): Promise<UploadedPhoto> {
   const type = request.headers.get('content-type') ?? '';
   if (!/^multipart\/form-data;\s*boundary=/i.test(type)) {
     throw new HttpError(415, 'Send the photo as multipart/form-data in a field named "photo".', 'content-type');
   }
-  const limit = MAX_PHOTO_BYTES + MULTIPART_OVERHEAD;
-  const declared = Number(request.headers.get('content-length') ?? NaN);
-  if (Number.isFinite(declared) && declared > limit) throw tooLarge();
-  const body = await readCapped(request, limit);
+  let body: Uint8Array<ArrayBuffer>;
+  try {
+    body = await readCapped(request, MAX_PHOTO_BYTES + MULTIPART_OVERHEAD);
+  } catch (err) {
+    if (err instanceof BodyTooLarge) throw tooLarge();
+    throw new HttpError(400, 'The upload could not be read.', 'body');
+  }
 
   let form: FormData;
   try {
-    form = await new Response(body as Uint8Array<ArrayBuffer>, { headers: { 'content-type': type } }).formData();
+    form = await new Response(body, { headers: { 'content-type': type } }).formData();
   } catch {
     throw new HttpError(400, 'The upload could not be read as multipart/form-data.', 'body');
   }
@@ -54,59 +76,46 @@ export async function readPhotoUpload(request: Request): Promise<UploadedPhoto> 
   if (file.size === 0) throw new HttpError(400, 'photo: the file is empty.', 'photo');
   if (file.size > MAX_PHOTO_BYTES) throw tooLarge();
   const bytes = new Uint8Array(await file.arrayBuffer());
+  return checkedPhoto(bytes);
+}
+
+/** The checks on a photo's bytes (type, pixels, decoding) and its metadata-free re-encoding. */
+export async function checkedPhoto(bytes: Uint8Array, maxPixels = maxPhotoPixels()): Promise<UploadedPhoto> {
   const sniffed = sniffImageType(bytes);
   if (!sniffed) throw notAnImage();
   let meta: sharp.Metadata;
   try {
-    meta = await sharp(bytes, { failOn: 'error' }).metadata();
+    // Reads the header only; nothing is decoded yet.
+    meta = await sharp(bytes, { failOn: 'error', limitInputPixels: false }).metadata();
   } catch {
     throw notAnImage();
   }
   if (!meta.width || !meta.height) throw notAnImage();
-  return withoutMetadata(bytes, sniffed, meta);
+  if (meta.width * meta.height > maxPixels) throw tooManyPixels(meta.width, meta.height, maxPixels);
+  return withoutMetadata(bytes, sniffed, maxPixels);
 }
 
 /**
- * Phones write where a picture was taken (GPS), when, and with what device into its metadata,
- * and a farm's location is the farm's business. A photo that carries EXIF, XMP or IPTC is stored
- * re-encoded by sharp: turned upright (the turn was in EXIF), same format, colour profile kept,
- * metadata dropped. A photo without any is stored byte for byte.
+ * Phones write where a picture was taken (GPS), when, and with what device into its metadata;
+ * files can also carry comments and text blocks (JPEG COM segments, PNG tEXt/iTXt/zTXt chunks)
+ * with anything in them. Every photo is therefore decoded and stored re-encoded by sharp, in its
+ * own format: turned upright (the turn was in EXIF), colour profile kept, nothing else carried
+ * over. Decoding also proves the file is a whole image.
  */
-async function withoutMetadata(bytes: Uint8Array, type: ImageType, meta: sharp.Metadata): Promise<UploadedPhoto> {
-  if (!meta.exif && !meta.xmp && !meta.iptc) return { bytes, type, width: meta.width!, height: meta.height! };
-  const upright = sharp(bytes, { failOn: 'error' }).rotate().keepIccProfile();
-  const encoded = type === 'image/jpeg' ? upright.jpeg({ quality: 92 }) : type === 'image/png' ? upright.png() : upright.webp({ quality: 92 });
-  const { data, info } = await encoded.toBuffer({ resolveWithObject: true });
-  return { bytes: new Uint8Array(data), type, width: info.width, height: info.height };
-}
-
-async function readCapped(request: Request, limit: number): Promise<Uint8Array<ArrayBuffer>> {
-  if (!request.body) return new Uint8Array();
-  const reader = request.body.getReader();
-  const chunks: Uint8Array[] = [];
-  let total = 0;
-  for (;;) {
-    const { done, value } = await reader.read();
-    if (done) break;
-    total += value.byteLength;
-    if (total > limit) {
-      await reader.cancel().catch(() => {});
-      throw tooLarge();
-    }
-    chunks.push(value);
+async function withoutMetadata(bytes: Uint8Array, type: ImageType, maxPixels: number): Promise<UploadedPhoto> {
+  try {
+    const upright = sharp(bytes, { failOn: 'error', limitInputPixels: maxPixels }).rotate().keepIccProfile();
+    const encoded = type === 'image/jpeg' ? upright.jpeg({ quality: 92 }) : type === 'image/png' ? upright.png() : upright.webp({ quality: 92 });
+    const { data, info } = await encoded.toBuffer({ resolveWithObject: true });
+    return { bytes: new Uint8Array(data), type, width: info.width, height: info.height };
+  } catch {
+    throw notAnImage();
   }
-  const out = new Uint8Array(total);
-  let at = 0;
-  for (const c of chunks) {
-    out.set(c, at);
-    at += c.byteLength;
-  }
-  return out;
 }
 
 /** A thumbnail upright (phones store the turn in EXIF), without metadata, as JPEG. */
 export async function makeThumbnail(bytes: Uint8Array): Promise<Uint8Array> {
-  const out = await sharp(bytes)
+  const out = await sharp(bytes, { limitInputPixels: maxPhotoPixels() })
     .rotate()
     .resize(THUMB_BOX, THUMB_BOX, { fit: 'inside', withoutEnlargement: true })
     .flatten({ background: '#ffffff' })
@@ -157,6 +166,17 @@ function removeLater(store: ObjectStorage, keys: string[]) {
 }
 
 /**
+ * Inside the transaction that inserts a photo row: locks the line's row (so uploads to one line
+ * take turns, on the embedded store and on a PostgreSQL server alike) and counts its photos, so
+ * parallel uploads can never pass the cap. 409 when the line is full.
+ */
+export async function reservePhotoPlace(tx: Pick<Db, 'select'>, itemId: string) {
+  await tx.select({ id: inspectionItems.id }).from(inspectionItems).where(eq(inspectionItems.id, itemId)).for('update');
+  const [{ n }] = (await tx.select({ n: count() }).from(photos).where(eq(photos.itemId, itemId))) as { n: number }[];
+  if (n >= MAX_PHOTOS_PER_ITEM) throw new HttpError(409, `A line takes at most ${MAX_PHOTOS_PER_ITEM} photos; remove one first.`, 'photo');
+}
+
+/**
  * Stores a photo and its thumbnail for a line of an open inspection. The objects are stored
  * first, outside any database transaction (a slow object store must never hold the store's
  * connection), and the row is written after both are in place. If anything fails the objects
@@ -187,6 +207,8 @@ export async function addPhoto(
   }
   try {
     return await db.transaction(async (tx) => {
+      // The line's cap is checked with the row written, under a lock on the line.
+      await reservePhotoPlace(tx, item.itemId);
       const [row] = await tx
         .insert(photos)
         .values({
