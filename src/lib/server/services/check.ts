@@ -1,7 +1,5 @@
-import { eq } from 'drizzle-orm';
 import { checkLayoutInput } from '../../domain/check-input';
-import { catalogParts, families } from '../../../db/schema';
-import { getDb } from '../db';
+import { catalogSnapshot } from '../catalog-cache';
 import { HttpError } from '../http';
 
 /**
@@ -10,12 +8,9 @@ import { HttpError } from '../http';
  * the caller can fix the request; everything else comes back as findings.
  */
 export async function checkStateless(input: unknown) {
-  const db = await getDb();
-  const [familyRows, partRows] = await Promise.all([
-    db.select({ spec: families.spec }).from(families),
-    db.select({ spec: catalogParts.spec }).from(catalogParts).where(eq(catalogParts.active, true)),
-  ]);
-  const result = checkLayoutInput(input, familyRows.map((r) => r.spec), partRows.map((r) => r.spec));
+  // The catalog is kept between calls and read again only after it changed.
+  const catalog = await catalogSnapshot();
+  const result = checkLayoutInput(input, catalog.families, catalog.parts);
   if (!result.ok) {
     const [first] = result.problems;
     const field = `layout.${first!.path}`;

@@ -5,6 +5,7 @@ import { catalogParts, families, installed, machines, organisations } from '../.
 import { drumIdSchema, slugSchema, vaneControlSchema, type CatalogPart, type MachineFamily } from '../../domain/schemas';
 import type { Actor } from '../access';
 import { audit } from '../audit';
+import { catalogSnapshot } from '../catalog-cache';
 import { HttpError, notFound } from '../http';
 
 export type MachineRow = typeof machines.$inferSelect;
@@ -29,9 +30,13 @@ export async function machineForActor(actor: Actor, machineId: string, db?: Db):
   return row;
 }
 
-/** The active catalog parts that fit a family. */
+/**
+ * The active catalog parts that fit a family: from the kept catalog (catalog-cache.ts), or read
+ * through `db` when a caller passes its transaction.
+ */
 export async function catalogForFamily(familyId: string, db?: Db): Promise<CatalogPart[]> {
-  const d = db ?? (await getDb());
+  if (!db) return [...((await catalogSnapshot()).partsByFamily.get(familyId) ?? [])];
+  const d = db;
   const rows = await d
     .select({ spec: catalogParts.spec })
     .from(catalogParts)
