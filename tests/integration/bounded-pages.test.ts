@@ -1,7 +1,7 @@
 // Pages that stay bounded as data grows: a layout with 300 versions shows its history a page at
 // a time (keyset on the version number) with working older/newer links; compare and share pages
 // list no versions; the copy-to-machine list is searched, never the whole fleet.
-import { beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Client, signedIn } from './client';
 import { machineByNickname, newLayout, uniq, type MachineItem } from './fleet-helpers';
 
@@ -15,6 +15,7 @@ let northQuarter: MachineItem;
 let layoutId: string;
 let base: string;
 const prefix = uniq('Copy target');
+const made: string[] = [];
 
 async function page(path: string) {
   const res = await olive.fetch(path);
@@ -49,8 +50,14 @@ beforeAll(async () => {
       nickname: `${prefix} ${String(i).padStart(2, '0')}`,
     });
     if (res.status !== 201) throw new Error(`machine ${i}: ${res.status} ${JSON.stringify(res.body)}`);
+    made.push(res.body.id ?? res.body.machine?.id);
   }
 }, 180_000);
+
+// Other suites share the store and read the first page of Olive's machines.
+afterAll(async () => {
+  for (const id of made) if (id) expect((await olive.delete(`/api/machines/${id}`)).status).toBe(200);
+}, 60_000);
 
 describe('history page of a layout with 300 versions', () => {
   it('shows the newest 50, stays under a fixed size, and links to the older ones', async () => {
