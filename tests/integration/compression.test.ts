@@ -96,7 +96,8 @@ describe('pages', () => {
   });
 
   it('no encoding without Accept-Encoding, nor when only identity is accepted', async () => {
-    for (const headers of [{}, { 'accept-encoding': 'identity' }, { 'accept-encoding': 'br;q=0, gzip;q=0' }]) {
+    const cases: Record<string, string>[] = [{}, { 'accept-encoding': 'identity' }, { 'accept-encoding': 'br;q=0, gzip;q=0' }];
+    for (const headers of cases) {
       const r = await raw(sharePath, headers);
       expect(r.status).toBe(200);
       expect(r.headers['content-encoding'], JSON.stringify(headers)).toBeUndefined();
