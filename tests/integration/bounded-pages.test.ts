@@ -50,7 +50,7 @@ beforeAll(async () => {
       nickname: `${prefix} ${String(i).padStart(2, '0')}`,
     });
     if (res.status !== 201) throw new Error(`machine ${i}: ${res.status} ${JSON.stringify(res.body)}`);
-    made.push(res.body.id ?? res.body.machine?.id);
+    made.push(res.body.machine.id);
   }
 }, 180_000);
 
@@ -182,5 +182,60 @@ describe('copy to another machine: searched, never the whole fleet', () => {
     const p = await page(`${base}/history?to=${encodeURIComponent('no such machine ' + prefix)}`);
     expect(optionsOf(p.html)).toHaveLength(0);
     expect(p.html).toContain('matches “no such machine');
+  });
+});
+
+describe('a machine with many layouts', () => {
+  let machineId: string;
+  const LAYOUTS = 55;
+
+  beforeAll(async () => {
+    const res = await olive.post('/api/machines', {
+      familyId: northQuarter.familyId,
+      drum: northQuarter.drum,
+      vaneControl: northQuarter.vaneControl,
+      serial: uniq('ML'),
+      nickname: uniq('Many layouts'),
+    });
+    expect(res.status).toBe(201);
+    machineId = res.body.machine.id;
+    made.push(machineId);
+    for (let i = 0; i < LAYOUTS; i++) {
+      const l = await olive.post(`/api/machines/${machineId}/layouts`, { name: `Plan ${String(i).padStart(2, '0')}`, crop: 'wheat' });
+      if (l.status !== 201) throw new Error(`layout ${i}: ${l.status}`);
+    }
+  }, 180_000);
+
+  const layoutRows = (html: string) => [...(html.match(/data-testid="layouts-table"[\s\S]*?<\/table>/)?.[0] ?? '').matchAll(/class="font-semibold" href="[^"]+">(Plan \d+)</g)].map((m) => m[1]!);
+
+  it('the machine page shows the 50 most recent with a link to the older ones, and the activity still names them', async () => {
+    const first = await page(`/machines/${machineId}`);
+    expect(first.status).toBe(200);
+    expect(first.bytes).toBeLessThan(PAGE_BOUND);
+    const rows = layoutRows(first.html);
+    expect(rows).toHaveLength(50);
+    expect(rows[0]).toBe('Plan 54');
+    expect(first.html).toMatch(/Layouts 1–50 of 55/);
+    expect(linkOf(first.html, 'next')).toBe(`/machines/${machineId}?layouts=2`);
+    expect(first.html).toMatch(/data-testid="activity"[\s\S]*started “Plan 54”/);
+
+    const second = await page(`/machines/${machineId}?layouts=2`);
+    expect(layoutRows(second.html)).toEqual(['Plan 04', 'Plan 03', 'Plan 02', 'Plan 01', 'Plan 00']);
+    expect(linkOf(second.html, 'prev')).toBe(`/machines/${machineId}`);
+    expect(linkOf(second.html, 'next')).toBeNull();
+  });
+
+  it('the layouts API pages too, with the total, and names a bad page size', async () => {
+    const all = await olive.get(`/api/machines/${machineId}/layouts`);
+    expect(all.status).toBe(200);
+    expect(all.body.layouts).toHaveLength(50);
+    expect(all.body.total).toBe(LAYOUTS);
+    const last = await olive.get(`/api/machines/${machineId}/layouts?pageSize=20&page=3`);
+    expect(last.body.layouts.map((l: any) => l.name)).toEqual(['Plan 14', 'Plan 13', 'Plan 12', 'Plan 11', 'Plan 10', 'Plan 09', 'Plan 08', 'Plan 07', 'Plan 06', 'Plan 05', 'Plan 04', 'Plan 03', 'Plan 02', 'Plan 01', 'Plan 00']);
+    for (const bad of ['pageSize=0', 'pageSize=500', 'page=0', 'page=x']) {
+      const res = await olive.get(`/api/machines/${machineId}/layouts?${bad}`);
+      expect(res.status, bad).toBe(400);
+      expect(res.body.error.field, bad).toBe(bad.split('=')[0]);
+    }
   });
 });

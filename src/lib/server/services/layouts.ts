@@ -1,4 +1,4 @@
-import { and, desc, eq, inArray, lt, sql } from 'drizzle-orm';
+import { and, count, desc, eq, inArray, lt, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../db';
 import { families, layouts, layoutVersions, machines, organisations, users } from '../../../db/schema';
@@ -232,15 +232,27 @@ export async function getVersion(actor: Actor, layoutId: string, version: number
   return versionOf(row.id, version);
 }
 
-export async function listLayoutsForMachine(actor: Actor, machineId: string) {
+/** ?page=1&pageSize=50 on a machine's layouts: most recently changed first. */
+export const layoutListQuerySchema = z.object({
+  page: z.coerce.number().int().min(1).max(100_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(50),
+});
+
+/** One page of a machine's layouts, most recently changed first, with the total. */
+export async function listLayoutsForMachine(actor: Actor, machineId: string, paging: z.infer<typeof layoutListQuerySchema> = { page: 1, pageSize: 50 }) {
   const ctx = await machineForActor(actor, machineId);
   const db = await getDb();
-  const rows = await db
-    .select()
-    .from(layouts)
-    .where(eq(layouts.machineId, ctx.machine.id))
-    .orderBy(desc(layouts.updatedAt));
-  return { machine: ctx.machine, layouts: rows };
+  const [rows, [counted]] = await Promise.all([
+    db
+      .select()
+      .from(layouts)
+      .where(eq(layouts.machineId, ctx.machine.id))
+      .orderBy(desc(layouts.updatedAt), desc(layouts.id))
+      .limit(paging.pageSize)
+      .offset((paging.page - 1) * paging.pageSize),
+    db.select({ n: count() }).from(layouts).where(eq(layouts.machineId, ctx.machine.id)),
+  ]);
+  return { machine: ctx.machine, layouts: rows, total: counted?.n ?? 0, page: paging.page, pageSize: paging.pageSize };
 }
 
 export async function createLayout(actor: Actor, machineId: string, input: z.infer<typeof createLayoutSchema>) {
