@@ -239,3 +239,44 @@ describe('a machine with many layouts', () => {
     }
   });
 });
+
+describe('the crop-change planner: machines searched, never cut at a fixed count', () => {
+  const extra = uniq('Planner pick');
+  beforeAll(async () => {
+    for (let i = 0; i < 30; i++) {
+      const res = await olive.post('/api/machines', {
+        familyId: northQuarter.familyId,
+        drum: northQuarter.drum,
+        vaneControl: northQuarter.vaneControl,
+        serial: uniq('PP'),
+        nickname: `${extra} ${String(i).padStart(2, '0')}`,
+      });
+      expect(res.status).toBe(201);
+      made.push(res.body.machine.id);
+    }
+  }, 120_000);
+
+  const machineOptions = (html: string) => {
+    const form = html.match(/data-testid="plan-form"[\s\S]*?<\/select>/)?.[0] ?? '';
+    return [...form.matchAll(/<option value="([0-9a-f-]{36})"[^>]*>([^<]*)</g)].map((m) => m[2]!);
+  };
+
+  it('offers a search and one page of machines when there are more than fit', async () => {
+    const total = (await olive.get('/api/machines?pageSize=1')).body.total as number;
+    expect(total).toBeGreaterThan(50);
+    const p = await page('/planner');
+    expect(p.status).toBe(200);
+    expect(machineOptions(p.html)).toHaveLength(50);
+    expect(p.html).toContain(`Showing 50 of ${total}`);
+    const found = await page(`/planner?find=${encodeURIComponent(extra + ' 29')}`);
+    expect(machineOptions(found.html)).toEqual([`${extra} 29 · ${'Tamarack M4'}`]);
+  });
+
+  it('keeps the machine being planned choosable when the search leaves it out', async () => {
+    const nq = await page(`/planner?machine=${northQuarter.id}&crop=canola&find=${encodeURIComponent(extra)}`);
+    expect(nq.status).toBe(200);
+    const options = machineOptions(nq.html);
+    expect(options[0]).toContain('North Quarter');
+    expect(nq.html).toMatch(new RegExp(`<option value="${northQuarter.id}"[^>]*selected`));
+  });
+});
