@@ -4,6 +4,7 @@ import node from '@astrojs/node';
 import react from '@astrojs/react';
 import tailwind from '@astrojs/tailwind';
 import auth from 'auth-astro';
+import precompress from './scripts/http/precompress.mjs';
 
 // Hosts the server answers for. Astro ignores the Host header unless it is listed here,
 // and Auth.js callbacks need it; add a production host through CAGEWRIGHT_HOSTS at build time.
@@ -19,7 +20,8 @@ export default defineConfig({
   // Separate build folders let several builds (tests, benchmarks) coexist.
   outDir: process.env.CAGEWRIGHT_OUT_DIR ?? './dist',
   server: { host: '127.0.0.1', port: 4321 },
-  integrations: [react(), tailwind({ applyBaseStyles: false }), auth()],
+  // precompress: .br/.gz twins of the client files, sent by scripts/http/serve.mjs.
+  integrations: [react(), tailwind({ applyBaseStyles: false }), auth(), precompress()],
   security: {
     checkOrigin: true,
     allowedDomains: [{ hostname: 'localhost' }, { hostname: '127.0.0.1' }, ...extraHosts],

@@ -1,82 +1,103 @@
 #!/usr/bin/env node
-// Gzipped JavaScript a page loads: the scripts and island components its HTML names, plus every
-// chunk they import statically, each counted once, read from the build's client folder.
-import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
-import { gzipSync } from 'node:zlib';
-import { tmpdir } from 'node:os';
-import { join, resolve, dirname } from 'node:path';
+// JavaScript over the wire: every page with an island (and the share page, which must have
+// none) is opened in Chromium with an empty cache; the bytes received for each script, as the
+// server sent them (compressed by Accept-Encoding), are summed from the DevTools protocol's
+// Network.loadingFinished (encodedDataLength). This counts what the page really loads, the
+// islands' chunks included, and nothing the page does not load.
+import { mkdtempSync, rmSync } from 'node:fs';
+import { loadavg, tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { chromium } from '@playwright/test';
 import { signIn, startServer } from './lib.mjs';
 
-const outDir = resolve(process.env.CAGEWRIGHT_OUT_DIR ?? 'dist');
-const clientDir = join(outDir, 'client');
 const report = (figure, value, budget, ok, unit = '') =>
-  console.log(JSON.stringify({ bench: 'js-size', figure, value, unit, budget, ok }));
-
-export function scriptsOf(html) {
-  const urls = new Set();
-  for (const m of html.matchAll(/<script[^>]*\ssrc="([^"]+)"/g)) urls.add(m[1]);
-  for (const m of html.matchAll(/(?:component-url|renderer-url|before-hydration-url)="([^"]+)"/g)) if (m[1]) urls.add(m[1]);
-  // Inline module scripts that import chunks.
-  for (const m of html.matchAll(/<script[^>]*>([\s\S]*?)<\/script>/g)) {
-    for (const i of m[1].matchAll(/(?:import\(|from\s*|import\s*)["'](\/_astro\/[^"']+\.js)["']/g)) urls.add(i[1]);
-  }
-  return [...urls].filter((u) => u.startsWith('/'));
-}
-
-export function gzippedClosure(urls) {
-  const seen = new Set();
-  let bytes = 0;
-  let inlineBytes = 0;
-  const visit = (file) => {
-    if (seen.has(file) || !existsSync(file)) return;
-    seen.add(file);
-    const src = readFileSync(file);
-    bytes += gzipSync(src).length;
-    for (const m of src.toString().matchAll(/(?:import|from)\s*["'](\.{1,2}\/[^"']+\.js)["']/g)) visit(resolve(dirname(file), m[1]));
-  };
-  for (const u of urls) visit(join(clientDir, u));
-  return { bytes: bytes + inlineBytes, files: seen.size };
-}
-
-function inlineScriptBytes(html) {
-  let total = 0;
-  for (const m of html.matchAll(/<script(?![^>]*\ssrc=)[^>]*>([\s\S]*?)<\/script>/g)) total += gzipSync(Buffer.from(m[1])).length;
-  return total;
-}
-
-async function measure(base, cookie, path) {
-  const res = await fetch(base + path, { headers: cookie ? { cookie } : {} });
-  if (res.status !== 200) return null;
-  const html = await res.text();
-  const { bytes, files } = gzippedClosure(scriptsOf(html));
-  return { bytes: bytes + inlineScriptBytes(html), files };
-}
+  console.log(JSON.stringify({ bench: 'js-size', figure, value, unit, budget, ok, load: loadavg()[0].toFixed(1) }));
+const kb = (n) => Math.round(n / 102.4) / 10;
 
 const dir = mkdtempSync(join(tmpdir(), 'cagewright-bench-js-'));
-try {
-  const s = await startServer({ dataDir: dir });
-  const cookie = await signIn(s.base, 'tomas@kestrel.example');
-  const headers = { cookie, origin: s.base, 'content-type': 'application/json' };
-  const home = await (await fetch(`${s.base}/`, { headers })).text();
-  const machineId = home.match(/\/machines\/([0-9a-f-]{36})/)[1];
-  const list = await (await fetch(`${s.base}/api/machines/${machineId}/layouts`, { headers })).json();
-  const layout = list.layouts[0];
-  const editor = await measure(s.base, cookie, `/machines/${machineId}/layouts/${layout.id}`);
-  if (editor) report('editor page JS (gzip)', Math.round(editor.bytes / 102.4) / 10, '≤ 160 KB', editor.bytes <= 160 * 1024, 'KB');
-  else report('editor page JS (gzip)', 'page missing', '≤ 160 KB', false);
+const s = await startServer({ dataDir: dir });
+const browser = await chromium.launch({
+  executablePath: process.env.CAGEWRIGHT_CHROMIUM ?? '/usr/bin/chromium',
+  args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+});
 
-  const version = await (await fetch(`${s.base}/api/layouts/${layout.id}`, { headers })).json();
+/** Opens `path` in a fresh context (empty cache) as `email` and sums the script bytes received. */
+async function scriptBytes(email, path) {
+  const context = await browser.newContext({ baseURL: s.base });
+  if (email) {
+    const cookies = (await signIn(s.base, email)).split('; ').map((c) => {
+      const i = c.indexOf('=');
+      return { name: c.slice(0, i), value: c.slice(i + 1), url: s.base };
+    });
+    await context.addCookies(cookies);
+  }
+  const page = await context.newPage();
+  const cdp = await context.newCDPSession(page);
+  await cdp.send('Network.enable');
+  const scripts = new Map();
+  cdp.on('Network.responseReceived', (e) => {
+    if (e.type === 'Script') scripts.set(e.requestId, { url: e.response.url, encoding: e.response.headers['content-encoding'] ?? e.response.headers['Content-Encoding'] ?? 'none', bytes: 0 });
+  });
+  cdp.on('Network.loadingFinished', (e) => {
+    const sc = scripts.get(e.requestId);
+    if (sc) sc.bytes = e.encodedDataLength;
+  });
+  const res = await page.goto(path, { waitUntil: 'networkidle' });
+  const status = res?.status() ?? 0;
+  await context.close();
+  const list = [...scripts.values()];
+  return { status, bytes: list.reduce((n, x) => n + x.bytes, 0), files: list.length, encodings: [...new Set(list.map((x) => x.encoding))].join('+') || 'none' };
+}
+
+try {
+  const olive = await signIn(s.base, 'olive@larkspur.example');
+  const get = async (cookie, path) => fetch(s.base + path, { headers: { cookie, origin: s.base } });
+  const machines = await (await get(olive, '/api/machines?q=North')).json();
+  const machineId = machines.items[0].id;
+  const layoutId = (await (await get(olive, `/api/machines/${machineId}/layouts`)).json()).layouts[0].id;
+  const priya = await signIn(s.base, 'priya@kestrel.example');
+  const deckId = (await (await get(priya, '/classroom')).text()).match(/\/classroom\/([0-9a-f-]{36})/)?.[1];
+  const tomas = await signIn(s.base, 'tomas@kestrel.example');
+  const inspectionId = (await (await get(tomas, '/inspections')).text()).match(/\/inspections\/([0-9a-f-]{36})/)?.[1];
+  const part = (await (await get(tomas, '/api/catalog/parts')).json())?.parts?.[0]?.partNumber ?? (await (await get(tomas, '/admin/catalog')).text()).match(/\/admin\/catalog\/parts\/([A-Z0-9-]+)/)?.[1];
+
+  const pages = [
+    ['editor', 'olive@larkspur.example', `/machines/${machineId}/layouts/${layoutId}`, '≤ 160 KB'],
+    ['machines list', 'olive@larkspur.example', '/machines', '(figure)'],
+    ['inspection checklist', 'tomas@kestrel.example', inspectionId && `/inspections/${inspectionId}`, '(figure)'],
+    ['catalog', 'admin@kestrel.example', '/admin/catalog', '(figure)'],
+    ['catalog: new family', 'admin@kestrel.example', '/admin/catalog/families/new', '(figure)'],
+    ['catalog: new part', 'admin@kestrel.example', '/admin/catalog/parts/new', '(figure)'],
+    ['catalog: a part', 'admin@kestrel.example', part && `/admin/catalog/parts/${encodeURIComponent(part)}`, '(figure)'],
+    ['classroom', 'priya@kestrel.example', '/classroom', '(figure)'],
+    ['classroom: a deck', 'priya@kestrel.example', deckId && `/classroom/${deckId}`, '(figure)'],
+    ['classroom: present', 'priya@kestrel.example', deckId && `/classroom/${deckId}/present`, '(figure)'],
+    ['classroom: presenter', 'priya@kestrel.example', deckId && `/classroom/${deckId}/presenter`, '(figure)'],
+    ['classroom: compare', 'priya@kestrel.example', '/classroom/compare?a=starter:tamarack-m4:wheat&b=starter:tamarack-m4:canola', '(figure)'],
+  ];
+  for (const [name, email, path, budget] of pages) {
+    if (!path) {
+      report(`${name} page JS on the wire`, 'page missing', budget, false);
+      continue;
+    }
+    const r = await scriptBytes(email, path);
+    if (r.status !== 200) report(`${name} page JS on the wire`, `HTTP ${r.status}`, budget, false);
+    else report(`${name} page JS on the wire (${r.files} files, ${r.encodings})`, kb(r.bytes), budget, true, 'KB');
+  }
+
   const share = await fetch(`${s.base}/api/share-links`, {
     method: 'POST',
-    headers,
-    body: JSON.stringify({ layoutId: layout.id, version: version.layout.currentVersion, label: 'bench' }),
+    headers: { cookie: olive, origin: s.base, 'content-type': 'application/json' },
+    body: JSON.stringify({ layoutId, version: 1, label: 'bench' }),
   });
-  const shareBody = share.ok ? await share.json() : null;
-  const url = shareBody?.url ?? shareBody?.link?.url ?? (shareBody?.token ? `/share/${shareBody.token}` : null);
-  const sharePage = url ? await measure(s.base, null, new URL(url, s.base).pathname) : null;
-  if (sharePage) report('share page JS (gzip)', Math.round(sharePage.bytes / 102.4) / 10, '≤ 15 KB', sharePage.bytes <= 15 * 1024, 'KB');
-  else report('share page JS (gzip)', 'page missing', '≤ 15 KB', false);
-  await s.stop();
+  const sharePath = share.ok ? (await share.json()).path : null;
+  if (!sharePath) report('share page JS on the wire', 'page missing', '0', false);
+  else {
+    const r = await scriptBytes(null, sharePath);
+    report(`share page JS on the wire (${r.files} files)`, r.status === 200 ? r.bytes : `HTTP ${r.status}`, '0', r.status === 200, 'bytes');
+  }
 } finally {
+  await browser.close();
+  await s.stop();
   rmSync(dir, { recursive: true, force: true });
 }

@@ -3,6 +3,8 @@
 // against the budgets in the quality bars. Figures, not tests: nothing here fails the build.
 import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
+import { cpus, loadavg, totalmem } from 'node:os';
+import { verdict } from '../bench/verdict.mjs';
 
 const outDir = process.env.CAGEWRIGHT_OUT_DIR ?? 'dist-bench';
 const env = { ...process.env, CAGEWRIGHT_OUT_DIR: outDir, ASTRO_TELEMETRY_DISABLED: '1' };
@@ -45,7 +47,7 @@ for (const b of selected) {
     try {
       const row = JSON.parse(t);
       if (row.figure !== undefined) {
-        rows.push({ bench: b.name, ...row });
+        rows.push({ bench: b.name, load: loadavg()[0].toFixed(1), ...row });
         found++;
       }
     } catch {}
@@ -53,11 +55,13 @@ for (const b of selected) {
   if (r.status !== 0 || found === 0) rows.push({ bench: b.name, figure: `(exit ${r.status})`, value: '—', unit: '', budget: '', ok: false });
 }
 
-const widths = [10, 48, 14, 12, 4];
+const [l1, l5] = loadavg();
+console.log(`\nmachine: ${cpus().length} × ${cpus()[0]?.model ?? 'cpu'}, ${Math.round(totalmem() / 2 ** 30)} GB, Node ${process.version}; load average ${l1.toFixed(1)} (1 min) ${l5.toFixed(1)} (5 min) at the end`);
+const widths = [10, 52, 14, 12, 6, 5];
 const cell = (s, w) => String(s).padEnd(w).slice(0, Math.max(w, String(s).length));
-console.log('\n' + ['bench', 'figure', 'value', 'budget', 'ok'].map((h, i) => cell(h, widths[i])).join(' │ '));
+console.log(['bench', 'figure', 'value', 'budget', 'within', 'load'].map((h, i) => cell(h, widths[i])).join(' │ '));
 console.log(widths.map((w) => '─'.repeat(w)).join('─┼─'));
 for (const r of rows) {
   const value = `${r.value}${r.unit ? ' ' + r.unit : ''}`;
-  console.log([r.bench, r.figure, value, r.budget, r.ok ? 'yes' : 'NO'].map((v, i) => cell(v, widths[i])).join(' │ '));
+  console.log([r.bench, r.figure, value, r.budget, verdict(r), r.load ?? ''].map((v, i) => cell(v, widths[i])).join(' │ '));
 }

@@ -55,3 +55,26 @@ describe('POST /api/check', () => {
     expect(notJson.status).toBe(400);
   });
 });
+
+describe('POST /api/check keeps the catalog between calls, and sees it change', () => {
+  it('knows a part added by the admin at once, and forgets it once retired', async () => {
+    const ada = await signedIn('admin');
+    const c = await signedIn('operator');
+    // Warm the kept catalog.
+    expect((await c.post('/api/check', { layout: valid })).status).toBe(200);
+    const left = valid.elements.find((e) => e.side === 'left')!;
+    const original = demoCatalog.find((p) => p.partNumber === left.partNumber)!;
+    const pn = `CW-CACHE-${Date.now().toString(36).toUpperCase()}`;
+    const created = await ada.post('/api/catalog/parts', { familyId: family.id, active: true, part: { ...original, partNumber: pn, name: 'Cache probe element' } });
+    expect(created.status, JSON.stringify(created.body)).toBe(201);
+    const i = valid.elements.indexOf(left);
+    const layout = { ...valid, elements: valid.elements.map((e, j) => (j === i ? { ...e, partNumber: pn } : e)) };
+    const known = await c.post('/api/check', { layout });
+    expect(known.status, JSON.stringify(known.body)).toBe(200);
+
+    expect((await ada.delete(`/api/catalog/parts/${pn}`)).status).toBe(200);
+    const gone = await c.post('/api/check', { layout });
+    expect(gone.status).toBe(400);
+    expect(gone.body.error.field).toBe(`layout.elements.${i}.partNumber`);
+  });
+});

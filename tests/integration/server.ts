@@ -79,6 +79,9 @@ export async function startServer(opts: { dataDir?: string; env?: Record<string,
       CAGEWRIGHT_OUT_DIR: outDir(),
       CAGEWRIGHT_BCRYPT_ROUNDS: '4',
       CAGEWRIGHT_TEST_FIXTURES: '1',
+      // One worker unless asked: some suites count per-process state (the sign-in throttle
+      // is kept in process memory today). workers.test.ts asks for two.
+      CAGEWRIGHT_WORKERS: process.env.CAGEWRIGHT_WORKERS ?? '1',
       AUTH_SECRET: TEST_SECRET,
       ...opts.env,
     },

@@ -13,5 +13,6 @@ export const auditLog = pgTable(
     entityId: text('entity_id'),
     detail: jsonb('detail').$type<Record<string, unknown>>().notNull().default({}),
   },
-  (t) => [index('audit_log_org_idx').on(t.orgId, t.at)],
+  // entity: a machine page's recent activity (newest first by the ids of the machine and its layouts).
+  (t) => [index('audit_log_org_idx').on(t.orgId, t.at), index('audit_log_entity_idx').on(t.entityId, t.at)],
 );

@@ -1,4 +1,4 @@
-import { pgTable, text, uuid, timestamp, integer, jsonb, boolean, primaryKey, index } from 'drizzle-orm/pg-core';
+import { pgTable, text, uuid, timestamp, integer, bigint, jsonb, boolean, primaryKey, index } from 'drizzle-orm/pg-core';
 import type { CatalogPart, MachineFamily } from '../../lib/domain/schemas';
 import { organisations } from './orgs';
 
@@ -49,3 +49,14 @@ export const dealerPrices = pgTable(
   },
   (t) => [primaryKey({ columns: [t.dealerId, t.partNumber] })],
 );
+
+/**
+ * One row counting changes to the catalog (families and catalog_parts). Statement triggers bump
+ * it on every insert, update, delete or truncate of those tables, whoever writes (services, the
+ * seed, another process on the same PostgreSQL server), so a process can keep the catalog in
+ * memory and know with one tiny query whether it is still current (src/lib/server/catalog-cache.ts).
+ */
+export const catalogRevision = pgTable('catalog_revision', {
+  id: integer('id').primaryKey().default(1),
+  revision: bigint('revision', { mode: 'number' }).notNull().default(0),
+});

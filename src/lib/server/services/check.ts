@@ -1,6 +1,5 @@
-import { eq } from 'drizzle-orm';
 import { checkLayoutInput } from '../../domain/check-input';
-import { catalogParts, families } from '../../../db/schema';
+import { catalogSnapshot } from '../catalog-cache';
 import { getDb } from '../db';
 import { HttpError } from '../http';
 import { priceCatalogFor } from './prices';
@@ -12,13 +11,10 @@ import { priceCatalogFor } from './prices';
  * caller's organisation) the parts' total is priced by that organisation's dealer.
  */
 export async function checkStateless(input: unknown, priceFor?: string) {
-  const db = await getDb();
-  const [familyRows, partRows] = await Promise.all([
-    db.select({ spec: families.spec }).from(families),
-    db.select({ spec: catalogParts.spec }).from(catalogParts).where(eq(catalogParts.active, true)),
-  ]);
-  const parts = partRows.map((r) => r.spec);
-  const result = checkLayoutInput(input, familyRows.map((r) => r.spec), priceFor ? await priceCatalogFor(parts, priceFor, db) : parts);
+  // The catalog is kept between calls and read again only after it changed; prices are the dealer's.
+  const catalog = await catalogSnapshot();
+  const parts = priceFor ? await priceCatalogFor(catalog.parts, priceFor, await getDb()) : catalog.parts;
+  const result = checkLayoutInput(input, catalog.families, parts);
   if (!result.ok) {
     const [first] = result.problems;
     const field = `layout.${first!.path}`;

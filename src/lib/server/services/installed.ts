@@ -1,4 +1,4 @@
-import { desc, eq, inArray, sql } from 'drizzle-orm';
+import { count, desc, eq, inArray, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../db';
 import { auditLog, installed, layouts, layoutVersions, shareLinks, users } from '../../../db/schema';
@@ -72,11 +72,18 @@ export async function putInstalled(actor: Actor, machineId: string, input: z.inf
   return getInstalled(actor, machineId).then((r) => ({ ...r, findings }));
 }
 
-/** The machine page's data: the machine, its family, what is installed, and its layouts. */
-export async function machineOverview(actor: Actor, machineId: string) {
+/** How many layouts the machine page (and its API) shows at a time. */
+export const LAYOUTS_SHOWN = 50;
+
+/**
+ * The machine page's data: the machine, its family, what is installed, one page of its layouts
+ * (most recently changed first, LAYOUTS_SHOWN at a time) with their total, and its recent
+ * activity (over all its layouts, not only the ones on the page).
+ */
+export async function machineOverview(actor: Actor, machineId: string, layoutPage = 1) {
   const ctx = await machineForActor(actor, machineId);
   const db = await getDb();
-  const [inst, layoutRows] = await Promise.all([
+  const [inst, layoutRows, [counted], activity] = await Promise.all([
     getInstalled(actor, machineId),
     db
       .select({
@@ -93,20 +100,44 @@ export async function machineOverview(actor: Actor, machineId: string) {
       .innerJoin(layoutVersions, sql`${layoutVersions.layoutId} = ${layouts.id} and ${layoutVersions.version} = ${layouts.currentVersion}`)
       .leftJoin(users, eq(users.id, layoutVersions.createdBy))
       .where(eq(layouts.machineId, ctx.machine.id))
-      .orderBy(desc(layouts.updatedAt)),
+      .orderBy(desc(layouts.updatedAt), desc(layouts.id))
+      .limit(LAYOUTS_SHOWN)
+      .offset((Math.max(1, layoutPage) - 1) * LAYOUTS_SHOWN),
+    db.select({ n: count() }).from(layouts).where(eq(layouts.machineId, ctx.machine.id)),
+    recentActivity(ctx.machine.id),
   ]);
-  const activity = await recentActivity([ctx.machine.id, ...layoutRows.map((l) => l.id)]);
-  return { ...ctx, installed: inst.installed, installedFindings: inst.findings, layouts: layoutRows, activity };
+  return {
+    ...ctx,
+    installed: inst.installed,
+    installedFindings: inst.findings,
+    layouts: layoutRows,
+    layoutTotal: counted?.n ?? 0,
+    layoutPage: Math.max(1, layoutPage),
+    activity,
+  };
 }
 
-/** The audit trail of a machine and its layouts, newest first: who did what, when. */
-export async function recentActivity(entityIds: string[], limit = 20) {
+/**
+ * The audit trail of a machine and all its layouts, newest first: who did what, when, with the
+ * layout's name (read through audit_log_entity_idx, however many layouts and saves there are).
+ */
+export async function recentActivity(machineId: string, limit = 20) {
   const db = await getDb();
+  const ofMachine = db.select({ id: sql<string>`${layouts.id}::text` }).from(layouts).where(eq(layouts.machineId, machineId));
   return db
-    .select({ at: auditLog.at, action: auditLog.action, entity: auditLog.entity, entityId: auditLog.entityId, detail: auditLog.detail, byName: users.name })
+    .select({
+      at: auditLog.at,
+      action: auditLog.action,
+      entity: auditLog.entity,
+      entityId: auditLog.entityId,
+      detail: auditLog.detail,
+      byName: users.name,
+      layoutName: layouts.name,
+    })
     .from(auditLog)
     .leftJoin(users, eq(users.id, auditLog.userId))
-    .where(inArray(auditLog.entityId, entityIds))
+    .leftJoin(layouts, sql`${auditLog.entity} = 'layout' and ${layouts.id}::text = ${auditLog.entityId}`)
+    .where(or(eq(auditLog.entityId, machineId), inArray(auditLog.entityId, ofMachine)))
     .orderBy(desc(auditLog.at), desc(auditLog.id))
     .limit(limit);
 }

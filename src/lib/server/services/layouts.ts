@@ -1,6 +1,6 @@
-import { and, desc, eq, inArray, sql } from 'drizzle-orm';
+import { and, count, desc, eq, inArray, lt, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb, type Db } from '../db';
+import { getDb } from '../db';
 import { families, layouts, layoutVersions, machines, organisations, users } from '../../../db/schema';
 import { cropIdSchema, layoutSchema, type Layout } from '../../domain/schemas';
 import { starterLayout } from '../../domain/starter';
@@ -128,43 +128,76 @@ export async function getLayout(actor: Actor, layoutId: string) {
   return row;
 }
 
-/** ?page=1&pageSize=50 on the versions list: newest first. */
+/**
+ * ?page=1&pageSize=50 or ?before=<version>&pageSize=50 on the versions list: newest first.
+ * `before` is a keyset cursor (the versions older than that one); `page` counts pages from the
+ * newest. Both read through the (layout_id, version) index, never past rows they skip.
+ */
 export const versionListQuerySchema = z.object({
   page: z.coerce.number().int().min(1).max(100_000).default(1),
   pageSize: z.coerce.number().int().min(1).max(200).default(50),
+  before: z.coerce.number().int().min(1).max(2_147_483_647).optional(),
 });
 export type VersionListQuery = z.infer<typeof versionListQuerySchema>;
 
-/** A layout's versions, newest first (the caller has checked the actor may see the layout). */
-function versionsQuery(layoutId: string, db: Db) {
-  return db
-    .select({ id: layoutVersions.id, version: layoutVersions.version, note: layoutVersions.note, createdAt: layoutVersions.createdAt, createdByName: users.name })
-    .from(layoutVersions)
-    .leftJoin(users, eq(users.id, layoutVersions.createdBy))
-    .where(eq(layoutVersions.layoutId, layoutId))
-    .orderBy(desc(layoutVersions.version));
+/** How many versions the history page shows at a time. */
+export const HISTORY_PAGE_SIZE = 50;
+
+export interface VersionPage {
+  versions: { id: string; version: number; note: string; createdAt: Date; createdByName: string | null }[];
+  /** Cursor for the next (older) page, null on the last one. */
+  olderBefore: number | null;
+  /** Cursor for the previous (newer) page; undefined on the first page, null when that is the first page. */
+  newerBefore: number | null | undefined;
 }
 
 /**
- * A layout's versions, newest first: one page of them with the total when `paging` is given
- * (the API), or all of them.
+ * One page of a layout's versions, newest first, older than `before` (the newest when absent).
+ * Versions are 1, 2, … up to the current one: every save and restore adds the next number
+ * (guarded by the version it started from) and none is ever removed, so the cursors are plain
+ * arithmetic and no count is needed.
  */
-export async function listVersions(actor: Actor, layoutId: string, paging?: VersionListQuery) {
+async function versionPage(layoutId: string, currentVersion: number, before: number | undefined, pageSize: number): Promise<VersionPage> {
+  const db = await getDb();
+  const top = Math.min(before ?? currentVersion + 1, currentVersion + 1);
+  const versions = await db
+    .select({ id: layoutVersions.id, version: layoutVersions.version, note: layoutVersions.note, createdAt: layoutVersions.createdAt, createdByName: users.name })
+    .from(layoutVersions)
+    .leftJoin(users, eq(users.id, layoutVersions.createdBy))
+    .where(and(eq(layoutVersions.layoutId, layoutId), lt(layoutVersions.version, top)))
+    .orderBy(desc(layoutVersions.version))
+    .limit(pageSize);
+  const last = versions[versions.length - 1]?.version;
+  const newerTop = top + pageSize;
+  return {
+    versions,
+    olderBefore: last !== undefined && last > 1 ? last : null,
+    newerBefore: top > currentVersion ? undefined : newerTop > currentVersion ? null : newerTop,
+  };
+}
+
+/** A layout's versions a page at a time, newest first, with the total (the API). */
+export async function listVersions(actor: Actor, layoutId: string, paging: VersionListQuery) {
   const row = await layoutRowForActor(actor, layoutId);
-  const query = versionsQuery(row.id, await getDb());
-  if (!paging) return { layout: row, versions: await query };
-  const versions = await query.limit(paging.pageSize).offset((paging.page - 1) * paging.pageSize);
-  // Versions are 1, 2, … up to the current one: every save and restore adds the next number
-  // (guarded by the version it started from) and none is ever removed, so no count is needed.
-  return { layout: row, versions, total: row.currentVersion, page: paging.page, pageSize: paging.pageSize };
+  const before = paging.before ?? row.currentVersion + 1 - (paging.page - 1) * paging.pageSize;
+  const page = await versionPage(row.id, row.currentVersion, Math.max(1, before), paging.pageSize);
+  return {
+    layout: row,
+    versions: page.versions,
+    total: row.currentVersion,
+    page: paging.before === undefined ? paging.page : undefined,
+    pageSize: paging.pageSize,
+    /** Pass as ?before= for the next (older) page; null on the last page. */
+    nextBefore: page.olderBefore,
+  };
 }
 
 const layoutPageParams = z.object({ id: z.uuid(), layoutId: z.uuid() });
 
 /**
- * For the pages under /machines/:id/layouts/:layoutId: the layout (as getLayout gives it, with
- * every version when asked) when both ids are well formed and it is a layout of that machine
- * the actor may see; null otherwise, and the page answers 404.
+ * For the pages under /machines/:id/layouts/:layoutId: the layout (as getLayout gives it)
+ * when both ids are well formed and it is a layout of that machine the actor may see; null
+ * otherwise, and the page answers 404.
  */
 export async function layoutOnMachine(actor: Actor, params: Record<string, string | undefined>) {
   const ids = layoutPageParams.safeParse(params);
@@ -178,10 +211,20 @@ export async function layoutOnMachine(actor: Actor, params: Record<string, strin
   }
 }
 
-/** layoutOnMachine with the layout's versions, newest first (no second access check). */
-export async function layoutOnMachineWithVersions(actor: Actor, params: Record<string, string | undefined>) {
+/**
+ * layoutOnMachine with one page of its versions (HISTORY_PAGE_SIZE, newest first, older than
+ * `before`); no second access check.
+ */
+export async function layoutOnMachineWithVersions(actor: Actor, params: Record<string, string | undefined>, before?: number) {
   const l = await layoutOnMachine(actor, params);
-  return l && { ...l, versions: await versionsQuery(l.layout.id, await getDb()) };
+  return l && { ...l, page: await versionPage(l.layout.id, l.layout.currentVersion, before, HISTORY_PAGE_SIZE) };
+}
+
+/** A `?before=` value from a page's URL: a whole number ≥ 1, or undefined. */
+export function beforeParam(value: string | null): number | undefined {
+  if (value === null || !/^\d{1,10}$/.test(value)) return undefined;
+  const n = Number(value);
+  return n >= 1 && n <= 2_147_483_647 ? n : undefined;
 }
 
 export async function getVersion(actor: Actor, layoutId: string, version: number) {
@@ -189,15 +232,27 @@ export async function getVersion(actor: Actor, layoutId: string, version: number
   return versionOf(row.id, version);
 }
 
-export async function listLayoutsForMachine(actor: Actor, machineId: string) {
+/** ?page=1&pageSize=50 on a machine's layouts: most recently changed first. */
+export const layoutListQuerySchema = z.object({
+  page: z.coerce.number().int().min(1).max(100_000).default(1),
+  pageSize: z.coerce.number().int().min(1).max(200).default(50),
+});
+
+/** One page of a machine's layouts, most recently changed first, with the total. */
+export async function listLayoutsForMachine(actor: Actor, machineId: string, paging: z.infer<typeof layoutListQuerySchema> = { page: 1, pageSize: 50 }) {
   const ctx = await machineForActor(actor, machineId);
   const db = await getDb();
-  const rows = await db
-    .select()
-    .from(layouts)
-    .where(eq(layouts.machineId, ctx.machine.id))
-    .orderBy(desc(layouts.updatedAt));
-  return { machine: ctx.machine, layouts: rows };
+  const [rows, [counted]] = await Promise.all([
+    db
+      .select()
+      .from(layouts)
+      .where(eq(layouts.machineId, ctx.machine.id))
+      .orderBy(desc(layouts.updatedAt), desc(layouts.id))
+      .limit(paging.pageSize)
+      .offset((paging.page - 1) * paging.pageSize),
+    db.select({ n: count() }).from(layouts).where(eq(layouts.machineId, ctx.machine.id)),
+  ]);
+  return { machine: ctx.machine, layouts: rows, total: counted?.n ?? 0, page: paging.page, pageSize: paging.pageSize };
 }
 
 export async function createLayout(actor: Actor, machineId: string, input: z.infer<typeof createLayoutSchema>) {
@@ -365,7 +420,7 @@ export async function copyLayout(actor: Actor, layoutId: string, input: z.infer<
     );
     return { layout: l!, version: v! };
   });
-  return { ...created, findings, adjusted };
+  return { ...created, findings, adjusted, machine: { id: target.machine.id, nickname: target.machine.nickname } };
 }
 
 /** Two versions of one layout with their differences and each one's findings. */

@@ -5,6 +5,7 @@ import { catalogParts, families, installed, machines, organisations } from '../.
 import { drumIdSchema, slugSchema, vaneControlSchema, type CatalogPart, type MachineFamily } from '../../domain/schemas';
 import type { Actor } from '../access';
 import { audit } from '../audit';
+import { catalogSnapshot } from '../catalog-cache';
 import { HttpError, notFound } from '../http';
 import { priceCatalogFor } from './prices';
 
@@ -31,12 +32,17 @@ export async function machineForActor(actor: Actor, machineId: string, db?: Db):
 }
 
 /**
- * The active catalog parts that fit a family. With `priceFor` (an organisation id) each part
- * carries the price of the dealer serving that organisation (services/prices.ts); without it,
- * the catalog's list price.
+ * The active catalog parts that fit a family: from the kept catalog (catalog-cache.ts), or read
+ * through `db` when a caller passes its transaction. With `priceFor` (an organisation id) each
+ * part carries the price of the dealer serving that organisation (services/prices.ts); without
+ * it, the catalog's list price.
  */
 export async function catalogForFamily(familyId: string, db?: Db, priceFor?: string): Promise<CatalogPart[]> {
-  const d = db ?? (await getDb());
+  if (!db) {
+    const kept = [...((await catalogSnapshot()).partsByFamily.get(familyId) ?? [])];
+    return priceFor ? priceCatalogFor(kept, priceFor, await getDb()) : kept;
+  }
+  const d = db;
   const rows = await d
     .select({ spec: catalogParts.spec })
     .from(catalogParts)
@@ -153,9 +159,12 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
     );
   }
   const where = and(...conditions);
-  // One round trip: the page and the total (a window count over the filtered rows).
+  // The page, then the total: no window count, which would make the store read and join every
+  // matching machine to sort them; the page alone is read in order from an index
+  // (machines_org_updated_idx, machines_org_nickname_idx) for the usual sorts, and the count
+  // joins the small tables only when the query searches their names.
   const rows = await db
-    .select({ ...listColumns, total: sql<number>`count(*) over ()`.mapWith(Number) })
+    .select(listColumns)
     .from(machines)
     .innerJoin(families, eq(families.id, machines.familyId))
     .innerJoin(organisations, eq(organisations.id, machines.orgId))
@@ -163,19 +172,12 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
     .orderBy(desc_ ? desc(column) : asc(column), asc(machines.id))
     .limit(query.pageSize)
     .offset((query.page - 1) * query.pageSize);
-  let n = rows[0]?.total;
-  if (n === undefined) {
-    // Past the last page (or nothing matches): count separately so the pager still knows the total.
-    const [c] = await db
-      .select({ n: count() })
-      .from(machines)
-      .innerJoin(families, eq(families.id, machines.familyId))
-      .innerJoin(organisations, eq(organisations.id, machines.orgId))
-      .where(where);
-    n = c?.n ?? 0;
-  }
-  const items = rows.map(({ total: _t, ...item }) => item);
-  return { items, total: n, page: query.page, pageSize: query.pageSize, sort: query.sort, q: query.q };
+  const counting = db.select({ n: count() }).from(machines);
+  const [c] = query.q
+    ? await counting.innerJoin(families, eq(families.id, machines.familyId)).innerJoin(organisations, eq(organisations.id, machines.orgId)).where(where)
+    : await counting.where(where);
+  const n = c?.n ?? 0;
+  return { items: rows, total: n, page: query.page, pageSize: query.pageSize, sort: query.sort, q: query.q };
 }
 
 function assertMachineFitsFamily(family: MachineFamily, drum: string, vaneControl: string) {

@@ -13,6 +13,7 @@ export const GET = route(async (ctx) => {
     installed: o.installed,
     installedFindings: o.installedFindings,
     layouts: o.layouts,
+    layoutTotal: o.layoutTotal,
     activity: o.activity,
   };
 });

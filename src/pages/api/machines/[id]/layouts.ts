@@ -1,7 +1,12 @@
-import { json, readJson, requireActor, route, parseId } from '../../../../lib/server/http';
-import { createLayout, createLayoutSchema, LAYOUT_WRITERS, listLayoutsForMachine } from '../../../../lib/server/services/layouts';
+import { json, readJson, requireActor, route, parseId, parseParams } from '../../../../lib/server/http';
+import { createLayout, createLayoutSchema, LAYOUT_WRITERS, layoutListQuerySchema, listLayoutsForMachine } from '../../../../lib/server/services/layouts';
 
-export const GET = route(async (ctx) => listLayoutsForMachine(requireActor(ctx), parseId(ctx.params.id)));
+/** A machine's layouts a page at a time (?page=1&pageSize=50, at most 200), most recently changed first, with the total. */
+export const GET = route(async (ctx) => {
+  const actor = requireActor(ctx);
+  const paging = parseParams(Object.fromEntries(ctx.url.searchParams), layoutListQuerySchema);
+  return listLayoutsForMachine(actor, parseId(ctx.params.id), paging);
+});
 
 export const POST = route(async (ctx) => {
   const actor = requireActor(ctx, LAYOUT_WRITERS);

@@ -1,0 +1,101 @@
+// The HTTP server around Astro's handler, so `npm start` answers like production:
+// - static files that the build precompressed (scripts/http/precompress.mjs) go out as their
+//   .br or .gz twin, whichever the browser accepts (brotli first), from memory;
+// - everything else (pages, API JSON, static files without a twin) is compressed on the fly by
+//   the `compression` package (brotli or gzip by Accept-Encoding, above 1 KB);
+// - every compressible response says `Vary: Accept-Encoding`; without Accept-Encoding nothing is
+//   encoded.
+import http from 'node:http';
+import https from 'node:https';
+import { readFileSync, statSync } from 'node:fs';
+import { extname, relative, sep } from 'node:path';
+import compression from 'compression';
+import Negotiator from 'negotiator';
+import { TEXT_TYPES, walk } from './precompress.mjs';
+
+const ENCODINGS = [
+  ['br', '.br'],
+  ['gzip', '.gz'],
+];
+
+/** url path → { type, immutable, variants: { br?: {body, etag, mtime}, gzip?: … } } */
+export function indexPrecompressed(clientDir) {
+  const index = new Map();
+  if (!statSync(clientDir, { throwIfNoEntry: false })?.isDirectory()) return index;
+  for (const path of walk(clientDir)) {
+    const type = TEXT_TYPES[extname(path)];
+    if (!type) continue;
+    const variants = {};
+    for (const [encoding, suffix] of ENCODINGS) {
+      const twin = statSync(path + suffix, { throwIfNoEntry: false });
+      if (!twin?.isFile()) continue;
+      variants[encoding] = {
+        body: readFileSync(path + suffix),
+        etag: `W/"${encoding}-${twin.size.toString(16)}-${Math.floor(twin.mtimeMs).toString(16)}"`,
+        mtime: twin.mtime.toUTCString(),
+      };
+    }
+    if (Object.keys(variants).length === 0) continue;
+    const urlPath = '/' + relative(clientDir, path).split(sep).join('/');
+    index.set(urlPath, { type, immutable: urlPath.startsWith('/_astro/'), variants });
+  }
+  return index;
+}
+
+function pathOf(url = '/') {
+  const q = url.search(/[?#]/);
+  return q === -1 ? url : url.slice(0, q);
+}
+
+/** Sends the precompressed twin the request accepts; false when it accepts none. */
+function sendPrecompressed(req, res, entry) {
+  const offered = Object.keys(entry.variants);
+  const encoding = new Negotiator(req).encoding([...offered, 'identity'], offered);
+  const variant = encoding && entry.variants[encoding];
+  if (!variant) return false;
+  res.setHeader('Content-Type', entry.type);
+  res.setHeader('Content-Encoding', encoding);
+  res.setHeader('Vary', 'Accept-Encoding');
+  res.setHeader('ETag', variant.etag);
+  res.setHeader('Last-Modified', variant.mtime);
+  res.setHeader('Cache-Control', entry.immutable ? 'public, max-age=31536000, immutable' : 'public, max-age=0');
+  res.setHeader('X-Content-Type-Options', 'nosniff');
+  const inm = req.headers['if-none-match'];
+  if (inm && inm.split(',').some((t) => t.trim() === variant.etag)) {
+    res.statusCode = 304;
+    res.end();
+    return true;
+  }
+  res.setHeader('Content-Length', variant.body.length);
+  res.statusCode = 200;
+  res.end(req.method === 'HEAD' ? undefined : variant.body);
+  return true;
+}
+
+/** Wraps Astro's standalone handler with precompressed static files and on-the-fly compression. */
+export function compressingHandler(appHandler, { clientDir }) {
+  const precompressed = indexPrecompressed(clientDir);
+  const compress = compression({ threshold: 1024 });
+  return (req, res) => {
+    if ((req.method === 'GET' || req.method === 'HEAD') && precompressed.size > 0) {
+      const entry = precompressed.get(pathOf(req.url));
+      if (entry && sendPrecompressed(req, res, entry)) return;
+    }
+    compress(req, res, () => appHandler(req, res));
+  };
+}
+
+/** Listens on HOST:PORT (https when SERVER_CERT_PATH and SERVER_KEY_PATH are set, as Astro's own server). */
+export function listen(handler, { host, port }) {
+  const server =
+    process.env.SERVER_CERT_PATH && process.env.SERVER_KEY_PATH
+      ? https.createServer({ key: readFileSync(process.env.SERVER_KEY_PATH), cert: readFileSync(process.env.SERVER_CERT_PATH) }, handler)
+      : http.createServer(handler);
+  return new Promise((resolve, reject) => {
+    server.once('error', reject);
+    server.listen(port, host, () => {
+      server.off('error', reject);
+      resolve(server);
+    });
+  });
+}
