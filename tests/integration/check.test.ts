@@ -57,8 +57,8 @@ describe('POST /api/check', () => {
 });
 
 describe('POST /api/check keeps the catalog between calls, and sees it change', () => {
-  it('knows a part added by the admin at once, and forgets it once retired', async () => {
-    const ada = await signedIn('admin');
+  it('knows a part added by the instance administrator at once, and forgets it once retired', async () => {
+    const ada = await signedIn('instanceAdmin');
     const c = await signedIn('operator');
     // Warm the kept catalog.
     expect((await c.post('/api/check', { layout: valid })).status).toBe(200);
