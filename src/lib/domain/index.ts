@@ -8,3 +8,4 @@ export * from './compute';
 export { checkLayout, checkPlacement, placePart, hasBlockingFindings, countBySeverity } from './rules';
 export * from './demo-catalog';
 export * from './check-input';
+export * from './field-check';
