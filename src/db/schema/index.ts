@@ -6,3 +6,4 @@ export * from './inspections';
 export * from './parts';
 export * from './classroom';
 export * from './audit';
+export * from './field';
