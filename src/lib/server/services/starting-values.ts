@@ -124,3 +124,9 @@ export const DEMO_STARTING_VALUES: Omit<StartingValuesInput, 'familyId'>[] = [
   { crop: 'corn', fanRpm: 1200, upperSieveMm: 20, lowerSieveMm: 12, feederNote: 'Feeder drum in the upper position (demo value).', headerNote: 'Deck plates set a little wider than the stalks (demo value).' },
   { crop: 'soybeans', fanRpm: 1100, upperSieveMm: 18, lowerSieveMm: 10, feederNote: 'Feeder drum in the lower position (demo value).', headerNote: 'Cut as low as the ground allows (demo value).' },
 ];
+
+/** Every starting value a dealer keeps for one machine family (the loss check prefills from them). */
+export async function startingValuesOfDealer(dealerId: string, familyId: string, db?: Db): Promise<StartingValuesRow[]> {
+  const d = db ?? (await getDb());
+  return d.select().from(startingValues).where(and(eq(startingValues.dealerId, dealerId), eq(startingValues.familyId, familyId)));
+}

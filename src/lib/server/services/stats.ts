@@ -20,6 +20,8 @@ const TABLES = {
   partsRequests: t.partsRequests,
   decks: t.decks,
   deckSlides: t.deckSlides,
+  lossChecks: t.lossChecks,
+  startingValues: t.startingValues,
   auditLog: t.auditLog,
 } as const;
 
