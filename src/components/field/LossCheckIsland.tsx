@@ -99,9 +99,7 @@ export default function LossCheckIsland(props: LossCheckProps) {
       frameBy === 'area'
         ? { by: 'area' as const, area: num(frameArea), unit: imperial ? ('ft2' as const) : ('m2' as const) }
         : { by: 'sides' as const, length: num(side1), width: num(side2), unit: imperial ? ('in' as const) : ('cm' as const) },
-    preHarvest: counts.preHarvest.map(num),
-    header: counts.header.map(num),
-    behindMachine: counts.behindMachine.map(num),
+    counts: { preHarvest: counts.preHarvest.map(num), header: counts.header.map(num), behindMachine: counts.behindMachine.map(num) },
     cutWidth: num(cutWidth),
     spreadWidth: num(spreadWidth),
     widthUnit: imperial ? ('ft' as const) : ('m' as const),
@@ -245,9 +243,9 @@ export default function LossCheckIsland(props: LossCheckProps) {
                   inputMode="numeric"
                   value={c}
                   onChange={(e) => setCounts({ ...counts, [p.key]: counts[p.key].map((x, j) => (j === i ? e.target.value : x)) })}
-                  {...aria(`${p.key}.${i}`)}
+                  {...aria(`counts.${p.key}.${i}`)}
                 />
-                {fieldErr(`${p.key}.${i}`)}
+                {fieldErr(`counts.${p.key}.${i}`)}
               </div>
             ))}
           </div>
@@ -257,7 +255,7 @@ export default function LossCheckIsland(props: LossCheckProps) {
               <button type="button" className={big} onClick={() => setCounts({ ...counts, [p.key]: counts[p.key].slice(0, -1) })}>− Last frame</button>
             )}
           </div>
-          {fieldErr(p.key)}
+          {fieldErr(`counts.${p.key}`)}
         </fieldset>
       ))}
 

@@ -78,7 +78,7 @@ export default function SeasonTable({ rows, units }: { rows: SeasonRow[]; units:
     getSortedRowModel: getSortedRowModel(),
   });
   return (
-    <div className="overflow-x-auto" tabIndex={0} role="region" aria-label="Loss checks of the season, scrolls sideways">
+    <div className="relative overflow-x-auto" tabIndex={0} role="region" aria-label="Loss checks of the season, scrolls sideways">
       <table className="w-full min-w-[900px] text-sm" data-testid="season-table">
         <caption className="sr-only">Loss checks of the season</caption>
         <SortableHead table={table} />

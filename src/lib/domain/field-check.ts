@@ -69,12 +69,14 @@ export type BasisInput = z.infer<typeof basisInputSchema>;
 export const lossCheckInputBaseSchema = z.object({
   crop: cropIdSchema,
   frame: frameSchema,
-  /** Counts in front of the header, in standing crop. */
-  preHarvest: countsSchema,
-  /** Counts behind the header, outside the machine's spread. */
-  header: countsSchema,
-  /** Counts behind the machine, in its spread. */
-  behindMachine: countsSchema,
+  counts: z.object({
+    /** In front of the header, in standing crop. */
+    preHarvest: countsSchema,
+    /** Behind the header, outside the machine's spread. */
+    header: countsSchema,
+    /** Behind the machine, in its spread. */
+    behindMachine: countsSchema,
+  }),
   cutWidth: positive(200, 'cut width'),
   /** The width the machine spreads or windrows its residue over. */
   spreadWidth: positive(200, 'spread width'),
@@ -95,10 +97,17 @@ export const lossCheckInputBaseSchema = z.object({
   signs: z.array(lossSignSchema).max(3).default([]),
 });
 
-export const lossCheckInputSchema = lossCheckInputBaseSchema.superRefine((v, ctx) => {
-  if (v.spreadWidth > v.cutWidth)
+/** Cross-field checks of the widths (the API's record schema runs them too). */
+export function checkWidths(v: { cutWidth: number; spreadWidth: number; widthUnit: 'ft' | 'm' }, ctx: z.RefinementCtx) {
+  // A spread narrower than a foot is no spread: most likely a slip of the unit.
+  const narrowest = v.widthUnit === 'ft' ? 1 : 0.3;
+  if (v.spreadWidth < narrowest)
+    ctx.addIssue({ code: 'custom', path: ['spreadWidth'], message: `the spread width must be at least ${narrowest} ${v.widthUnit}` });
+  else if (v.spreadWidth > v.cutWidth)
     ctx.addIssue({ code: 'custom', path: ['spreadWidth'], message: 'the spread width cannot be wider than the cut width' });
-});
+}
+
+export const lossCheckInputSchema = lossCheckInputBaseSchema.superRefine(checkWidths);
 export type LossCheckInput = z.input<typeof lossCheckInputSchema>;
 export type LossCheckParsed = z.output<typeof lossCheckInputSchema>;
 
@@ -192,9 +201,9 @@ export function computeLossCheck(raw: LossCheckInput): LossCheckResult {
   const ratio = input.cutWidth / input.spreadWidth;
   if (!(ratio >= 1)) throw new RangeError('the spread width cannot be wider than the cut width');
 
-  const P = kernelsPerFt2(input.preHarvest, area);
-  const H = kernelsPerFt2(input.header, area);
-  const T = kernelsPerFt2(input.behindMachine, area);
+  const P = kernelsPerFt2(input.counts.preHarvest, area);
+  const H = kernelsPerFt2(input.counts.header, area);
+  const T = kernelsPerFt2(input.counts.behindMachine, area);
   const notes: CheckNote[] = [];
   if (H < P) notes.push('header-below-standing');
   if (T < H) notes.push('machine-below-header');

@@ -49,7 +49,7 @@ export function chartSvg(spec: ChartSpec): string {
     chart.setOption({
       animation: false,
       textStyle: { fontFamily: FONT, color: INK, fontSize: 13 },
-      grid: { left: 56, right: 24, top: spec.series.length > 1 ? 40 : 20, bottom: 52 },
+      grid: { left: 48, right: 16, top: spec.series.length > 1 ? 40 : 20, bottom: 52 },
       legend: spec.series.length > 1 ? { top: 4, textStyle: { fontFamily: FONT, color: INK } } : undefined,
       xAxis: {
         type: spec.kind === 'time' ? 'time' : 'value',
@@ -58,7 +58,7 @@ export function chartSvg(spec: ChartSpec): string {
         nameGap: 30,
         scale: spec.kind === 'scatter',
         axisLine: { lineStyle: { color: STEEL } },
-        axisLabel: { color: INK, hideOverlap: true },
+        axisLabel: spec.kind === 'time' ? { color: INK, hideOverlap: true, formatter: '{d} {MMM}' } : { color: INK, hideOverlap: true },
       },
       yAxis: {
         type: 'value',

@@ -12,13 +12,13 @@ import {
   type LossCheckInput,
 } from '~/lib/domain';
 
-/** A check with one frame of 1 ft², the same count at every place unless given. */
-const base = (over: Partial<LossCheckInput> = {}): LossCheckInput => ({
+type Counts = { preHarvest?: number[]; header?: number[]; behindMachine?: number[] };
+
+/** A check with one frame of 1 ft², no kernels anywhere unless given. */
+const base = ({ preHarvest = [0], header = [0], behindMachine = [0], ...over }: Partial<LossCheckInput> & Counts = {}): LossCheckInput => ({
   crop: 'wheat',
   frame: { by: 'area', area: 1, unit: 'ft2' },
-  preHarvest: [0],
-  header: [0],
-  behindMachine: [0],
+  counts: { preHarvest, header, behindMachine },
   cutWidth: 30,
   spreadWidth: 30,
   widthUnit: 'ft',
@@ -179,7 +179,7 @@ describe('bad input is refused with the field named', () => {
     return p.success ? null : p.error.issues.map((i) => i.path.join('.'));
   };
   it('negative counts', () => {
-    expect(fieldOf(base({ header: [3, -1] }))).toContain('header.1');
+    expect(fieldOf(base({ header: [3, -1] }))).toContain('counts.header.1');
   });
   it('zero widths', () => {
     expect(fieldOf(base({ cutWidth: 0 }))).toContain('cutWidth');
@@ -188,9 +188,14 @@ describe('bad input is refused with the field named', () => {
   it('a spread wider than the cut', () => {
     expect(fieldOf(base({ cutWidth: 20, spreadWidth: 25 }))).toEqual(['spreadWidth']);
   });
+  it('a spread narrower than a foot (0.3 m) is taken for a slip of the unit', () => {
+    expect(fieldOf(base({ spreadWidth: 0.5 }))).toEqual(['spreadWidth']);
+    expect(fieldOf(base({ spreadWidth: 0.5, cutWidth: 9, widthUnit: 'm' }))).toBeNull();
+    expect(fieldOf(base({ spreadWidth: 0.2, cutWidth: 9, widthUnit: 'm' }))).toEqual(['spreadWidth']);
+  });
   it('a zero frame, no frames counted, a zero TKW', () => {
     expect(fieldOf(base({ frame: { by: 'sides', length: 0, width: 10, unit: 'in' } }))).toContain('frame.length');
-    expect(fieldOf(base({ preHarvest: [] }))).toContain('preHarvest');
+    expect(fieldOf(base({ preHarvest: [] }))).toContain('counts.preHarvest');
     expect(fieldOf(base({ basis: { kind: 'own-weight', tkwG: 0 } }))).toContain('basis.tkwG');
   });
 });

@@ -3,7 +3,7 @@ import Papa from 'papaparse';
 import { z } from 'zod';
 import { getDb, type Db } from '../db';
 import { auditLog, lossChecks, users } from '../../../db/schema';
-import { computeLossCheck, lossCheckInputBaseSchema, type LossCheckResult } from '../../domain/field-check';
+import { checkWidths, computeLossCheck, lossCheckInputBaseSchema } from '../../domain/field-check';
 import { CLEARANCE_MAX_MM, CLEARANCE_MIN_MM, RPM_MAX, RPM_MIN, vaneSettingSchema } from '../../domain/schemas';
 import type { Actor } from '../access';
 import { audit } from '../audit';
@@ -44,8 +44,7 @@ export const recordLossCheckSchema = lossCheckInputBaseSchema
     settings: checkSettingsSchema.default({}),
   })
   .superRefine((v, ctx) => {
-    if (v.spreadWidth > v.cutWidth)
-      ctx.addIssue({ code: 'custom', path: ['spreadWidth'], message: 'the spread width cannot be wider than the cut width' });
+    checkWidths(v, ctx);
     if (v.checkedAt && new Date(v.checkedAt).getTime() > Date.now() + 24 * 3600 * 1000)
       ctx.addIssue({ code: 'custom', path: ['checkedAt'], message: 'a check cannot lie in the future' });
   });
