@@ -1,7 +1,14 @@
-import { test, expect } from '@playwright/test';
+import { test, expect, type Page } from '@playwright/test';
 import { execFileSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { shot, signIn } from './helpers';
+
+/** Waits until the page's islands have hydrated (typing before that would be lost). */
+async function hydrated(page: Page) {
+  const islands = page.locator('astro-island');
+  await expect(islands.first()).toBeAttached();
+  for (const island of await islands.all()) await expect(island).not.toHaveAttribute('ssr');
+}
 
 test('an operator on a phone records a loss check, sees the verdict, and opens the season chart', async ({ page }) => {
   await page.setViewportSize({ width: 390, height: 844 });
@@ -12,11 +19,12 @@ test('an operator on a phone records a loss check, sees the verdict, and opens t
   const card = page.getByTestId('field-machines').locator('li').filter({ hasText: 'North Quarter' });
   await card.getByRole('link', { name: 'Loss check' }).click();
   await expect(page.getByRole('heading', { name: 'Loss check: North Quarter' })).toBeVisible();
+  await hydrated(page);
 
   // Olive works in metric: a 0.25 m² frame, widths in metres, yield in kg/ha.
   await page.getByLabel('Field').fill('Ridge quarter');
   await expect(page.getByLabel('Crop')).toHaveValue('wheat');
-  await page.getByLabel('Frame 1').nth(0).fill('1');
+  await page.getByTestId('counts-preHarvest').getByLabel('Frame 1').fill('1');
   await page.getByTestId('counts-preHarvest').getByRole('button', { name: '+ Frame' }).click();
   await page.getByTestId('counts-preHarvest').getByLabel('Frame 2').fill('0');
   await page.getByTestId('counts-header').getByLabel('Frame 1').fill('4');
