@@ -1,7 +1,14 @@
 import { test, expect, type Page } from '@playwright/test';
+import AxeBuilder from '@axe-core/playwright';
 import { execFileSync } from 'node:child_process';
 import { mkdirSync, writeFileSync } from 'node:fs';
 import { shot, signIn } from './helpers';
+
+/** Serious or critical accessibility problems axe finds on the page (none expected). */
+async function axeProblems(page: Page) {
+  const r = await new AxeBuilder({ page }).analyze();
+  return r.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
+}
 
 /** Waits until the page's islands have hydrated (typing before that would be lost). */
 async function hydrated(page: Page) {
@@ -55,6 +62,7 @@ test('an operator on a phone records a loss check, sees the verdict, and opens t
   await expect(verdict).toContainText(/Harvest loss .* of the expected yield/);
   await expect(page.getByTestId('loss-advice')).toContainText(/concave clearance/);
   await shot(page, 'field-check-verdict');
+  expect(await axeProblems(page)).toEqual([]);
 
   await page.getByTestId('open-season').click();
   await expect(page.getByTestId('season-heading')).toContainText('North Quarter');
@@ -64,6 +72,7 @@ test('an operator on a phone records a loss check, sees the verdict, and opens t
   await expect(page.getByTestId('chart-rpm').locator('svg:visible')).toBeVisible();
   await expect(page.getByTestId('season-table')).toContainText('Ridge quarter');
   await shot(page, 'field-check-season');
+  expect(await axeProblems(page)).toEqual([]);
 });
 
 test('the season charts and table are there without JavaScript', async ({ browser }) => {

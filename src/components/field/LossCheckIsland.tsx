@@ -120,7 +120,7 @@ export default function LossCheckIsland(props: LossCheckProps) {
   const preview = parsed.success ? computeLossCheck(checkInput) : null;
   const err = (field: string) => errors[field];
 
-  async function save(e: React.FormEvent) {
+  async function save(e: { preventDefault(): void }) {
     e.preventDefault();
     setServerError('');
     const local: Record<string, string> = { ...liveErrors };

@@ -1,4 +1,4 @@
-import { and, desc, eq, sql } from 'drizzle-orm';
+import { and, desc, eq } from 'drizzle-orm';
 import { getDb } from '../db';
 import { auditLog, catalogParts, layouts, layoutVersions } from '../../../db/schema';
 import { computeSettings } from '../../domain/compute';
@@ -76,16 +76,4 @@ export async function settingsCard(actor: Actor, machineId: string, wanted?: Cro
     lastCheck: last,
     generatedAt: new Date(),
   };
-}
-
-/** Whether a layout version belongs to the machine (the card's share form checks it). */
-export async function versionOnMachine(machineId: string, layoutId: string, version: number) {
-  const db = await getDb();
-  const [row] = await db
-    .select({ n: sql<number>`1` })
-    .from(layouts)
-    .innerJoin(layoutVersions, and(eq(layoutVersions.layoutId, layouts.id), eq(layoutVersions.version, version)))
-    .where(and(eq(layouts.id, layoutId), eq(layouts.machineId, machineId)))
-    .limit(1);
-  return !!row;
 }
