@@ -21,6 +21,7 @@ test('an operator on a phone records a loss check, sees the verdict, and opens t
   await page.setViewportSize({ width: 390, height: 844 });
   await signIn(page, 'operator');
   // The home page's promise of a loss check leads to it.
+  await expect(page.getByTestId('home-loss-check')).toHaveAttribute('href', '/field-check');
   await page.getByRole('link', { name: /Check losses/ }).click();
   await expect(page.getByRole('heading', { name: 'Field check', level: 1 })).toBeVisible();
   const card = page.getByTestId('field-machines').locator('li').filter({ hasText: 'North Quarter' });
