@@ -200,6 +200,21 @@ describe('dealer starting values and the settings card', () => {
     expect(await counts()).toEqual(before);
   });
 
+  it('the starting-values page takes the same values from a plain form, naming bad ones', async () => {
+    const post = (c: Client, fields: Record<string, string>) =>
+      c.fetch('/admin/starting-values', { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: new URLSearchParams(fields).toString() });
+    const before = await counts();
+    const bad = await post(ada, { familyId, crop: 'oats', fanRpm: '-40', upperSieve: '12', lowerSieve: '' });
+    expect(bad.status).toBe(400);
+    expect(await bad.text()).toContain('fanRpm: the fan speed is too low');
+    expect((await post(tomas, { familyId, crop: 'oats', fanRpm: '900' })).status).toBe(403);
+    expect(await counts()).toEqual(before);
+    const good = await post(ada, { familyId, crop: 'oats', fanRpm: '900', upperSieve: '14.5', lowerSieve: '6', feederNote: 'Drum low', headerNote: '' });
+    expect(good.status).toBe(303);
+    const seen = await olive.get(`/api/starting-values?familyId=${familyId}&crop=oats`);
+    expect(seen.body.items[0]).toMatchObject({ fanRpm: 900, upperSieveMm: 14.5, lowerSieveMm: 6, feederNote: 'Drum low', invented: false });
+  });
+
   it('the card shows the cage, the starting values marked invented, the last check and the manual-first caution', async () => {
     const res = await priya.fetch(`/machines/${machineId}/card?crop=wheat`);
     expect(res.status).toBe(200);
