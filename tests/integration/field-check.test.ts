@@ -70,6 +70,19 @@ describe('recording a loss check', () => {
     expect(season.body.checks.map((c: { id: string }) => c.id)).toContain(res.body.id);
   });
 
+  it('names the saved layout version that is installed', async () => {
+    const layouts = (await olive.get(`/api/machines/${machineId}/layouts`)).body.layouts as { id: string }[];
+    const layoutId = layouts[layouts.length - 1]!.id;
+    expect((await olive.put(`/api/machines/${machineId}/installed`, { fromLayout: { layoutId, version: 1 } })).status).toBe(200);
+    const crop = (await olive.get(`/api/machines/${machineId}/installed`)).body.installed.layout.crop;
+    const res = await olive.post(`/api/machines/${machineId}/loss-checks`, body({ crop }));
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    expect(res.body).toMatchObject({ layoutId, layoutVersion: 1 });
+    // A check in another crop than the one installed names no version.
+    const other = await olive.post(`/api/machines/${machineId}/loss-checks`, body({ crop: crop === 'oats' ? 'barley' : 'oats' }));
+    expect(other.body.layoutVersion).toBeNull();
+  });
+
   it('takes the settings typed in the cab over what is installed', async () => {
     const res = await tomas.post(`/api/machines/${machineId}/loss-checks`, body({ settings: { rotorRpm: 801, clearanceMm: 9.5, vaneSetting: 'slow', fanRpm: null } }));
     expect(res.status, JSON.stringify(res.body)).toBe(201);

@@ -2,9 +2,9 @@ import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import Papa from 'papaparse';
 import { z } from 'zod';
 import { getDb, type Db } from '../db';
-import { auditLog, lossChecks, users } from '../../../db/schema';
+import { layouts, layoutVersions, lossChecks, users } from '../../../db/schema';
 import { checkWidths, computeLossCheck, lossCheckInputBaseSchema } from '../../domain/field-check';
-import { CLEARANCE_MAX_MM, CLEARANCE_MIN_MM, RPM_MAX, RPM_MIN, vaneSettingSchema } from '../../domain/schemas';
+import { CLEARANCE_MAX_MM, CLEARANCE_MIN_MM, RPM_MAX, RPM_MIN, vaneSettingSchema, type Layout } from '../../domain/schemas';
 import type { Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
@@ -56,22 +56,25 @@ export const seasonQuerySchema = z.object({
   units: z.enum(['metric', 'imperial']).optional(),
 });
 
-/** The saved layout version the machine's record says was fitted last, if it names one. */
-async function installedVersion(db: Db, machineId: string): Promise<{ layoutId: string; version: number } | null> {
+/**
+ * The saved version of this machine's layouts that matches what is installed, newest first (a
+ * version marked as installed is copied as it is; a layout edited since still has that version).
+ */
+export async function installedVersionOf(db: Db, machineId: string, layout: Layout): Promise<{ layoutId: string; version: number } | null> {
   const [row] = await db
-    .select({ detail: auditLog.detail })
-    .from(auditLog)
-    .where(and(eq(auditLog.entity, 'machine'), eq(auditLog.entityId, machineId), eq(auditLog.action, 'install')))
-    .orderBy(desc(auditLog.at), desc(auditLog.id))
+    .select({ layoutId: layoutVersions.layoutId, version: layoutVersions.version })
+    .from(layoutVersions)
+    .innerJoin(layouts, eq(layouts.id, layoutVersions.layoutId))
+    .where(and(eq(layouts.machineId, machineId), sql`${layoutVersions.body} = ${JSON.stringify(layout)}::jsonb`))
+    .orderBy(desc(layoutVersions.createdAt), desc(layoutVersions.version))
     .limit(1);
-  const d = row?.detail as { fromLayout?: string; version?: number } | undefined;
-  return d?.fromLayout && d.version ? { layoutId: d.fromLayout, version: d.version } : null;
+  return row ?? null;
 }
 
 export async function recordLossCheck(actor: Actor, machineId: string, input: z.output<typeof recordLossCheckSchema>) {
   const db = await getDb();
   const ctx = await machineForActor(actor, machineId, db);
-  const [current, fitted] = await Promise.all([installedLayout(ctx.machine.id, db), installedVersion(db, ctx.machine.id)]);
+  const current = await installedLayout(ctx.machine.id, db);
   const s = input.settings;
   const rotorRpm = s.rotorRpm ?? current?.layout.rotorRpm;
   const clearanceMm = s.clearanceMm ?? current?.layout.clearanceMm;
@@ -87,7 +90,7 @@ export async function recordLossCheck(actor: Actor, machineId: string, input: z.
   const { fieldName, checkedAt, moisturePct, settings: _s, ...countsInput } = input;
   const result = computeLossCheck(countsInput);
   // The layout version only counts when what is installed still carries the crop checked.
-  const version = fitted && current?.layout.crop === input.crop ? fitted : null;
+  const version = current && current.layout.crop === input.crop ? await installedVersionOf(db, ctx.machine.id, current.layout) : null;
 
   const id = await db.transaction(async (tx) => {
     const [row] = await tx

@@ -1,12 +1,12 @@
 import { and, desc, eq } from 'drizzle-orm';
 import { getDb } from '../db';
-import { auditLog, catalogParts, layouts, layoutVersions } from '../../../db/schema';
+import { catalogParts, layouts, layoutVersions } from '../../../db/schema';
 import { computeSettings } from '../../domain/compute';
 import { checkLayout } from '../../domain/rules';
 import type { CatalogPart, CropId, Layout } from '../../domain/schemas';
 import type { Actor } from '../access';
 import { HttpError } from '../http';
-import { lastLossCheck } from './field-checks';
+import { installedVersionOf, lastLossCheck } from './field-checks';
 import { installedLayout, machineForActor } from './machines';
 import { dealerOfOrg, startingValuesFor } from './starting-values';
 
@@ -24,7 +24,7 @@ export type CardSource =
 export async function settingsCard(actor: Actor, machineId: string, wanted?: CropId) {
   const db = await getDb();
   const ctx = await machineForActor(actor, machineId, db);
-  const [current, saved, catalogRows, dealerId, installAudit] = await Promise.all([
+  const [current, saved, catalogRows, dealerId] = await Promise.all([
     installedLayout(ctx.machine.id, db),
     db
       .select({ id: layouts.id, name: layouts.name, version: layouts.currentVersion, body: layoutVersions.body })
@@ -35,12 +35,6 @@ export async function settingsCard(actor: Actor, machineId: string, wanted?: Cro
     // Retired parts still describe what an older layout names.
     db.select({ spec: catalogParts.spec }).from(catalogParts).where(eq(catalogParts.familyId, ctx.family.id)),
     dealerOfOrg(ctx.machine.orgId, db),
-    db
-      .select({ detail: auditLog.detail })
-      .from(auditLog)
-      .where(and(eq(auditLog.entity, 'machine'), eq(auditLog.entityId, ctx.machine.id), eq(auditLog.action, 'install')))
-      .orderBy(desc(auditLog.at), desc(auditLog.id))
-      .limit(1),
   ]);
   const catalog: CatalogPart[] = catalogRows.map((r) => r.spec);
   const crops = [...new Set([current?.layout.crop, ...saved.map((s) => s.body.crop)].filter((c): c is CropId => !!c))];
@@ -49,11 +43,7 @@ export async function settingsCard(actor: Actor, machineId: string, wanted?: Cro
 
   let source: CardSource | null = null;
   if (current && current.layout.crop === crop) {
-    const d = installAudit[0]?.detail as { fromLayout?: string; version?: number } | undefined;
-    const fitted = d?.fromLayout && d.version && saved.some((s) => s.id === d.fromLayout) ? { layoutId: d.fromLayout, version: d.version } : null;
-    // Installed straight from a layout document: share the newest saved layout that matches it, if any.
-    const same = saved.find((s) => JSON.stringify(s.body) === JSON.stringify(current.layout));
-    source = { kind: 'installed', layout: current.layout, shareable: fitted ?? (same ? { layoutId: same.id, version: same.version } : null) };
+    source = { kind: 'installed', layout: current.layout, shareable: await installedVersionOf(db, ctx.machine.id, current.layout) };
   } else {
     const s = saved.find((x) => x.body.crop === crop);
     if (s) source = { kind: 'saved', layout: s.body, name: s.name, shareable: { layoutId: s.id, version: s.version } };
