@@ -1,4 +1,4 @@
-import type { Fixtures, Role } from './matrix-fixtures';
+import { LOSS_CHECK_BODY, type Fixtures, type Role } from './matrix-fixtures';
 
 /**
  * Every API route and method with the roles allowed, how to fill its params from the fixtures,
@@ -15,6 +15,8 @@ const ADMINS: Role[] = ['dealer_admin', 'instance_admin'];
 const INSTANCE: Role[] = ['instance_admin'];
 const DEALER_ADMIN: Role[] = ['dealer_admin'];
 const PRICE_READERS: Role[] = ['technician', 'dealer_admin'];
+/** Who records loss checks (services/field-checks.ts LOSS_CHECK_WRITERS). */
+const FIELD: Role[] = ['operator', 'technician'];
 
 export interface Row {
   allowed: Role[] | 'public';
@@ -87,6 +89,12 @@ export const MATRIX: Record<string, Row> = {
   'DELETE /api/machines/[id]': { allowed: WRITERS, params: machine, other: 'not-found' },
   'GET /api/machines/[id]/inspections': { allowed: ALL, params: machine, other: 'not-found' },
   'POST /api/machines/[id]/inspections': { allowed: WRITERS, params: machine, body: () => ({ title: 'x' }), other: 'not-found' },
+  'GET /api/machines/[id]/loss-checks': { allowed: ALL, params: machine, other: 'not-found' },
+  'POST /api/machines/[id]/loss-checks': { allowed: FIELD, params: machine, body: () => LOSS_CHECK_BODY, other: 'not-found' },
+  'GET /api/loss-checks/[id]': { allowed: ALL, params: (f) => ({ id: f.lossCheckId }), other: 'not-found' },
+  'DELETE /api/loss-checks/[id]': { allowed: FIELD, params: (f) => ({ id: f.lossCheckId }), other: 'not-found' },
+  'GET /api/starting-values': { allowed: ALL, other: 'none', why: 'answers the caller’s own dealer’s values, keyed by family and crop' },
+  'PUT /api/starting-values': { allowed: DEALER_ADMIN, body: (f) => ({ familyId: f.familyId, crop: 'wheat' }), other: 'none', why: 'writes the caller’s own dealer’s values (another dealer’s stay untouched: field-check tests)' },
   'GET /api/machines/[id]/installed': { allowed: ALL, params: machine, other: 'not-found' },
   'PUT /api/machines/[id]/installed': { allowed: WRITERS, params: machine, body: (f) => ({ layout: f.layoutBody }), other: 'not-found' },
   'GET /api/machines/[id]/layouts': { allowed: ALL, params: machine, other: 'not-found' },

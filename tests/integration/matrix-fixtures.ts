@@ -42,6 +42,7 @@ export interface Fixtures {
   partsRequestId: string;
   /** A member of the demo dealer (the trainer): their id, that dealer's id and their role there. */
   member: { userId: string; orgId: string; role: string };
+  lossCheckId: string;
   /** A tiny valid PNG for upload routes. */
   png: Uint8Array;
 }
@@ -56,6 +57,18 @@ async function as(email: string): Promise<Client> {
   if (!c.hasSession()) throw new Error(`sign-in failed for ${email}`);
   return c;
 }
+
+/** A loss check body with only the fields that must be there (the hostile-input properties drop each). */
+export const LOSS_CHECK_BODY = {
+  fieldName: 'Matrix field',
+  crop: 'wheat',
+  frame: { by: 'area', area: 1, unit: 'ft2' },
+  counts: { preHarvest: [1], header: [3], behindMachine: [20] },
+  cutWidth: 30,
+  spreadWidth: 10,
+  widthUnit: 'ft',
+  expectedYield: { value: 60, unit: 'bu/ac' },
+};
 
 export async function clientsByRole() {
   const own = {} as Record<Role, Client>;
@@ -106,9 +119,17 @@ export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures>
   expect(pr.status, JSON.stringify(pr.body)).toBe(201);
   const partsRequestId: string = pr.body.id ?? pr.body.request?.id;
 
+  // A loss check of the machine: the demo's, or one made here when another suite removed them.
+  let lossCheckId: string | undefined = (await olive.get(`/api/machines/${machineId}/loss-checks`)).body.checks?.[0]?.id;
+  if (!lossCheckId) {
+    const made = await olive.post(`/api/machines/${machineId}/loss-checks`, LOSS_CHECK_BODY);
+    expect(made.status, JSON.stringify(made.body)).toBe(201);
+    lossCheckId = made.body.id as string;
+  }
+
   const people = (await own.dealer_admin.get('/api/admin/users')).body.users as { id: string; email: string; orgId: string; role: string }[];
   const trainer = people.find((p) => p.email === DEMO.trainer)!;
   const member = { userId: trainer.id, orgId: trainer.orgId, role: trainer.role };
 
-  return { member, machineId, familyId, family: family.family?.spec ?? family.family ?? family, part: part.part?.spec ?? part.part ?? part, layoutId, layoutBody, partNumber, shareLinkId, deckId, slideId, inspectionId, itemId, photoId, partsRequestId, png: PNG_1PX };
+  return { member, lossCheckId, machineId, familyId, family: family.family?.spec ?? family.family ?? family, part: part.part?.spec ?? part.part ?? part, layoutId, layoutBody, partNumber, shareLinkId, deckId, slideId, inspectionId, itemId, photoId, partsRequestId, png: PNG_1PX };
 }

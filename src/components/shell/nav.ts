@@ -13,6 +13,7 @@ export const NAV: NavItem[] = [
   { href: '/planner', label: 'Crop change', roles: ['operator', 'technician'] },
   { href: '/parts-requests', label: 'Parts requests', roles: ['operator', 'technician', 'dealer_admin'] },
   { href: '/inspections', label: 'Inspections', roles: ['operator', 'technician'] },
+  { href: '/field-check', label: 'Field check', roles: ['operator', 'technician', 'trainer', 'dealer_admin'] },
   { href: '/classroom', label: 'Classroom', roles: ['trainer', 'technician'] },
   { href: '/admin/catalog', label: 'Catalog', roles: ['instance_admin', 'dealer_admin', 'technician'] },
   { href: '/admin/prices', label: 'Price list', roles: ['dealer_admin', 'technician'] },

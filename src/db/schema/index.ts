@@ -7,3 +7,4 @@ export * from './parts';
 export * from './classroom';
 export * from './audit';
 export * from './auth';
+export * from './field';

@@ -15,7 +15,7 @@ import {
   type OpenAreaByZone,
 } from './cage-metrics';
 import { cropPrograms } from './crops';
-import { kernelsPerFt2PerBuAc, kernelsPerM2PerBuAc } from './loss';
+import { cropLossBasis, kernelsPerFt2PerBuAc, kernelsPerM2PerBuAc, type LossBasis } from './loss';
 import type { CatalogPart, CropId, DrumId, Layout, MachineFamily } from './schemas';
 import { inRpmWindow, rpmWindow, tipSpeed, type RpmWindow } from './speed';
 import { mm, msToFpm, rpm, type FeetPerMinute, type MetresPerSecond, type Mm } from './units';
@@ -48,6 +48,8 @@ export interface Settings {
     kernelsPerM2PerBuAc: number;
     /** A published rule of thumb for this crop, when there is one. */
     published: { value: number; source: string } | null;
+    /** The basis a loss check uses by default: the published count where there is one. */
+    basis: LossBasis;
   };
   parts: { totalMassKg: number; totalPriceCents: number; count: number };
 }
@@ -107,6 +109,7 @@ export function computeSettings(
       kernelsPerFt2PerBuAc: kernelsPerFt2PerBuAc(crop.bushel.usLb.value, crop.tkwG.value),
       kernelsPerM2PerBuAc: kernelsPerM2PerBuAc(crop.bushel.usLb.value, crop.tkwG.value),
       published: crop.publishedLossCount,
+      basis: cropLossBasis(crop),
     },
     parts: { totalMassKg: Math.round(totalMassKg * 100) / 100, totalPriceCents, count },
   };

@@ -10,3 +10,4 @@ export * from './demo-catalog';
 export * from './starter';
 export * from './check-input';
 export * from './text';
+export * from './field-check';

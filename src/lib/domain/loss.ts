@@ -43,6 +43,11 @@ export interface LossInput {
   concentrationRatio: number;
   lbPerBu: number;
   tkwG: number;
+  /**
+   * Kernels per ft² that make 1 bu/ac when a published count or the operator's own count is the
+   * basis; absent, the weight rule above is used with `lbPerBu` and `tkwG`.
+   */
+  kernelsPerFt2PerBuAc?: number;
   /** Expected yield, bu/ac, to express the loss as a share. */
   yieldBuPerAc?: number;
 }
@@ -61,7 +66,8 @@ export function estimateLoss(input: LossInput): LossEstimate {
   if (!(input.count >= 0)) throw new RangeError('count must not be negative');
   const perFt2 = input.per === 'ft2' ? input.count : perM2ToPerFt2(input.count);
   const spread = perFt2 / input.concentrationRatio;
-  const rule = kernelsPerFt2PerBuAc(input.lbPerBu, input.tkwG);
+  if (input.kernelsPerFt2PerBuAc !== undefined && !(input.kernelsPerFt2PerBuAc > 0)) throw new RangeError('kernels per ft² for 1 bu/ac must be positive');
+  const rule = input.kernelsPerFt2PerBuAc ?? kernelsPerFt2PerBuAc(input.lbPerBu, input.tkwG);
   const loss = buPerAc(spread / rule);
   return {
     kernelsPerFt2: spread,
@@ -72,20 +78,55 @@ export function estimateLoss(input: LossInput): LossEstimate {
   };
 }
 
-/** Loss estimate with a crop's own bushel weight (US) and thousand-kernel weight. */
+/** Where the kernels-per-area figure for 1 bu/ac comes from. */
+export type LossBasisKind = 'published' | 'crop-weight' | 'own-weight' | 'typed';
+
+export interface LossBasis {
+  kind: LossBasisKind;
+  kernelsPerFt2PerBuAc: number;
+  kernelsPerM2PerBuAc: number;
+  /** Thousand-kernel weight behind a weight-based basis, grams. */
+  tkwG: number | null;
+  /** Who says so: the publication, the crop's weight source, or the operator. */
+  source: string;
+}
+
+/**
+ * The default basis for a crop: its published count (Iowa State, smallgrains.org) where one
+ * exists, otherwise the weight rule with the crop's bushel weight and thousand-kernel weight.
+ */
+export function cropLossBasis(crop: CropProgram): LossBasis {
+  if (crop.publishedLossCount) {
+    const k = crop.publishedLossCount.value;
+    return { kind: 'published', kernelsPerFt2PerBuAc: k, kernelsPerM2PerBuAc: perFt2ToPerM2(k), tkwG: null, source: crop.publishedLossCount.source };
+  }
+  return weightBasis(crop, crop.tkwG.value, 'crop-weight', `weight rule with ${crop.bushel.usLb.value} lb/bu and TKW ${crop.tkwG.value} g (${crop.tkwG.source})`);
+}
+
+/** The weight rule with a given thousand-kernel weight (the operator's own, or the crop's). */
+export function weightBasis(crop: CropProgram, tkwG: number, kind: 'crop-weight' | 'own-weight' = 'own-weight', source = `weight rule with ${crop.bushel.usLb.value} lb/bu and your TKW ${tkwG} g`): LossBasis {
+  if (!(tkwG > 0)) throw new RangeError('thousand-kernel weight must be positive');
+  const k = kernelsPerFt2PerBuAc(crop.bushel.usLb.value, tkwG);
+  return { kind, kernelsPerFt2PerBuAc: k, kernelsPerM2PerBuAc: perFt2ToPerM2(k), tkwG, source };
+}
+
+/** Loss estimate for a crop on a basis: by default the crop's published count (cropLossBasis). */
 export function estimateCropLoss(
   crop: CropProgram,
   count: number,
   per: 'ft2' | 'm2',
   ratio = 1,
   yieldBuPerAc?: number,
-): LossEstimate {
-  return estimateLoss({
+  basis: LossBasis = cropLossBasis(crop),
+): LossEstimate & { basis: LossBasis } {
+  const estimate = estimateLoss({
     count,
     per,
     concentrationRatio: ratio,
     lbPerBu: crop.bushel.usLb.value,
-    tkwG: crop.tkwG.value,
+    tkwG: basis.tkwG ?? crop.tkwG.value,
+    kernelsPerFt2PerBuAc: basis.kernelsPerFt2PerBuAc,
     yieldBuPerAc,
   });
+  return { ...estimate, basis };
 }

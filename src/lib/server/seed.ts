@@ -101,4 +101,5 @@ export async function seedDemo(db: Db) {
     await tx.insert(t.auditLog).values({ action: 'seed', entity: 'demo', detail: { machines: fleet.length } });
   });
   await (await import('./demo-inspection')).seedDemoInspection(db);
+  await (await import('./demo-field')).seedDemoField(db);
 }

@@ -104,6 +104,7 @@ describe('computeSettings', () => {
     const s = computeSettings(split, catalog, start('canola', split));
     expect(Math.round(s.lossRule.kernelsPerFt2PerBuAc)).toBe(130);
     expect(s.lossRule.published).toBeNull();
+    expect(s.lossRule.basis.kind).toBe('crop-weight');
   });
   it('parts totals', () => {
     const s = computeSettings(split, catalog, start('wheat', split));

@@ -22,6 +22,8 @@ const TABLES = {
   partsRequests: t.partsRequests,
   decks: t.decks,
   deckSlides: t.deckSlides,
+  lossChecks: t.lossChecks,
+  startingValues: t.startingValues,
   auditLog: t.auditLog,
 } as const;
 
@@ -55,6 +57,8 @@ function scopeOf(visible: string[], dealerId: string | null): Record<keyof typeo
       : inArray(t.partsRequests.orgId, visible),
     decks: inArray(t.decks.orgId, visible),
     deckSlides: sql`exists (select 1 from ${t.decks} d where d.id = ${t.deckSlides.deckId} and ${inVisible(sql`d.org_id`)})`,
+    lossChecks: inArray(t.lossChecks.orgId, visible),
+    startingValues: inArray(t.startingValues.dealerId, visible),
     auditLog: inArray(t.auditLog.orgId, visible),
   };
 }

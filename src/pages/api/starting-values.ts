@@ -1,0 +1,22 @@
+import { parseParams, readJson, requireActor, route } from '../../lib/server/http';
+import {
+  listStartingValues,
+  putStartingValues,
+  STARTING_VALUE_EDITORS,
+  startingValuesQuerySchema,
+  startingValuesSchema,
+} from '../../lib/server/services/starting-values';
+
+/** The starting values for the rest of the machine of the dealer that serves the caller. */
+export const GET = route(async (ctx) => {
+  const actor = requireActor(ctx);
+  const q = parseParams(Object.fromEntries(ctx.url.searchParams), startingValuesQuerySchema);
+  return listStartingValues(actor, q);
+});
+
+/** Sets the caller's dealer's starting values for one machine family and crop (mm and rpm). */
+export const PUT = route(async (ctx) => {
+  const actor = requireActor(ctx, STARTING_VALUE_EDITORS);
+  const input = await readJson(ctx.request, startingValuesSchema);
+  return putStartingValues(actor, input);
+});
