@@ -3,16 +3,19 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { encode } from '@auth/core/jwt';
+import { decode, encode } from '@auth/core/jwt';
 import { Client, DEMO } from './client';
 import { removeDir, startServer } from './server';
 import { entryNames, NEVER_ARCHIVED } from '../../scripts/lib/backup-archive.mjs';
 
 const COOKIE = 'authjs.session-token';
 
-/** A session cookie for a user id, signed with a given secret (what anyone holding it could make). */
-async function forgedSession(secret: string, uid: string): Promise<string> {
-  const token = await encode({ token: { uid, sub: uid, role: 'dealer_admin' }, secret, salt: COOKIE, maxAge: 3600 });
+/**
+ * A session cookie for a user id and one of their open session rows, signed with a given secret
+ * (what anyone holding the secret and a session id could make).
+ */
+async function forgedSession(secret: string, uid: string, sid: string): Promise<string> {
+  const token = await encode({ token: { uid, sub: uid, sid, role: 'dealer_admin' }, secret, salt: COOKIE, maxAge: 3600 });
   return `${COOKIE}=${token}`;
 }
 
@@ -106,8 +109,11 @@ describe('backup and restore', () => {
       await ada.signIn(DEMO.dealerAdmin);
       const adaId: string = (await ada.get('/api/me')).body.id;
       const realCookie = (ada as unknown as { cookieHeader(): string }).cookieHeader();
-      // The control: whoever holds the secret can make a session the server accepts.
-      const forged = await forgedSession(oldSecret, adaId);
+      // The control: whoever holds the secret (and a session id, read here from Ada's own cookie)
+      // can make a session the server accepts.
+      const realToken = realCookie.split('; ').find((c) => c.startsWith(`${COOKIE}=`))!.slice(COOKIE.length + 1);
+      const sid = String((await decode({ token: realToken, secret: oldSecret, salt: COOKIE }))?.sid);
+      const forged = await forgedSession(oldSecret, adaId, sid);
       expect(await meWith(server.baseUrl, forged)).toBe(200);
 
       // An instance administrator's backup through the API: none of the secrets inside.
