@@ -7,7 +7,7 @@ import { demoCatalog, sedgeS6, tamarackM4 } from '../../src/lib/domain/demo-cata
 import { starterLayout } from '../../src/lib/domain/starter';
 import { Client, DEMO_PASSWORD, signedIn } from './client';
 import { firstLayoutOf, machineByNickname, uniq } from './fleet-helpers';
-import { removeDir, startServer, type RunningServer } from './server';
+import { databaseFor, removeDir, startServer, type RunningServer } from './server';
 
 // Classroom decks against the real server and the seeded demo: Priya (trainer) and Tomas
 // (technician) of Kestrel Valley Implement build decks; operators and the admin may not.
@@ -381,8 +381,9 @@ describe('comparing layouts in class', () => {
   });
 });
 
-// The second dealer is written straight into an embedded store before its server opens it.
-describe.skipIf(!!process.env.DATABASE_URL)('another dealer’s rows', () => {
+// The second dealer is written straight into the store (the embedded one, or in server mode the
+// server's database for that data directory) before its server opens it.
+describe('another dealer’s rows', () => {
   let server: RunningServer | null = null;
   let ids: { otherVersionId: string; otherDeckId: string; otherTrainer: string; expiredToken: string; revokedToken: string; liveToken: string };
   let ourTrainer: Client;
@@ -392,7 +393,7 @@ describe.skipIf(!!process.env.DATABASE_URL)('another dealer’s rows', () => {
     const dataDir = mkdtempSync(join(tmpdir(), 'cagewright-decks-'));
     const prep = spawnSync('npx', ['tsx', 'tests/integration/fixtures/second-dealer.ts', dataDir], {
       encoding: 'utf8',
-      env: { ...process.env, CAGEWRIGHT_BCRYPT_ROUNDS: '4' },
+      env: { ...process.env, CAGEWRIGHT_BCRYPT_ROUNDS: '4', FIXTURE_DATABASE_URL: (await databaseFor(dataDir)) ?? '' },
     });
     if (prep.status !== 0) throw new Error(`fixture failed: ${prep.stderr}`);
     ids = JSON.parse(prep.stdout.trim().split('\n').pop()!);

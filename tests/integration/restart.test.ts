@@ -26,8 +26,9 @@ describe('the store survives a restart', () => {
     }
   }, 240_000);
 
-  it('refuses a second server on the same data directory, naming the holder', async () => {
-    if (process.env.DATABASE_URL) return; // server mode: PostgreSQL handles concurrency itself
+  // The data-directory lock guards the embedded store; with a PostgreSQL server several processes
+  // share one database by design (two-instances.test.ts).
+  it.skipIf(!!process.env.DATABASE_URL)('refuses a second server on the same data directory, naming the holder (embedded store only)', async () => {
     const dataDir = mkdtempSync(join(tmpdir(), 'cagewright-owner-'));
     try {
       const first = await startServer({ dataDir });

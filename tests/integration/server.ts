@@ -79,8 +79,8 @@ export async function startServer(opts: { dataDir?: string; env?: Record<string,
       CAGEWRIGHT_OUT_DIR: outDir(),
       CAGEWRIGHT_BCRYPT_ROUNDS: '4',
       CAGEWRIGHT_TEST_FIXTURES: '1',
-      // One worker unless asked: some suites count per-process state (the sign-in throttle
-      // is kept in process memory today). workers.test.ts asks for two.
+      // One worker unless asked, so a suite's server is one process as with the embedded store;
+      // workers.test.ts and two-instances.test.ts prove the several-process case.
       CAGEWRIGHT_WORKERS: process.env.CAGEWRIGHT_WORKERS ?? '1',
       AUTH_SECRET: TEST_SECRET,
       ...opts.env,
