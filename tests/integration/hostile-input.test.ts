@@ -61,7 +61,8 @@ describe('hostile input on every write route', () => {
     f = await loadFixtures(clients.own);
   }, 60_000);
 
-  const counts = async () => (await clients.own.instance_admin.get('/api/admin/stats')).body.counts as Record<string, number>;
+  // A digest of every table's contents, not just row counts: a half-applied update changes it.
+  const counts = async () => (await clients.own.instance_admin.get('/api/admin/stats?digest=1')).body.digests as Record<string, string>;
 
   it('covers the write routes', () => {
     expect(writes.length).toBeGreaterThan(20);
@@ -137,7 +138,8 @@ describe('NUL, lone surrogates and oversized strings: 400 naming the field, noth
     f = await loadFixtures(clients.own);
   }, 60_000);
 
-  const counts = async () => (await clients.own.instance_admin.get('/api/admin/stats')).body.counts as Record<string, number>;
+  // A digest of every table's contents, not just row counts: a half-applied update changes it.
+  const counts = async () => (await clients.own.instance_admin.get('/api/admin/stats?digest=1')).body.digests as Record<string, string>;
   const clientFor = (key: string): Client => {
     const row = MATRIX[key]!;
     const role = row.allowed === 'public' ? 'dealer_admin' : row.allowed.includes('dealer_admin') ? 'dealer_admin' : row.allowed[0]!;
@@ -313,5 +315,27 @@ describe('a body over the limit is refused while it streams', () => {
 
   it('the server is still there and answers normally afterwards', async () => {
     expect((await admin.get('/api/me')).status).toBe(200);
+  });
+});
+
+describe('"nothing written" is judged by table contents', () => {
+  it('a digest sees an update that keeps every row count', async () => {
+    const { own } = await clientsByRole();
+    const stats = async () => (await own.instance_admin.get('/api/admin/stats?digest=1')).body as { counts: Record<string, number>; digests: Record<string, string> };
+    const me = (await own.operator.get('/api/me')).body.unitSystem as string;
+    const before = await stats();
+    expect((await own.operator.put('/api/me', { unitSystem: me === 'metric' ? 'imperial' : 'metric' })).status).toBe(200);
+    const after = await stats();
+    await own.operator.put('/api/me', { unitSystem: me });
+    expect(after.counts.users).toBe(before.counts.users);
+    expect(after.digests.users).not.toBe(before.digests.users);
+  });
+
+  it('table digests are the instance administrator’s (403 for a dealer administrator, 400 for a bad value)', async () => {
+    const { own } = await clientsByRole();
+    expect((await own.dealer_admin.get('/api/admin/stats?digest=1')).status).toBe(403);
+    const bad = await own.instance_admin.get('/api/admin/stats?digest=yes');
+    expect(bad.status).toBe(400);
+    expect(bad.body.error.field).toBe('digest');
   });
 });
