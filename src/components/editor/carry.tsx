@@ -47,6 +47,14 @@ export interface Carry {
   begin: (e: StartEvent, part: CatalogPart, from: Place | undefined, node: Element) => void;
   /** Nothing is carried any more (dropped, put back, or tidied after a drop). */
   end: () => void;
+  /** The element the part was picked up from (focus goes back there when a keyboard carry is put back). */
+  node: Element | null;
+  /**
+   * Where the pointer is now, in viewport pixels, kept by a window listener while the editor is
+   * open. dnd-kit's drag delta counts the page's scrolling during the drag (its auto-scroll
+   * included) on top of the pointer's own movement, so it cannot say what is under the pointer.
+   */
+  pointer: { x: number; y: number };
 }
 
 export function createCarry(): Carry {
@@ -54,6 +62,8 @@ export function createCarry(): Carry {
     data: { part: null },
     ui: createStore<CarryUi>()(() => ({ carrying: null, hover: null, overPalette: false, pointed: null })),
     starting: false,
+    node: null,
+    pointer: { x: 0, y: 0 },
     begin: () => {},
     end() {
       this.starting = false;
@@ -110,6 +120,12 @@ export function CarryHandle({ carry, disabled }: { carry: Carry; disabled: boole
       if (!listeners) return;
       carry.data.part = part;
       carry.data.from = from;
+      carry.node = node;
+      if (e.type === 'pointerdown') {
+        const pe = e as PointerEvent<Element>;
+        carry.pointer.x = pe.clientX;
+        carry.pointer.y = pe.clientY;
+      }
       setNodeRef(node as HTMLElement);
       setActivatorNodeRef(node as HTMLElement);
       if (e.type === 'pointerdown') listeners.onPointerDown?.(e);
