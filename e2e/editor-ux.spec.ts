@@ -140,3 +140,61 @@ test.describe('editor: focus follows the selection after a keyboard drop', () =>
     await shot(page, 'editor-focus-after-drop', false);
   });
 });
+
+test.describe('editor: keyboard users reach the drawing quickly', () => {
+  test('a skip link to the drawing is the second stop on the page and lands on a slot', async ({ page }) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await openEditor(page, 'operator', 'North Quarter');
+    await page.locator('body').focus();
+    await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
+    await page.keyboard.press('Tab');
+    await expect(page.locator(':focus')).toHaveText('Skip to content');
+    await page.keyboard.press('Tab');
+    const skip = page.getByRole('link', { name: 'Skip to the drawing' });
+    await expect(skip).toBeFocused();
+    await expect(skip).toBeVisible();
+    await page.keyboard.press('Enter');
+    await expect(slot(page, 'element:1:left')).toBeFocused();
+    // From there the arrows walk the drawing.
+    await page.keyboard.press('ArrowRight');
+    await expect(slot(page, 'element:2:left')).toBeFocused();
+  });
+
+  test('the parts list is one tab stop; the arrow keys move inside it', async ({ page }) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await openEditor(page, 'operator', 'North Quarter');
+    const list = page.getByTestId('palette-list');
+    await expect(list).toHaveAttribute('role', 'listbox');
+    const options = list.getByRole('option');
+    const n = await options.count();
+    expect(n).toBeGreaterThan(20);
+    // Exactly one option is in the tab order.
+    await expect(list.locator('[role="option"][tabindex="0"]')).toHaveCount(1);
+    await page.getByLabel('Hand', { exact: true }).focus();
+    await page.keyboard.press('Tab');
+    await expect(options.first()).toBeFocused();
+    await page.keyboard.press('ArrowDown');
+    await page.keyboard.press('ArrowDown');
+    await expect(options.nth(2)).toBeFocused();
+    await expect(options.nth(2)).toHaveAttribute('aria-selected', 'true');
+    await page.keyboard.press('End');
+    await expect(options.last()).toBeFocused();
+    await page.keyboard.press('Tab');
+    // One Tab leaves the whole list.
+    expect(await page.evaluate(() => !!document.activeElement?.closest('[role="listbox"]'))).toBe(false);
+    await page.keyboard.press('Shift+Tab');
+    await expect(options.last()).toBeFocused();
+    await page.keyboard.press('Home');
+    await expect(options.first()).toBeFocused();
+
+    // Counted from the top of the page, the drawing is a few Tabs away even without the skip link.
+    await page.evaluate(() => (document.activeElement as HTMLElement | null)?.blur());
+    let presses = 0;
+    while (presses < 60) {
+      await page.keyboard.press('Tab');
+      presses++;
+      if (await page.evaluate(() => !!document.activeElement?.closest('[data-testid="diagram-pane"] [data-place]'))) break;
+    }
+    expect(presses).toBeLessThanOrEqual(25);
+  });
+});

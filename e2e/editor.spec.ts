@@ -237,7 +237,7 @@ test.describe('cage editor', () => {
     await expect(page.getByText('Read only').first()).toBeVisible();
     await expect(page.getByRole('button', { name: 'Save version' })).toHaveCount(0);
     await expect(page.getByLabel('Crop')).toBeDisabled();
-    await expect(page.getByTestId('palette').locator('button[data-part]').first()).toBeDisabled();
+    await expect(page.getByTestId('palette').locator('[data-part]').first()).toBeDisabled();
   });
 
   test('another organisation’s layout is not found', async ({ page }) => {

@@ -169,7 +169,16 @@ export function DiagramPane() {
   const overlay = useMemo(() => <DropHighlights family={family} />, [family]);
 
   return (
-    <div ref={box} className="cage-pane rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-2 shadow-sm sm:p-3" data-testid="diagram-pane">
+    <div
+      ref={box}
+      id="editor-drawing"
+      tabIndex={-1}
+      // The skip link lands here; focus goes on to the drawing's own tab stop (a slot).
+      onFocus={(e) => {
+        if (e.target !== e.currentTarget) return;
+        box.current?.querySelector<SVGGElement>('[data-place][tabindex="0"]')?.focus();
+      }}
+      className="cage-pane outline-none rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-2 shadow-sm sm:p-3" data-testid="diagram-pane">
       <CageDiagram
         family={family}
         layout={layout}

@@ -56,37 +56,52 @@ const PaletteItemBody = memo(function PaletteItemBody({ part, units, stock }: { 
   );
 });
 
-const PaletteItem = memo(function PaletteItem({ part, units, stock, canEdit }: { part: CatalogPart; units: UnitSystem; stock: StockCount | undefined; canEdit: boolean }) {
+const PaletteItem = memo(function PaletteItem({ part, units, stock, canEdit, tabStop }: { part: CatalogPart; units: UnitSystem; stock: StockCount | undefined; canEdit: boolean; tabStop: boolean }) {
   const store = useEditorStoreApi();
   const carry = useCarry();
   return (
-    <li>
-      <button
-        type="button"
-        aria-roledescription="part to place"
-        aria-describedby={canEdit ? INSTRUCTIONS_ID : undefined}
-        aria-label={`${partTitle(part)}${part.kind === 'element' ? `, ${part.hand} hand` : ''}, ${part.partNumber}. ${stockWords(stock)}.`}
-        disabled={!canEdit}
-        onPointerDown={(e) => carry.begin(e, part, undefined, e.currentTarget)}
-        onKeyDown={(e) => {
-          // While a part is carried, the keyboard sensor has the keys (Space drops it).
-          if (carry.starting || carry.ui.getState().carrying) keepKeyForSensor(e, carry);
-          else if (isPickUpKey(e)) carry.begin(e, part, undefined, e.currentTarget);
-        }}
-        onClick={() => {
-          const s = store.getState();
-          const target = s.selectedPlace;
-          if (target && accepts(part, target)) s.placePart(part.partNumber, target);
-          else s.announce(`Select a slot that takes a ${partTitle(part).toLowerCase()} first, or carry it there: Space, arrow keys, Space.`);
-        }}
-        className="flex w-full touch-none items-center gap-2.5 rounded-md border border-steel-200 bg-white px-2 py-1.5 text-left hover:border-iris-400 hover:bg-iris-50 disabled:cursor-default disabled:hover:border-steel-200 disabled:hover:bg-white"
-        data-part={part.partNumber}
-      >
-        <PaletteItemBody part={part} units={units} stock={stock} />
-      </button>
-    </li>
+    <div
+      role="option"
+      aria-selected={tabStop}
+      aria-disabled={!canEdit || undefined}
+      tabIndex={tabStop ? 0 : -1}
+      aria-roledescription="part to place"
+      aria-describedby={canEdit ? `${PALETTE_KEYS_ID} ${INSTRUCTIONS_ID}` : undefined}
+      aria-label={`${partTitle(part)}${part.kind === 'element' ? `, ${part.hand} hand` : ''}, ${part.partNumber}. ${stockWords(stock)}.`}
+      onPointerDown={canEdit ? (e) => carry.begin(e, part, undefined, e.currentTarget) : undefined}
+      onKeyDown={(e) => {
+        if (!canEdit) return;
+        // While a part is carried, the keyboard sensor has the keys (Space drops it).
+        if (carry.starting || carry.ui.getState().carrying) keepKeyForSensor(e, carry);
+        else if (isPickUpKey(e)) carry.begin(e, part, undefined, e.currentTarget);
+      }}
+      onClick={() => {
+        if (!canEdit) return;
+        const s = store.getState();
+        const target = s.selectedPlace;
+        if (target && accepts(part, target)) s.placePart(part.partNumber, target);
+        else s.announce(`Select a slot that takes a ${partTitle(part).toLowerCase()} first, or carry it there: Space, arrow keys, Space.`);
+      }}
+      className={`palette-option flex w-full touch-none items-center gap-2.5 rounded-md border border-steel-200 bg-white px-2 py-1.5 text-left outline-none focus-visible:ring-2 focus-visible:ring-iris-500 ${
+        canEdit ? 'cursor-pointer hover:border-iris-400 hover:bg-iris-50' : 'cursor-default'
+      }`}
+      data-part={part.partNumber}
+    >
+      <PaletteItemBody part={part} units={units} stock={stock} />
+    </div>
   );
 });
+
+/** The keys of the parts list, for screen readers (the list is one tab stop). */
+const PALETTE_KEYS_ID = 'palette-keys';
+const LIST_KEYS: Record<string, (i: number, n: number) => number> = {
+  ArrowDown: (i, n) => Math.min(n - 1, i + 1),
+  ArrowUp: (i) => Math.max(0, i - 1),
+  Home: () => 0,
+  End: (_i, n) => n - 1,
+  PageDown: (i, n) => Math.min(n - 1, i + 8),
+  PageUp: (i) => Math.max(0, i - 8),
+};
 
 /** Search, filters and the parts list (no drag state here, so drags never re-render the inputs). */
 const PaletteContents = memo(function PaletteContents() {
@@ -99,6 +114,9 @@ const PaletteContents = memo(function PaletteContents() {
   const [type, setType] = useState<TypeFilter>('all');
   const [hand, setHand] = useState<'any' | Side>('any');
   const q = useDeferredValue(query.trim().toLowerCase());
+  // The parts list is one tab stop (a roving tabindex): the part last moved to with the arrows.
+  const [active, setActive] = useState<string | null>(null);
+  const carry = useCarry();
 
   const shown = useMemo(() => {
     return catalog.filter((p) => {
@@ -123,6 +141,8 @@ const PaletteContents = memo(function PaletteContents() {
     { title: 'Cover plates', parts: shown.filter((p) => p.kind === 'cover-plate') },
     { title: 'Rotor bars', parts: shown.filter((p) => p.kind === 'rotor-bar') },
   ].filter((g) => g.parts.length > 0);
+  const ordered = groups.flatMap((g) => g.parts);
+  const stop = active && ordered.some((p) => p.partNumber === active) ? active : (ordered[0]?.partNumber ?? null);
 
   return (
     <>
@@ -172,16 +192,47 @@ const PaletteContents = memo(function PaletteContents() {
       <p className="mt-2 text-xs text-ink-muted" aria-live="polite">
         {shown.length} of {catalog.length} parts
       </p>
-      {groups.map((g) => (
-        <div key={g.title} className="mt-3">
-          <h3 className="text-xs font-bold uppercase tracking-wide text-ink-soft">{g.title}</h3>
-          <ul className="mt-1 flex flex-col gap-1">
-            {g.parts.map((p) => (
-              <PaletteItem key={p.partNumber} part={p} units={units} stock={stock[p.partNumber]} canEdit={canEdit} />
-            ))}
-          </ul>
-        </div>
-      ))}
+      <p id={PALETTE_KEYS_ID} className="sr-only">
+        Up and Down arrows move through the parts; Home and End go to the first and last.
+      </p>
+      <div
+        role="listbox"
+        aria-labelledby="palette-h"
+        className="mt-1"
+        data-testid="palette-list"
+        onFocus={(e) => {
+          const pn = (e.target as HTMLElement).dataset?.part;
+          if (pn && pn !== active) setActive(pn);
+        }}
+        onKeyDown={(e) => {
+          // Carrying, the arrows move the part (the keyboard sensor has them).
+          if (carry.starting || carry.ui.getState().carrying) return;
+          const step = LIST_KEYS[e.key];
+          if (!step) return;
+          const options = [...e.currentTarget.querySelectorAll<HTMLElement>('[role="option"]')];
+          const i = options.findIndex((o) => o.contains(e.target as Node));
+          if (i < 0) return;
+          e.preventDefault();
+          const next = options[step(i, options.length)];
+          if (!next) return;
+          setActive(next.dataset.part ?? null);
+          next.focus();
+          next.scrollIntoView?.({ block: 'nearest' });
+        }}
+      >
+        {groups.map((g) => (
+          <div key={g.title} role="group" aria-label={g.title} className="mt-3">
+            <div aria-hidden="true" className="text-xs font-bold uppercase tracking-wide text-ink-soft">
+              {g.title}
+            </div>
+            <div className="mt-1 flex flex-col gap-1">
+              {g.parts.map((p) => (
+                <PaletteItem key={p.partNumber} part={p} units={units} stock={stock[p.partNumber]} canEdit={canEdit} tabStop={p.partNumber === stop} />
+              ))}
+            </div>
+          </div>
+        ))}
+      </div>
     </>
   );
 });
