@@ -276,7 +276,7 @@ export function EditorApp() {
             <div className="min-w-0">
               <Palette />
             </div>
-            <div className="min-w-0 md:order-first md:col-span-2 xl:sticky xl:top-2 xl:order-none xl:col-span-1">
+            <div className="order-first min-w-0 md:col-span-2 xl:sticky xl:top-2 xl:order-none xl:col-span-1">
               <DiagramPane />
               <details className="mt-2 text-sm text-ink-soft">
                 <summary className="cursor-pointer font-semibold">How to use the drawing</summary>

@@ -5,11 +5,11 @@
  */
 import { isPickUpKey, keepKeyForSensor, useCarry, useCarryUi } from './carry';
 import { INSTRUCTIONS_ID } from './instructions';
-import { memo, useDeferredValue, useMemo, useState } from 'react';
+import { memo, useDeferredValue, useEffect, useMemo, useRef, useState } from 'react';
 import type { CatalogPart, ElementType, Side, Zone } from '../../lib/domain/schemas';
 import { formatLength, mm, type UnitSystem } from '../../lib/domain/units';
 import { ELEMENT_LABEL, ELEMENT_TYPES } from '../cage/patterns';
-import { placeWords } from '../cage/words';
+import { partWords, partWordsWithHand, placeWords } from '../cage/words';
 import { PartSwatch, partDetail, partTitle } from './part-visuals';
 import { useEditor, useEditorStoreApi } from './store/context';
 import { accepts } from './store/layout-edits';
@@ -79,10 +79,21 @@ const PaletteItem = memo(function PaletteItem({ part, units, stock, canEdit, tab
         if (!canEdit) return;
         const s = store.getState();
         const target = s.selectedPlace;
-        if (target && accepts(part, target)) s.placePart(part.partNumber, target);
-        else s.announce(`Select a slot that takes a ${partTitle(part).toLowerCase()} first, or carry it there: Space, arrow keys, Space.`);
+        if (target && accepts(part, target) && !carry.ui.getState().armed) {
+          s.placePart(part.partNumber, target);
+          return;
+        }
+        // Otherwise the part is chosen: the next slot tapped that takes it gets it.
+        const was = carry.ui.getState().armed;
+        if (was?.partNumber === part.partNumber) {
+          carry.ui.setState({ armed: null });
+          s.announce(`Let go of the ${partWords(part)}.`);
+          return;
+        }
+        carry.ui.setState({ armed: part });
+        s.announce(`Chosen: ${partWordsWithHand(part)}. Tap or click a slot that takes it (dashed in the drawing) to put it there.`);
       }}
-      className={`palette-option flex w-full touch-none items-center gap-2.5 rounded-md border border-steel-200 bg-white px-2 py-1.5 text-left outline-none focus-visible:ring-2 focus-visible:ring-iris-500 ${
+      className={`palette-option flex w-full items-center md:touch-none gap-2.5 rounded-md border border-steel-200 bg-white px-2 py-1.5 text-left outline-none focus-visible:ring-2 focus-visible:ring-iris-500 ${
         canEdit ? 'cursor-pointer hover:border-iris-400 hover:bg-iris-50' : 'cursor-default'
       }`}
       data-part={part.partNumber}
@@ -246,7 +257,7 @@ function PaletteHint() {
       {canEdit
         ? selected && selected.kind !== 'setting'
           ? `Click a part to put it at ${placeWords(selected)}, or drag it onto the drawing.`
-          : 'Drag a part onto the drawing, or pick it up with Space and move with the arrow keys.'
+          : 'Drag a part onto the drawing; or tap it, then tap a slot; or pick it up with Space and move with the arrow keys.'
         : 'Read only: you may look, not change.'}
     </p>
   );
@@ -264,16 +275,65 @@ function TakeOffHint() {
   );
 }
 
-/** The parts palette (also where a placed part is dropped to take it off). */
+/**
+ * The parts palette (also where a placed part is dropped to take it off). On a phone it is a
+ * sheet over the bottom of the screen, opened with the "Parts" button, and it closes when a part
+ * is chosen so the drawing is there to tap.
+ */
 export function Palette() {
+  const [open, setOpen] = useState(false);
+  const armed = useCarryUi((s) => s.armed);
+  const sheet = useRef<HTMLElement>(null);
+  const opener = useRef<HTMLButtonElement>(null);
+  useEffect(() => {
+    if (armed) setOpen(false);
+  }, [armed]);
+  useEffect(() => {
+    if (open) sheet.current?.querySelector<HTMLElement>('[data-sheet-close]')?.focus();
+  }, [open]);
+  const close = () => {
+    setOpen(false);
+    opener.current?.focus();
+  };
   return (
-    <section aria-labelledby="palette-h" className="rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-3 shadow-sm" data-testid="palette">
-      <h2 id="palette-h" className="text-base font-semibold">
-        Parts
-      </h2>
+    <>
+      <button
+        ref={opener}
+        type="button"
+        className="btn-primary fixed bottom-3 right-3 z-30 shadow-lg md:hidden"
+        aria-expanded={open}
+        aria-controls="palette"
+        onClick={() => setOpen(true)}
+        data-testid="parts-sheet-open"
+      >
+        {armed ? `Parts · ${partTitle(armed)}` : 'Parts'}
+      </button>
+      <section
+        ref={sheet}
+        id="palette"
+        aria-labelledby="palette-h"
+        onKeyDown={(e) => {
+          if (open && e.key === 'Escape') {
+            e.stopPropagation();
+            close();
+          }
+        }}
+        className={`palette-sheet rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-3 shadow-sm max-md:fixed max-md:inset-x-0 max-md:bottom-0 max-md:z-40 max-md:max-h-[80vh] max-md:overflow-y-auto max-md:rounded-b-none max-md:shadow-2xl ${open ? '' : 'max-md:hidden'}`}
+        data-testid="palette"
+        data-open={open || undefined}
+      >
+      <div className="flex items-baseline justify-between gap-2">
+        <h2 id="palette-h" className="text-base font-semibold">
+          Parts
+        </h2>
+        <button type="button" className="btn md:hidden" data-sheet-close onClick={close}>
+          Close
+        </button>
+      </div>
       <PaletteHint />
       <TakeOffHint />
       <PaletteContents />
     </section>
+    </>
   );
 }

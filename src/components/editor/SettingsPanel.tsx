@@ -179,7 +179,10 @@ function SettingsFields() {
         />
         <p className="mt-1 text-xs text-ink-muted">{program.clearanceAdvice.split('(')[0]!.trim()}</p>
         <FieldFinding field="clearanceMm" />
-        <EndViewBeside family={family} clearanceMm={clearanceMm} drum={drum} units={units} className="mx-auto mt-2 max-w-[18rem]" />
+        {/* The end view is left out on a phone (its words would be too small there). */}
+        <div className="hidden md:block">
+          <EndViewBeside family={family} clearanceMm={clearanceMm} drum={drum} units={units} className="mx-auto mt-2 max-w-[18rem]" />
+        </div>
       </div>
 
       <div className="grid grid-cols-2 gap-2">

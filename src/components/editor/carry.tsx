@@ -29,6 +29,11 @@ export interface CarryUi {
   overPalette: boolean;
   /** The slot under the pointer when nothing is carried (its details show under the drawing). */
   pointed: Place | null;
+  /**
+   * A part chosen with a tap or click and not carried: the next slot tapped that takes it gets
+   * it (phones, where dragging over a scrolling page is awkward).
+   */
+  armed: CatalogPart | null;
 }
 
 type StartEvent = PointerEvent<Element> | KeyboardEvent<Element>;
@@ -60,7 +65,7 @@ export interface Carry {
 export function createCarry(): Carry {
   return {
     data: { part: null },
-    ui: createStore<CarryUi>()(() => ({ carrying: null, hover: null, overPalette: false, pointed: null })),
+    ui: createStore<CarryUi>()(() => ({ carrying: null, hover: null, overPalette: false, pointed: null, armed: null })),
     starting: false,
     node: null,
     pointer: { x: 0, y: 0 },
