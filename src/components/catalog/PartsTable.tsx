@@ -152,7 +152,7 @@ function Table({ families, canEdit }: PartsTableProps) {
           Could not load the parts: {(error as Error).message}
         </p>
       )}
-      <div className="mt-3 overflow-x-auto rounded-lg border border-steel-200 bg-white">
+      <div className="relative mt-3 overflow-x-auto rounded-lg border border-steel-200 bg-white">
         <table className="w-full text-sm" data-testid="parts-table">
           <caption className="sr-only">Catalog parts, sortable by the column headers</caption>
           <SortableHead table={table} />

@@ -49,8 +49,8 @@ const PaletteItemBody = memo(function PaletteItemBody({ part, units, stock }: { 
           {detail && ` · ${detail}`}
         </span>
       </span>
-      <span className={`shrink-0 rounded px-1.5 py-0.5 text-xs font-semibold ${inStock ? 'bg-ok-soft text-ok' : 'bg-steel-100 text-ink-muted'}`} title={stockWords(stock)}>
-        {inStock ? `${stock!.own + stock!.dealer} in stock` : 'to order'}
+      <span className={`max-w-[7.5rem] shrink-0 rounded px-1.5 py-0.5 text-right text-xs font-semibold leading-tight ${inStock ? 'bg-ok-soft text-ok' : 'bg-steel-100 text-ink-muted'}`} data-testid="stock-badge">
+        {inStock ? stockWords(stock) : 'to order'}
       </span>
     </>
   );
