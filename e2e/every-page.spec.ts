@@ -39,12 +39,16 @@ for (const who of WHO) {
       await expect(page.locator('astro-island[ssr]')).toHaveCount(0);
       const w = await page.evaluate(() => ({ sw: document.documentElement.scrollWidth, cw: document.documentElement.clientWidth }));
       if (w.sw > w.cw) problems.push(`${route}: the page scrolls sideways at 390 px (${w.sw} > ${w.cw})`);
-      for (const p of await axeProblems(page)) problems.push(`${route} at 390 px: ${p}`);
+      for (const p of await axeProblems(page)) {
+        problems.push(`${route} at 390 px: ${p}`);
+        console.log(`[${who}] ${route} at 390 px: ${p}`);
+      }
       if (who === 'technician') await shot(page, `page-390${route.replace(/[\/\[\]]+/g, '-')}`, false);
       await page.setViewportSize({ width: 1440, height: 900 });
       for (const p of await axeProblems(page)) problems.push(`${route} at 1440 px: ${p}`);
       if (who === 'technician') await shot(page, `page-1440${route.replace(/[\/\[\]]+/g, '-')}`, false);
     }
+    for (const p of problems) console.log(`[${who}] ${p}`);
     expect(problems).toEqual([]);
   });
 }
