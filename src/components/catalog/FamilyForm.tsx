@@ -273,7 +273,7 @@ export default function FamilyForm({ existing, readOnly = false }: FamilyFormPro
         <fieldset className="rounded-md border border-steel-200 p-3">
           <legend className="px-1 font-semibold">Rotor bar rows and places</legend>
           <p className="text-xs text-ink-muted">For each row and position: no place, a bar place, or a place where two rasp bars stand in line (a straight bar can bolt across).</p>
-          <div className="mt-2 overflow-x-auto">
+          <div className="mt-2 overflow-x-auto" tabIndex={0}>
             <table className="text-sm">
               <thead>
                 <tr>

@@ -245,7 +245,7 @@ function Overview({ slides, families, catalogs, units, index, onPick }: Props & 
   const current = useRef<HTMLButtonElement>(null);
   useEffect(() => current.current?.focus(), []);
   return (
-    <section className="absolute inset-0 z-10 overflow-auto bg-steel-50/95 p-8" aria-label="Slide overview" data-testid="overview">
+    <section className="absolute inset-0 z-10 overflow-auto bg-steel-50/95 p-8" aria-label="Slide overview" data-testid="overview" tabIndex={0}>
       <h2 className="text-[36px] font-bold">All slides</h2>
       <ol className="mt-4 grid grid-cols-2 gap-6 lg:grid-cols-3 wall:grid-cols-4">
         {slides.map((s, i) => {
@@ -292,7 +292,7 @@ function PresenterPanel({ slides, families, catalogs, units, index, cropPath, ne
   const notes = useMemo(() => ({ __html: slide.notesHtml || '<p><em>No talking points on this slide.</em></p>' }), [slide.notesHtml]);
   return (
     <main id="main" className="grid h-full grid-cols-[3fr_2fr] gap-8 overflow-hidden px-8 py-6">
-      <section className="min-h-0 overflow-auto" aria-label="Talking points">
+      <section className="min-h-0 overflow-auto" aria-label="Talking points" tabIndex={0}>
         <p className="text-xl text-ink-muted">
           Now showing{cropPath ? ' the crop path of' : ''}:
         </p>
@@ -301,7 +301,7 @@ function PresenterPanel({ slides, families, catalogs, units, index, cropPath, ne
         </h2>
         <div className="notes mt-4 text-[28px] leading-relaxed" data-testid="presenter-notes" dangerouslySetInnerHTML={notes} />
       </section>
-      <aside className="min-h-0 space-y-6 overflow-auto">
+      <aside className="min-h-0 space-y-6 overflow-auto" tabIndex={0} aria-label="Next slide and timer">
         <p className="text-[44px] font-bold tabular-nums" aria-label={`Time since the start: ${clock}`}>
           {clock}
         </p>
