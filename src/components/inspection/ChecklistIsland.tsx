@@ -3,6 +3,7 @@
  * measurements, note and photos, saved as you go; finishing sends the lines marked "replace" to
  * a draft parts request.
  */
+import { formatMoney } from '../parts/money';
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { countSeverities, suggestSeverity, surveyFromMeasurements, type ChecklistKind, type ReplacementLine } from '../../lib/domain/inspection';
 import type { UnitSystem } from '../../lib/domain/units';
@@ -27,7 +28,8 @@ const SECTIONS: { kind: ChecklistKind; title: string }[] = [
   { kind: 'survey', title: 'Clearance survey' },
 ];
 
-const money = (cents: number) => (cents / 100).toLocaleString('en', { minimumFractionDigits: 2, maximumFractionDigits: 2 });
+// One money formatter for every screen.
+const money = formatMoney;
 
 export default function ChecklistIsland({ initial, units, canEdit }: Props) {
   const [insp, setInsp] = useState(initial);
