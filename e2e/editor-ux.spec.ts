@@ -198,3 +198,17 @@ test.describe('editor: keyboard users reach the drawing quickly', () => {
     expect(presses).toBeLessThanOrEqual(25);
   });
 });
+
+test.describe('editor: words a farmer reads without help', () => {
+  test('stock badges say where the parts are; no internal source marker reaches the screen', async ({ page }) => {
+    await page.setViewportSize({ width: 1440, height: 900 });
+    await openEditor(page, 'operator', 'North Quarter');
+    await expect(palettePart(page, 'CW-FW-R-04').getByTestId('stock-badge')).toHaveText('1 on the farm · 2 at the dealer');
+    await expect(palettePart(page, 'CW-WW-L-04').getByTestId('stock-badge')).toHaveText('4 at the dealer');
+    await expect(palettePart(page, 'CW-SW-R-04').getByTestId('stock-badge')).toHaveText('to order');
+    // Corn's advice has a value kept without a published source: said in words, never as a marker.
+    await page.getByLabel('Crop').selectOption('corn');
+    await expect(page.getByTestId('cage-editor')).toContainText('Clearance about the cob diameter');
+    expect(await page.locator('body').innerText()).not.toMatch(/\[[a-z]+\]/i);
+  });
+});
