@@ -31,7 +31,8 @@ export default defineConfig({
     command: 'node scripts/e2e-server.mjs',
     url: `${baseURL}/api/health`,
     reuseExistingServer: false,
-    timeout: 60_000,
+    // A busy shared machine may need longer to start the server and seed the store.
+    timeout: Number(process.env.CAGEWRIGHT_E2E_START_TIMEOUT_MS ?? 60_000),
     env: { PORT: String(port), HOST: '127.0.0.1', CAGEWRIGHT_OUT_DIR: process.env.CAGEWRIGHT_OUT_DIR ?? 'dist-test' },
   },
 });

@@ -65,6 +65,12 @@ test('a technician inspects on a phone: flags an element, attaches a photo, fini
   // Finish: the flagged element goes on a draft parts request.
   await page.getByRole('button', { name: 'Finish inspection…' }).click();
   await expect(page.getByText(`These parts go on a draft parts request for Bean Runner`)).toBeVisible();
+  // The survey is uneven but still marked serviceable: finishing waits for a conscious choice.
+  const disagree = page.getByTestId('survey-disagrees');
+  await expect(disagree).toContainText('finds an uneven clearance, but its verdict is “serviceable”');
+  await expect(page.getByRole('button', { name: 'Finish and request the parts' })).toBeDisabled();
+  await shot(page, 'inspection-survey-choice-phone', false);
+  await disagree.getByRole('checkbox', { name: /Finish with the survey marked serviceable/ }).check();
   await page.getByRole('button', { name: 'Finish and request the parts' }).click();
   await expect(page.getByRole('heading', { name: /Inspection finished/ })).toBeFocused();
   await expect(page.getByTestId('replacements')).toContainText(`1 × ${partNumber}`);
@@ -88,6 +94,9 @@ test('a technician inspects on a phone: flags an element, attaches a photo, fini
   await expect(report.getByRole('cell', { name: partNumber, exact: true })).toBeVisible();
   await expect(report.getByRole('img', { name: /Photo 1 of Position 1, left/ })).toBeVisible();
   await expect(report.getByRole('heading', { name: 'Safety before you work on the cage' })).toBeVisible();
+  // The report shows both: what the readings find, and the verdict chosen.
+  await expect(report.getByTestId('survey-result')).toContainText('The readings find an uneven clearance');
+  await expect(report.getByTestId('survey-result')).toContainText('marked the survey serviceable although the readings are uneven');
   await shot(page, 'inspection-report');
 });
 

@@ -10,7 +10,7 @@ test('plan a crop change, accept it, make a parts request and send it; the desk 
 
   // The proposal beside what is installed, the cautions before the steps.
   await expect(page.getByTestId('plan-heading')).toHaveText('North Quarter: wheat → field peas');
-  await expect(page.getByTestId('plan-summary')).toContainText('4 parts to buy, 8 parts to take off, move or fit.');
+  await expect(page.getByTestId('plan-summary')).toContainText('4 parts to buy, 8 parts to take off, move or fit, 3 settings to change.');
   await expect(page.getByTestId('cage-diagram')).toHaveCount(2);
   const cautions = page.getByTestId('work-cautions');
   await expect(cautions).toContainText('Engine off, key out');

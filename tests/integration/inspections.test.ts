@@ -103,6 +103,7 @@ describe('inspections with photos in an S3-compatible bucket', () => {
   let tech: Client;
   let olive: Client;
   let dev: Client;
+  let admin: Client;
   let larkspurMachine: string;
   let haldaneMachine: string;
 
@@ -127,6 +128,8 @@ describe('inspections with photos in an S3-compatible bucket', () => {
     await olive.signIn(DEMO.operator);
     dev = new Client(server.baseUrl);
     await dev.signIn(DEMO.operator2);
+    admin = new Client(server.baseUrl);
+    await admin.signIn(DEMO.dealerAdmin);
     const machines = (await tech.get('/api/machines?pageSize=100')).body.items as { id: string; orgName: string; nickname: string }[];
     larkspurMachine = machines.find((m) => m.orgName === 'Larkspur Farms')!.id;
     haldaneMachine = machines.find((m) => m.nickname === 'Bean Runner')!.id;
@@ -451,6 +454,42 @@ describe('inspections with photos in an S3-compatible bucket', () => {
     expect(history.status).toBe(200);
     expect(history.body.machine.nickname).toBe('Bean Runner');
     expect(history.body.items.find((i: any) => i.id === insp.id)).toMatchObject({ status: 'finished', replace: 2, watch: 1 });
+  });
+
+  it('an uneven clearance survey marked serviceable finishes only as a conscious choice (409 naming acceptUnevenSurvey, nothing changed)', async () => {
+    const insp = (await tech.post(`/api/machines/${haldaneMachine}/inspections`, {})).body;
+    const survey = insp.items.find((i: any) => i.kind === 'survey');
+    const el = insp.items.find((i: any) => i.placeKey === 'element:1:left');
+    // Left 20 mm against right 26 mm at the front of position 1: past the tolerance, so uneven.
+    await tech.patch(`/api/inspections/${insp.id}`, {
+      items: [
+        { id: survey.id, severity: 'ok', measurements: { 'clearance:1:left:front': 20, 'clearance:1:right:front': 26 } },
+        { id: el.id, severity: 'replace' },
+      ],
+    });
+    const before = (await admin.get('/api/admin/stats')).body;
+    const refused = await tech.post(`/api/inspections/${insp.id}`, { action: 'finish' });
+    expect(refused.status).toBe(409);
+    expect(JSON.stringify(refused.body)).toContain('acceptUnevenSurvey');
+    expect((await tech.get(`/api/inspections/${insp.id}`)).body.status).toBe('open');
+    expect((await admin.get('/api/admin/stats')).body).toEqual(before);
+    // A wrong type for the choice is named.
+    const bad = await tech.post(`/api/inspections/${insp.id}`, { action: 'finish', acceptUnevenSurvey: 'yes' });
+    expect(bad.status).toBe(400);
+    expect(JSON.stringify(bad.body)).toContain('acceptUnevenSurvey');
+
+    // Marked to watch, it finishes without more ado; here: accepted as it is.
+    const done = await tech.post(`/api/inspections/${insp.id}`, { action: 'finish', acceptUnevenSurvey: true });
+    expect(done.status).toBe(200);
+    expect(done.body.status).toBe('finished');
+    expect(done.body.survey.uneven).toBe(true);
+    expect(done.body.items.find((i: any) => i.kind === 'survey').severity).toBe('ok');
+
+    // An uneven survey marked "watch" needs no extra choice.
+    const again = (await tech.post(`/api/machines/${haldaneMachine}/inspections`, {})).body;
+    const s2 = again.items.find((i: any) => i.kind === 'survey');
+    await tech.patch(`/api/inspections/${again.id}`, { items: [{ id: s2.id, severity: 'watch', measurements: { 'clearance:1:left:front': 20, 'clearance:1:right:front': 26 } }] });
+    expect((await tech.post(`/api/inspections/${again.id}`, { action: 'finish' })).status).toBe(200);
   });
 
   it('will not start a checklist for a machine with nothing recorded as installed (409)', async () => {

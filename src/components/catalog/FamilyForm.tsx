@@ -144,6 +144,8 @@ function Err({ errors, path }: { errors: FieldErrors; path: string }) {
   return m ? <p className="field-error">{path}: {m}</p> : null;
 }
 
+const BAR_WORDS: Record<string, string> = { none: '—', place: 'bar', inline: 'in line' };
+
 export default function FamilyForm({ existing, readOnly = false }: FamilyFormProps) {
   const editing = !!existing;
   const { register, control, handleSubmit, watch, setError, getValues, setValue, formState: { errors, isSubmitting } } = useForm<FormValues>({
@@ -273,8 +275,9 @@ export default function FamilyForm({ existing, readOnly = false }: FamilyFormPro
         <fieldset className="rounded-md border border-steel-200 p-3">
           <legend className="px-1 font-semibold">Rotor bar rows and places</legend>
           <p className="text-xs text-ink-muted">For each row and position: no place, a bar place, or a place where two rasp bars stand in line (a straight bar can bolt across).</p>
-          <div className="mt-2 overflow-x-auto">
-            <table className="text-sm">
+          {/* Read only, the grid is words in a table that fits a phone; editable, it scrolls in its own box. */}
+          <div className={readOnly ? 'mt-2' : 'mt-2 overflow-x-auto'} tabIndex={readOnly ? undefined : 0}>
+            <table className={readOnly ? 'w-full table-fixed text-sm' : 'text-sm'}>
               <thead>
                 <tr>
                   <th scope="col" className="pr-2 text-left">Row</th>
@@ -287,22 +290,22 @@ export default function FamilyForm({ existing, readOnly = false }: FamilyFormPro
                 {rows.fields.map((f, ri) => (
                   <tr key={f.id}>
                     <th scope="row" className="pr-2 text-left">{ri + 1}</th>
-                    <td className="pr-2"><input className="field-input w-20 py-1" type="number" aria-label={`Row ${ri + 1} angle in degrees`} {...register(`rotorBarRows.${ri}.angleDeg`, { valueAsNumber: true })} />
-                      <Err errors={errors} path={`rotorBarRows.${ri}.angleDeg`} /></td>
+                    <td className="pr-2">{readOnly ? <span>{getValues(`rotorBarRows.${ri}.angleDeg`)}</span> : <><input className="field-input w-20 py-1" type="number" aria-label={`Row ${ri + 1} angle in degrees`} {...register(`rotorBarRows.${ri}.angleDeg`, { valueAsNumber: true })} />
+                      <Err errors={errors} path={`rotorBarRows.${ri}.angleDeg`} /></>}</td>
                     {Array.from({ length: positionCount }, (_, p) => (
                       <td key={p} className="px-1">
-                        <select className="rounded border-steel-300 py-0.5 text-xs" aria-label={`Row ${ri + 1}, position ${p + 1}`} {...register(`bars.${ri}.${p}` as const)} defaultValue="place">
+                        {readOnly ? <span className="text-xs">{BAR_WORDS[String(getValues(`bars.${ri}.${p}` as const) ?? 'place')] ?? '—'}</span> : <select className="rounded border-steel-300 py-0.5 text-xs" aria-label={`Row ${ri + 1}, position ${p + 1}`} {...register(`bars.${ri}.${p}` as const)} defaultValue="place">
                           <option value="none">—</option>
                           <option value="place">bar</option>
                           <option value="inline">in line</option>
-                        </select>
+                        </select>}
                       </td>
                     ))}
-                    <td><button type="button" className="btn py-0.5" onClick={() => {
+                    <td>{!readOnly && <button type="button" className="btn py-0.5" onClick={() => {
                       const grid = getValues('bars') ?? [];
                       rows.remove(ri);
                       setValue('bars', grid.filter((_, i) => i !== ri));
-                    }} aria-label={`Remove row ${ri + 1}`}>✕</button></td>
+                    }} aria-label={`Remove row ${ri + 1}`}>✕</button>}</td>
                   </tr>
                 ))}
               </tbody>

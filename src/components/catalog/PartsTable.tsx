@@ -3,6 +3,7 @@
  * sorted, filtered and paged in the browser with TanStack Table (a catalog is a few hundred
  * rows at most).
  */
+import { formatMoney } from '../parts/money';
 import { useQuery } from '@tanstack/react-query';
 import {
   createColumnHelper,
@@ -40,7 +41,8 @@ const col = createColumnHelper<PartRow>();
 // One empty array for every render while loading: a fresh `[]` each time makes the table reset
 // its page on every render, and that reset schedules another render, without end.
 const NO_ROWS: PartRow[] = [];
-const money = (c: number) => (c / 100).toLocaleString('en', { minimumFractionDigits: 2, maximumFractionDigits: 2 });
+// One money formatter for every screen.
+const money = formatMoney;
 
 function detail(p: CatalogPart): string {
   if (p.kind === 'element') {
@@ -152,7 +154,7 @@ function Table({ families, canEdit }: PartsTableProps) {
           Could not load the parts: {(error as Error).message}
         </p>
       )}
-      <div className="mt-3 overflow-x-auto rounded-lg border border-steel-200 bg-white">
+      <div className="relative mt-3 overflow-x-auto rounded-lg border border-steel-200 bg-white">
         <table className="w-full text-sm" data-testid="parts-table">
           <caption className="sr-only">Catalog parts, sortable by the column headers</caption>
           <SortableHead table={table} />

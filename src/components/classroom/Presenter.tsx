@@ -194,8 +194,9 @@ export function Presenter(props: Props) {
   return (
     <div ref={stage} tabIndex={-1} className="flex h-screen flex-col bg-steel-50 outline-none" data-testid={`stage-${mode}`} data-index={state.index}>
       {bar}
-      {help && <KeyHelp />}
       <div className="relative min-h-0 flex-1">
+        {/* Over the slide's corner, so opening it never pushes the drawing down. */}
+        {help && <KeyHelp />}
         {mode === 'audience' ? (
           <main className="h-full px-10 py-6" id="main">
             <StageSlide slide={slide!} families={families} catalogs={catalogs} units={units} cropPath={state.cropPath} />
@@ -229,8 +230,8 @@ export function Presenter(props: Props) {
 
 function KeyHelp() {
   return (
-    <div className="border-b border-steel-200 bg-white px-6 py-3 text-lg" role="note" aria-label="Keys">
-      <ul className="grid grid-cols-2 gap-x-10 gap-y-1 lg:grid-cols-4">
+    <div className="absolute right-4 top-4 z-30 max-w-2xl rounded-lg border border-steel-300 bg-white px-6 py-3 text-lg shadow-xl" role="note" aria-label="Keys" data-testid="key-help">
+      <ul className="grid grid-cols-1 gap-x-10 gap-y-1 sm:grid-cols-2">
         {KEY_HELP.map(([k, what]) => (
           <li key={k}>
             <kbd className="font-semibold">{k}</kbd> <span className="text-ink-muted">{what}</span>
@@ -245,7 +246,7 @@ function Overview({ slides, families, catalogs, units, index, onPick }: Props & 
   const current = useRef<HTMLButtonElement>(null);
   useEffect(() => current.current?.focus(), []);
   return (
-    <section className="absolute inset-0 z-10 overflow-auto bg-steel-50/95 p-8" aria-label="Slide overview" data-testid="overview">
+    <section className="absolute inset-0 z-10 overflow-auto bg-steel-50 p-8" aria-label="Slide overview" data-testid="overview" tabIndex={0}>
       <h2 className="text-[36px] font-bold">All slides</h2>
       <ol className="mt-4 grid grid-cols-2 gap-6 lg:grid-cols-3 wall:grid-cols-4">
         {slides.map((s, i) => {
@@ -292,7 +293,7 @@ function PresenterPanel({ slides, families, catalogs, units, index, cropPath, ne
   const notes = useMemo(() => ({ __html: slide.notesHtml || '<p><em>No talking points on this slide.</em></p>' }), [slide.notesHtml]);
   return (
     <main id="main" className="grid h-full grid-cols-[3fr_2fr] gap-8 overflow-hidden px-8 py-6">
-      <section className="min-h-0 overflow-auto" aria-label="Talking points">
+      <section className="min-h-0 overflow-auto" aria-label="Talking points" tabIndex={0}>
         <p className="text-xl text-ink-muted">
           Now showing{cropPath ? ' the crop path of' : ''}:
         </p>
@@ -301,7 +302,7 @@ function PresenterPanel({ slides, families, catalogs, units, index, cropPath, ne
         </h2>
         <div className="notes mt-4 text-[28px] leading-relaxed" data-testid="presenter-notes" dangerouslySetInnerHTML={notes} />
       </section>
-      <aside className="min-h-0 space-y-6 overflow-auto">
+      <aside className="min-h-0 space-y-6 overflow-auto" tabIndex={0} aria-label="Next slide and timer">
         <p className="text-[44px] font-bold tabular-nums" aria-label={`Time since the start: ${clock}`}>
           {clock}
         </p>

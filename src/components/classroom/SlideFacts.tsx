@@ -6,6 +6,7 @@
  * `stage` sizes everything to be read from the back of a room.
  */
 import { cropPrograms } from '../../lib/domain/crops';
+import { rpmWindowWords } from '../../lib/domain/speed';
 import type { Settings } from '../../lib/domain/compute';
 import type { Finding, Layout, MachineFamily } from '../../lib/domain/schemas';
 import { formatLength, formatSpeed, mm, type UnitSystem } from '../../lib/domain/units';
@@ -32,7 +33,7 @@ export function SlideFacts({ layout, family, settings, findings, units, stage = 
   const facts: [string, string, boolean?][] = [
     ['Crop', cropPrograms[layout.crop].name],
     ['Rotor', `${drum} · ${layout.rotorRpm} rpm`],
-    ['Crop window', `${Math.round(w.minRpm)}–${Math.round(w.maxRpm)} rpm`, !settings.rpmInWindow],
+    ['Crop window', rpmWindowWords(w), !settings.rpmInWindow],
     ['Tip speed', formatSpeed(settings.tipSpeedMs, units)],
     ['Concave clearance', formatLength(mm(layout.clearanceMm), units)],
     ['Vanes', `${layout.vaneControl}, ${VANE_WORDS[layout.vaneSetting]}`],
@@ -60,7 +61,7 @@ export function SlideFacts({ layout, family, settings, findings, units, stage = 
             <dd className={`font-semibold ${warn ? 'text-crop' : ''}`}>
               {v}
               {k === 'Crop window' && (
-                <span className="ml-2 font-normal">{settings.rpmInWindow ? '· rotor inside' : '· rotor outside ▲'}</span>
+                <span className="ml-2 font-normal">{settings.rpmInWindow ? '· the rotor speed is inside this window' : '· ▲ the rotor speed is outside this window'}</span>
               )}
             </dd>
           </div>

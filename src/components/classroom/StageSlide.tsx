@@ -62,7 +62,7 @@ export function StageSlide({ slide, families, catalogs, units, cropPath, reserve
           <SeverityLegend stage />
         </div>
       </div>
-      <div className="min-w-0 flex-1 space-y-6 overflow-auto">
+      <div className="min-w-0 flex-1 space-y-6 overflow-auto" tabIndex={0}>
         {header}
         <SlideFacts layout={slide.layout!} family={family} settings={slide.settings!} findings={slide.findings} units={units} stage maxFindings={5} />
       </div>

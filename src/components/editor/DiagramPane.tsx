@@ -10,12 +10,44 @@ import { CageDiagram, type SlotAttrs, type SlotInfo } from '../cage/CageDiagram'
 import { diagramGeometry, slotBox } from '../cage/geometry';
 import { IRIS } from '../cage/palette';
 import { isPickUpKey, keepKeyForSensor, useCarry, useCarryUi } from './carry';
+import { accepts } from './store/layout-edits';
+import { partTitle } from './part-visuals';
+import { partWords } from '../cage/words';
 import { SlotDetails } from './SlotDetails';
 import { ARROW_DIRECTION, slotsFor, stepPlace } from './keyboard';
 import { useEditor, useEditorStoreApi } from './store/context';
 
 import { INSTRUCTIONS_ID } from './instructions';
 const GEOMETRY_OPTIONS = { compact: false, endView: false } as const;
+/** The smallest type in the (non-compact) drawing, in drawing units, and the least it may show at. */
+const SMALLEST_FONT_UNITS = 9;
+const MIN_TEXT_PX = 11;
+
+/** The part chosen with a tap, waiting for a slot; a button lets go of it. */
+function ChosenPart() {
+  const carry = useCarry();
+  const armed = useCarryUi((s) => s.armed);
+  useEffect(() => {
+    if (!armed) return;
+    const onKey = (e: globalThis.KeyboardEvent) => {
+      if (e.key === 'Escape') carry.ui.setState({ armed: null });
+    };
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [armed, carry]);
+  if (!armed) return null;
+  return (
+    <div className="mb-2 flex flex-wrap items-center justify-between gap-2 rounded-md border border-iris-400 bg-iris-50 px-2 py-1.5 text-sm text-iris-800" data-testid="chosen-part">
+      <span>
+        <span className="font-semibold">{partTitle(armed)}</span>
+        {armed.kind === 'element' ? ` · ${armed.hand}` : ''}: tap a dashed slot to put it there.
+      </span>
+      <button type="button" className="btn py-1" onClick={() => carry.ui.setState({ armed: null })}>
+        Let go
+      </button>
+    </div>
+  );
+}
 
 interface EditorSlotProps {
   info: SlotInfo;
@@ -66,7 +98,18 @@ const EditorSlot = memo(function EditorSlot({ info, attrs, canEdit, children }: 
       aria-pressed={info.selected}
       onPointerDown={movable ? (e) => carry.begin(e, info.part!, info.place, e.currentTarget) : undefined}
       onKeyDown={onKeyDown}
-      onClick={() => store.getState().select(info.place)}
+      onClick={() => {
+        // A part chosen in the palette (tap, then tap a slot) goes into the slot tapped.
+        const armed = carry.ui.getState().armed;
+        if (armed && canEdit) {
+          if (accepts(armed, info.place)) {
+            carry.ui.setState({ armed: null });
+            store.getState().placePart(armed.partNumber, info.place, { focus: true });
+          } else store.getState().announce(`${info.label.split(':')[0]} does not take a ${partWords(armed)}; tap a dashed slot.`);
+          return;
+        }
+        store.getState().select(info.place);
+      }}
       onFocus={() => {
         if (!info.selected) store.getState().select(info.place);
       }}
@@ -96,10 +139,13 @@ function firstElementKey(family: MachineFamily): string {
 
 /** While a part is carried: the slots that take it (dashed), the one it is over (solid), its source (faded). */
 function DropHighlights({ family }: { family: MachineFamily }) {
-  const carrying = useCarryUi((s) => s.carrying);
+  const carried = useCarryUi((s) => s.carrying);
+  const armed = useCarryUi((s) => s.armed);
   const hover = useCarryUi((s) => s.hover);
   const geo = useMemo(() => diagramGeometry(family, GEOMETRY_OPTIONS), [family]);
-  const targets = useMemo(() => (carrying ? slotsFor(family, carrying.part) : []), [family, carrying]);
+  // A part chosen with a tap shows its slots the same way as one carried.
+  const carrying = carried ?? (armed ? { part: armed, from: undefined } : null);
+  const targets = useMemo(() => (carrying ? slotsFor(family, carrying.part) : []), [family, carrying?.part]);
   if (!carrying) return null;
   const hoverKey = hover ? placeKey(hover) : null;
   const from = carrying.from ? slotBox(family, geo, carrying.from) : null;
@@ -167,9 +213,25 @@ export function DiagramPane() {
     [canEdit],
   );
   const overlay = useMemo(() => <DropHighlights family={family} />, [family]);
+  // On a phone the drawing keeps a size at which its smallest words are 11 CSS px or more.
+  const minWidth = useMemo(() => (diagramGeometry(family, GEOMETRY_OPTIONS).width * MIN_TEXT_PX) / SMALLEST_FONT_UNITS, [family]);
 
   return (
-    <div ref={box} className="cage-pane rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-2 shadow-sm sm:p-3" data-testid="diagram-pane">
+    <div
+      ref={box}
+      id="editor-drawing"
+      tabIndex={-1}
+      // The skip link lands here; focus goes on to the drawing's own tab stop (a slot).
+      onFocus={(e) => {
+        if (e.target !== e.currentTarget) return;
+        box.current?.querySelector<SVGGElement>('[data-place][tabindex="0"]')?.focus();
+      }}
+      className="cage-pane outline-none rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-2 shadow-sm sm:p-3" data-testid="diagram-pane">
+      <ChosenPart />
+      <p className="mb-1 text-sm text-ink-soft md:hidden" data-testid="drawing-scroll-hint">
+        The drawing is wider than the screen: swipe it sideways to see the rear positions.
+      </p>
+      <div className="cage-scroll -mx-2 overflow-x-auto px-2 sm:-mx-3 sm:px-3" style={{ ['--cage-min-w' as string]: `${Math.ceil(minWidth)}px` }} data-testid="drawing-scroll">
       <CageDiagram
         family={family}
         layout={layout}
@@ -184,6 +246,7 @@ export function DiagramPane() {
         endView={GEOMETRY_OPTIONS.endView}
         title={`Cage diagram, ${family.name}: the cage unrolled, front on the left`}
       />
+      </div>
       <div className="mt-2 border-t border-steel-100 px-1 pt-2">
         <SlotDetails />
       </div>

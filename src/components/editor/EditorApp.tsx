@@ -18,7 +18,7 @@ import {
   type DragMoveEvent,
   type DragStartEvent,
 } from '@dnd-kit/core';
-import { memo, useCallback, useMemo, useRef, useState } from 'react';
+import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { parsePlaceKey, placeKey } from '../../lib/domain/places';
 import type { Place } from '../../lib/domain/schemas';
 import { partWords, partWordsWithHand, placeWords } from '../cage/words';
@@ -37,6 +37,8 @@ import { accepts, partNumberAt } from './store/layout-edits';
 import { Toolbar } from './Toolbar';
 import { useShortcuts } from './use-shortcuts';
 import { useUnsavedGuard } from './use-unsaved-guard';
+
+const capitalise = (t: string) => t.charAt(0).toUpperCase() + t.slice(1);
 
 /** No dnd-kit drop targets: slots and the palette are found by position (see ./carry.tsx). */
 const collision: CollisionDetection = () => [];
@@ -80,6 +82,16 @@ export function EditorApp() {
   const [carry] = useState(createCarry);
   const root = useRef<HTMLDivElement>(null);
 
+  // Where the pointer is (one assignment a move): what lies under it decides a mouse drop.
+  useEffect(() => {
+    const track = (e: PointerEvent) => {
+      carry.pointer.x = e.clientX;
+      carry.pointer.y = e.clientY;
+    };
+    window.addEventListener('pointermove', track, { capture: true, passive: true });
+    return () => window.removeEventListener('pointermove', track, { capture: true });
+  }, [carry]);
+
   useShortcuts(useCallback(() => carry.starting || carry.ui.getState().carrying !== null || store.getState().conflict !== null, [carry, store]));
 
   const setHover = useCallback(
@@ -106,18 +118,21 @@ export function EditorApp() {
     useSensor(KeyboardSensor, { coordinateGetter }),
   );
 
-  /** What lies under a point: a slot that takes the carried part, or the palette. */
-  const targetAt = (x: number, y: number, c: CarryData): { place: Place | null; palette: boolean } => {
+  /**
+   * What lies under a point: a slot that takes the carried part, or the palette; `under` is the
+   * slot there even when it does not take the part (to say so on a drop).
+   */
+  const targetAt = (x: number, y: number, c: CarryData): { place: Place | null; palette: boolean; under: Place | null } => {
     const pane = root.current?.querySelector('[data-testid="diagram-pane"]');
     const palette = root.current?.querySelector('[data-testid="palette"]');
     for (const el of document.elementsFromPoint(x, y)) {
-      if (palette?.contains(el)) return { place: null, palette: true };
+      if (palette?.contains(el)) return { place: null, palette: true, under: null };
       const g = el.closest('[data-place]');
       if (!g || !pane?.contains(g)) continue;
       const place = parsePlaceKey(g.getAttribute('data-place') ?? '');
-      return { place: place && accepts(c.part, place) ? place : null, palette: false };
+      return { place: place && accepts(c.part, place) ? place : null, palette: false, under: place };
     }
-    return { place: null, palette: false };
+    return { place: null, palette: false, under: null };
   };
 
   const announced = useRef<string | null>(null);
@@ -167,32 +182,56 @@ export function EditorApp() {
     const c = carry.ui.getState().carrying;
     // Keyboard moves name their slot in the coordinate getter; pointer moves are found here.
     if (!c || !(start instanceof PointerEvent || start instanceof MouseEvent)) return;
-    const t = targetAt(start.clientX + e.delta.x, start.clientY + e.delta.y, c);
+    // The pointer's own position: dnd-kit's delta also counts the page scrolled meanwhile.
+    const t = targetAt(carry.pointer.x, carry.pointer.y, c);
     if (t.palette !== carry.ui.getState().overPalette) carry.ui.setState({ overPalette: t.palette });
     setHover(t.place);
   };
 
+  /** Nothing was placed: say so, and say where the part goes. */
+  const dropMissed = (c: CarryData, under: Place | null) => {
+    const what = partWordsWithHand(c.part);
+    const goes = c.part.kind === 'element' ? 'a half-position of the element ring' : c.part.kind === 'cover-plate' ? 'a cage-top slot' : 'a place on the rotor strip';
+    const where = under ? `${capitalise(placeWords(under))} does not take a ${what}` : `Not over a slot that takes the ${what}`;
+    const stays = c.from ? ` It stays at ${placeWords(c.from)}.` : '';
+    store.getState().announce(`Nothing placed. ${where}; it goes in ${goes}, shown dashed while you carry it.${stays}`);
+  };
+
   /** Puts the carried part where it was dropped (or takes it off over the palette). */
-  const drop = () => {
-    const { carrying: c, hover, overPalette } = carry.ui.getState();
+  const drop = (byKeyboard: boolean) => {
+    const ui = carry.ui.getState();
+    const c = ui.carrying;
+    let { hover, overPalette } = ui;
+    let under: Place | null = null;
+    if (c && !byKeyboard) {
+      // A mouse drop goes where the pointer is now, whatever the last move event said.
+      const t = targetAt(carry.pointer.x, carry.pointer.y, c);
+      hover = t.place;
+      overPalette = t.palette;
+      under = t.under;
+    }
     carry.end();
     if (!c) return;
     const s = store.getState();
     if (overPalette) {
       if (c.from) s.removePart(c.from);
+      else s.announce(`Put back: ${partWords(c.part)}.`);
       return;
     }
-    if (!hover || !accepts(c.part, hover)) return;
-    if (c.from) s.movePart(c.from, hover);
-    else s.placePart(c.part.partNumber, hover);
+    if (!hover || !accepts(c.part, hover)) return dropMissed(c, under);
+    // After a keyboard drop, focus goes to where the part now is (the selection goes there too).
+    const focus = byKeyboard;
+    if (c.from) {
+      if (!s.movePart(c.from, hover, { focus }) && focus) s.select(c.from, { focus });
+    } else if (!s.placePart(c.part.partNumber, hover, { focus }) && focus) s.select(hover, { focus });
   };
 
   // dnd-kit asks before it ends a drag whether to cancel the drop, and waits for the answer.
   // The drop is made right there, and the answer (never cancel) comes a task later: the part
   // and its findings are committed first and may be painted before dnd-kit tidies its own
   // state, which re-renders its context twice.
-  const cancelDrop = () => {
-    drop();
+  const cancelDrop = ({ activatorEvent }: { activatorEvent: Event | null }) => {
+    drop(typeof KeyboardEvent !== 'undefined' && activatorEvent instanceof KeyboardEvent);
     return new Promise<boolean>((resolve) => setTimeout(() => resolve(false), 0));
   };
 
@@ -223,15 +262,21 @@ export function EditorApp() {
           onDragStart={onDragStart}
           onDragMove={onDragMove}
           onDragEnd={onDragEnd}
-          onDragCancel={() => carry.end()}
-          accessibility={{ announcements, screenReaderInstructions: { draggable: INSTRUCTIONS } }}
+          onDragCancel={({ activatorEvent }) => {
+            carry.end();
+            // Put back with the keys: focus stays where the part was picked up.
+            const n = carry.node;
+            if (activatorEvent instanceof KeyboardEvent && (n instanceof HTMLElement || n instanceof SVGElement)) n.focus({ preventScroll: true });
+          }}
+          // Focus is ours to place after a drop (the slot the part went to), not dnd-kit's.
+          accessibility={{ announcements, restoreFocus: false, screenReaderInstructions: { draggable: INSTRUCTIONS } }}
         >
           <CarryHandle carry={carry} disabled={!canEdit} />
           <div className="grid grid-cols-1 gap-3 md:grid-cols-2 xl:grid-cols-[19rem_minmax(0,1fr)_20rem] xl:items-start">
             <div className="min-w-0">
               <Palette />
             </div>
-            <div className="min-w-0 md:order-first md:col-span-2 xl:sticky xl:top-2 xl:order-none xl:col-span-1">
+            <div className="order-first min-w-0 md:col-span-2 xl:sticky xl:top-2 xl:order-none xl:col-span-1">
               <DiagramPane />
               <details className="mt-2 text-sm text-ink-soft">
                 <summary className="cursor-pointer font-semibold">How to use the drawing</summary>

@@ -5,11 +5,11 @@
  */
 import { isPickUpKey, keepKeyForSensor, useCarry, useCarryUi } from './carry';
 import { INSTRUCTIONS_ID } from './instructions';
-import { memo, useDeferredValue, useMemo, useState } from 'react';
+import { memo, useDeferredValue, useEffect, useMemo, useRef, useState } from 'react';
 import type { CatalogPart, ElementType, Side, Zone } from '../../lib/domain/schemas';
 import { formatLength, mm, type UnitSystem } from '../../lib/domain/units';
 import { ELEMENT_LABEL, ELEMENT_TYPES } from '../cage/patterns';
-import { placeWords } from '../cage/words';
+import { partWords, partWordsWithHand, placeWords } from '../cage/words';
 import { PartSwatch, partDetail, partTitle } from './part-visuals';
 import { useEditor, useEditorStoreApi } from './store/context';
 import { accepts } from './store/layout-edits';
@@ -49,44 +49,70 @@ const PaletteItemBody = memo(function PaletteItemBody({ part, units, stock }: { 
           {detail && ` · ${detail}`}
         </span>
       </span>
-      <span className={`shrink-0 rounded px-1.5 py-0.5 text-xs font-semibold ${inStock ? 'bg-ok-soft text-ok' : 'bg-steel-100 text-ink-muted'}`} title={stockWords(stock)}>
-        {inStock ? `${stock!.own + stock!.dealer} in stock` : 'to order'}
+      <span className={`max-w-[7.5rem] shrink-0 rounded px-1.5 py-0.5 text-right text-xs font-semibold leading-tight ${inStock ? 'bg-ok-soft text-ok' : 'bg-steel-100 text-ink-muted'}`} data-testid="stock-badge">
+        {inStock ? stockWords(stock) : 'to order'}
       </span>
     </>
   );
 });
 
-const PaletteItem = memo(function PaletteItem({ part, units, stock, canEdit }: { part: CatalogPart; units: UnitSystem; stock: StockCount | undefined; canEdit: boolean }) {
+const PaletteItem = memo(function PaletteItem({ part, units, stock, canEdit, tabStop }: { part: CatalogPart; units: UnitSystem; stock: StockCount | undefined; canEdit: boolean; tabStop: boolean }) {
   const store = useEditorStoreApi();
   const carry = useCarry();
   return (
-    <li>
-      <button
-        type="button"
-        aria-roledescription="part to place"
-        aria-describedby={canEdit ? INSTRUCTIONS_ID : undefined}
-        aria-label={`${partTitle(part)}${part.kind === 'element' ? `, ${part.hand} hand` : ''}, ${part.partNumber}. ${stockWords(stock)}.`}
-        disabled={!canEdit}
-        onPointerDown={(e) => carry.begin(e, part, undefined, e.currentTarget)}
-        onKeyDown={(e) => {
-          // While a part is carried, the keyboard sensor has the keys (Space drops it).
-          if (carry.starting || carry.ui.getState().carrying) keepKeyForSensor(e, carry);
-          else if (isPickUpKey(e)) carry.begin(e, part, undefined, e.currentTarget);
-        }}
-        onClick={() => {
-          const s = store.getState();
-          const target = s.selectedPlace;
-          if (target && accepts(part, target)) s.placePart(part.partNumber, target);
-          else s.announce(`Select a slot that takes a ${partTitle(part).toLowerCase()} first, or carry it there: Space, arrow keys, Space.`);
-        }}
-        className="flex w-full touch-none items-center gap-2.5 rounded-md border border-steel-200 bg-white px-2 py-1.5 text-left hover:border-iris-400 hover:bg-iris-50 disabled:cursor-default disabled:hover:border-steel-200 disabled:hover:bg-white"
-        data-part={part.partNumber}
-      >
-        <PaletteItemBody part={part} units={units} stock={stock} />
-      </button>
-    </li>
+    <div
+      role="option"
+      aria-selected={tabStop}
+      aria-disabled={!canEdit || undefined}
+      tabIndex={tabStop ? 0 : -1}
+      aria-roledescription="part to place"
+      aria-describedby={canEdit ? `${PALETTE_KEYS_ID} ${INSTRUCTIONS_ID}` : undefined}
+      aria-label={`${partTitle(part)}${part.kind === 'element' ? `, ${part.hand} hand` : ''}, ${part.partNumber}. ${stockWords(stock)}.`}
+      onPointerDown={canEdit ? (e) => carry.begin(e, part, undefined, e.currentTarget) : undefined}
+      onKeyDown={(e) => {
+        if (!canEdit) return;
+        // While a part is carried, the keyboard sensor has the keys (Space drops it).
+        if (carry.starting || carry.ui.getState().carrying) keepKeyForSensor(e, carry);
+        else if (isPickUpKey(e)) carry.begin(e, part, undefined, e.currentTarget);
+      }}
+      onClick={() => {
+        if (!canEdit) return;
+        const s = store.getState();
+        const target = s.selectedPlace;
+        if (target && accepts(part, target) && !carry.ui.getState().armed) {
+          s.placePart(part.partNumber, target);
+          return;
+        }
+        // Otherwise the part is chosen: the next slot tapped that takes it gets it.
+        const was = carry.ui.getState().armed;
+        if (was?.partNumber === part.partNumber) {
+          carry.ui.setState({ armed: null });
+          s.announce(`Let go of the ${partWords(part)}.`);
+          return;
+        }
+        carry.ui.setState({ armed: part });
+        s.announce(`Chosen: ${partWordsWithHand(part)}. Tap or click a slot that takes it (dashed in the drawing) to put it there.`);
+      }}
+      className={`palette-option flex w-full items-center md:touch-none gap-2.5 rounded-md border border-steel-200 bg-white px-2 py-1.5 text-left outline-none focus-visible:ring-2 focus-visible:ring-iris-500 ${
+        canEdit ? 'cursor-pointer hover:border-iris-400 hover:bg-iris-50' : 'cursor-default'
+      }`}
+      data-part={part.partNumber}
+    >
+      <PaletteItemBody part={part} units={units} stock={stock} />
+    </div>
   );
 });
+
+/** The keys of the parts list, for screen readers (the list is one tab stop). */
+const PALETTE_KEYS_ID = 'palette-keys';
+const LIST_KEYS: Record<string, (i: number, n: number) => number> = {
+  ArrowDown: (i, n) => Math.min(n - 1, i + 1),
+  ArrowUp: (i) => Math.max(0, i - 1),
+  Home: () => 0,
+  End: (_i, n) => n - 1,
+  PageDown: (i, n) => Math.min(n - 1, i + 8),
+  PageUp: (i) => Math.max(0, i - 8),
+};
 
 /** Search, filters and the parts list (no drag state here, so drags never re-render the inputs). */
 const PaletteContents = memo(function PaletteContents() {
@@ -99,6 +125,9 @@ const PaletteContents = memo(function PaletteContents() {
   const [type, setType] = useState<TypeFilter>('all');
   const [hand, setHand] = useState<'any' | Side>('any');
   const q = useDeferredValue(query.trim().toLowerCase());
+  // The parts list is one tab stop (a roving tabindex): the part last moved to with the arrows.
+  const [active, setActive] = useState<string | null>(null);
+  const carry = useCarry();
 
   const shown = useMemo(() => {
     return catalog.filter((p) => {
@@ -123,6 +152,8 @@ const PaletteContents = memo(function PaletteContents() {
     { title: 'Cover plates', parts: shown.filter((p) => p.kind === 'cover-plate') },
     { title: 'Rotor bars', parts: shown.filter((p) => p.kind === 'rotor-bar') },
   ].filter((g) => g.parts.length > 0);
+  const ordered = groups.flatMap((g) => g.parts);
+  const stop = active && ordered.some((p) => p.partNumber === active) ? active : (ordered[0]?.partNumber ?? null);
 
   return (
     <>
@@ -172,16 +203,47 @@ const PaletteContents = memo(function PaletteContents() {
       <p className="mt-2 text-xs text-ink-muted" aria-live="polite">
         {shown.length} of {catalog.length} parts
       </p>
-      {groups.map((g) => (
-        <div key={g.title} className="mt-3">
-          <h3 className="text-xs font-bold uppercase tracking-wide text-ink-soft">{g.title}</h3>
-          <ul className="mt-1 flex flex-col gap-1">
-            {g.parts.map((p) => (
-              <PaletteItem key={p.partNumber} part={p} units={units} stock={stock[p.partNumber]} canEdit={canEdit} />
-            ))}
-          </ul>
-        </div>
-      ))}
+      <p id={PALETTE_KEYS_ID} className="sr-only">
+        Up and Down arrows move through the parts; Home and End go to the first and last.
+      </p>
+      <div
+        role="listbox"
+        aria-labelledby="palette-h"
+        className="mt-1"
+        data-testid="palette-list"
+        onFocus={(e) => {
+          const pn = (e.target as HTMLElement).dataset?.part;
+          if (pn && pn !== active) setActive(pn);
+        }}
+        onKeyDown={(e) => {
+          // Carrying, the arrows move the part (the keyboard sensor has them).
+          if (carry.starting || carry.ui.getState().carrying) return;
+          const step = LIST_KEYS[e.key];
+          if (!step) return;
+          const options = [...e.currentTarget.querySelectorAll<HTMLElement>('[role="option"]')];
+          const i = options.findIndex((o) => o.contains(e.target as Node));
+          if (i < 0) return;
+          e.preventDefault();
+          const next = options[step(i, options.length)];
+          if (!next) return;
+          setActive(next.dataset.part ?? null);
+          next.focus();
+          next.scrollIntoView?.({ block: 'nearest' });
+        }}
+      >
+        {groups.map((g) => (
+          <div key={g.title} role="group" aria-label={g.title} className="mt-3">
+            <div aria-hidden="true" className="text-xs font-bold uppercase tracking-wide text-ink-soft">
+              {g.title}
+            </div>
+            <div className="mt-1 flex flex-col gap-1">
+              {g.parts.map((p) => (
+                <PaletteItem key={p.partNumber} part={p} units={units} stock={stock[p.partNumber]} canEdit={canEdit} tabStop={p.partNumber === stop} />
+              ))}
+            </div>
+          </div>
+        ))}
+      </div>
     </>
   );
 });
@@ -195,7 +257,7 @@ function PaletteHint() {
       {canEdit
         ? selected && selected.kind !== 'setting'
           ? `Click a part to put it at ${placeWords(selected)}, or drag it onto the drawing.`
-          : 'Drag a part onto the drawing, or pick it up with Space and move with the arrow keys.'
+          : 'Drag a part onto the drawing; or tap it, then tap a slot; or pick it up with Space and move with the arrow keys.'
         : 'Read only: you may look, not change.'}
     </p>
   );
@@ -213,16 +275,65 @@ function TakeOffHint() {
   );
 }
 
-/** The parts palette (also where a placed part is dropped to take it off). */
+/**
+ * The parts palette (also where a placed part is dropped to take it off). On a phone it is a
+ * sheet over the bottom of the screen, opened with the "Parts" button, and it closes when a part
+ * is chosen so the drawing is there to tap.
+ */
 export function Palette() {
+  const [open, setOpen] = useState(false);
+  const armed = useCarryUi((s) => s.armed);
+  const sheet = useRef<HTMLElement>(null);
+  const opener = useRef<HTMLButtonElement>(null);
+  useEffect(() => {
+    if (armed) setOpen(false);
+  }, [armed]);
+  useEffect(() => {
+    if (open) sheet.current?.querySelector<HTMLElement>('[data-sheet-close]')?.focus();
+  }, [open]);
+  const close = () => {
+    setOpen(false);
+    opener.current?.focus();
+  };
   return (
-    <section aria-labelledby="palette-h" className="rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-3 shadow-sm" data-testid="palette">
-      <h2 id="palette-h" className="text-base font-semibold">
-        Parts
-      </h2>
+    <>
+      <button
+        ref={opener}
+        type="button"
+        className="btn-primary fixed bottom-3 right-3 z-30 shadow-lg md:hidden"
+        aria-expanded={open}
+        aria-controls="palette"
+        onClick={() => setOpen(true)}
+        data-testid="parts-sheet-open"
+      >
+        {armed ? `Parts · ${partTitle(armed)}` : 'Parts'}
+      </button>
+      <section
+        ref={sheet}
+        id="palette"
+        aria-labelledby="palette-h"
+        onKeyDown={(e) => {
+          if (open && e.key === 'Escape') {
+            e.stopPropagation();
+            close();
+          }
+        }}
+        className={`palette-sheet rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-3 shadow-sm max-md:fixed max-md:inset-x-0 max-md:bottom-0 max-md:z-40 max-md:max-h-[80vh] max-md:overflow-y-auto max-md:rounded-b-none max-md:shadow-2xl ${open ? '' : 'max-md:hidden'}`}
+        data-testid="palette"
+        data-open={open || undefined}
+      >
+      <div className="flex items-baseline justify-between gap-2">
+        <h2 id="palette-h" className="text-base font-semibold">
+          Parts
+        </h2>
+        <button type="button" className="btn md:hidden" data-sheet-close onClick={close}>
+          Close
+        </button>
+      </div>
       <PaletteHint />
       <TakeOffHint />
       <PaletteContents />
     </section>
+    </>
   );
 }

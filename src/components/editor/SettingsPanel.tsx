@@ -8,7 +8,7 @@ import { memo, useDeferredValue, useMemo } from 'react';
 import { computeSettings, drumFor } from '../../lib/domain/compute';
 import { cropIds, cropPrograms } from '../../lib/domain/crops';
 import { CLEARANCE_MAX_MM, CLEARANCE_MIN_MM, RPM_MAX, RPM_MIN, type SettingField } from '../../lib/domain/schemas';
-import { inRpmWindow, rpmWindow, tipSpeed } from '../../lib/domain/speed';
+import { inRpmWindow, rpmWindow, rpmWindowWords, tipSpeed } from '../../lib/domain/speed';
 import { formatLength, formatMass, formatSpeed, kg, mm, MM_PER_INCH, rpm } from '../../lib/domain/units';
 import { CageEndView } from '../cage/EndView';
 import { SeverityBadge } from '../cage/SeverityIcon';
@@ -152,7 +152,7 @@ function SettingsFields() {
           <p>
             {program.name} window on the {d.label.toLowerCase()}:{' '}
             <strong>
-              {Math.ceil(w.minRpm)}–{Math.floor(w.maxRpm)} rpm
+              {rpmWindowWords(w)}
             </strong>
             {w.shiftRpm ? <span className="text-ink-muted"> (+{w.shiftRpm} rpm for the slim drum)</span> : null}
           </p>
@@ -179,7 +179,10 @@ function SettingsFields() {
         />
         <p className="mt-1 text-xs text-ink-muted">{program.clearanceAdvice.split('(')[0]!.trim()}</p>
         <FieldFinding field="clearanceMm" />
-        <EndViewBeside family={family} clearanceMm={clearanceMm} drum={drum} units={units} className="mx-auto mt-2 max-w-[18rem]" />
+        {/* The end view is left out on a phone (its words would be too small there). */}
+        <div className="hidden md:block">
+          <EndViewBeside family={family} clearanceMm={clearanceMm} drum={drum} units={units} className="mx-auto mt-2 max-w-[18rem]" />
+        </div>
       </div>
 
       <div className="grid grid-cols-2 gap-2">

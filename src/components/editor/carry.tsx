@@ -29,6 +29,11 @@ export interface CarryUi {
   overPalette: boolean;
   /** The slot under the pointer when nothing is carried (its details show under the drawing). */
   pointed: Place | null;
+  /**
+   * A part chosen with a tap or click and not carried: the next slot tapped that takes it gets
+   * it (phones, where dragging over a scrolling page is awkward).
+   */
+  armed: CatalogPart | null;
 }
 
 type StartEvent = PointerEvent<Element> | KeyboardEvent<Element>;
@@ -47,13 +52,23 @@ export interface Carry {
   begin: (e: StartEvent, part: CatalogPart, from: Place | undefined, node: Element) => void;
   /** Nothing is carried any more (dropped, put back, or tidied after a drop). */
   end: () => void;
+  /** The element the part was picked up from (focus goes back there when a keyboard carry is put back). */
+  node: Element | null;
+  /**
+   * Where the pointer is now, in viewport pixels, kept by a window listener while the editor is
+   * open. dnd-kit's drag delta counts the page's scrolling during the drag (its auto-scroll
+   * included) on top of the pointer's own movement, so it cannot say what is under the pointer.
+   */
+  pointer: { x: number; y: number };
 }
 
 export function createCarry(): Carry {
   return {
     data: { part: null },
-    ui: createStore<CarryUi>()(() => ({ carrying: null, hover: null, overPalette: false, pointed: null })),
+    ui: createStore<CarryUi>()(() => ({ carrying: null, hover: null, overPalette: false, pointed: null, armed: null })),
     starting: false,
+    node: null,
+    pointer: { x: 0, y: 0 },
     begin: () => {},
     end() {
       this.starting = false;
@@ -110,6 +125,12 @@ export function CarryHandle({ carry, disabled }: { carry: Carry; disabled: boole
       if (!listeners) return;
       carry.data.part = part;
       carry.data.from = from;
+      carry.node = node;
+      if (e.type === 'pointerdown') {
+        const pe = e as PointerEvent<Element>;
+        carry.pointer.x = pe.clientX;
+        carry.pointer.y = pe.clientY;
+      }
       setNodeRef(node as HTMLElement);
       setActivatorNodeRef(node as HTMLElement);
       if (e.type === 'pointerdown') listeners.onPointerDown?.(e);

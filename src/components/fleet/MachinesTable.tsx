@@ -199,7 +199,7 @@ function Table({ initial, orgs, families }: MachinesTableProps) {
         </p>
       )}
 
-      <div className="mt-3 overflow-x-auto rounded-lg border border-steel-200 bg-white">
+      <div className="relative mt-3 overflow-x-auto rounded-lg border border-steel-200 bg-white">
         <table className="w-full text-sm" aria-busy={isFetching} data-testid="machines-table">
           <caption className="sr-only">Machines, sortable by the column headers</caption>
           <SortableHead table={table} />

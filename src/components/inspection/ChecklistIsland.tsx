@@ -3,8 +3,9 @@
  * measurements, note and photos, saved as you go; finishing sends the lines marked "replace" to
  * a draft parts request.
  */
+import { formatMoney } from '../parts/money';
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { countSeverities, suggestSeverity, type ChecklistKind, type ReplacementLine } from '../../lib/domain/inspection';
+import { countSeverities, suggestSeverity, surveyFromMeasurements, type ChecklistKind, type ReplacementLine } from '../../lib/domain/inspection';
 import type { UnitSystem } from '../../lib/domain/units';
 import { ApiError, sendJson } from '../shared/api';
 import { LineCard, type LineChange } from './LineCard';
@@ -27,7 +28,8 @@ const SECTIONS: { kind: ChecklistKind; title: string }[] = [
   { kind: 'survey', title: 'Clearance survey' },
 ];
 
-const money = (cents: number) => (cents / 100).toLocaleString('en', { minimumFractionDigits: 2, maximumFractionDigits: 2 });
+// One money formatter for every screen.
+const money = formatMoney;
 
 export default function ChecklistIsland({ initial, units, canEdit }: Props) {
   const [insp, setInsp] = useState(initial);
@@ -36,6 +38,9 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
   const [confirming, setConfirming] = useState(false);
   const [finishError, setFinishError] = useState<string | null>(null);
   const [finishing, setFinishing] = useState(false);
+  /** The survey is uneven but marked serviceable: finishing asks for a conscious choice. */
+  const [acceptUneven, setAcceptUneven] = useState(false);
+  const [serverSaysUneven, setServerSaysUneven] = useState(false);
   const pending = useRef(new Map<string, Pending>());
   const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
   const chain = useRef<Promise<void>>(Promise.resolve());
@@ -109,6 +114,8 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
   const counts = useMemo(() => countSeverities(insp.items.filter((l) => l.kind !== 'survey')), [insp.items]);
   const photoCount = insp.items.reduce((n, l) => n + l.photos.length, 0);
   const toReplace = insp.items.filter((l) => l.severity === 'replace' && l.kind !== 'survey');
+  const surveyLine = insp.items.find((l) => l.kind === 'survey');
+  const surveyDisagrees = serverSaysUneven || (!!surveyLine && surveyLine.severity === 'ok' && surveyFromMeasurements(insp.family, surveyLine.measurements).uneven);
 
   async function finish() {
     setFinishing(true);
@@ -116,11 +123,15 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
     try {
       await flush();
       if (pending.current.size) throw new ApiError(saveError ?? 'Some entries are not saved yet.', 0);
-      const done = await sendJson<InspectionView & { added: ReplacementLine[] }>('POST', `/api/inspections/${insp.id}`, { action: 'finish' });
+      const done = await sendJson<InspectionView & { added: ReplacementLine[] }>('POST', `/api/inspections/${insp.id}`, {
+        action: 'finish',
+        ...(surveyDisagrees && acceptUneven ? { acceptUnevenSurvey: true } : {}),
+      });
       setInsp((cur) => ({ ...cur, status: 'finished', finishedAt: String(done.finishedAt), partsRequest: done.partsRequest }));
       setConfirming(false);
       justFinished.current = true;
     } catch (err) {
+      if (err instanceof ApiError && err.field === 'acceptUnevenSurvey') setServerSaysUneven(true);
       setFinishError(err instanceof ApiError ? err.message : 'The inspection could not be finished. Check the connection and try again.');
     } finally {
       setFinishing(false);
@@ -236,9 +247,19 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
               ) : (
                 <p>No parts will be requested.</p>
               )}
+              {surveyDisagrees && (
+                <div className="caution mt-3" data-testid="survey-disagrees">
+                  <p className="font-semibold">The clearance survey finds an uneven clearance, but its verdict is “serviceable”.</p>
+                  <p className="mt-1">Mark the survey to watch or replace, or confirm that the machine goes out with the clearance as measured. The report shows both the readings and your verdict.</p>
+                  <label className="mt-2 flex items-start gap-2">
+                    <input type="checkbox" className="mt-1 h-5 w-5" checked={acceptUneven} onChange={(e) => setAcceptUneven(e.target.checked)} />
+                    <span>Finish with the survey marked serviceable although the clearance is uneven</span>
+                  </label>
+                </div>
+              )}
               <p className="mt-2 text-sm">After finishing, the checklist and its photos can no longer be changed.</p>
               <div className="mt-3 flex flex-wrap gap-3">
-                <button type="button" className="btn-primary min-h-[52px] px-5 text-base" onClick={() => void finish()} disabled={finishing}>
+                <button type="button" className="btn-primary min-h-[52px] px-5 text-base" onClick={() => void finish()} disabled={finishing || (surveyDisagrees && !acceptUneven)}>
                   {finishing ? 'Finishing…' : toReplace.length ? 'Finish and request the parts' : 'Finish'}
                 </button>
                 <button type="button" className="btn min-h-[52px] px-5 text-base" onClick={() => setConfirming(false)} disabled={finishing}>

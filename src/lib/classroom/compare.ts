@@ -6,6 +6,7 @@
  */
 import { computeSettings, type Settings } from '../domain/compute';
 import { cropPrograms } from '../domain/crops';
+import { rpmWindowWords } from '../domain/speed';
 import { describePlace, diffLayouts, type LayoutDiff, type LayoutDifference } from '../domain/diff';
 import { placeKey } from '../domain/places';
 import { checkLayout } from '../domain/rules';
@@ -106,7 +107,7 @@ const pct = (x: number) => `${Math.round(x * 100)} %`;
 function metrics(a: ComparedSide, b: ComparedSide, units: UnitSystem): MetricRow[] {
   const rows: [string, (s: ComparedSide) => string][] = [
     ['Rotor tip speed', (s) => formatSpeed(s.settings.tipSpeedMs, units)],
-    ['Rotor speed for the crop', (s) => (s.settings.rpmInWindow ? 'inside the window' : 'outside the window') + ` (${Math.round(s.settings.rpmWindow.minRpm)}–${Math.round(s.settings.rpmWindow.maxRpm)} rpm)`],
+    ['Rotor speed for the crop', (s) => (s.settings.rpmInWindow ? 'inside the window' : 'outside the window') + ` (${rpmWindowWords(s.settings.rpmWindow)})`],
     ['Threshing aggressiveness index', (s) => String(Math.round(s.settings.aggressivenessIndex))],
     ['Open area, threshing zone (after cover plates)', (s) => pct(s.settings.openArea.threshing.after)],
     ['Open area, separating zone (after cover plates)', (s) => pct(s.settings.openArea.separating.after)],

@@ -260,7 +260,7 @@ const drafts: Draft[] = [
     bushel: { usLb: { value: 56, source: SRC.uw }, canadaPerTonne: canada(39.368) },
     publishedLossCount: { value: 2, source: SRC.isu },
     startClearanceMm: { value: 25, source: '[mem] about the cob diameter (20–30 mm)' },
-    clearanceAdvice: '[mem] Clearance about the cob diameter (20–30 mm); round-bar elements for high-moisture corn (common practice).',
+    clearanceAdvice: 'Clearance about the cob diameter (20–30 mm, a rule of thumb with no published source); round-bar elements for high-moisture corn (common practice).',
   },
   {
     id: 'rice',

@@ -341,9 +341,13 @@ export function planCropChange(input: PlanInput): Plan {
 /** Words for the plan's headline: "2 parts to buy, 8 to handle". */
 export function planSummaryWords(plan: PlanOk): string {
   const { purchases, moves } = plan.counts;
+  const settings = plan.settings.length;
   const buy = purchases === 0 ? 'nothing to buy' : `${purchases} part${purchases === 1 ? '' : 's'} to buy`;
-  const handle = moves === 0 ? 'nothing to change' : `${moves} part${moves === 1 ? '' : 's'} to take off, move or fit`;
-  return `${capitalise(buy)}, ${handle}.`;
+  const handle = moves === 0 ? 'no part to take off, move or fit' : `${moves} part${moves === 1 ? '' : 's'} to take off, move or fit`;
+  const set = settings === 0 ? '' : `, ${settings} setting${settings === 1 ? '' : 's'} to change`;
+  // "Nothing to change" only when the plan really changes nothing (no part and no setting).
+  if (purchases === 0 && moves === 0 && settings === 0) return 'Nothing to buy, nothing to change.';
+  return `${capitalise(buy)}, ${handle}${set}.`;
 }
 
 /** The element type the crop program wants in a zone, in words ("round-bar"). */

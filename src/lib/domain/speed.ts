@@ -54,8 +54,23 @@ export function rpmWindow(crop: CropProgram | CropId, drum: { id: DrumId; diamet
 }
 
 /** Whether `speed` lies in the window, rounding the window outward to whole rpm. */
+/**
+ * The window in whole rpm, as every screen shows it and as inRpmWindow judges: the lower end
+ * rounded down, the upper end rounded up. One place, so no two screens disagree by one rpm.
+ */
+export function rpmWindowWhole(w: RpmWindow): { lo: number; hi: number } {
+  return { lo: Math.floor(w.minRpm), hi: Math.ceil(w.maxRpm) };
+}
+
+/** "727–977 rpm". */
+export function rpmWindowWords(w: RpmWindow): string {
+  const { lo, hi } = rpmWindowWhole(w);
+  return `${lo}–${hi} rpm`;
+}
+
 export function inRpmWindow(speed: number, w: RpmWindow): boolean {
-  return speed >= Math.floor(w.minRpm) && speed <= Math.ceil(w.maxRpm);
+  const { lo, hi } = rpmWindowWhole(w);
+  return speed >= lo && speed <= hi;
 }
 
 /** A whole-rpm speed in the middle of the window (what a starter layout uses). */

@@ -16,7 +16,7 @@ export const createDiagramSlice =
     let seq = 0;
     const announcement = (text: string) => ({ text, seq: ++seq });
     /** Every edit passes here: the rules run at once, so findings always match the layout. */
-    const commit = (layout: Layout, said: string | ((findings: ReturnType<typeof checkLayout>) => string), select?: Place) => {
+    const commit = (layout: Layout, said: string | ((findings: ReturnType<typeof checkLayout>) => string), select?: Place, focus = false) => {
       const findings = checkLayout(get().family, catalog, layout);
       const text = typeof said === 'string' ? said : said(findings);
       // A finding chosen before the edit may no longer exist; drop the choice. One set() per
@@ -28,6 +28,7 @@ export const createDiagramSlice =
         activeFinding: null,
         highlightPlaces: NO_PLACES,
         ...(select ? { selectedPlace: select } : {}),
+        ...(select && focus ? { focusSeq: get().focusSeq + 1 } : {}),
       });
     };
     const partName = (pn: string | undefined) => {
@@ -42,7 +43,7 @@ export const createDiagramSlice =
       findings: checkLayout(init.family, catalog, init.layout),
       announcement: { text: '', seq: 0 },
 
-      placePart(partNumber, place) {
+      placePart(partNumber, place, opts) {
         const part = catalog.byPartNumber.get(partNumber);
         if (!get().canEdit || !part) return false;
         if (!accepts(part, place)) {
@@ -57,11 +58,11 @@ export const createDiagramSlice =
         commit(withPartAt(get().layout, place, partNumber), (f) => {
           const replaced = before ? ` It replaces the ${partName(before)}.` : '';
           return `Placed ${partAtPlaceWords(part, place)}.${replaced} ${findingsHereWords(f, place)}`;
-        }, place);
+        }, place, !!opts?.focus);
         return true;
       },
 
-      movePart(from, to) {
+      movePart(from, to, opts) {
         if (!get().canEdit) return false;
         const layout = get().layout;
         const moving = partNumberAt(layout, from);
@@ -74,6 +75,7 @@ export const createDiagramSlice =
             ? `Swapped: ${partName(moving)} now at ${placeWords(to)}, ${partName(there)} now at ${placeWords(from)}. ${findingsHereWords(f, to)}`
             : `Moved ${partName(moving)} from ${placeWords(from)} to ${placeWords(to)}. ${findingsHereWords(f, to)}`,
           to,
+          !!opts?.focus,
         );
         return true;
       },

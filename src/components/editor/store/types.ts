@@ -38,6 +38,11 @@ export interface Announcement {
   seq: number;
 }
 
+/** `focus`: keyboard focus follows the selection to the edited place (in the same set()). */
+export interface EditOptions {
+  focus?: boolean;
+}
+
 export interface DiagramSlice {
   family: MachineFamily;
   catalog: CatalogIndex;
@@ -45,9 +50,9 @@ export interface DiagramSlice {
   findings: Finding[];
   announcement: Announcement;
   /** Put a catalog part at a place (replacing what was there). False when the part does not go there. */
-  placePart: (partNumber: string, place: Place) => boolean;
+  placePart: (partNumber: string, place: Place, opts?: EditOptions) => boolean;
   /** Move what is at `from` to `to`; when `to` holds a part of the same kind, the two swap. */
-  movePart: (from: Place, to: Place) => boolean;
+  movePart: (from: Place, to: Place, opts?: EditOptions) => boolean;
   removePart: (place: Place) => boolean;
   /** Replace the whole layout (reload a newer version) as one undoable step. */
   replaceLayout: (layout: Layout, why: string) => void;

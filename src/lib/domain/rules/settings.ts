@@ -1,7 +1,7 @@
 import { sourceInWords } from '../crops';
 /** Rules for the settings beside the diagram: family, drum, vane control, rotor speed. */
 import { drumFor } from '../compute';
-import { inRpmWindow, rpmWindow } from '../speed';
+import { inRpmWindow, rpmWindow, rpmWindowWhole } from '../speed';
 import { emit, type RuleContext } from './context';
 
 export function checkSettings(ctx: RuleContext): void {
@@ -42,8 +42,7 @@ export function checkSettings(ctx: RuleContext): void {
   const drum = drumFor(family, layout.drum);
   const w = rpmWindow(crop, { id: layout.drum, diameterMm: drum.diameterMm });
   if (!inRpmWindow(layout.rotorRpm, w)) {
-    const lo = Math.floor(w.minRpm);
-    const hi = Math.ceil(w.maxRpm);
+    const { lo, hi } = rpmWindowWhole(w);
     const slow = layout.rotorRpm < lo;
     emit(
       ctx,

@@ -7,6 +7,8 @@ export interface HomeSummary {
   orgs: { id: string; name: string; kind: 'farm' | 'dealer' | 'instance' }[];
   machines: { id: string; nickname: string; serial: string; familyName: string; orgName: string }[];
   openPartsRequests: number;
+  /** Parts requests still being written (not sent) in the organisations the user sees. */
+  draftPartsRequests: number;
   decks: number;
 }
 
@@ -14,7 +16,7 @@ export interface HomeSummary {
 export async function homeSummary(actor: Actor): Promise<HomeSummary> {
   const db = await getDb();
   const visible = actor.visibleOrgIds;
-  const [orgs, machineRows, [requests], [deckCount]] = await Promise.all([
+  const [orgs, machineRows, [requests], [deckCount], [drafts]] = await Promise.all([
     db.select({ id: organisations.id, name: organisations.name, kind: organisations.kind })
       .from(organisations).where(inArray(organisations.id, visible)).orderBy(organisations.kind, organisations.name),
     db.select({ id: machines.id, nickname: machines.nickname, serial: machines.serial, familyName: families.name, orgName: organisations.name })
@@ -29,8 +31,9 @@ export async function homeSummary(actor: Actor): Promise<HomeSummary> {
       inArray(partsRequests.status, ['sent', 'acknowledged', 'ready']),
     )),
     db.select({ n: count() }).from(decks).where(inArray(decks.orgId, visible)),
+    db.select({ n: count() }).from(partsRequests).where(and(inArray(partsRequests.orgId, visible), eq(partsRequests.status, 'draft'))),
   ]);
-  return { orgs, machines: machineRows, openPartsRequests: requests?.n ?? 0, decks: deckCount?.n ?? 0 };
+  return { orgs, machines: machineRows, openPartsRequests: requests?.n ?? 0, draftPartsRequests: drafts?.n ?? 0, decks: deckCount?.n ?? 0 };
 }
 
 /** The instance administrator's overview: how many dealers, farms and people the installation holds. */

@@ -346,7 +346,18 @@ export async function updateInspection(actor: Actor, id: string, input: z.infer<
 // ---------------------------------------------------------------------------------------------
 // Finish: flagged lines become replacement lines on a draft parts request
 
-export async function finishInspection(actor: Actor, id: string) {
+/** The survey line says "serviceable" while its readings find an uneven clearance. */
+export function surveyVerdictDisagrees(family: MachineFamily, items: readonly { placeKey: string; severity: string; measurements: Record<string, number> }[]): boolean {
+  const survey = items.find((it) => checklistKind(it.placeKey) === 'survey');
+  return !!survey && survey.severity === 'ok' && surveyFromMeasurements(family, survey.measurements).uneven;
+}
+
+/**
+ * Finishes an inspection. A survey whose readings are uneven but whose verdict is "serviceable"
+ * is finished only with `acceptUnevenSurvey` (a conscious choice, audited); otherwise 409 naming
+ * that field, and nothing changes.
+ */
+export async function finishInspection(actor: Actor, id: string, opts: { acceptUnevenSurvey?: boolean } = {}) {
   const db = await getDb();
   const row = await inspectionRowForActor(actor, id, db);
   assertOpen(row);
@@ -357,6 +368,13 @@ export async function finishInspection(actor: Actor, id: string) {
     installedLayout(ctx.machine.id, db),
   ]);
   const { lines, unknown } = replacementLines(items, current?.layout ?? null, catalog);
+  const disagrees = surveyVerdictDisagrees(ctx.family, items);
+  if (disagrees && !opts.acceptUnevenSurvey)
+    throw new HttpError(
+      409,
+      'The clearance survey finds an uneven clearance, yet its verdict is "serviceable". Mark the survey to watch or replace, or finish with the uneven clearance accepted as it is.',
+      'acceptUnevenSurvey',
+    );
 
   // Close it first, under a lock, so only one finish ever adds the parts.
   await db.transaction(async (tx) => {
@@ -390,7 +408,7 @@ export async function finishInspection(actor: Actor, id: string) {
       'finish',
       'inspection',
       row.id,
-      { machineId: row.machineId, counts: countSeverities(items), partsRequestId: requestId, lines, unknownParts: unknown },
+      { machineId: row.machineId, counts: countSeverities(items), partsRequestId: requestId, lines, unknownParts: unknown, ...(disagrees ? { unevenSurveyAccepted: true } : {}) },
       row.orgId,
     );
   });

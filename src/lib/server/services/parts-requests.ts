@@ -12,6 +12,7 @@
  */
 import { and, desc, eq, inArray, or, sql } from 'drizzle-orm';
 import { toCsv } from '../csv';
+import { withArticle } from '../../domain/words';
 import { z } from 'zod';
 import { getDb, type Db } from '../db';
 import {
@@ -64,6 +65,9 @@ export const SOURCE_WORDS: Record<PartsRequestSource, string> = {
   inspection: 'inspection',
   manual: 'entered by hand',
 };
+
+/** Where a request came from, as a phrase: "from an inspection", "entered by hand". */
+export const sourceOrigin = (source: PartsRequestSource): string => (source === 'manual' ? SOURCE_WORDS.manual : `from ${withArticle(SOURCE_WORDS[source])}`);
 
 const MAX_QTY = 999;
 const note = z.string().trim().max(2000).default('');

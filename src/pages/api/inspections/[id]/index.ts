@@ -18,12 +18,16 @@ export const PATCH = route(async (ctx) => {
   return updateInspection(actor, id, input);
 });
 
-const actionSchema = z.object({ action: z.literal('finish', { error: 'the only action is "finish"' }) });
+const actionSchema = z.object({
+  action: z.literal('finish', { error: 'the only action is "finish"' }),
+  /** Finish although the clearance survey is uneven and marked serviceable (a conscious choice). */
+  acceptUnevenSurvey: z.boolean({ error: 'acceptUnevenSurvey is true or false' }).optional(),
+});
 
 /** { "action": "finish" }: closes the inspection; lines marked replace go to a draft parts request. */
 export const POST = route(async (ctx) => {
   const actor = requireActor(ctx, INSPECTION_WRITERS);
   const id = parseId(ctx.params.id);
-  await readJson(ctx.request, actionSchema);
-  return finishInspection(actor, id);
+  const input = await readJson(ctx.request, actionSchema);
+  return finishInspection(actor, id, { acceptUnevenSurvey: input.acceptUnevenSurvey });
 });

@@ -1,0 +1,46 @@
+import { describe, expect, it } from 'vitest';
+import { countOf, withArticle } from '../../../src/lib/domain/words';
+
+// English usage: the article follows the first sound; common practice, no published source.
+describe('words', () => {
+  it('counts with the noun in the right number', () => {
+    expect(countOf(1, 'photo')).toBe('1 photo');
+    expect(countOf(0, 'photo')).toBe('0 photos');
+    expect(countOf(2, 'photo')).toBe('2 photos');
+    expect(countOf(2, 'person', 'people')).toBe('2 people');
+  });
+  it('puts the right indefinite article', () => {
+    expect(withArticle('inspection')).toBe('an inspection');
+    expect(withArticle('plan')).toBe('a plan');
+    expect(withArticle('layout')).toBe('a layout');
+    expect(withArticle('element')).toBe('an element');
+    expect(withArticle('hour')).toBe('an hour');
+    expect(withArticle('unit')).toBe('a unit');
+    expect(withArticle('open request')).toBe('an open request');
+  });
+});
+
+import { inRpmWindow, rpmWindowWhole, rpmWindowWords, type RpmWindow } from '../../../src/lib/domain/speed';
+import { planSummaryWords, type PlanOk } from '../../../src/lib/domain/planner';
+
+describe('one rpm window everywhere', () => {
+  // A window whose ends fall between whole rpm (invented numbers for the check).
+  const w = { minRpm: 533.4, maxRpm: 721.6 } as RpmWindow;
+  it('shows the whole-rpm window that inRpmWindow judges by', () => {
+    expect(rpmWindowWhole(w)).toEqual({ lo: 533, hi: 722 });
+    expect(rpmWindowWords(w)).toBe('533–722 rpm');
+    expect(inRpmWindow(533, w)).toBe(true);
+    expect(inRpmWindow(532, w)).toBe(false);
+    expect(inRpmWindow(722, w)).toBe(true);
+    expect(inRpmWindow(723, w)).toBe(false);
+  });
+});
+
+describe('plan headline', () => {
+  const plan = (purchases: number, moves: number, settings: number) => ({ counts: { purchases, moves }, settings: Array.from({ length: settings }, () => ({})) }) as unknown as PlanOk;
+  it('says "nothing to change" only when nothing changes', () => {
+    expect(planSummaryWords(plan(0, 0, 0))).toBe('Nothing to buy, nothing to change.');
+    expect(planSummaryWords(plan(0, 0, 2))).toBe('Nothing to buy, no part to take off, move or fit, 2 settings to change.');
+    expect(planSummaryWords(plan(1, 3, 1))).toBe('1 part to buy, 3 parts to take off, move or fit, 1 setting to change.');
+  });
+});
