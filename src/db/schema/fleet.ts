@@ -30,6 +30,9 @@ export const machines = pgTable(
 export const installed = pgTable('installed', {
   machineId: uuid('machine_id').primaryKey().references(() => machines.id, { onDelete: 'cascade' }),
   layout: jsonb('layout').$type<Layout>().notNull(),
+  /** The saved layout version it was installed from, when it was (null for a layout given as it is). */
+  sourceLayoutId: uuid('source_layout_id'),
+  sourceVersion: integer('source_version'),
   updatedBy: uuid('updated_by').references(() => users.id),
   updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
 });

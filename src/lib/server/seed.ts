@@ -86,11 +86,11 @@ export async function seedDemo(db: Db) {
       }).returning();
       const layout: Layout = { ...starterLayout(m.family, m.crop, demoCatalog), drum, vaneControl };
       const owner = m.org === 'larkspur' ? userIds['olive@larkspur.example'] : userIds['dev@haldane.example'];
-      await tx.insert(t.installed).values({ machineId: machine!.id, layout, updatedBy: owner });
       const [plan] = await tx.insert(t.layouts).values({
         machineId: machine!.id, orgId: orgs[m.org].id, name: `${m.crop.replace('-', ' ')} setup`, currentVersion: 1, createdBy: owner,
       }).returning();
       await tx.insert(t.layoutVersions).values({ layoutId: plan!.id, version: 1, body: layout, note: 'As installed at the start of the season', createdBy: owner });
+      await tx.insert(t.installed).values({ machineId: machine!.id, layout, sourceLayoutId: plan!.id, sourceVersion: 1, updatedBy: owner });
       // A few spares on the farm's shelf: the parts of this layout's first position.
       const spares = layout.elements.filter((e) => e.position === 1).map((e) => e.partNumber);
       for (const pn of spares) {

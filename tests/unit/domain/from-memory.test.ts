@@ -26,7 +26,7 @@ const KNOWN_FROM_MEMORY = [
   'lentils.tipSpeedMs.source', 'lentils.bushel.usLb.source', 'lentils.startClearanceMm.source',
   'soybeans.tkwG.source', 'soybeans.tipSpeedMs.source', 'soybeans.startClearanceMm.source',
   'edible-beans.bushel.usLb.source', 'edible-beans.startClearanceMm.source',
-  'corn.tkwG.source', 'corn.startClearanceMm.source', 'corn.clearanceAdvice',
+  'corn.tkwG.source', 'corn.startClearanceMm.source',
   'rice.tipSpeedMs.source', 'rice.startClearanceMm.source',
   'sunflower.tipSpeedMs.source', 'sunflower.startClearanceMm.source',
   'grass-seed.kernel.source', 'grass-seed.tkwG.source', 'grass-seed.tipSpeedMs.source', 'grass-seed.bushel.usLb.source', 'grass-seed.startClearanceMm.source',

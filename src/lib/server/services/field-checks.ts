@@ -57,8 +57,8 @@ export const seasonQuerySchema = z.object({
 });
 
 /**
- * The saved version of this machine's layouts that matches what is installed, newest first (a
- * version marked as installed is copied as it is; a layout edited since still has that version).
+ * For a layout installed as it is (no recorded source): the saved version of this machine's
+ * layouts with the same content, newest first.
  */
 export async function installedVersionOf(db: Db, machineId: string, layout: Layout): Promise<{ layoutId: string; version: number } | null> {
   const [row] = await db
@@ -90,7 +90,13 @@ export async function recordLossCheck(actor: Actor, machineId: string, input: z.
   const { fieldName, checkedAt, moisturePct, settings: _s, ...countsInput } = input;
   const result = computeLossCheck(countsInput);
   // The layout version only counts when what is installed still carries the crop checked.
-  const version = current && current.layout.crop === input.crop ? await installedVersionOf(db, ctx.machine.id, current.layout) : null;
+  // The version it was installed from when that was recorded; else a saved version with the same content.
+  const version =
+    current && current.layout.crop === input.crop
+      ? current.sourceLayoutId && current.sourceVersion
+        ? { layoutId: current.sourceLayoutId, version: current.sourceVersion }
+        : await installedVersionOf(db, ctx.machine.id, current.layout)
+      : null;
 
   const id = await db.transaction(async (tx) => {
     const [row] = await tx

@@ -43,6 +43,7 @@ export async function putInstalled(actor: Actor, machineId: string, input: z.inf
   const ctx = await machineForActor(actor, machineId);
   let layout: Layout;
   let source: Record<string, unknown> = {};
+  let from: { layoutId: string; version: number } | null = null;
   if (input.fromLayout) {
     const db = await getDb();
     const [l] = await db.select().from(layouts).where(eq(layouts.id, input.fromLayout.layoutId)).limit(1);
@@ -54,6 +55,7 @@ export async function putInstalled(actor: Actor, machineId: string, input: z.inf
       )
     ).body;
     source = { fromLayout: l.id, version: input.fromLayout.version };
+    from = { layoutId: l.id, version: input.fromLayout.version };
   } else {
     layout = input.layout!;
     if (layout.familyId !== ctx.machine.familyId)
@@ -65,8 +67,11 @@ export async function putInstalled(actor: Actor, machineId: string, input: z.inf
   await db.transaction(async (tx) => {
     await tx
       .insert(installed)
-      .values({ machineId: ctx.machine.id, layout, updatedBy: actor.id })
-      .onConflictDoUpdate({ target: installed.machineId, set: { layout, updatedBy: actor.id, updatedAt: sql`now()` } });
+      .values({ machineId: ctx.machine.id, layout, sourceLayoutId: from?.layoutId ?? null, sourceVersion: from?.version ?? null, updatedBy: actor.id })
+      .onConflictDoUpdate({
+        target: installed.machineId,
+        set: { layout, sourceLayoutId: from?.layoutId ?? null, sourceVersion: from?.version ?? null, updatedBy: actor.id, updatedAt: sql`now()` },
+      });
     await audit(tx, actor, 'install', 'machine', ctx.machine.id, { crop: layout.crop, ...source }, ctx.machine.orgId);
   });
   return getInstalled(actor, machineId).then((r) => ({ ...r, findings }));
