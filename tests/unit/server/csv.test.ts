@@ -7,7 +7,8 @@ import { toCsv } from '../../../src/lib/server/csv';
 // with =, +, -, @, tab (0x09) or carriage return (0x0D) are prefixed with a single quote and the
 // cell is quoted, so a spreadsheet shows them as text.
 describe('CSV files cannot carry formulas', () => {
-  const parse = (csv: string) => Papa.parse<string[]>(csv).data;
+  // Read back as the comma-separated file it is (papaparse would otherwise guess the delimiter from the text).
+  const parse = (csv: string) => Papa.parse<string[]>(csv, { delimiter: ',' }).data;
 
   it('neutralises each dangerous first character and leaves ordinary cells alone', () => {
     const cells = ['=HYPERLINK("http://example.invalid","x")', '+1+1', '-2+3', '@SUM(A1)', '\t=1', '\r=1', '=1\n+2', 'Wide-wire element', 'CW-EL-1', '12.50'];
