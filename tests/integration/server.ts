@@ -83,6 +83,9 @@ export async function startServer(opts: { dataDir?: string; env?: Record<string,
       // workers.test.ts and two-instances.test.ts prove the several-process case.
       CAGEWRIGHT_WORKERS: process.env.CAGEWRIGHT_WORKERS ?? '1',
       AUTH_SECRET: TEST_SECRET,
+      // Every suite signs in from 127.0.0.1 and some fail on purpose: the per-address limit would
+      // soon refuse everyone. signin-throttle.test.ts sets it back to test it.
+      CAGEWRIGHT_SIGNIN_ADDRESS_FREE: '10000',
       ...opts.env,
     },
     stdio: ['ignore', 'pipe', 'pipe'],

@@ -15,7 +15,7 @@ const ADDRESS_LIMIT = 20;
 let server: RunningServer;
 
 beforeAll(async () => {
-  server = await startServer({ env: { CAGEWRIGHT_SIGNIN_DELAY_S: String(DELAY_S), CAGEWRIGHT_TRUSTED_PROXIES: '127.0.0.1' } });
+  server = await startServer({ env: { CAGEWRIGHT_SIGNIN_DELAY_S: String(DELAY_S), CAGEWRIGHT_TRUSTED_PROXIES: '127.0.0.1', CAGEWRIGHT_SIGNIN_ADDRESS_FREE: '20' } });
 }, 180_000);
 
 afterAll(async () => {

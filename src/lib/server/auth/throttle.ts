@@ -21,7 +21,8 @@ import type { Db } from '../db';
  * account's count and gives the address back the attempt it used.
  */
 export const ACCOUNT_FREE = 5;
-export const ADDRESS_FREE = 20;
+/** Free attempts per client address (`CAGEWRIGHT_SIGNIN_ADDRESS_FREE`, default 20). */
+export const ADDRESS_FREE = positiveInt(process.env.CAGEWRIGHT_SIGNIN_ADDRESS_FREE, 20);
 const BASE_DELAY_S = Number(process.env.CAGEWRIGHT_SIGNIN_DELAY_S ?? 30);
 const MAX_DELAY_S = 15 * 60;
 const FORGET_AFTER_S = 60 * 60;
@@ -85,4 +86,9 @@ export async function signInSucceeded(db: Exec, email: string, address: string |
   await db.execute(sql`update signin_throttle set attempts = greatest(attempts - 1, 0) where key = ${addressKey(address)}`);
   // Now and then, drop rows nobody has used for a day.
   if (Math.random() < 0.02) await db.execute(sql`delete from signin_throttle where last_at < now() - interval '1 day' and next_at < now()`);
+}
+
+function positiveInt(value: string | undefined, fallback: number): number {
+  const n = Number(value);
+  return Number.isInteger(n) && n > 0 ? n : fallback;
 }
