@@ -35,6 +35,13 @@ async function attempt(email: string, password: string, headers: Record<string, 
 const stats = async (admin: Client) => (await admin.get('/api/admin/stats')).body.counts as Record<string, number>;
 
 describe('sign-in throttle', () => {
+  it('parallel correct sign-ins from one address all succeed (a free attempt is never refused for another one’s moment)', async () => {
+    const people = [DEMO.operator, DEMO.operator2, DEMO.technician, DEMO.dealerAdmin, DEMO.operator, DEMO.technician, DEMO.operator2, DEMO.dealerAdmin];
+    const results = await Promise.all(people.map((email) => attempt(email, 'cage-demo-2026', from(7000))));
+    expect(results.map((r) => r.code ?? 'signed in')).toEqual(people.map(() => 'signed in'));
+    expect(results.every((r) => r.signedIn)).toBe(true);
+  });
+
   it('100 parallel wrong passwords for one account from 100 addresses: at most the limit are checked, every one audited', async () => {
     const admin = new Client(server.baseUrl);
     await admin.signIn(DEMO.instanceAdmin, undefined, from(9000));

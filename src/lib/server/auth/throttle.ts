@@ -55,17 +55,23 @@ function delaySeconds(n: ReturnType<typeof sql>, free: number) {
   return sql`case when ${n} >= ${free}::int then least(${MAX_DELAY_S}::float8, ${BASE_DELAY_S}::float8 * power(2, ${n} - ${free}::int)) else 0 end`;
 }
 
-/** Reserves one attempt for a key, or says when the next one may be made. One statement. */
+/**
+ * Reserves one attempt for a key, or says when the next one may be made. One statement. Times are
+ * the clock's, not the transaction's start (`now()`): a reservation that waited for another's row
+ * lock must compare against the time it is judged, or a free attempt would be refused because the
+ * other one's "next allowed" lies a moment after this one's start (parallel sign-ins from one
+ * address on a PostgreSQL server).
+ */
 export async function reserve(db: Exec, key: string, free: number): Promise<Reservation> {
-  const next = sql`case when t.last_at < now() - make_interval(secs => ${FORGET_AFTER_S}::float8) then 1 else t.attempts + 1 end`;
+  const next = sql`case when t.last_at < clock_timestamp() - make_interval(secs => ${FORGET_AFTER_S}::float8) then 1 else t.attempts + 1 end`;
   const granted = await db.execute(sql`
     insert into signin_throttle as t (key, attempts, next_at, last_at)
-    values (${key}, 1, now() + make_interval(secs => ${delaySeconds(sql`1`, free)}), now())
+    values (${key}, 1, clock_timestamp() + make_interval(secs => ${delaySeconds(sql`1`, free)}), clock_timestamp())
     on conflict (key) do update set
       attempts = ${next},
-      next_at = now() + make_interval(secs => ${delaySeconds(next, free)}),
-      last_at = now()
-    where t.next_at <= now()
+      next_at = clock_timestamp() + make_interval(secs => ${delaySeconds(next, free)}),
+      last_at = clock_timestamp()
+    where t.next_at <= clock_timestamp()
     returning t.attempts`);
   if (granted.rows.length > 0) return { ok: true };
   const held = await db.execute(sql`select next_at from signin_throttle where key = ${key}`);
