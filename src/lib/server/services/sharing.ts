@@ -33,7 +33,6 @@ export const shareListQuerySchema = z.object({
   status: z.enum(['active', 'all']).default('all'),
 });
 
-export type { ShareStatus } from '../share-links';
 
 export async function createShareLink(actor: Actor, input: z.infer<typeof createShareSchema>) {
   const db = await getDb();

@@ -6,11 +6,10 @@ import { decks, organisations, shareLinks, users } from '../../../../db/schema';
 import type { Actor } from '../../access';
 import { audit } from '../../audit';
 import { HttpError, notFound } from '../../http';
-import { hashToken, lookUpToken, newToken, statusOf, type ShareStatus } from '../../share-links';
+import { hashToken, lookUpToken, newToken, statusOf } from '../../share-links';
 import { createDeckShareSchema } from './schemas';
 import { deckColumns, deckForActor, slidesOf, type DeckRecord, type SlideRecord } from './records';
 
-export type DeckShareStatus = ShareStatus;
 
 const linkColumns = {
   id: shareLinks.id,
