@@ -107,6 +107,62 @@ export function parseParams<T>(value: unknown, schema: ZodType<T>, prefix?: stri
   return parsed.data;
 }
 
+/** The methods that write. */
+export type WriteMethod = 'POST' | 'PUT' | 'PATCH' | 'DELETE';
+
+/**
+ * What a write handler reads besides its path parameters: the zod schema of its JSON body
+ * (`readJson`), of its query string, or of its multipart form. `{}` means the path alone: such a
+ * handler refuses any body (`refuseBody`). Every API route module exports its declarations as
+ * `inputs` and validates with exactly these schemas, so the hostile-input properties read the
+ * required and optional fields of each route from here (a write route without one fails them).
+ */
+export interface RouteInput {
+  body?: ZodType;
+  query?: ZodType;
+  multipart?: ZodType;
+}
+export type RouteInputs = Partial<Record<WriteMethod, RouteInput>>;
+
+/** Declares a route module's inputs, keeping each schema's own type for the handler. */
+export const routeInputs = <T extends RouteInputs>(inputs: T): T => inputs;
+
+/** A handler that reads nothing but its path refuses a body (400 naming the body), reading at most one byte of it. */
+export async function refuseBody(request: Request): Promise<void> {
+  try {
+    await readCapped(request, 0);
+  } catch (err) {
+    if (err instanceof BodyTooLarge) throw new HttpError(400, 'body: this request takes no body.', 'body');
+    throw new HttpError(400, 'The body could not be read.', 'body');
+  }
+}
+
+/** Query parameters of a write route validated by `schema`. */
+export function readQuery<T>(url: URL, schema: ZodType<T>): T {
+  return parseParams(Object.fromEntries(url.searchParams), schema);
+}
+
+/**
+ * Ids in the query (like ids in the path): a malformed one is simply not found, a 404 naming the
+ * parameter; characters the store cannot keep are still a 400.
+ */
+export function readIdQuery<T>(url: URL, schema: ZodType<T>): T {
+  const value = Object.fromEntries(url.searchParams);
+  refuseUnstorable(value);
+  const parsed = schema.safeParse(value);
+  if (!parsed.success) throw notFound('Not found', zodToHttp(parsed.error).field);
+  return parsed.data;
+}
+
+/** A multipart form's fields validated by `schema` (400 naming the field). */
+export function parseForm<T>(form: FormData, schema: ZodType<T>): T {
+  const fields: Record<string, FormDataEntryValue> = {};
+  for (const [k, v] of form) if (!(k in fields)) fields[k] = v;
+  const parsed = schema.safeParse(fields);
+  if (!parsed.success) throw zodToHttp(parsed.error);
+  return parsed.data;
+}
+
 export function requireActor(ctx: Pick<APIContext, 'locals'>, roles?: readonly Role[]): Actor {
   const actor = ctx.locals.actor;
   if (!actor) throw new HttpError(401, 'Sign in first.');

@@ -1,4 +1,4 @@
-import { parseParams, readJson, requireActor, route } from '../../lib/server/http';
+import { parseParams, readJson, requireActor, route, routeInputs } from '../../lib/server/http';
 import {
   listStartingValues,
   putStartingValues,
@@ -6,6 +6,9 @@ import {
   startingValuesQuerySchema,
   startingValuesSchema,
 } from '../../lib/server/services/starting-values';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ PUT: { body: startingValuesSchema } });
 
 /** The starting values for the rest of the machine of the dealer that serves the caller. */
 export const GET = route(async (ctx) => {
@@ -17,6 +20,6 @@ export const GET = route(async (ctx) => {
 /** Sets the caller's dealer's starting values for one machine family and crop (mm and rpm). */
 export const PUT = route(async (ctx) => {
   const actor = requireActor(ctx, STARTING_VALUE_EDITORS);
-  const input = await readJson(ctx.request, startingValuesSchema);
+  const input = await readJson(ctx.request, inputs.PUT.body);
   return putStartingValues(actor, input);
 });

@@ -1,10 +1,11 @@
 import { and, count, eq, inArray } from 'drizzle-orm';
 import sharp from 'sharp';
+import { z, type ZodType } from 'zod';
 import { getDb, type Db } from '../db';
 import { inspectionItems, inspections, photos } from '../../../db/schema';
 import type { Actor } from '../access';
 import { audit } from '../audit';
-import { HttpError, notFound } from '../http';
+import { HttpError, notFound, parseForm } from '../http';
 import { IMAGE_EXTENSION, sniffImageType, type ImageType } from '../image-sniff';
 import { storage, type ObjectStorage } from '../storage';
 import { BodyTooLarge, readCapped } from '../body';
@@ -39,6 +40,13 @@ const tooManyPixels = (w: number, h: number, max: number) =>
     maxPixels: max,
   });
 
+/** The fields of a photo upload: the picture itself, as a file, in a field named "photo". */
+export const photoUploadSchema = z.object({
+  photo: z
+    .instanceof(Blob, { error: 'attach the picture in a field named "photo".' })
+    .refine((file) => file.size > 0, 'the file is empty.'),
+});
+
 export interface UploadedPhoto {
   bytes: Uint8Array;
   type: ImageType;
@@ -52,7 +60,7 @@ export interface UploadedPhoto {
  * The type comes from the file's bytes; the size in pixels from the image's header, before
  * anything is decoded; then the image is decoded and re-encoded without metadata.
  */
-export async function readPhotoUpload(request: Request): Promise<UploadedPhoto> {
+export async function readPhotoUpload(request: Request, schema: ZodType<{ photo: Blob }> = photoUploadSchema): Promise<UploadedPhoto> {
   const type = request.headers.get('content-type') ?? '';
   if (!/^multipart\/form-data;\s*boundary=/i.test(type)) {
     throw new HttpError(415, 'Send the photo as multipart/form-data in a field named "photo".', 'content-type');
@@ -71,9 +79,7 @@ export async function readPhotoUpload(request: Request): Promise<UploadedPhoto> 
   } catch {
     throw new HttpError(400, 'The upload could not be read as multipart/form-data.', 'body');
   }
-  const file = form.get('photo');
-  if (!(file instanceof Blob)) throw new HttpError(400, 'photo: attach the picture in a field named "photo".', 'photo');
-  if (file.size === 0) throw new HttpError(400, 'photo: the file is empty.', 'photo');
+  const { photo: file } = parseForm(form, schema);
   if (file.size > MAX_PHOTO_BYTES) throw tooLarge();
   const bytes = new Uint8Array(await file.arrayBuffer());
   return checkedPhoto(bytes);

@@ -4,7 +4,7 @@ import { join } from 'node:path';
 import type { APIContext } from 'astro';
 import { dataDir, store } from '../../../lib/server/db';
 import { INSTANCE_ADMINS } from '../../../lib/server/access';
-import { errorResponse, HttpError, requireActor, route } from '../../../lib/server/http';
+import { errorResponse, HttpError, requireActor, route, routeInputs, refuseBody } from '../../../lib/server/http';
 import { withoutSecrets } from '../../../../scripts/lib/backup-archive.mjs';
 
 /**
@@ -39,8 +39,12 @@ function localTokenMatches(ctx: APIContext): boolean {
   return expected.length >= 32 && a.length === b.length && timingSafeEqual(a, b);
 }
 
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ POST: {} });
+
 export const POST = route(async (ctx) => {
   if (!localTokenMatches(ctx)) requireActor(ctx, INSTANCE_ADMINS);
+  await refuseBody(ctx.request);
   const s = await store();
   if (!s.dump) throw new HttpError(501, 'The server uses a PostgreSQL server: back it up with pg_dump (npm run backup does).');
   const blob = await s.dump();

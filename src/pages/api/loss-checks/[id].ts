@@ -1,5 +1,8 @@
-import { parseId, requireActor, route } from '../../../lib/server/http';
+import { parseId, requireActor, route, routeInputs, refuseBody } from '../../../lib/server/http';
 import { deleteLossCheck, getLossCheck, LOSS_CHECK_WRITERS } from '../../../lib/server/services/field-checks';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ DELETE: {} });
 
 /** One loss check: what was counted, what it came to, and the settings of the moment. */
 export const GET = route(async (ctx) => {
@@ -10,5 +13,6 @@ export const GET = route(async (ctx) => {
 /** Removes a check recorded by mistake (audited). */
 export const DELETE = route(async (ctx) => {
   const actor = requireActor(ctx, LOSS_CHECK_WRITERS);
+  await refuseBody(ctx.request);
   return deleteLossCheck(actor, parseId(ctx.params.id));
 });

@@ -1,4 +1,4 @@
-import { json, parseParams, readJson, requireActor, route } from '../../../lib/server/http';
+import { json, parseParams, readJson, requireActor, route, routeInputs } from '../../../lib/server/http';
 import {
   createMachine,
   createMachineSchema,
@@ -6,6 +6,9 @@ import {
   MACHINE_WRITERS,
   machineListQuerySchema,
 } from '../../../lib/server/services/machines';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ POST: { body: createMachineSchema } });
 
 /** One page of machines: ?page=1&pageSize=20&sort=-updatedAt&q=creek&orgId=&familyId= */
 export const GET = route(async (ctx) => {
@@ -16,6 +19,6 @@ export const GET = route(async (ctx) => {
 
 export const POST = route(async (ctx) => {
   const actor = requireActor(ctx, MACHINE_WRITERS);
-  const input = await readJson(ctx.request, createMachineSchema);
+  const input = await readJson(ctx.request, inputs.POST.body);
   return json({ machine: await createMachine(actor, input) }, 201);
 });

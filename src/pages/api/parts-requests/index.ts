@@ -1,4 +1,4 @@
-import { json, parseParams, readJson, requireActor, route } from '../../../lib/server/http';
+import { json, parseParams, readJson, requireActor, route, routeInputs } from '../../../lib/server/http';
 import {
   createPartsRequest,
   createPartsRequestSchema,
@@ -6,6 +6,9 @@ import {
   listQuerySchema,
   PARTS_WRITERS,
 } from '../../../lib/server/services/parts-requests';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ POST: { body: createPartsRequestSchema } });
 
 /** The requests the user may see: their organisations' and, for dealer staff, those sent to the dealer. */
 export const GET = route(async (ctx) => {
@@ -17,6 +20,6 @@ export const GET = route(async (ctx) => {
 /** A draft from a plan ({ from: 'plan', machineId, crop }), a layout ({ from: 'layout', layoutId }) or lines ({ from: 'manual', machineId, lines }). */
 export const POST = route(async (ctx) => {
   const actor = requireActor(ctx, PARTS_WRITERS);
-  const input = await readJson(ctx.request, createPartsRequestSchema);
+  const input = await readJson(ctx.request, inputs.POST.body);
   return json(await createPartsRequest(actor, input), 201);
 });

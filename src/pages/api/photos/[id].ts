@@ -1,6 +1,9 @@
-import { parseId, requireActor, route } from '../../../lib/server/http';
+import { parseId, requireActor, route, routeInputs, refuseBody } from '../../../lib/server/http';
 import { INSPECTION_WRITERS } from '../../../lib/server/services/inspections';
 import { deletePhoto, photoResponse } from '../../../lib/server/services/photos';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ DELETE: {} });
 
 /** The photo itself (`?thumb=1` for the thumbnail), only to those who may see its inspection. */
 export const GET = route(async (ctx) => {
@@ -12,5 +15,6 @@ export const GET = route(async (ctx) => {
 /** Removes a photo from an open inspection. */
 export const DELETE = route(async (ctx) => {
   const actor = requireActor(ctx, INSPECTION_WRITERS);
+  await refuseBody(ctx.request);
   return deletePhoto(actor, parseId(ctx.params.id));
 });

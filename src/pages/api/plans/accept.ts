@@ -1,6 +1,9 @@
-import { json, readJson, requireActor, route } from '../../../lib/server/http';
+import { json, readJson, requireActor, route, routeInputs } from '../../../lib/server/http';
 import { LAYOUT_WRITERS } from '../../../lib/server/services/layouts';
 import { acceptPlan, acceptPlanSchema, editorUrl } from '../../../lib/server/services/planner';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ POST: { body: acceptPlanSchema } });
 
 /**
  * Accept a proposal: its layout becomes a new layout of the machine, or a new version of one
@@ -8,7 +11,7 @@ import { acceptPlan, acceptPlanSchema, editorUrl } from '../../../lib/server/ser
  */
 export const POST = route(async (ctx) => {
   const actor = requireActor(ctx, LAYOUT_WRITERS);
-  const input = await readJson(ctx.request, acceptPlanSchema);
+  const input = await readJson(ctx.request, inputs.POST.body);
   const r = await acceptPlan(actor, input);
   return json(
     {

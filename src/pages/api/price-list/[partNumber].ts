@@ -1,5 +1,5 @@
 import { partNumberSchema } from '../../../lib/domain/schemas';
-import { notFound, readJson, requireActor, route } from '../../../lib/server/http';
+import { notFound, readJson, requireActor, route, routeInputs, refuseBody } from '../../../lib/server/http';
 import { clearDealerPrice, PRICE_WRITERS, setDealerPrice, setPriceSchema } from '../../../lib/server/services/prices';
 
 function partNumber(raw: string | undefined): string {
@@ -8,16 +8,20 @@ function partNumber(raw: string | undefined): string {
   return parsed.data;
 }
 
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ PUT: { body: setPriceSchema }, DELETE: {} });
+
 /** `{ priceCents }`: the caller's dealer's price for this part. */
 export const PUT = route(async (ctx) => {
   const actor = requireActor(ctx, PRICE_WRITERS);
   const pn = partNumber(ctx.params.partNumber);
-  const { priceCents } = await readJson(ctx.request, setPriceSchema);
+  const { priceCents } = await readJson(ctx.request, inputs.PUT.body);
   return setDealerPrice(actor, pn, priceCents);
 });
 
 /** Drops the dealer's own price: the catalog's list price applies again. */
 export const DELETE = route(async (ctx) => {
   const actor = requireActor(ctx, PRICE_WRITERS);
+  await refuseBody(ctx.request);
   return clearDealerPrice(actor, partNumber(ctx.params.partNumber));
 });

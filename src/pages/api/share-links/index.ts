@@ -1,4 +1,4 @@
-import { json, parseParams, readJson, requireActor, route } from '../../../lib/server/http';
+import { json, parseParams, readJson, requireActor, route, routeInputs } from '../../../lib/server/http';
 import {
   createShareLink,
   createShareSchema,
@@ -6,6 +6,9 @@ import {
   SHARE_WRITERS,
   shareListQuerySchema,
 } from '../../../lib/server/services/sharing';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ POST: { body: createShareSchema } });
 
 /** Share links of the layouts the user may see (?layoutId=&status=active|all). Tokens are never listed. */
 export const GET = route(async (ctx) => {
@@ -17,7 +20,7 @@ export const GET = route(async (ctx) => {
 /** A new read-only link to a saved version. The token is in this response only; the store keeps its hash. */
 export const POST = route(async (ctx) => {
   const actor = requireActor(ctx, SHARE_WRITERS);
-  const input = await readJson(ctx.request, createShareSchema);
+  const input = await readJson(ctx.request, inputs.POST.body);
   const created = await createShareLink(actor, input);
   return json({ ...created, url: new URL(created.path, ctx.url.origin).toString() }, 201);
 });

@@ -1,5 +1,5 @@
 import { machineFamilySchema, slugSchema } from '../../../../lib/domain/schemas';
-import { notFound, readJson, requireActor, route } from '../../../../lib/server/http';
+import { notFound, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
 import { CATALOG_WRITERS, getFamily, updateFamily } from '../../../../lib/server/services/catalog';
 
 function familyId(raw: string | undefined): string {
@@ -7,6 +7,9 @@ function familyId(raw: string | undefined): string {
   if (!parsed.success) throw notFound('Machine family not found', 'id');
   return parsed.data;
 }
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ PUT: { body: machineFamilySchema } });
 
 export const GET = route(async (ctx) => {
   requireActor(ctx);
@@ -17,6 +20,6 @@ export const GET = route(async (ctx) => {
 export const PUT = route(async (ctx) => {
   const actor = requireActor(ctx, CATALOG_WRITERS);
   const id = familyId(ctx.params.id);
-  const spec = await readJson(ctx.request, machineFamilySchema);
+  const spec = await readJson(ctx.request, inputs.PUT.body);
   return { family: await updateFamily(actor, id, spec) };
 });

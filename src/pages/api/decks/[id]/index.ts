@@ -1,5 +1,8 @@
-import { parseId, readJson, requireActor, route } from '../../../../lib/server/http';
+import { parseId, readJson, requireActor, route, routeInputs, refuseBody } from '../../../../lib/server/http';
 import { DECK_ROLES, deleteDeck, getDeck, updateDeck, updateDeckSchema } from '../../../../lib/server/services/decks';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ PATCH: { body: updateDeckSchema }, DELETE: {} });
 
 /** The deck with its slides in order (talking points as markdown and as safe HTML). */
 export const GET = route(async (ctx) => getDeck(requireActor(ctx, DECK_ROLES), parseId(ctx.params.id)));
@@ -7,11 +10,12 @@ export const GET = route(async (ctx) => getDeck(requireActor(ctx, DECK_ROLES), p
 export const PATCH = route(async (ctx) => {
   const actor = requireActor(ctx, DECK_ROLES);
   const id = parseId(ctx.params.id);
-  const input = await readJson(ctx.request, updateDeckSchema);
+  const input = await readJson(ctx.request, inputs.PATCH.body);
   return { deck: await updateDeck(actor, id, input) };
 });
 
 export const DELETE = route(async (ctx) => {
   const actor = requireActor(ctx, DECK_ROLES);
+  await refuseBody(ctx.request);
   return deleteDeck(actor, parseId(ctx.params.id));
 });

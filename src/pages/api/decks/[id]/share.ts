@@ -1,5 +1,13 @@
-import { json, parseId, readJson, requireActor, route } from '../../../../lib/server/http';
+import { z } from 'zod';
+import { idParam, json, parseId, readIdQuery, readJson, refuseBody, requireActor, route, routeInputs } from '../../../../lib/server/http';
 import { createDeckShare, createDeckShareSchema, DECK_ROLES, listDeckShares, revokeDeckShare } from '../../../../lib/server/services/decks';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({
+  POST: { body: createDeckShareSchema },
+  /** `?link=<id>` names one link; without it every active link of the deck goes. */
+  DELETE: { query: z.object({ link: idParam.optional() }) },
+});
 
 /** The deck's read-only links (never their tokens: only hashes are kept). */
 export const GET = route(async (ctx) => listDeckShares(requireActor(ctx, DECK_ROLES), parseId(ctx.params.id)));
@@ -8,7 +16,7 @@ export const GET = route(async (ctx) => listDeckShares(requireActor(ctx, DECK_RO
 export const POST = route(async (ctx) => {
   const actor = requireActor(ctx, DECK_ROLES);
   const id = parseId(ctx.params.id);
-  const input = await readJson(ctx.request, createDeckShareSchema);
+  const input = await readJson(ctx.request, inputs.POST.body);
   return json(await createDeckShare(actor, id, input), 201);
 });
 
@@ -16,6 +24,7 @@ export const POST = route(async (ctx) => {
 export const DELETE = route(async (ctx) => {
   const actor = requireActor(ctx, DECK_ROLES);
   const id = parseId(ctx.params.id);
-  const link = ctx.url.searchParams.get('link');
-  return revokeDeckShare(actor, id, link === null ? null : parseId(link, 'link'));
+  await refuseBody(ctx.request);
+  const { link } = readIdQuery(ctx.url, inputs.DELETE.query);
+  return revokeDeckShare(actor, id, link ?? null);
 });

@@ -1,5 +1,8 @@
-import { readJson, requireActor, route, parseId, json } from '../../../../lib/server/http';
+import { readJson, requireActor, route, parseId, json, routeInputs } from '../../../../lib/server/http';
 import { layoutWithCurrent, LAYOUT_WRITERS, saveVersion, saveVersionSchema } from '../../../../lib/server/services/layouts';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ PUT: { body: saveVersionSchema } });
 
 /** The layout with its current version. */
 export const GET = route(async (ctx) => {
@@ -11,7 +14,7 @@ export const GET = route(async (ctx) => {
 export const PUT = route(async (ctx) => {
   const actor = requireActor(ctx, LAYOUT_WRITERS);
   const id = parseId(ctx.params.id);
-  const input = await readJson(ctx.request, saveVersionSchema);
+  const input = await readJson(ctx.request, inputs.PUT.body);
   const version = await saveVersion(actor, id, input);
   return json({ version }, 201);
 });

@@ -1,6 +1,9 @@
-import { parseId, readJson, requireActor, route } from '../../../../lib/server/http';
+import { parseId, readJson, requireActor, route, routeInputs, refuseBody } from '../../../../lib/server/http';
 import { deleteMachine, MACHINE_WRITERS, updateMachine, updateMachineSchema } from '../../../../lib/server/services/machines';
 import { machineOverview } from '../../../../lib/server/services/installed';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ PUT: { body: updateMachineSchema }, DELETE: {} });
 
 /** The machine with its family, what is installed now (with findings) and its layouts. */
 export const GET = route(async (ctx) => {
@@ -21,11 +24,12 @@ export const GET = route(async (ctx) => {
 export const PUT = route(async (ctx) => {
   const actor = requireActor(ctx, MACHINE_WRITERS);
   const id = parseId(ctx.params.id);
-  const input = await readJson(ctx.request, updateMachineSchema);
+  const input = await readJson(ctx.request, inputs.PUT.body);
   return { machine: await updateMachine(actor, id, input) };
 });
 
 export const DELETE = route(async (ctx) => {
   const actor = requireActor(ctx, MACHINE_WRITERS);
+  await refuseBody(ctx.request);
   return deleteMachine(actor, parseId(ctx.params.id));
 });

@@ -1,11 +1,14 @@
 import { z } from 'zod';
-import { json, parseId, parseParams, readJson, requireActor, route } from '../../../../lib/server/http';
+import { json, parseId, parseParams, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
 import { INSPECTION_WRITERS, listInspectionsForMachine, startInspection, startInspectionSchema } from '../../../../lib/server/services/inspections';
 
 const pageQuery = z.object({
   page: z.coerce.number().int().min(1).max(100_000).default(1),
   pageSize: z.coerce.number().int().min(1).max(100).default(50),
 });
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ POST: { body: startInspectionSchema } });
 
 /** The machine's inspection history, newest first. */
 export const GET = route(async (ctx) => {
@@ -19,6 +22,6 @@ export const GET = route(async (ctx) => {
 export const POST = route(async (ctx) => {
   const actor = requireActor(ctx, INSPECTION_WRITERS);
   const id = parseId(ctx.params.id);
-  const input = await readJson(ctx.request, startInspectionSchema);
+  const input = await readJson(ctx.request, inputs.POST.body);
   return json(await startInspection(actor, id, input), 201);
 });

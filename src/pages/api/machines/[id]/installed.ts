@@ -1,6 +1,9 @@
-import { parseId, readJson, requireActor, route } from '../../../../lib/server/http';
+import { parseId, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
 import { MACHINE_WRITERS } from '../../../../lib/server/services/machines';
 import { getInstalled, putInstalled, putInstalledSchema } from '../../../../lib/server/services/installed';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ PUT: { body: putInstalledSchema } });
 
 /** What is bolted in the machine now, with the rules' findings on it. */
 export const GET = route(async (ctx) => getInstalled(requireActor(ctx), parseId(ctx.params.id)));
@@ -9,6 +12,6 @@ export const GET = route(async (ctx) => getInstalled(requireActor(ctx), parseId(
 export const PUT = route(async (ctx) => {
   const actor = requireActor(ctx, MACHINE_WRITERS);
   const id = parseId(ctx.params.id);
-  const input = await readJson(ctx.request, putInstalledSchema);
+  const input = await readJson(ctx.request, inputs.PUT.body);
   return putInstalled(actor, id, input);
 });

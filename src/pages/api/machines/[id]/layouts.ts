@@ -1,5 +1,8 @@
-import { json, readJson, requireActor, route, parseId, parseParams } from '../../../../lib/server/http';
+import { json, readJson, requireActor, route, parseId, parseParams, routeInputs } from '../../../../lib/server/http';
 import { createLayout, createLayoutSchema, LAYOUT_WRITERS, layoutListQuerySchema, listLayoutsForMachine } from '../../../../lib/server/services/layouts';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ POST: { body: createLayoutSchema } });
 
 /** A machine's layouts a page at a time (?page=1&pageSize=50, at most 200), most recently changed first, with the total. */
 export const GET = route(async (ctx) => {
@@ -11,6 +14,6 @@ export const GET = route(async (ctx) => {
 export const POST = route(async (ctx) => {
   const actor = requireActor(ctx, LAYOUT_WRITERS);
   const id = parseId(ctx.params.id);
-  const input = await readJson(ctx.request, createLayoutSchema);
+  const input = await readJson(ctx.request, inputs.POST.body);
   return json(await createLayout(actor, id, input), 201);
 });

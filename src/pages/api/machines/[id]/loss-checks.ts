@@ -1,4 +1,4 @@
-import { json, parseId, parseParams, readJson, requireActor, route } from '../../../../lib/server/http';
+import { json, parseId, parseParams, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
 import {
   LOSS_CHECK_WRITERS,
   recordLossCheck,
@@ -7,6 +7,9 @@ import {
   seasonLog,
   seasonQuerySchema,
 } from '../../../../lib/server/services/field-checks';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ POST: { body: recordLossCheckSchema } });
 
 /** The machine's loss checks of one season (`?season=2026`, latest by default); `?format=csv` downloads them. */
 export const GET = route(async (ctx) => {
@@ -31,6 +34,6 @@ export const GET = route(async (ctx) => {
 export const POST = route(async (ctx) => {
   const actor = requireActor(ctx, LOSS_CHECK_WRITERS);
   const id = parseId(ctx.params.id);
-  const input = await readJson(ctx.request, recordLossCheckSchema);
+  const input = await readJson(ctx.request, inputs.POST.body);
   return json(await recordLossCheck(actor, id, input), 201);
 });

@@ -1,4 +1,4 @@
-import { parseId, parseParams, readJson, requireActor, route } from '../../../../lib/server/http';
+import { parseId, parseParams, readJson, requireActor, route, routeInputs, refuseBody } from '../../../../lib/server/http';
 import { z } from 'zod';
 import {
   csvFileName,
@@ -11,6 +11,9 @@ import {
 } from '../../../../lib/server/services/parts-requests';
 
 const formatSchema = z.object({ format: z.enum(['json', 'csv']).default('json') });
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ PUT: { body: updatePartsRequestSchema }, DELETE: {} });
 
 /** The request with its lines and totals; `?format=csv` downloads it as a CSV file. */
 export const GET = route(async (ctx) => {
@@ -34,11 +37,12 @@ export const GET = route(async (ctx) => {
 export const PUT = route(async (ctx) => {
   const actor = requireActor(ctx, PARTS_WRITERS);
   const id = parseId(ctx.params.id);
-  const input = await readJson(ctx.request, updatePartsRequestSchema);
+  const input = await readJson(ctx.request, inputs.PUT.body);
   return updatePartsRequest(actor, id, input);
 });
 
 export const DELETE = route(async (ctx) => {
   const actor = requireActor(ctx, PARTS_WRITERS);
+  await refuseBody(ctx.request);
   return deletePartsRequest(actor, parseId(ctx.params.id));
 });

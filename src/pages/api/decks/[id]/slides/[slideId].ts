@@ -1,5 +1,8 @@
-import { parseId, readJson, requireActor, route } from '../../../../../lib/server/http';
+import { parseId, readJson, requireActor, route, routeInputs, refuseBody } from '../../../../../lib/server/http';
 import { DECK_ROLES, deleteSlide, getSlide, updateSlide, updateSlideSchema } from '../../../../../lib/server/services/decks';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ PATCH: { body: updateSlideSchema }, DELETE: {} });
 
 export const GET = route(async (ctx) => {
   const actor = requireActor(ctx, DECK_ROLES);
@@ -11,11 +14,12 @@ export const PATCH = route(async (ctx) => {
   const actor = requireActor(ctx, DECK_ROLES);
   const id = parseId(ctx.params.id);
   const slideId = parseId(ctx.params.slideId, 'slideId');
-  const input = await readJson(ctx.request, updateSlideSchema);
+  const input = await readJson(ctx.request, inputs.PATCH.body);
   return { slide: await updateSlide(actor, id, slideId, input) };
 });
 
 export const DELETE = route(async (ctx) => {
   const actor = requireActor(ctx, DECK_ROLES);
+  await refuseBody(ctx.request);
   return deleteSlide(actor, parseId(ctx.params.id), parseId(ctx.params.slideId, 'slideId'));
 });

@@ -1,5 +1,8 @@
-import { json, parseId, readJson, requireActor, route } from '../../../../../lib/server/http';
+import { json, parseId, readJson, requireActor, route, routeInputs } from '../../../../../lib/server/http';
 import { addSlide, addSlideSchema, DECK_ROLES, getDeck, reorderSlides, reorderSlidesSchema } from '../../../../../lib/server/services/decks';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ POST: { body: addSlideSchema }, PUT: { body: reorderSlidesSchema } });
 
 export const GET = route(async (ctx) => {
   const { slides } = await getDeck(requireActor(ctx, DECK_ROLES), parseId(ctx.params.id));
@@ -10,7 +13,7 @@ export const GET = route(async (ctx) => {
 export const POST = route(async (ctx) => {
   const actor = requireActor(ctx, DECK_ROLES);
   const id = parseId(ctx.params.id);
-  const input = await readJson(ctx.request, addSlideSchema);
+  const input = await readJson(ctx.request, inputs.POST.body);
   return json({ slide: await addSlide(actor, id, input) }, 201);
 });
 
@@ -18,6 +21,6 @@ export const POST = route(async (ctx) => {
 export const PUT = route(async (ctx) => {
   const actor = requireActor(ctx, DECK_ROLES);
   const id = parseId(ctx.params.id);
-  const input = await readJson(ctx.request, reorderSlidesSchema);
+  const input = await readJson(ctx.request, inputs.PUT.body);
   return reorderSlides(actor, id, input);
 });

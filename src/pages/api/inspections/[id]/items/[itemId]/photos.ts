@@ -1,6 +1,9 @@
-import { json, parseId, requireActor, route } from '../../../../../../lib/server/http';
+import { json, parseId, requireActor, route, routeInputs } from '../../../../../../lib/server/http';
 import { INSPECTION_WRITERS } from '../../../../../../lib/server/services/inspections';
-import { addPhoto, photoTarget, readPhotoUpload } from '../../../../../../lib/server/services/photos';
+import { addPhoto, photoTarget, photoUploadSchema, readPhotoUpload } from '../../../../../../lib/server/services/photos';
+
+/** What each write handler reads (see RouteInputs in lib/server/http). */
+export const inputs = routeInputs({ POST: { multipart: photoUploadSchema } });
 
 /**
  * Attaches a photo to a line: multipart/form-data with the picture in a field named "photo".
@@ -12,6 +15,6 @@ export const POST = route(async (ctx) => {
   const itemId = parseId(ctx.params.itemId, 'itemId');
   // Another organisation's line is not found whatever was sent; only then is the body read.
   await photoTarget(actor, id, itemId);
-  const upload = await readPhotoUpload(ctx.request);
+  const upload = await readPhotoUpload(ctx.request, inputs.POST.multipart);
   return json(await addPhoto(actor, id, itemId, upload), 201);
 });
