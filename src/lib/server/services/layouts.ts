@@ -11,9 +11,6 @@ import { audit } from '../audit';
 import { HttpError, notFound, whenNotFound } from '../http';
 import { catalogForFamily, machineForActor } from './machines';
 
-/** Who may change layouts. Trainers read them (for class) but do not change customers' plans. */
-export const LAYOUT_WRITERS = ['operator', 'technician', 'dealer_admin'] as const;
-
 export const createLayoutSchema = z.object({
   name: z.string().trim().min(1).max(120),
   /** The layout itself; without one, `crop` names the crop to start a suggested layout for. */

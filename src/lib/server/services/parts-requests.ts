@@ -35,14 +35,10 @@ import { getVersion, getLayout } from './layouts';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
 import { mailDeadlineMs, sendMail } from './mail';
 import { proposePlan, requirePlan, shelfOf } from './planner';
+import { can, rolesFor } from '../access';
 
 export type PartsRequestStatus = (typeof partsRequestStatuses)[number];
 export type PartsRequestSource = 'plan' | 'layout' | 'inspection' | 'manual';
-
-/** Who may make, edit, delete and submit requests. */
-export const PARTS_WRITERS = ['operator', 'technician', 'dealer_admin'] as const;
-/** Who moves a sent request through the parts desk's statuses (staff of the dealer it went to). */
-export const DESK_ROLES = ['technician', 'dealer_admin'] as const;
 
 export const NEXT_STATUS: Partial<Record<PartsRequestStatus, PartsRequestStatus>> = {
   sent: 'acknowledged',
@@ -155,9 +151,9 @@ async function rowForActor(actor: Actor, id: string, db?: Db): Promise<Row> {
 }
 
 function permissions(actor: Actor, row: Pick<Row, 'status' | 'orgId' | 'dealerOrgId'>) {
-  const writer = (PARTS_WRITERS as readonly string[]).includes(actor.role) && actor.visibleOrgIds.includes(row.orgId);
+  const writer = can(actor, 'parts.request') && actor.visibleOrgIds.includes(row.orgId);
   const draft = row.status === 'draft';
-  const desk = (DESK_ROLES as readonly string[]).includes(actor.role) && !!row.dealerOrgId && actor.memberOrgIds.includes(row.dealerOrgId);
+  const desk = can(actor, 'parts.desk') && !!row.dealerOrgId && actor.memberOrgIds.includes(row.dealerOrgId);
   return {
     edit: writer && draft,
     submit: writer && draft,
@@ -379,7 +375,7 @@ export async function addLinesToDraftRequest(
   noteText = '',
 ): Promise<PartsRequestView> {
   const ctx = await machineForActor(actor, machineId);
-  if (!(PARTS_WRITERS as readonly string[]).includes(actor.role)) throw new HttpError(403, `This needs one of these roles: ${PARTS_WRITERS.join(', ')}.`);
+  if (!can(actor, 'parts.request')) throw new HttpError(403, `This needs one of these roles: ${rolesFor('parts.request').join(', ')}.`);
   const added = linesFromInput(lines, await catalogForFamily(ctx.family.id, undefined, ctx.machine.orgId), 'lines', ctx.family.name);
   if (!added.length) throw new HttpError(400, 'lines: give at least one part with a quantity', 'lines');
   const db = await getDb();
@@ -415,7 +411,7 @@ function assertDraft(row: Row, what: string) {
 }
 
 function assertWriter(actor: Actor) {
-  if (!(PARTS_WRITERS as readonly string[]).includes(actor.role)) throw new HttpError(403, `This needs one of these roles: ${PARTS_WRITERS.join(', ')}.`);
+  if (!can(actor, 'parts.request')) throw new HttpError(403, `This needs one of these roles: ${rolesFor('parts.request').join(', ')}.`);
 }
 
 /** The catalog a request's lines are checked against: its machine's family. */
@@ -633,7 +629,7 @@ export async function recoverStuckSends(db: Db, opts: { olderThanMs?: number } =
 export async function advancePartsRequest(actor: Actor, id: string, status: PartsRequestStatus, origin: string) {
   const db = await getDb();
   const row = await rowForActor(actor, id, db);
-  if (!row.dealerOrgId || !actor.memberOrgIds.includes(row.dealerOrgId) || !(DESK_ROLES as readonly string[]).includes(actor.role))
+  if (!row.dealerOrgId || !actor.memberOrgIds.includes(row.dealerOrgId) || !can(actor, 'parts.desk'))
     throw new HttpError(403, 'Only the parts desk of the dealer the request went to moves its status.');
   if (row.status === 'sending')
     throw new HttpError(409, 'This request is still being sent; the parts desk can acknowledge it once the mail server has accepted it.', 'status');

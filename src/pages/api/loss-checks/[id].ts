@@ -1,5 +1,5 @@
 import { parseId, requireActor, route } from '../../../lib/server/http';
-import { deleteLossCheck, getLossCheck, LOSS_CHECK_WRITERS } from '../../../lib/server/services/field-checks';
+import { deleteLossCheck, getLossCheck } from '../../../lib/server/services/field-checks';
 
 /** One loss check: what was counted, what it came to, and the settings of the moment. */
 export const GET = route(async (ctx) => {
@@ -9,6 +9,6 @@ export const GET = route(async (ctx) => {
 
 /** Removes a check recorded by mistake (audited). */
 export const DELETE = route(async (ctx) => {
-  const actor = requireActor(ctx, LOSS_CHECK_WRITERS);
+  const actor = requireActor(ctx, 'lossChecks.write');
   return deleteLossCheck(actor, parseId(ctx.params.id));
 });

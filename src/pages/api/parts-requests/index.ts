@@ -4,8 +4,7 @@ import {
   createPartsRequestSchema,
   listPartsRequests,
   listQuerySchema,
-  PARTS_WRITERS,
-} from '../../../lib/server/services/parts-requests';
+  } from '../../../lib/server/services/parts-requests';
 
 /** The requests the user may see: their organisations' and, for dealer staff, those sent to the dealer. */
 export const GET = route(async (ctx) => {
@@ -16,7 +15,7 @@ export const GET = route(async (ctx) => {
 
 /** A draft from a plan ({ from: 'plan', machineId, crop }), a layout ({ from: 'layout', layoutId }) or lines ({ from: 'manual', machineId, lines }). */
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, PARTS_WRITERS);
+  const actor = requireActor(ctx, 'parts.request');
   const input = await readJson(ctx.request, createPartsRequestSchema);
   return json(await createPartsRequest(actor, input), 201);
 });

@@ -1,5 +1,4 @@
 import { parseId, requireActor, route } from '../../../lib/server/http';
-import { INSPECTION_WRITERS } from '../../../lib/server/services/inspections';
 import { deletePhoto, photoResponse } from '../../../lib/server/services/photos';
 
 /** The photo itself (`?thumb=1` for the thumbnail), only to those who may see its inspection. */
@@ -11,6 +10,6 @@ export const GET = route(async (ctx) => {
 
 /** Removes a photo from an open inspection. */
 export const DELETE = route(async (ctx) => {
-  const actor = requireActor(ctx, INSPECTION_WRITERS);
+  const actor = requireActor(ctx, 'inspections.write');
   return deletePhoto(actor, parseId(ctx.params.id));
 });

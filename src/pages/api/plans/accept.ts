@@ -1,5 +1,4 @@
 import { json, readJson, requireActor, route } from '../../../lib/server/http';
-import { LAYOUT_WRITERS } from '../../../lib/server/services/layouts';
 import { acceptPlan, acceptPlanSchema, editorUrl } from '../../../lib/server/services/planner';
 
 /**
@@ -7,7 +6,7 @@ import { acceptPlan, acceptPlanSchema, editorUrl } from '../../../lib/server/ser
  * (layoutId + baseVersion). 409 when the plan changed since the fingerprint the user saw.
  */
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, LAYOUT_WRITERS);
+  const actor = requireActor(ctx, 'layouts.write');
   const input = await readJson(ctx.request, acceptPlanSchema);
   const r = await acceptPlan(actor, input);
   return json(

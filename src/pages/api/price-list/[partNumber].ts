@@ -1,6 +1,6 @@
 import { partNumberSchema } from '../../../lib/domain/schemas';
 import { notFound, readJson, requireActor, route } from '../../../lib/server/http';
-import { clearDealerPrice, PRICE_WRITERS, setDealerPrice, setPriceSchema } from '../../../lib/server/services/prices';
+import { clearDealerPrice, setDealerPrice, setPriceSchema } from '../../../lib/server/services/prices';
 
 function partNumber(raw: string | undefined): string {
   const parsed = partNumberSchema.safeParse(raw);
@@ -10,7 +10,7 @@ function partNumber(raw: string | undefined): string {
 
 /** `{ priceCents }`: the caller's dealer's price for this part. */
 export const PUT = route(async (ctx) => {
-  const actor = requireActor(ctx, PRICE_WRITERS);
+  const actor = requireActor(ctx, 'prices.write');
   const pn = partNumber(ctx.params.partNumber);
   const { priceCents } = await readJson(ctx.request, setPriceSchema);
   return setDealerPrice(actor, pn, priceCents);
@@ -18,6 +18,6 @@ export const PUT = route(async (ctx) => {
 
 /** Drops the dealer's own price: the catalog's list price applies again. */
 export const DELETE = route(async (ctx) => {
-  const actor = requireActor(ctx, PRICE_WRITERS);
+  const actor = requireActor(ctx, 'prices.write');
   return clearDealerPrice(actor, partNumber(ctx.params.partNumber));
 });

@@ -7,13 +7,9 @@ import type { Actor } from '../../access';
 import { notFound } from '../../http';
 import { renderNotes } from '../../markdown';
 
-/** Who builds, changes and presents decks: the dealer's trainers and technicians. */
-export const DECK_ROLES = ['trainer', 'technician'] as const;
-
 export const MAX_SLIDES = 200;
 
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
-
 
 export type SlideSource =
   | {

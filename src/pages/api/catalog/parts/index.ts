@@ -1,5 +1,5 @@
 import { json, parseParams, readJson, requireActor, route } from '../../../../lib/server/http';
-import { CATALOG_WRITERS, createPart, listParts, partInputSchema, partListQuerySchema } from '../../../../lib/server/services/catalog';
+import { createPart, listParts, partInputSchema, partListQuerySchema } from '../../../../lib/server/services/catalog';
 
 /** Catalog parts (?familyId=&kind=&q=&status=active|retired|all). */
 export const GET = route(async (ctx) => {
@@ -10,7 +10,7 @@ export const GET = route(async (ctx) => {
 
 /** A new part: { familyId, active, part } where part is the catalog part document. */
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, CATALOG_WRITERS);
+  const actor = requireActor(ctx, 'catalog.write');
   const input = await readJson(ctx.request, partInputSchema);
   return json({ part: await createPart(actor, input) }, 201);
 });

@@ -3,7 +3,6 @@ import { parseId, readJson, requireActor, route } from '../../../../lib/server/h
 import {
   finishInspection,
   getInspection,
-  INSPECTION_WRITERS,
   updateInspection,
   updateInspectionSchema,
 } from '../../../../lib/server/services/inspections';
@@ -12,7 +11,7 @@ export const GET = route(async (ctx) => getInspection(requireActor(ctx), parseId
 
 /** Records findings, severities, measurements and notes on some lines (and the title). */
 export const PATCH = route(async (ctx) => {
-  const actor = requireActor(ctx, INSPECTION_WRITERS);
+  const actor = requireActor(ctx, 'inspections.write');
   const id = parseId(ctx.params.id);
   const input = await readJson(ctx.request, updateInspectionSchema);
   return updateInspection(actor, id, input);
@@ -26,7 +25,7 @@ const actionSchema = z.object({
 
 /** { "action": "finish" }: closes the inspection; lines marked replace go to a draft parts request. */
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, INSPECTION_WRITERS);
+  const actor = requireActor(ctx, 'inspections.write');
   const id = parseId(ctx.params.id);
   const input = await readJson(ctx.request, actionSchema);
   return finishInspection(actor, id, { acceptUnevenSurvey: input.acceptUnevenSurvey });

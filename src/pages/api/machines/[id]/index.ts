@@ -1,5 +1,5 @@
 import { parseId, readJson, requireActor, route } from '../../../../lib/server/http';
-import { deleteMachine, MACHINE_WRITERS, updateMachine, updateMachineSchema } from '../../../../lib/server/services/machines';
+import { deleteMachine, updateMachine, updateMachineSchema } from '../../../../lib/server/services/machines';
 import { machineOverview } from '../../../../lib/server/services/installed';
 
 /** The machine with its family, what is installed now (with findings) and its layouts. */
@@ -19,13 +19,13 @@ export const GET = route(async (ctx) => {
 });
 
 export const PUT = route(async (ctx) => {
-  const actor = requireActor(ctx, MACHINE_WRITERS);
+  const actor = requireActor(ctx, 'machines.write');
   const id = parseId(ctx.params.id);
   const input = await readJson(ctx.request, updateMachineSchema);
   return { machine: await updateMachine(actor, id, input) };
 });
 
 export const DELETE = route(async (ctx) => {
-  const actor = requireActor(ctx, MACHINE_WRITERS);
+  const actor = requireActor(ctx, 'machines.write');
   return deleteMachine(actor, parseId(ctx.params.id));
 });

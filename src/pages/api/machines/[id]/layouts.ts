@@ -1,5 +1,5 @@
 import { json, readJson, requireActor, route, parseId, parseParams } from '../../../../lib/server/http';
-import { createLayout, createLayoutSchema, LAYOUT_WRITERS, layoutListQuerySchema, listLayoutsForMachine } from '../../../../lib/server/services/layouts';
+import { createLayout, createLayoutSchema, layoutListQuerySchema, listLayoutsForMachine } from '../../../../lib/server/services/layouts';
 
 /** A machine's layouts a page at a time (?page=1&pageSize=50, at most 200), most recently changed first, with the total. */
 export const GET = route(async (ctx) => {
@@ -9,7 +9,7 @@ export const GET = route(async (ctx) => {
 });
 
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, LAYOUT_WRITERS);
+  const actor = requireActor(ctx, 'layouts.write');
   const id = parseId(ctx.params.id);
   const input = await readJson(ctx.request, createLayoutSchema);
   return json(await createLayout(actor, id, input), 201);

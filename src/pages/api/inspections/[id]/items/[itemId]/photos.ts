@@ -1,5 +1,4 @@
 import { json, parseId, requireActor, route } from '../../../../../../lib/server/http';
-import { INSPECTION_WRITERS } from '../../../../../../lib/server/services/inspections';
 import { addPhoto, photoTarget, readPhotoUpload } from '../../../../../../lib/server/services/photos';
 
 /**
@@ -7,7 +6,7 @@ import { addPhoto, photoTarget, readPhotoUpload } from '../../../../../../lib/se
  * JPEG, PNG or WebP by content, at most 8 MB (413 beyond, 415 for anything else).
  */
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, INSPECTION_WRITERS);
+  const actor = requireActor(ctx, 'inspections.write');
   const id = parseId(ctx.params.id);
   const itemId = parseId(ctx.params.itemId, 'itemId');
   // Another organisation's line is not found whatever was sent; only then is the body read.
