@@ -10,6 +10,7 @@ import type { Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound, whenNotFound } from '../http';
 import { catalogForFamily, machineForActor } from './machines';
+import type { VersionView } from '../../responses';
 
 export const createLayoutSchema = z.object({
   name: z.string().trim().min(1).max(120),
@@ -28,15 +29,7 @@ export const saveVersionSchema = z.object({
 
 export type LayoutRow = typeof layouts.$inferSelect;
 
-export interface VersionView {
-  id: string;
-  version: number;
-  body: Layout;
-  note: string;
-  createdAt: Date;
-  createdBy: string | null;
-  createdByName: string | null;
-}
+export type { VersionView };
 
 function assertFamily(body: Layout, familyId: string) {
   if (body.familyId !== familyId) {

@@ -1,4 +1,7 @@
-/** Parts requests: making, changing and deleting drafts; lines always checked against the machine's catalog. */
+/**
+ * Parts requests: making, changing and deleting drafts; lines always checked against the machine's
+ * catalog.
+ */
 import { and, eq, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, type Db } from '../../db';

@@ -1,4 +1,7 @@
-/** Parts requests: sending to the parts desk through the outbox, and recovering sends a stop left behind. */
+/**
+ * Parts requests: sending to the parts desk through the outbox, and recovering sends a stop left
+ * behind.
+ */
 import { and, eq, or, sql } from 'drizzle-orm';
 import { getDb, type Db } from '../../db';
 import { partsRequests } from '../../../../db/schema';
