@@ -8,6 +8,17 @@ const jsonAnswer = (status: number, body: unknown) => new Response(JSON.stringif
 
 afterEach(() => vi.unstubAllGlobals());
 
+/** The ApiError an answer is refused with (fails the test when it is not refused). */
+async function refusal(res: Response): Promise<ApiError> {
+  try {
+    await answer(res);
+  } catch (err) {
+    expect(err).toBeInstanceOf(ApiError);
+    return err as ApiError;
+  }
+  throw new Error('the answer was not refused');
+}
+
 describe('the islands’ fetch helpers', () => {
   it('give the body of a 2xx answer', async () => {
     expect(await answer<{ a: number }>(jsonAnswer(200, { a: 1 }))).toEqual({ a: 1 });
@@ -15,8 +26,7 @@ describe('the islands’ fetch helpers', () => {
   });
 
   it('turn a refusal into ApiError with the server’s message, the field and the whole error object', async () => {
-    const err = await answer(jsonAnswer(409, { error: { message: 'Saved by someone else.', field: 'baseVersion', currentVersion: 3 } })).catch((e) => e);
-    expect(err).toBeInstanceOf(ApiError);
+    const err = await refusal(jsonAnswer(409, { error: { message: 'Saved by someone else.', field: 'baseVersion', currentVersion: 3 } }));
     expect(err.message).toBe('Saved by someone else.');
     expect(err.status).toBe(409);
     expect(err.field).toBe('baseVersion');
@@ -25,8 +35,7 @@ describe('the islands’ fetch helpers', () => {
 
   it('say what the server answered when a refusal is not JSON or has no message', async () => {
     for (const res of [new Response('<html>gateway</html>', { status: 502 }), jsonAnswer(500, { error: 'plain' }), jsonAnswer(400, [1, 2])]) {
-      const err = await answer(res).catch((e) => e);
-      expect(err).toBeInstanceOf(ApiError);
+      const err = await refusal(res);
       expect(err.message).toBe(`The server answered ${res.status}.`);
       expect(err.field).toBeUndefined();
     }
