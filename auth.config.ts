@@ -2,7 +2,7 @@ import Credentials from '@auth/core/providers/credentials';
 import { defineConfig } from 'auth-astro';
 import { verifyCredentials } from './src/lib/server/auth/credentials';
 import { endSession, sessionIsOpen, SESSION_MAX_AGE_S } from './src/lib/server/auth/sessions';
-import { forgetActors } from './src/lib/server/access';
+import { forgetActors } from './src/lib/server/actors';
 import { getDb } from './src/lib/server/db';
 
 // The secret is read at run time (scripts/start.mjs generates one into the data directory

@@ -2,7 +2,7 @@ import { defineMiddleware, sequence } from 'astro:middleware';
 import { sessionRef } from './lib/server/auth/session';
 import { withClientAddress } from './lib/server/auth/client-address';
 import { store } from './lib/server/db';
-import { actorFor } from './lib/server/access';
+import { actorFor } from './lib/server/actors';
 import { errorResponse, HttpError, refuseUnstorable } from './lib/server/http';
 import { setSecurityHeaders } from './lib/server/security-headers';
 import { DataDirInUseError } from './lib/server/data-dir-lock';

@@ -115,6 +115,18 @@ describe('the shared page', () => {
     expect(gzipSync(inline).length).toBeLessThan(15 * 1024);
   });
 
+  it('explains the drawing with its key: every element pattern and every finding mark', async () => {
+    const { body } = await share(olive);
+    const html = await (await new Client().fetch(body.path)).text();
+    const legend = html.slice(html.indexOf('data-testid="cage-legend"'));
+    expect(legend.length).toBeLessThan(html.length);
+    expect(legend).toContain('Key to the drawing');
+    for (const words of ['solid outline', 'dashed outline', 'dotted outline', 'two rasp bars in line']) expect(legend).toContain(words);
+    // The key's pattern swatches carry ids of their own, never those of the drawings above it.
+    const ids = [...html.matchAll(/<pattern id="([^"]+)"/g)].map((m) => m[1]);
+    expect(new Set(ids).size).toBe(ids.length);
+  });
+
   it('shows the version it was made from, not later saves', async () => {
     const v1 = await share(olive, { version: 1 });
     const v2 = await share(olive, { version: 2 });

@@ -5,7 +5,8 @@
  */
 import { useId, useState } from 'react';
 import { sendJson } from '../shared/api';
-import type { DeckEditorProps, EditorSlide } from './editor-types';
+import type { DeckEditorProps } from './editor-types';
+import type { SlideRecord } from '../../lib/responses';
 import { SharePanel } from './SharePanel';
 import { SlideCard } from './SlideCard';
 import { draftToSource, initialDraft, SourcePicker, type SourceDraft } from './SourcePicker';
@@ -15,7 +16,7 @@ export function DeckEditor(props: DeckEditorProps) {
   const id = useId();
   const [title, setTitle] = useState(deck.title);
   const [savedTitle, setSavedTitle] = useState(deck.title);
-  const [slides, setSlides] = useState<EditorSlide[]>(props.slides);
+  const [slides, setSlides] = useState<SlideRecord[]>(props.slides);
   const [busy, setBusy] = useState(false);
   const [error, setError] = useState<string | null>(null);
   const [announce, setAnnounce] = useState('');
@@ -46,7 +47,7 @@ export function DeckEditor(props: DeckEditorProps) {
 
   const add = () =>
     act(async () => {
-      const r = await sendJson<{ slide: EditorSlide }>('POST', `/api/decks/${deck.id}/slides`, { title: newTitle, notes: newNotes, ...draftToSource(draft) });
+      const r = await sendJson<{ slide: SlideRecord }>('POST', `/api/decks/${deck.id}/slides`, { title: newTitle, notes: newNotes, ...draftToSource(draft) });
       const next = [...slides, r.slide];
       setSlides(next);
       setNewTitle('');
@@ -59,12 +60,12 @@ export function DeckEditor(props: DeckEditorProps) {
       const order = slides.map((s) => s.id);
       const [moved] = order.splice(index, 1);
       order.splice(index + delta, 0, moved!);
-      const r = await sendJson<{ slides: EditorSlide[] }>('PUT', `/api/decks/${deck.id}/slides`, { order });
+      const r = await sendJson<{ slides: SlideRecord[] }>('PUT', `/api/decks/${deck.id}/slides`, { order });
       setSlides(r.slides);
       setAnnounce(`Slide moved to position ${index + delta + 1}.`);
     });
 
-  const remove = (slide: EditorSlide, index: number) => {
+  const remove = (slide: SlideRecord, index: number) => {
     if (!window.confirm(`Delete slide ${index + 1}, “${slide.title}”?`)) return;
     return act(async () => {
       await sendJson('DELETE', `/api/decks/${deck.id}/slides/${slide.id}`);

@@ -1,5 +1,6 @@
 /** Creates a deck and opens it for editing. */
 import { useState, type FormEvent } from 'react';
+import { sendJson } from '../shared/api';
 
 export function NewDeckForm() {
   const [title, setTitle] = useState('');
@@ -10,9 +11,7 @@ export function NewDeckForm() {
     setBusy(true);
     setError(null);
     try {
-      const res = await fetch('/api/decks', { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ title }) });
-      const body = await res.json();
-      if (!res.ok) throw new Error(body?.error?.message ?? 'The deck was not created.');
+      const body = await sendJson<{ deck: { id: string } }>('POST', '/api/decks', { title });
       window.location.assign(`/classroom/${body.deck.id}`);
     } catch (err) {
       setError((err as Error).message);

@@ -3,17 +3,18 @@ import { useId, useMemo, useState } from 'react';
 import { CageDiagram } from '../cage/CageDiagram';
 import { checkLayout } from '../../lib/domain/rules';
 import { sendJson } from '../shared/api';
-import type { DeckEditorProps, EditorSlide } from './editor-types';
+import type { DeckEditorProps } from './editor-types';
+import type { SlideRecord } from '../../lib/responses';
 import { draftToSource, initialDraft, SourcePicker, type SourceDraft } from './SourcePicker';
 import { sourceWords } from './types';
 
 interface Props extends Pick<DeckEditorProps, 'families' | 'catalogs' | 'units' | 'layoutChoices' | 'crops'> {
   deckId: string;
-  slide: EditorSlide;
+  slide: SlideRecord;
   index: number;
   count: number;
   busy: boolean;
-  onChanged: (s: EditorSlide) => void;
+  onChanged: (s: SlideRecord) => void;
   onMove: (delta: -1 | 1) => void;
   onDelete: () => void;
   onError: (message: string) => void;
@@ -37,7 +38,7 @@ export function SlideCard(props: Props) {
     setSaving(true);
     setSavedNote('');
     try {
-      const { slide: updated } = await sendJson<{ slide: EditorSlide }>('PATCH', `/api/decks/${deckId}/slides/${slide.id}`, body);
+      const { slide: updated } = await sendJson<{ slide: SlideRecord }>('PATCH', `/api/decks/${deckId}/slides/${slide.id}`, body);
       onChanged(updated);
       setTitle(updated.title);
       setNotes(updated.notes);

@@ -1,16 +1,7 @@
 import type { CatalogPart, CropId, Layout, MachineFamily } from '../../lib/domain/schemas';
 import type { UnitSystem } from '../../lib/domain/units';
-import type { SlideSource } from './types';
-
-export interface EditorSlide {
-  id: string;
-  position: number;
-  title: string;
-  notes: string;
-  notesHtml: string;
-  source: SlideSource;
-  layout: Layout | null;
-}
+import type { Json, SlideRecord } from '../../lib/responses';
+import type { listDeckShares } from '../../lib/server/services/decks';
 
 export interface LayoutChoice {
   layoutVersionId: string;
@@ -22,19 +13,12 @@ export interface LayoutChoice {
   crop: CropId;
 }
 
-export interface ShareLinkRow {
-  id: string;
-  label: string;
-  createdAt: string;
-  expiresAt: string | null;
-  revokedAt: string | null;
-  createdByName?: string | null;
-  status: 'active' | 'revoked' | 'expired';
-}
+/** One link of a deck as `GET /api/decks/:id/share` answers it. */
+export type ShareLinkRow = Json<Awaited<ReturnType<typeof listDeckShares>>['links'][number]>;
 
 export interface DeckEditorProps {
   deck: { id: string; title: string };
-  slides: EditorSlide[];
+  slides: SlideRecord[];
   layoutChoices: LayoutChoice[];
   families: Record<string, MachineFamily>;
   catalogs: Record<string, CatalogPart[]>;

@@ -2,7 +2,7 @@
 import type { Settings } from '../../lib/domain/compute';
 import type { CatalogPart, Finding, Layout, MachineFamily } from '../../lib/domain/schemas';
 import type { UnitSystem } from '../../lib/domain/units';
-import type { SlideSource } from '../../lib/server/services/decks';
+import type { SlideSource } from '../../lib/responses';
 
 export type { SlideSource };
 

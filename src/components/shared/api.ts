@@ -7,21 +7,35 @@ export class ApiError extends Error {
     message: string,
     readonly status: number,
     readonly field?: string,
+    /** The answer's whole `error` object (a 409 carries what it conflicts with). */
+    readonly detail: Readonly<Record<string, unknown>> = {},
   ) {
     super(message);
   }
 }
 
+const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** The `error` object of a refusal (`{ error: { message, field, … } }`), or an empty one. */
+function errorOf(data: unknown): Record<string, unknown> {
+  return isRecord(data) && isRecord(data.error) ? data.error : {};
+}
+
 /** The body of an answer, or ApiError for a status that is not 2xx. */
 export async function answer<T>(res: Response): Promise<T> {
   const text = await res.text();
-  let data: any = null;
+  let data: unknown = null;
   try {
     data = text ? JSON.parse(text) : null;
   } catch {
     data = null;
   }
-  if (!res.ok) throw new ApiError(data?.error?.message ?? `The server answered ${res.status}.`, res.status, data?.error?.field);
+  if (!res.ok) {
+    const error = errorOf(data);
+    const message = typeof error.message === 'string' ? error.message : `The server answered ${res.status}.`;
+    throw new ApiError(message, res.status, typeof error.field === 'string' ? error.field : undefined, error);
+  }
+  // The caller names the answer's type: the route's, from src/lib/responses.ts where it has one.
   return data as T;
 }
 

@@ -1,27 +1,32 @@
 import type { Role } from '../../db/schema';
+import { can, type Action } from '../../lib/server/access';
 
 export interface NavItem {
   href: string;
   label: string;
-  roles: readonly Role[];
+  /** The action the section is for (`access.ts`); none: everyone signed in. */
+  action?: Action;
 }
 
-/** The app's sections and who sees them. Each page still checks the role on the server. */
-export const NAV: NavItem[] = [
-  { href: '/', label: 'Home', roles: ['operator', 'technician', 'trainer', 'dealer_admin', 'instance_admin'] },
-  { href: '/machines', label: 'Machines', roles: ['operator', 'technician', 'trainer', 'dealer_admin'] },
-  { href: '/planner', label: 'Crop change', roles: ['operator', 'technician'] },
-  { href: '/parts-requests', label: 'Parts requests', roles: ['operator', 'technician', 'dealer_admin'] },
-  { href: '/inspections', label: 'Inspections', roles: ['operator', 'technician'] },
-  { href: '/field-check', label: 'Field check', roles: ['operator', 'technician', 'trainer', 'dealer_admin'] },
-  { href: '/classroom', label: 'Classroom', roles: ['trainer', 'technician'] },
-  { href: '/admin/catalog', label: 'Catalog', roles: ['instance_admin', 'dealer_admin', 'technician'] },
-  { href: '/admin/prices', label: 'Price list', roles: ['dealer_admin', 'technician'] },
-  { href: '/admin/mailbox', label: 'Mailbox', roles: ['dealer_admin', 'instance_admin'] },
-  { href: '/admin/backup', label: 'Backup', roles: ['instance_admin'] },
+/**
+ * The app's sections, each tied to the action it serves; who sees a link follows from the
+ * permission table, never from a list of its own. Each page still checks on the server.
+ */
+export const NAV: readonly NavItem[] = [
+  { href: '/', label: 'Home' },
+  { href: '/machines', label: 'Machines', action: 'fleet.view' },
+  { href: '/planner', label: 'Crop change', action: 'plans.make' },
+  { href: '/parts-requests', label: 'Parts requests', action: 'parts.request' },
+  { href: '/inspections', label: 'Inspections', action: 'inspections.write' },
+  { href: '/field-check', label: 'Field check', action: 'fleet.view' },
+  { href: '/classroom', label: 'Classroom', action: 'decks.use' },
+  { href: '/admin/catalog', label: 'Catalog', action: 'catalog.read' },
+  { href: '/admin/prices', label: 'Price list', action: 'prices.read' },
+  { href: '/admin/mailbox', label: 'Mailbox', action: 'mailbox.read' },
+  { href: '/admin/backup', label: 'Backup', action: 'backup.run' },
 ];
 
-export const navFor = (role: Role) => NAV.filter((item) => item.roles.includes(role));
+export const navFor = (role: Role): NavItem[] => NAV.filter((item) => !item.action || can(role, item.action));
 
 export const ROLE_LABEL: Record<Role, string> = {
   operator: 'Operator',

@@ -1,5 +1,11 @@
-import { sql } from 'drizzle-orm';
-import type { Db, Store } from './db';
+/**
+ * Who may do what: the signed-in person (`Actor`) and one permission table, roles per action.
+ * Routes call `requireActor(ctx, action)`, pages and services `can(actor, action)`, and the top
+ * navigation is derived from the same table (`components/shell/nav.ts`).
+ *
+ * This module has type imports only, so islands and the navigation may read it in the browser;
+ * loading an actor from the store lives in `actors.ts`.
+ */
 import type { Role } from '../../db/schema';
 
 /** The signed-in person as every route sees them: identity, role and what they may see. */
@@ -18,98 +24,71 @@ export interface Actor {
   homeOrgKind: 'farm' | 'dealer' | 'instance';
 }
 
-/**
- * One round trip: the user, their memberships and, for dealer staff, the dealer's farms, but
- * only while the session `sessionId` of that user is open (not ended, not expired): a signed-out
- * or revoked session loads no actor.
- */
-export async function loadActor(db: Db, userId: string, sessionId: string): Promise<Actor | null> {
-  const result = await db.execute(sql`
-    select u.id, u.email, u.name, u.unit_system, m.org_id, m.role, o.kind as org_kind,
-      case when o.kind = 'dealer' and m.role in ('technician', 'trainer', 'dealer_admin')
-        then (select coalesce(array_agg(f.id::text), '{}') from organisations f where f.kind = 'farm' and f.dealer_id = o.id)
-        else '{}'::text[] end as customer_ids
-    from users u
-    join memberships m on m.user_id = u.id
-    join organisations o on o.id = m.org_id
-    join sessions s on s.id = ${sessionId} and s.user_id = u.id and s.ended_at is null and s.expires_at > now()
-    where u.id = ${userId}
-    order by o.kind, o.name`);
-  const rows = result.rows as {
-    id: string; email: string; name: string; unit_system: 'metric' | 'imperial';
-    org_id: string; role: Role; org_kind: 'farm' | 'dealer' | 'instance'; customer_ids: string[];
-  }[];
-  // Dealer memberships sort first ('dealer' < 'farm'), so dealer staff act for the dealer.
-  const home = rows[0];
-  if (!home) return null;
-  const memberOrgIds = rows.map((r) => r.org_id);
-  const customerIds = rows.flatMap((r) => r.customer_ids ?? []);
-  return {
-    id: home.id,
-    email: home.email,
-    name: home.name,
-    role: home.role,
-    unitSystem: home.unit_system,
-    memberOrgIds,
-    visibleOrgIds: [...new Set([...memberOrgIds, ...customerIds])],
-    homeOrgId: home.org_id,
-    homeOrgKind: home.org_kind,
-  };
-}
+export const ALL_ROLES: readonly Role[] = ['operator', 'technician', 'trainer', 'dealer_admin', 'instance_admin'];
+/** Roles a member of a farm or dealer may hold (the instance administrator belongs to no tenant). */
+export const TENANT_ROLES = ['operator', 'technician', 'trainer', 'dealer_admin'] as const satisfies readonly Role[];
+
+/** People who work on machines: record, plan, fit and order for them. */
+const HANDS = ['operator', 'technician', 'dealer_admin'] as const satisfies readonly Role[];
+/** Either administrator; what each sees is scoped in the service (see `isInstanceAdmin`). */
+const ADMINS = ['dealer_admin', 'instance_admin'] as const satisfies readonly Role[];
 
 /**
- * Actors loaded lately, by session id, kept only with the embedded store: then this process is
- * the one owner of the data, and every change to users, memberships, organisations and sessions
- * goes through it and calls `forgetActors()` (services/users.ts, services/orgs.ts, sign-out in
- * auth.config.ts). With a PostgreSQL server
- * other processes may write, so every request reads the store. An entry lives a few seconds at
- * most as a second guard. A load that overlaps a change is not kept (the generation moved on).
+ * The permission table: every action and the roles that may take it. Visibility (which
+ * organisation's rows) is separate: services filter by `actor.visibleOrgIds`.
  */
-const ACTOR_TTL_MS = 3000;
-const ACTOR_CAP = 2000;
-const recentActors = new Map<string, { actor: Actor; at: number }>();
-let actorGeneration = 0;
+const TABLE = {
+  /** The sections about a tenant's machines (machine list, field check); the instance administrator holds none. */
+  'fleet.view': TENANT_ROLES,
+  'machines.write': HANDS,
+  'layouts.write': HANDS,
+  /** Propose and accept crop-change plans (the planner). */
+  'plans.make': HANDS,
+  'shares.write': HANDS,
+  'inspections.write': HANDS,
+  /** Draft, edit and send parts requests (and see the parts-request pages). */
+  'parts.request': HANDS,
+  /** The dealer's parts desk: move a request along its workflow. */
+  'parts.desk': ['technician', 'dealer_admin'],
+  'lossChecks.write': ['operator', 'technician'],
+  /** The classroom: decks, slides, deck links. */
+  'decks.use': ['trainer', 'technician'],
+  /** The catalog pages (the API's catalog reads are open to every signed-in role). */
+  'catalog.read': ['technician', 'dealer_admin', 'instance_admin'],
+  /** The shared machine-family catalog belongs to the installation. */
+  'catalog.write': ['instance_admin'],
+  'prices.read': ['technician', 'dealer_admin'],
+  'prices.write': ['dealer_admin'],
+  'startingValues.write': ['dealer_admin'],
+  /** Add customer farms to the dealer. */
+  'orgs.add': ['dealer_admin'],
+  'users.list': ADMINS,
+  /** Change a person's role or organisation. */
+  'users.edit': ['dealer_admin'],
+  'mailbox.read': ADMINS,
+  'stats.read': ADMINS,
+  /** Backups and restores of the installation. */
+  'backup.run': ['instance_admin'],
+  /** Dealer staff who see the dealer's customer farms (read when an actor is loaded). */
+  'customers.see': ['technician', 'trainer', 'dealer_admin'],
+} as const satisfies Record<string, readonly Role[]>;
 
-/** Drops every kept actor: call after a write to users, memberships, organisations or sessions commits. */
-export function forgetActors(): void {
-  actorGeneration++;
-  recentActors.clear();
-}
+export type Action = keyof typeof TABLE;
+export const PERMISSIONS: Readonly<Record<Action, readonly Role[]>> = TABLE;
+export const ACTIONS = Object.keys(TABLE) as Action[];
 
-/** The actor for an open session, from the store or from the last few seconds (see above). */
-export async function actorFor(store: Pick<Store, 'db' | 'mode'>, userId: string, sessionId: string): Promise<Actor | null> {
-  if (store.mode !== 'pglite') return loadActor(store.db, userId, sessionId);
-  const now = Date.now();
-  const key = `${userId}\u0000${sessionId}`;
-  const kept = recentActors.get(key);
-  if (kept && now - kept.at < ACTOR_TTL_MS) return kept.actor;
-  const generation = actorGeneration;
-  const actor = await loadActor(store.db, userId, sessionId);
-  if (actor && generation === actorGeneration) {
-    if (recentActors.size >= ACTOR_CAP) recentActors.delete(recentActors.keys().next().value!);
-    recentActors.set(key, { actor: freeze(actor), at: now });
-  }
-  return actor;
-}
+/** The roles that may take `action`. */
+export const rolesFor = (action: Action): readonly Role[] => PERMISSIONS[action];
 
-function freeze(actor: Actor): Actor {
-  Object.freeze(actor.memberOrgIds);
-  Object.freeze(actor.visibleOrgIds);
-  return Object.freeze(actor);
+/** Whether `who` (an actor, or a bare role) may take `action`. */
+export function can(who: Pick<Actor, 'role'> | Role, action: Action): boolean {
+  const role = typeof who === 'string' ? who : who.role;
+  return PERMISSIONS[action].includes(role);
 }
 
 export function canSeeOrg(actor: Actor, orgId: string): boolean {
   return actor.visibleOrgIds.includes(orgId);
 }
-
-export const ALL_ROLES: readonly Role[] = ['operator', 'technician', 'trainer', 'dealer_admin', 'instance_admin'];
-
-/** Runs the installation: backups, instance settings, the shared machine-family catalog. */
-export const INSTANCE_ADMINS = ['instance_admin'] as const satisfies readonly Role[];
-/** Runs one dealer: its people, customer farms, price list, stock and mailbox. */
-export const DEALER_ADMINS = ['dealer_admin'] as const satisfies readonly Role[];
-/** Either administrator; what each sees is scoped in the service (see `isInstanceAdmin`). */
-export const ADMIN_ROLES = ['dealer_admin', 'instance_admin'] as const satisfies readonly Role[];
 
 export const isInstanceAdmin = (actor: Pick<Actor, 'role'>): boolean => actor.role === 'instance_admin';
 

@@ -1,7 +1,6 @@
 import type { APIContext } from 'astro';
 import { z, type ZodType } from 'zod';
-import type { Role } from '../../db/schema';
-import type { Actor } from './access';
+import { can, rolesFor, type Action, type Actor } from './access';
 import { findUnstorable, UNSTORABLE_MESSAGE } from '../domain/text';
 import { BodyTooLarge, readCapped } from './body';
 
@@ -163,10 +162,11 @@ export function parseForm<T>(form: FormData, schema: ZodType<T>): T {
   return parsed.data;
 }
 
-export function requireActor(ctx: Pick<APIContext, 'locals'>, roles?: readonly Role[]): Actor {
+/** The signed-in actor (401 otherwise), allowed to take `action` when one is named (403 otherwise; see `access.ts`). */
+export function requireActor(ctx: Pick<APIContext, 'locals'>, action?: Action): Actor {
   const actor = ctx.locals.actor;
   if (!actor) throw new HttpError(401, 'Sign in first.');
-  if (roles && !roles.includes(actor.role)) throw new HttpError(403, `This needs one of these roles: ${roles.join(', ')}.`);
+  if (action && !can(actor, action)) throw new HttpError(403, `This needs one of these roles: ${rolesFor(action).join(', ')}.`);
   return actor;
 }
 

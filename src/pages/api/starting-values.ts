@@ -2,7 +2,6 @@ import { parseParams, readJson, requireActor, route, routeInputs } from '../../l
 import {
   listStartingValues,
   putStartingValues,
-  STARTING_VALUE_EDITORS,
   startingValuesQuerySchema,
   startingValuesSchema,
 } from '../../lib/server/services/starting-values';
@@ -19,7 +18,7 @@ export const GET = route(async (ctx) => {
 
 /** Sets the caller's dealer's starting values for one machine family and crop (mm and rpm). */
 export const PUT = route(async (ctx) => {
-  const actor = requireActor(ctx, STARTING_VALUE_EDITORS);
+  const actor = requireActor(ctx, 'startingValues.write');
   const input = await readJson(ctx.request, inputs.PUT.body);
   return putStartingValues(actor, input);
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it, vi } from 'vitest';
-import { actorFor, forgetActors } from '../../../src/lib/server/access';
+import { actorFor, forgetActors } from '../../../src/lib/server/actors';
 
 /** A stand-in store: counts the actor queries and answers with one farm membership. */
 function fakeStore(mode: 'pglite' | 'postgres', role = 'operator') {

@@ -1,15 +1,14 @@
 /** The editor's calls to the API: save a version, save as a new layout, store the unit choice. */
 import type { Layout } from '../../../lib/domain/schemas';
 import type { UnitSystem } from '../../../lib/domain/units';
+import type { Json, VersionView } from '../../../lib/responses';
+import { ApiError, sendJson } from '../../shared/api';
 
-export interface SavedVersion {
-  id: string;
-  version: number;
-  body: Layout;
-  note: string;
-  createdAt: string;
-  createdByName?: string | null;
-}
+/**
+ * A version as the editor holds it: the 409 of a save carries a whole `VersionView`; the 201
+ * answers the stored row, which names no author, so who saved it is optional here.
+ */
+export type SavedVersion = Json<Omit<VersionView, 'createdBy' | 'createdByName'>> & Partial<Json<Pick<VersionView, 'createdBy' | 'createdByName'>>>;
 
 export type SaveResult =
   | { ok: true; version: SavedVersion }
@@ -22,47 +21,41 @@ export interface EditorApi {
   saveUnits(units: UnitSystem): Promise<boolean>;
 }
 
-async function errorMessage(res: Response): Promise<string> {
-  try {
-    const data = (await res.json()) as { error?: { message?: string } };
-    return data.error?.message ?? `The server answered ${res.status}.`;
-  } catch {
-    return `The server answered ${res.status}.`;
-  }
-}
+const OFFLINE = 'Could not reach the server. Your changes are still here; try again.';
 
-const JSON_HEADERS = { 'content-type': 'application/json', accept: 'application/json' };
+/** The message of a refusal, or the words for a server out of reach. */
+const failure = (err: unknown): string => (err instanceof ApiError ? err.message : OFFLINE);
 
-/** The real API over fetch (same origin, session cookie). */
+/** The real API over fetch (same origin, session cookie), through the islands' typed helpers. */
 export const fetchApi: EditorApi = {
   async saveVersion(layoutId, body) {
     try {
-      const res = await fetch(`/api/layouts/${layoutId}`, { method: 'PUT', headers: JSON_HEADERS, body: JSON.stringify(body) });
-      if (res.status === 201) return { ok: true, version: ((await res.json()) as { version: SavedVersion }).version };
-      if (res.status === 409) {
-        const data = (await res.json()) as { error: { current: SavedVersion } };
-        return { ok: false, conflict: data.error.current };
-      }
-      return { ok: false, error: await errorMessage(res) };
-    } catch {
-      return { ok: false, error: 'Could not reach the server. Your changes are still here; try again.' };
+      const { version } = await sendJson<{ version: SavedVersion }>('PUT', `/api/layouts/${layoutId}`, body);
+      return { ok: true, version };
+    } catch (err) {
+      if (err instanceof ApiError && err.status === 409 && isVersion(err.detail.current)) return { ok: false, conflict: err.detail.current };
+      return { ok: false, error: failure(err) };
     }
   },
   async createLayout(machineId, body) {
     try {
-      const res = await fetch(`/api/machines/${machineId}/layouts`, { method: 'POST', headers: JSON_HEADERS, body: JSON.stringify(body) });
-      if (res.status === 201) return { ok: true, layoutId: ((await res.json()) as { layout: { id: string } }).layout.id };
-      return { ok: false, error: await errorMessage(res) };
-    } catch {
-      return { ok: false, error: 'Could not reach the server. Your changes are still here; try again.' };
+      const { layout } = await sendJson<{ layout: { id: string } }>('POST', `/api/machines/${machineId}/layouts`, body);
+      return { ok: true, layoutId: layout.id };
+    } catch (err) {
+      return { ok: false, error: failure(err) };
     }
   },
   async saveUnits(units) {
     try {
-      const res = await fetch('/api/me', { method: 'PUT', headers: JSON_HEADERS, body: JSON.stringify({ unitSystem: units }) });
-      return res.ok;
+      await sendJson('PUT', '/api/me', { unitSystem: units });
+      return true;
     } catch {
       return false;
     }
   },
 };
+
+/** A 409's `current`: the version someone else saved. */
+function isVersion(v: unknown): v is SavedVersion {
+  return typeof v === 'object' && v !== null && typeof (v as { version?: unknown }).version === 'number' && typeof (v as { body?: unknown }).body === 'object';
+}

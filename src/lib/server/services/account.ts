@@ -2,14 +2,14 @@ import { and, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../db';
 import { memberships, users } from '../../../db/schema';
-import { forgetActors, type Actor } from '../access';
+import { TENANT_ROLES, type Actor } from '../access';
+import { forgetActors } from '../actors';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
 import { hashPassword, verifyPassword } from '../auth/passwords';
 import { ACCOUNT_FREE, reserve } from '../auth/throttle';
 
 /** Roles a dealer administrator may give within their dealer. */
-const TENANT_ROLES = ['operator', 'technician', 'trainer', 'dealer_admin'] as const;
 
 export const passwordChangeSchema = z
   .object({

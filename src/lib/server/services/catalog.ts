@@ -7,9 +7,6 @@ import type { Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
 
-/** Everyone signed in reads the catalog (the technical data is instance-wide); only an instance administrator changes it. */
-export const CATALOG_WRITERS = ['instance_admin'] as const;
-
 export async function listFamilies() {
   const db = await getDb();
   return db

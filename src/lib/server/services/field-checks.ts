@@ -11,12 +11,6 @@ import { HttpError, notFound } from '../http';
 import { installedLayout, machineForActor } from './machines';
 import { dealerOfOrg, startingValuesFor } from './starting-values';
 
-/**
- * Who may record and remove loss checks (on machines they can see). Everyone who can see the
- * machine reads them. One list, so a change of roles is made here.
- */
-export const LOSS_CHECK_WRITERS = ['operator', 'technician'] as const;
-
 const typed = (max: number, what: string) =>
   z
     .string({ error: `give the ${what} as text` })

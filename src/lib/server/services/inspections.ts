@@ -24,9 +24,6 @@ import { HttpError, notFound } from '../http';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
 import { addLinesToDraftRequest } from './parts-requests';
 
-/** Who may start, fill in and finish an inspection. Everyone who can see the machine may read. */
-export const INSPECTION_WRITERS = ['operator', 'technician', 'dealer_admin'] as const;
-
 export type InspectionRow = typeof inspections.$inferSelect;
 export type InspectionItemRow = typeof inspectionItems.$inferSelect;
 

@@ -10,9 +10,7 @@ import type { Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound, whenNotFound } from '../http';
 import { catalogForFamily, machineForActor } from './machines';
-
-/** Who may change layouts. Trainers read them (for class) but do not change customers' plans. */
-export const LAYOUT_WRITERS = ['operator', 'technician', 'dealer_admin'] as const;
+import type { VersionView } from '../../responses';
 
 export const createLayoutSchema = z.object({
   name: z.string().trim().min(1).max(120),
@@ -31,15 +29,7 @@ export const saveVersionSchema = z.object({
 
 export type LayoutRow = typeof layouts.$inferSelect;
 
-export interface VersionView {
-  id: string;
-  version: number;
-  body: Layout;
-  note: string;
-  createdAt: Date;
-  createdBy: string | null;
-  createdByName: string | null;
-}
+export type { VersionView };
 
 function assertFamily(body: Layout, familyId: string) {
   if (body.familyId !== familyId) {

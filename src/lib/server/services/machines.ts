@@ -66,9 +66,6 @@ export async function installedLayout(machineId: string, db?: Db) {
 // ---------------------------------------------------------------------------------------------
 // Fleet: list, create, update and delete machines
 
-/** Who may add, change and remove machines. Trainers look but do not touch customers' fleets. */
-export const MACHINE_WRITERS = ['operator', 'technician', 'dealer_admin'] as const;
-
 const text = (max: number) => z.string().trim().max(max);
 
 export const MACHINE_SORTS = ['nickname', 'serial', 'family', 'org', 'updatedAt', 'createdAt'] as const;

@@ -2,7 +2,8 @@ import { and, count, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../db';
 import { machines, memberships, organisations } from '../../../db/schema';
-import { forgetActors, type Actor } from '../access';
+import type { Actor } from '../access';
+import { forgetActors } from '../actors';
 import { audit } from '../audit';
 import { HttpError } from '../http';
 

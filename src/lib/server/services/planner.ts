@@ -16,9 +16,6 @@ import { HttpError, whenNotFound } from '../http';
 import { createLayout, getLayout, saveVersion } from './layouts';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
 
-/** Who may run the planner and accept its plans (trainers look at layouts, they do not plan). */
-export const PLAN_ROLES = ['operator', 'technician', 'dealer_admin'] as const;
-
 export const planRequestSchema = z.object({
   machineId: z.uuid(),
   crop: cropIdSchema,

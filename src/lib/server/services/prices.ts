@@ -15,10 +15,6 @@ import { dealerOf, type Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
 
-/** Dealer staff read their dealer's price list; only its administrator changes it. */
-export const PRICE_READERS = ['dealer_admin', 'technician'] as const;
-export const PRICE_WRITERS = ['dealer_admin'] as const;
-
 /** The largest price a line may carry: 10 million in whole currency units. */
 const MAX_PRICE_CENTS = 1_000_000_000;
 /** Rows an import may carry (a dealer's whole list fits many times over). */

@@ -12,10 +12,6 @@ import { HttpError, notFound } from '../http';
 import { familyById } from './machines';
 import { hashToken, lookUpToken, newToken, statusOf } from '../share-links';
 
-/** Who may share and revoke: the same people who may change layouts. */
-export const SHARE_WRITERS = ['operator', 'technician', 'dealer_admin'] as const;
-
-
 export const createShareSchema = z.object({
   layoutId: z.uuid(),
   /** The saved version to share; the link keeps showing that version after later saves. */
@@ -32,7 +28,6 @@ export const shareListQuerySchema = z.object({
   layoutId: z.uuid().optional(),
   status: z.enum(['active', 'all']).default('all'),
 });
-
 
 export async function createShareLink(actor: Actor, input: z.infer<typeof createShareSchema>) {
   const db = await getDb();

@@ -7,12 +7,6 @@ import type { Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError } from '../http';
 
-/**
- * Who may enter a dealer's starting values for the rest of the machine: the dealer's
- * administrator. One list, so a change of roles is made here.
- */
-export const STARTING_VALUE_EDITORS = ['dealer_admin'] as const;
-
 const note = (what: string) =>
   z
     .string({ error: `give the ${what} as text` })

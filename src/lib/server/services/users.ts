@@ -2,7 +2,8 @@ import { eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../db';
 import { memberships, organisations, users } from '../../../db/schema';
-import { forgetActors, isInstanceAdmin, type Actor } from '../access';
+import { isInstanceAdmin, type Actor } from '../access';
+import { forgetActors } from '../actors';
 import { audit } from '../audit';
 
 export const preferencesSchema = z.object({ unitSystem: z.enum(['metric', 'imperial']) }).strict();

@@ -3,7 +3,6 @@ import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { APIContext } from 'astro';
 import { dataDir, store } from '../../../lib/server/db';
-import { INSTANCE_ADMINS } from '../../../lib/server/access';
 import { errorResponse, HttpError, requireActor, route, routeInputs, refuseBody } from '../../../lib/server/http';
 import { withoutSecrets } from '../../../../scripts/lib/backup-archive.mjs';
 
@@ -43,7 +42,7 @@ function localTokenMatches(ctx: APIContext): boolean {
 export const inputs = routeInputs({ POST: {} });
 
 export const POST = route(async (ctx) => {
-  if (!localTokenMatches(ctx)) requireActor(ctx, INSTANCE_ADMINS);
+  if (!localTokenMatches(ctx)) requireActor(ctx, 'backup.run');
   await refuseBody(ctx.request);
   const s = await store();
   if (!s.dump) throw new HttpError(501, 'The server uses a PostgreSQL server: back it up with pg_dump (npm run backup does).');

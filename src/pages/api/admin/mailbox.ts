@@ -1,6 +1,5 @@
 import { parseParams, requireActor, route } from '../../../lib/server/http';
 import { z } from 'zod';
-import { ADMIN_ROLES } from '../../../lib/server/access';
 import { mailboxFor } from '../../../lib/server/services/mailbox';
 
 const querySchema = z.object({ limit: z.coerce.number().int().min(1).max(500).default(100) });
@@ -11,7 +10,7 @@ const querySchema = z.object({ limit: z.coerce.number().int().min(1).max(500).de
  * administrator sees all.
  */
 export const GET = route(async (ctx) => {
-  const actor = requireActor(ctx, ADMIN_ROLES);
+  const actor = requireActor(ctx, 'mailbox.read');
   const { limit } = parseParams(Object.fromEntries(ctx.url.searchParams), querySchema);
   return mailboxFor(actor, limit);
 });

@@ -1,5 +1,5 @@
 import { parseId, requireActor, route, routeInputs, refuseBody } from '../../../lib/server/http';
-import { deleteLossCheck, getLossCheck, LOSS_CHECK_WRITERS } from '../../../lib/server/services/field-checks';
+import { deleteLossCheck, getLossCheck } from '../../../lib/server/services/field-checks';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ DELETE: {} });
@@ -12,7 +12,7 @@ export const GET = route(async (ctx) => {
 
 /** Removes a check recorded by mistake (audited). */
 export const DELETE = route(async (ctx) => {
-  const actor = requireActor(ctx, LOSS_CHECK_WRITERS);
+  const actor = requireActor(ctx, 'lossChecks.write');
   await refuseBody(ctx.request);
   return deleteLossCheck(actor, parseId(ctx.params.id));
 });

@@ -3,7 +3,6 @@ import {
   createMachine,
   createMachineSchema,
   listMachines,
-  MACHINE_WRITERS,
   machineListQuerySchema,
 } from '../../../lib/server/services/machines';
 
@@ -18,7 +17,7 @@ export const GET = route(async (ctx) => {
 });
 
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, MACHINE_WRITERS);
+  const actor = requireActor(ctx, 'machines.write');
   const input = await readJson(ctx.request, inputs.POST.body);
   return json({ machine: await createMachine(actor, input) }, 201);
 });

@@ -9,7 +9,7 @@ export const GET = route(async (ctx) => ({ orgs: await listOrgs(requireActor(ctx
 
 /** An admin adds a customer farm served by their dealer. */
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, ['dealer_admin']);
+  const actor = requireActor(ctx, 'orgs.add');
   const input = await readJson(ctx.request, inputs.POST.body);
   return json({ org: await createFarm(actor, input) }, 201);
 });

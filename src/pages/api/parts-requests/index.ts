@@ -4,8 +4,7 @@ import {
   createPartsRequestSchema,
   listPartsRequests,
   listQuerySchema,
-  PARTS_WRITERS,
-} from '../../../lib/server/services/parts-requests';
+  } from '../../../lib/server/services/parts-requests';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: createPartsRequestSchema } });
@@ -19,7 +18,7 @@ export const GET = route(async (ctx) => {
 
 /** A draft from a plan ({ from: 'plan', machineId, crop }), a layout ({ from: 'layout', layoutId }) or lines ({ from: 'manual', machineId, lines }). */
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, PARTS_WRITERS);
+  const actor = requireActor(ctx, 'parts.request');
   const input = await readJson(ctx.request, inputs.POST.body);
   return json(await createPartsRequest(actor, input), 201);
 });

@@ -1,5 +1,4 @@
 import { parseId, requireActor, route, routeInputs, refuseBody } from '../../../lib/server/http';
-import { INSPECTION_WRITERS } from '../../../lib/server/services/inspections';
 import { deletePhoto, photoResponse } from '../../../lib/server/services/photos';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
@@ -14,7 +13,7 @@ export const GET = route(async (ctx) => {
 
 /** Removes a photo from an open inspection. */
 export const DELETE = route(async (ctx) => {
-  const actor = requireActor(ctx, INSPECTION_WRITERS);
+  const actor = requireActor(ctx, 'inspections.write');
   await refuseBody(ctx.request);
   return deletePhoto(actor, parseId(ctx.params.id));
 });

@@ -1,5 +1,4 @@
 import { json, readJson, requireActor, route, routeInputs } from '../../../lib/server/http';
-import { LAYOUT_WRITERS } from '../../../lib/server/services/layouts';
 import { acceptPlan, acceptPlanSchema, editorUrl } from '../../../lib/server/services/planner';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
@@ -10,7 +9,7 @@ export const inputs = routeInputs({ POST: { body: acceptPlanSchema } });
  * (layoutId + baseVersion). 409 when the plan changed since the fingerprint the user saw.
  */
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, LAYOUT_WRITERS);
+  const actor = requireActor(ctx, 'layouts.write');
   const input = await readJson(ctx.request, inputs.POST.body);
   const r = await acceptPlan(actor, input);
   return json(

@@ -3,7 +3,6 @@ import {
   createShareLink,
   createShareSchema,
   listShareLinks,
-  SHARE_WRITERS,
   shareListQuerySchema,
 } from '../../../lib/server/services/sharing';
 
@@ -19,7 +18,7 @@ export const GET = route(async (ctx) => {
 
 /** A new read-only link to a saved version. The token is in this response only; the store keeps its hash. */
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, SHARE_WRITERS);
+  const actor = requireActor(ctx, 'shares.write');
   const input = await readJson(ctx.request, inputs.POST.body);
   const created = await createShareLink(actor, input);
   return json({ ...created, url: new URL(created.path, ctx.url.origin).toString() }, 201);

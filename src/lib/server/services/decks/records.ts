@@ -6,40 +6,13 @@ import type { Layout } from '../../../domain/schemas';
 import type { Actor } from '../../access';
 import { notFound } from '../../http';
 import { renderNotes } from '../../markdown';
-
-/** Who builds, changes and presents decks: the dealer's trainers and technicians. */
-export const DECK_ROLES = ['trainer', 'technician'] as const;
+import type { SlideRecord, SlideSource } from '../../../responses';
 
 export const MAX_SLIDES = 200;
 
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
-
-export type SlideSource =
-  | {
-      kind: 'version';
-      layoutVersionId: string;
-      layoutId: string;
-      layoutName: string;
-      version: number;
-      machineId: string;
-      machineNickname: string;
-      orgName: string;
-    }
-  | { kind: 'sample' }
-  /** The layout was deleted, or its farm is no longer one the viewer may see. */
-  | { kind: 'missing' };
-
-export interface SlideRecord {
-  id: string;
-  position: number;
-  title: string;
-  notes: string;
-  /** The talking points rendered to safe HTML (see markdown.ts). */
-  notesHtml: string;
-  source: SlideSource;
-  layout: Layout | null;
-}
+export type { SlideRecord, SlideSource } from '../../../responses';
 
 export interface DeckRecord {
   id: string;

@@ -1,6 +1,6 @@
 import { machineFamilySchema, slugSchema } from '../../../../lib/domain/schemas';
 import { notFound, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
-import { CATALOG_WRITERS, getFamily, updateFamily } from '../../../../lib/server/services/catalog';
+import { getFamily, updateFamily } from '../../../../lib/server/services/catalog';
 
 function familyId(raw: string | undefined): string {
   const parsed = slugSchema.safeParse(raw);
@@ -18,7 +18,7 @@ export const GET = route(async (ctx) => {
 
 /** Replace the family document (its id stays). */
 export const PUT = route(async (ctx) => {
-  const actor = requireActor(ctx, CATALOG_WRITERS);
+  const actor = requireActor(ctx, 'catalog.write');
   const id = familyId(ctx.params.id);
   const spec = await readJson(ctx.request, inputs.PUT.body);
   return { family: await updateFamily(actor, id, spec) };

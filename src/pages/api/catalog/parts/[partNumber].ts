@@ -1,6 +1,6 @@
 import { partNumberSchema } from '../../../../lib/domain/schemas';
 import { notFound, readJson, requireActor, route, routeInputs, refuseBody } from '../../../../lib/server/http';
-import { CATALOG_WRITERS, getPart, partInputSchema, retirePart, updatePart } from '../../../../lib/server/services/catalog';
+import { getPart, partInputSchema, retirePart, updatePart } from '../../../../lib/server/services/catalog';
 
 function partNumber(raw: string | undefined): string {
   const parsed = partNumberSchema.safeParse(raw);
@@ -17,7 +17,7 @@ export const GET = route(async (ctx) => {
 });
 
 export const PUT = route(async (ctx) => {
-  const actor = requireActor(ctx, CATALOG_WRITERS);
+  const actor = requireActor(ctx, 'catalog.write');
   const pn = partNumber(ctx.params.partNumber);
   const input = await readJson(ctx.request, inputs.PUT.body);
   return { part: await updatePart(actor, pn, input) };
@@ -25,7 +25,7 @@ export const PUT = route(async (ctx) => {
 
 /** Retire the part (saved layouts still name it, so it is kept, marked inactive). */
 export const DELETE = route(async (ctx) => {
-  const actor = requireActor(ctx, CATALOG_WRITERS);
+  const actor = requireActor(ctx, 'catalog.write');
   await refuseBody(ctx.request);
   return { part: await retirePart(actor, partNumber(ctx.params.partNumber)) };
 });

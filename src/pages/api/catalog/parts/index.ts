@@ -1,5 +1,5 @@
 import { json, parseParams, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
-import { CATALOG_WRITERS, createPart, listParts, partInputSchema, partListQuerySchema } from '../../../../lib/server/services/catalog';
+import { createPart, listParts, partInputSchema, partListQuerySchema } from '../../../../lib/server/services/catalog';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: partInputSchema } });
@@ -13,7 +13,7 @@ export const GET = route(async (ctx) => {
 
 /** A new part: { familyId, active, part } where part is the catalog part document. */
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, CATALOG_WRITERS);
+  const actor = requireActor(ctx, 'catalog.write');
   const input = await readJson(ctx.request, inputs.POST.body);
   return json({ part: await createPart(actor, input) }, 201);
 });

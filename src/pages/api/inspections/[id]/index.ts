@@ -3,7 +3,6 @@ import { parseId, readJson, requireActor, route, routeInputs } from '../../../..
 import {
   finishInspection,
   getInspection,
-  INSPECTION_WRITERS,
   updateInspection,
   updateInspectionSchema,
 } from '../../../../lib/server/services/inspections';
@@ -21,7 +20,7 @@ export const GET = route(async (ctx) => getInspection(requireActor(ctx), parseId
 
 /** Records findings, severities, measurements and notes on some lines (and the title). */
 export const PATCH = route(async (ctx) => {
-  const actor = requireActor(ctx, INSPECTION_WRITERS);
+  const actor = requireActor(ctx, 'inspections.write');
   const id = parseId(ctx.params.id);
   const input = await readJson(ctx.request, inputs.PATCH.body);
   return updateInspection(actor, id, input);
@@ -29,7 +28,7 @@ export const PATCH = route(async (ctx) => {
 
 /** { "action": "finish" }: closes the inspection; lines marked replace go to a draft parts request. */
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, INSPECTION_WRITERS);
+  const actor = requireActor(ctx, 'inspections.write');
   const id = parseId(ctx.params.id);
   const input = await readJson(ctx.request, inputs.POST.body);
   return finishInspection(actor, id, { acceptUnevenSurvey: input.acceptUnevenSurvey });

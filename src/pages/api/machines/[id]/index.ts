@@ -1,5 +1,5 @@
 import { parseId, readJson, requireActor, route, routeInputs, refuseBody } from '../../../../lib/server/http';
-import { deleteMachine, MACHINE_WRITERS, updateMachine, updateMachineSchema } from '../../../../lib/server/services/machines';
+import { deleteMachine, updateMachine, updateMachineSchema } from '../../../../lib/server/services/machines';
 import { machineOverview } from '../../../../lib/server/services/installed';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
@@ -22,14 +22,14 @@ export const GET = route(async (ctx) => {
 });
 
 export const PUT = route(async (ctx) => {
-  const actor = requireActor(ctx, MACHINE_WRITERS);
+  const actor = requireActor(ctx, 'machines.write');
   const id = parseId(ctx.params.id);
   const input = await readJson(ctx.request, inputs.PUT.body);
   return { machine: await updateMachine(actor, id, input) };
 });
 
 export const DELETE = route(async (ctx) => {
-  const actor = requireActor(ctx, MACHINE_WRITERS);
+  const actor = requireActor(ctx, 'machines.write');
   await refuseBody(ctx.request);
   return deleteMachine(actor, parseId(ctx.params.id));
 });

@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { json, parseId, parseParams, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
-import { INSPECTION_WRITERS, listInspectionsForMachine, startInspection, startInspectionSchema } from '../../../../lib/server/services/inspections';
+import { listInspectionsForMachine, startInspection, startInspectionSchema } from '../../../../lib/server/services/inspections';
 
 const pageQuery = z.object({
   page: z.coerce.number().int().min(1).max(100_000).default(1),
@@ -20,7 +20,7 @@ export const GET = route(async (ctx) => {
 
 /** Starts an inspection with a checklist built from what is installed on the machine. */
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, INSPECTION_WRITERS);
+  const actor = requireActor(ctx, 'inspections.write');
   const id = parseId(ctx.params.id);
   const input = await readJson(ctx.request, inputs.POST.body);
   return json(await startInspection(actor, id, input), 201);

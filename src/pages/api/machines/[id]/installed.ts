@@ -1,5 +1,4 @@
 import { parseId, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
-import { MACHINE_WRITERS } from '../../../../lib/server/services/machines';
 import { getInstalled, putInstalled, putInstalledSchema } from '../../../../lib/server/services/installed';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
@@ -10,7 +9,7 @@ export const GET = route(async (ctx) => getInstalled(requireActor(ctx), parseId(
 
 /** Record what is installed: a layout document, or `fromLayout` (a saved version of this machine). */
 export const PUT = route(async (ctx) => {
-  const actor = requireActor(ctx, MACHINE_WRITERS);
+  const actor = requireActor(ctx, 'machines.write');
   const id = parseId(ctx.params.id);
   const input = await readJson(ctx.request, inputs.PUT.body);
   return putInstalled(actor, id, input);

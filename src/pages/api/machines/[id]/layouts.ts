@@ -1,5 +1,5 @@
 import { json, readJson, requireActor, route, parseId, parseParams, routeInputs } from '../../../../lib/server/http';
-import { createLayout, createLayoutSchema, LAYOUT_WRITERS, layoutListQuerySchema, listLayoutsForMachine } from '../../../../lib/server/services/layouts';
+import { createLayout, createLayoutSchema, layoutListQuerySchema, listLayoutsForMachine } from '../../../../lib/server/services/layouts';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: createLayoutSchema } });
@@ -12,7 +12,7 @@ export const GET = route(async (ctx) => {
 });
 
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, LAYOUT_WRITERS);
+  const actor = requireActor(ctx, 'layouts.write');
   const id = parseId(ctx.params.id);
   const input = await readJson(ctx.request, inputs.POST.body);
   return json(await createLayout(actor, id, input), 201);

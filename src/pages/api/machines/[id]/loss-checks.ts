@@ -1,6 +1,5 @@
 import { json, parseId, parseParams, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
 import {
-  LOSS_CHECK_WRITERS,
   recordLossCheck,
   recordLossCheckSchema,
   seasonCsv,
@@ -32,7 +31,7 @@ export const GET = route(async (ctx) => {
 
 /** Records a loss check with the settings of the moment (absent settings come from what is installed). */
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, LOSS_CHECK_WRITERS);
+  const actor = requireActor(ctx, 'lossChecks.write');
   const id = parseId(ctx.params.id);
   const input = await readJson(ctx.request, inputs.POST.body);
   return json(await recordLossCheck(actor, id, input), 201);

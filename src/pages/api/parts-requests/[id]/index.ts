@@ -4,7 +4,6 @@ import {
   csvFileName,
   deletePartsRequest,
   getPartsRequest,
-  PARTS_WRITERS,
   partsRequestCsv,
   updatePartsRequest,
   updatePartsRequestSchema,
@@ -35,14 +34,14 @@ export const GET = route(async (ctx) => {
 
 /** Edit a draft: the full list of lines (quantity 0 drops a line) and/or the note. */
 export const PUT = route(async (ctx) => {
-  const actor = requireActor(ctx, PARTS_WRITERS);
+  const actor = requireActor(ctx, 'parts.request');
   const id = parseId(ctx.params.id);
   const input = await readJson(ctx.request, inputs.PUT.body);
   return updatePartsRequest(actor, id, input);
 });
 
 export const DELETE = route(async (ctx) => {
-  const actor = requireActor(ctx, PARTS_WRITERS);
+  const actor = requireActor(ctx, 'parts.request');
   await refuseBody(ctx.request);
   return deletePartsRequest(actor, parseId(ctx.params.id));
 });

@@ -1,5 +1,4 @@
 import { json, parseId, requireActor, route, routeInputs } from '../../../../../../lib/server/http';
-import { INSPECTION_WRITERS } from '../../../../../../lib/server/services/inspections';
 import { addPhoto, photoTarget, photoUploadSchema, readPhotoUpload } from '../../../../../../lib/server/services/photos';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
@@ -10,7 +9,7 @@ export const inputs = routeInputs({ POST: { multipart: photoUploadSchema } });
  * JPEG, PNG or WebP by content, at most 8 MB (413 beyond, 415 for anything else).
  */
 export const POST = route(async (ctx) => {
-  const actor = requireActor(ctx, INSPECTION_WRITERS);
+  const actor = requireActor(ctx, 'inspections.write');
   const id = parseId(ctx.params.id);
   const itemId = parseId(ctx.params.itemId, 'itemId');
   // Another organisation's line is not found whatever was sent; only then is the body read.
