@@ -7,10 +7,10 @@ import { cropPrograms } from '../../lib/domain/crops';
 import { placeKey } from '../../lib/domain/places';
 import { formatLength, mm, type UnitSystem } from '../../lib/domain/units';
 import type { CatalogPart, CropId, Place } from '../../lib/domain/schemas';
-import { openingWords, partWordsWithHand, placeWords } from '../cage/words';
+import { openingWords, partNameWithHand, placeWords } from '../../lib/domain/vocabulary';
 import { useCarryUi } from './carry';
 import { useEditor, useEditorLazy } from './store/context';
-import { partNumberAt } from './store/layout-edits';
+import { partNumberAt } from '../../lib/domain/layout-edits';
 
 function kernelWords(part: CatalogPart, crop: CropId, units: UnitSystem): string | null {
   if (part.kind !== 'element') return null;
@@ -44,7 +44,7 @@ export function SlotDetails() {
         <span className="font-semibold">{where.charAt(0).toUpperCase() + where.slice(1)}:</span>{' '}
         {part ? (
           <>
-            {partWordsWithHand(part)} <span className="text-ink-muted">· {part.partNumber}</span>
+            {partNameWithHand(part)} <span className="text-ink-muted">· {part.partNumber}</span>
             {part.kind === 'element' && (
               <span className="text-ink-muted">
                 {' '}

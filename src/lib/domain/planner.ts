@@ -11,6 +11,7 @@ import { asCatalogIndex, type CatalogIndex } from './catalog';
 import { cropPrograms, type CropProgram } from './crops';
 import { starterLayout } from './starter';
 import { placeKey } from './places';
+import { placePart } from './layout-edits';
 import { checkLayout } from './rules';
 import type { CatalogPart, CropId, DrumId, Finding, Layout, MachineFamily, VaneControl } from './schemas';
 import { bomLine, fingerprint, type BomLine } from './planner/bom';
@@ -18,7 +19,8 @@ import { WORK_CAUTIONS } from './planner/cautions';
 import { groupOf, solveGroup, type SlotOutcome, type SlotSource, type Unit } from './planner/solve';
 import { placeOrder, workSteps, type PlanStep, type Removal } from './planner/steps';
 import { buildTargets, elementFits, elementTrouble, type PlanMode, type SlotGroup, type SlotPlace, type Targets } from './planner/targets';
-import { capitalise, elementWord, partWords, placeWords } from './planner/words';
+import { elementTypeName as elementWord, partNameWithHand as partWords, placeWords } from './vocabulary';
+import { capitalise } from './words';
 
 export { WORK_CAUTIONS, ONE_PERSON_LIFT_KG } from './planner/cautions';
 export { billOfMaterials, bomLine, bomTotal, handOf, partCounts, fingerprint, type Bom, type BomLine } from './planner/bom';
@@ -237,23 +239,13 @@ export function planCropChange(input: PlanInput): Plan {
 
   // The proposal: settings from the crop program on this machine, parts from the assignment.
   const settings = starterLayout(family, cropId, catalog.parts, { drum, vaneControl });
-  const layout: Layout = {
-    ...settings,
-    elements: [],
-    coverPlates: [],
-    rotorBars: [],
-  };
+  // Parts go in through the domain's layout edits, which keep the starter layout's order
+  // (along the rotor, left before right).
+  let layout: Layout = { ...settings, elements: [], coverPlates: [], rotorBars: [] };
   for (const o of outcomes) {
     const pn = o.candidate?.part.partNumber;
-    if (!pn) continue;
-    const p = o.slot.place;
-    if (p.kind === 'element') layout.elements.push({ position: p.position, side: p.side, partNumber: pn });
-    else if (p.kind === 'cover') layout.coverPlates.push({ section: p.section, side: p.side, partNumber: pn });
-    else layout.rotorBars.push({ row: p.row, position: p.position, partNumber: pn });
+    if (pn) layout = placePart(layout, o.slot.place, pn);
   }
-  // The starter layout's order: along the rotor, left before right.
-  layout.elements.sort((a, b) => a.position - b.position || (a.side === 'left' ? 0 : 1) - (b.side === 'left' ? 0 : 1));
-  layout.coverPlates.sort((a, b) => a.section - b.section || (a.side === 'left' ? 0 : 1) - (b.side === 'left' ? 0 : 1));
 
   const beforeAt = new Map(units.map((u) => [u.atKey!, u.partNumber] as const));
   for (const r of unknown) beforeAt.set(r.unit.atKey!, r.unit.partNumber);

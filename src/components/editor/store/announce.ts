@@ -1,7 +1,7 @@
 /** Sentences the live region reads after an edit: what happened, and what the rules now say there. */
 import type { Finding, Place } from '../../../lib/domain/schemas';
 import { placeKey } from '../../../lib/domain/places';
-import { severityWords } from '../../cage/words';
+import { severityWords } from '../../../lib/domain/vocabulary';
 
 export function findingsHereWords(findings: readonly Finding[], place: Place): string {
   const key = placeKey(place);

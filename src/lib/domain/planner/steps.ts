@@ -9,7 +9,8 @@ import { placeKey } from '../places';
 import { ONE_PERSON_LIFT_KG } from './cautions';
 import type { SlotOutcome, Unit } from './solve';
 import type { SlotPlace } from './targets';
-import { capitalise, listWords, partWithNumber, partWords, placeWords } from './words';
+import { partNameWithHand as partWords, partWithNumber, placeWords } from '../vocabulary';
+import { capitalise, listWords } from '../words';
 
 export type StepKind = 'remove' | 'move' | 'swap' | 'install' | 'buy';
 

@@ -29,7 +29,8 @@ import type {
   VaneControl,
   Zone,
 } from '../schemas';
-import { elementWord, listWords } from './words';
+import { elementPlaceWords, elementTypeName as elementWord } from '../vocabulary';
+import { listWords } from '../words';
 
 export type PlanMode = 'program' | 'on-hand';
 export type SlotPlace = ElementPlace | CoverPlace | BarPlace;
@@ -133,11 +134,11 @@ function elementSlot(
   if (candidates.length === 0) {
     const what = `${side}-hand ${role}`;
     if (fits.length === 0)
-      return { place, message: `The catalog has no ${what} for the ${family.name} that fits position ${position}, ${side} half (${zone} zone), so that half-position cannot be filled.` };
+      return { place, message: `The catalog has no ${what} for the ${family.name} that fits ${elementPlaceWords(position, side)} (${zone} zone), so that half-position cannot be filled.` };
     const troubles = fits.map((p) => `${elementWord(p.elementType)}: ${elementTrouble(p, zone, crop)}`);
     return {
       place,
-      message: `None of the ${what}s in the catalog suits ${cropWord} at position ${position}, ${side} half (${zone} zone): ${listWords(troubles)}. Add a ${elementWord(want)} ${role} to the catalog.`,
+      message: `None of the ${what}s in the catalog suits ${cropWord} at ${elementPlaceWords(position, side)} (${zone} zone): ${listWords(troubles)}. Add a ${elementWord(want)} ${role} to the catalog.`,
     };
   }
   return { place, key: placeKey(place), candidates: candidates.sort(byRankThenPrice), empty: null };

@@ -2,7 +2,7 @@
 import type { Place } from '../schemas';
 import { emit, type RuleContext } from './context';
 import { resolvePart } from './parts';
-import { coverWords } from './words';
+import { coverPlaceWords as coverWords } from '../vocabulary';
 
 export function checkCoverPlates(ctx: RuleContext): void {
   const { fam, family, layout, crop } = ctx;

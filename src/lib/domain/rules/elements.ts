@@ -4,7 +4,8 @@ import { passageMargin } from '../cage-metrics';
 import type { ElementPart, Side, Zone } from '../schemas';
 import { emit, type RuleContext } from './context';
 import { resolvePart } from './parts';
-import { elementWord, fmtMm, halfWords, partWords } from './words';
+import { elementPlaceWords as halfWords, elementTypeName as elementWord, partNameWithHand as partWords } from '../vocabulary';
+import { fmtMm } from '../words';
 
 const SIDES: readonly Side[] = ['left', 'right'];
 
@@ -90,7 +91,7 @@ function checkFit(ctx: RuleContext, part: ElementPart, position: number, side: S
       `${what[0]!.toUpperCase()}${what.slice(1)} in the ${zone} zone`,
       ctx.family.cageKind === 'split'
         ? `On a split cage concaves fit the front (threshing) positions only and grates the rear (separating) positions only; ${part.partNumber} is a ${partWords(part)} at ${halfWords(position, side)}.`
-        : `${part.partNumber} (${partWords(part)}) is made for the ${part.zones.join(' and ')} zone, not the ${zone} zone at position ${position}.`,
+        : `${part.partNumber} (${partWords(part)}) is made for the ${part.zones.join(' and ')} zone, not the ${zone} zone at ${halfWords(position, side)}.`,
       `Fit a ${zone === 'threshing' ? (ctx.family.cageKind === 'split' ? 'concave' : 'threshing element') : ctx.family.cageKind === 'split' ? 'grate' : 'separating element'} here.`,
     );
   }

@@ -2,7 +2,8 @@
 import type { Place } from '../schemas';
 import { emit, type RuleContext } from './context';
 import { resolvePart } from './parts';
-import { barWords, listWords } from './words';
+import { barPlaceWords as barWords } from '../vocabulary';
+import { listWords } from '../words';
 
 interface Placed {
   row: number;
