@@ -11,6 +11,7 @@ import {
   elementTypeSchema,
   type BarKind,
   type CatalogPart,
+  type CropId,
   type ElementType,
   type Place,
   type SettingField,
@@ -18,7 +19,7 @@ import {
   type Side,
 } from './schemas';
 import { formatLength, mm, type UnitSystem } from './units';
-import { capitalise } from './words';
+import { capitalise, plural, withArticle } from './words';
 
 // ---------------------------------------------------------------------------------------------
 // Kinds of part
@@ -158,3 +159,45 @@ export function openingWords(part: CatalogPart, units: UnitSystem): string | nul
   if (isRoundHole(o)) return `round holes ${formatLength(mm(o.width), units)} across`;
   return `opening ${formatLength(mm(o.width), units)} × ${formatLength(mm(o.length), units)}`;
 }
+
+// ---------------------------------------------------------------------------------------------
+// Crops as nouns
+
+interface CropWords {
+  /** The crop as the subject of a sentence: "soybeans", "edible beans", "wheat". */
+  noun: string;
+  /** Whether the noun takes a plural verb: "edible beans want", "wheat wants". */
+  plural: boolean;
+  /** One kernel or seed of the crop: "soybean kernel", "pea", "sunflower seed". */
+  kernel: string;
+}
+
+const CROP_WORDS: Readonly<Record<CropId, CropWords>> = {
+  wheat: { noun: 'wheat', plural: false, kernel: 'wheat kernel' },
+  barley: { noun: 'barley', plural: false, kernel: 'barley kernel' },
+  oats: { noun: 'oats', plural: true, kernel: 'oat kernel' },
+  canola: { noun: 'canola', plural: false, kernel: 'canola seed' },
+  'field-peas': { noun: 'field peas', plural: true, kernel: 'pea' },
+  lentils: { noun: 'lentils', plural: true, kernel: 'lentil' },
+  soybeans: { noun: 'soybeans', plural: true, kernel: 'soybean kernel' },
+  'edible-beans': { noun: 'edible beans', plural: true, kernel: 'bean' },
+  corn: { noun: 'corn', plural: false, kernel: 'corn kernel' },
+  rice: { noun: 'rice', plural: false, kernel: 'rice grain' },
+  sunflower: { noun: 'sunflower', plural: false, kernel: 'sunflower seed' },
+  'grass-seed': { noun: 'grass seed', plural: false, kernel: 'grass seed' },
+  sorghum: { noun: 'sorghum', plural: false, kernel: 'sorghum kernel' },
+  hemp: { noun: 'hemp', plural: false, kernel: 'hemp seed' },
+};
+
+/** "soybeans", "edible beans", "wheat": the crop inside a sentence. */
+export const cropNoun = (id: CropId): string => CROP_WORDS[id].noun;
+/** "Soybeans", "Wheat": the crop at the start of a sentence. */
+export const cropSubject = (id: CropId): string => capitalise(CROP_WORDS[id].noun);
+/** The verb that agrees with the crop: cropVerb('edible-beans', 'wants', 'want') = "want". */
+export const cropVerb = (id: CropId, singular: string, pluralForm: string): string => (CROP_WORDS[id].plural ? pluralForm : singular);
+/** "Edible beans want", "Wheat wants": the crop and its verb at the start of a sentence. */
+export const cropSays = (id: CropId, singular: string, pluralForm: string): string => `${cropSubject(id)} ${cropVerb(id, singular, pluralForm)}`;
+/** "a soybean kernel", "an oat kernel", "a pea". */
+export const aKernelOf = (id: CropId): string => withArticle(CROP_WORDS[id].kernel);
+/** "soybean kernels", "peas", in the number `n` asks for when given. */
+export const kernelsOf = (id: CropId, n = 2): string => plural(n, CROP_WORDS[id].kernel);
