@@ -18,6 +18,7 @@ import {
   type Severity,
   type Side,
 } from './schemas';
+import { isRoundHole } from './cage-metrics';
 import { formatLength, mm, type UnitSystem } from './units';
 import { capitalise, plural, withArticle } from './words';
 
@@ -145,9 +146,6 @@ export function partAtPlaceWords(part: CatalogPart | undefined, place: Place): s
 export const severityWords = (s: Severity): string =>
   s === 'blocks-fit' ? 'Blocks fit' : s === 'hurts-crop' ? 'Hurts the crop' : 'Advice';
 
-/** An opening whose width equals its length is a round hole (schemas.ts, `openingSchema`). */
-export const isRoundHole = (o: { width: number; length: number }): boolean => o.width === o.length;
-
 /**
  * An element's opening as people describe it: a round hole by its diameter ("round holes 14 mm
  * across"), a slot by its width and length ("opening 5 mm × 25 mm"); a blank plate has none.
@@ -168,36 +166,42 @@ interface CropWords {
   noun: string;
   /** Whether the noun takes a plural verb: "edible beans want", "wheat wants". */
   plural: boolean;
+  /** The crop before another noun: "a soybean cage", "an oat kernel", "the field-pea program". */
+  adj: string;
   /** One kernel or seed of the crop: "soybean kernel", "pea", "sunflower seed". */
   kernel: string;
 }
 
 const CROP_WORDS: Readonly<Record<CropId, CropWords>> = {
-  wheat: { noun: 'wheat', plural: false, kernel: 'wheat kernel' },
-  barley: { noun: 'barley', plural: false, kernel: 'barley kernel' },
-  oats: { noun: 'oats', plural: true, kernel: 'oat kernel' },
-  canola: { noun: 'canola', plural: false, kernel: 'canola seed' },
-  'field-peas': { noun: 'field peas', plural: true, kernel: 'pea' },
-  lentils: { noun: 'lentils', plural: true, kernel: 'lentil' },
-  soybeans: { noun: 'soybeans', plural: true, kernel: 'soybean kernel' },
-  'edible-beans': { noun: 'edible beans', plural: true, kernel: 'bean' },
-  corn: { noun: 'corn', plural: false, kernel: 'corn kernel' },
-  rice: { noun: 'rice', plural: false, kernel: 'rice grain' },
-  sunflower: { noun: 'sunflower', plural: false, kernel: 'sunflower seed' },
-  'grass-seed': { noun: 'grass seed', plural: false, kernel: 'grass seed' },
-  sorghum: { noun: 'sorghum', plural: false, kernel: 'sorghum kernel' },
-  hemp: { noun: 'hemp', plural: false, kernel: 'hemp seed' },
+  wheat: { noun: 'wheat', plural: false, adj: 'wheat', kernel: 'wheat kernel' },
+  barley: { noun: 'barley', plural: false, adj: 'barley', kernel: 'barley kernel' },
+  oats: { noun: 'oats', plural: true, adj: 'oat', kernel: 'oat kernel' },
+  canola: { noun: 'canola', plural: false, adj: 'canola', kernel: 'canola seed' },
+  'field-peas': { noun: 'field peas', plural: true, adj: 'field-pea', kernel: 'pea' },
+  lentils: { noun: 'lentils', plural: true, adj: 'lentil', kernel: 'lentil' },
+  soybeans: { noun: 'soybeans', plural: true, adj: 'soybean', kernel: 'soybean kernel' },
+  'edible-beans': { noun: 'edible beans', plural: true, adj: 'edible-bean', kernel: 'bean' },
+  corn: { noun: 'corn', plural: false, adj: 'corn', kernel: 'corn kernel' },
+  rice: { noun: 'rice', plural: false, adj: 'rice', kernel: 'rice grain' },
+  sunflower: { noun: 'sunflower', plural: false, adj: 'sunflower', kernel: 'sunflower seed' },
+  'grass-seed': { noun: 'grass seed', plural: false, adj: 'grass-seed', kernel: 'grass seed' },
+  sorghum: { noun: 'sorghum', plural: false, adj: 'sorghum', kernel: 'sorghum kernel' },
+  hemp: { noun: 'hemp', plural: false, adj: 'hemp', kernel: 'hemp seed' },
 };
 
 /** "soybeans", "edible beans", "wheat": the crop inside a sentence. */
 export const cropNoun = (id: CropId): string => CROP_WORDS[id].noun;
 /** "Soybeans", "Wheat": the crop at the start of a sentence. */
 export const cropSubject = (id: CropId): string => capitalise(CROP_WORDS[id].noun);
+/** "soybean", "oat": the crop before another noun ("a soybean cage"). */
+export const cropAdjective = (id: CropId): string => CROP_WORDS[id].adj;
 /** The verb that agrees with the crop: cropVerb('edible-beans', 'wants', 'want') = "want". */
 export const cropVerb = (id: CropId, singular: string, pluralForm: string): string => (CROP_WORDS[id].plural ? pluralForm : singular);
 /** "Edible beans want", "Wheat wants": the crop and its verb at the start of a sentence. */
 export const cropSays = (id: CropId, singular: string, pluralForm: string): string => `${cropSubject(id)} ${cropVerb(id, singular, pluralForm)}`;
+/** "soybean kernel", "pea": one kernel of the crop, without article. */
+export const kernelOf = (id: CropId): string => CROP_WORDS[id].kernel;
 /** "a soybean kernel", "an oat kernel", "a pea". */
 export const aKernelOf = (id: CropId): string => withArticle(CROP_WORDS[id].kernel);
-/** "soybean kernels", "peas", in the number `n` asks for when given. */
+/** "soybean kernels", "peas": in the number `n` asks for (plural by default). */
 export const kernelsOf = (id: CropId, n = 2): string => plural(n, CROP_WORDS[id].kernel);

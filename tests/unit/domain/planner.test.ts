@@ -126,7 +126,7 @@ describe('a wheat machine going to peas, corn and rice', () => {
   it('peas: the fine-wire elements in front come off (too small for peas) and round-bar elements go in', () => {
     const p = plan('field-peas');
     expect(p.removals.map((r) => r.key)).toEqual(['element:1:left', 'element:2:left', 'element:1:right', 'element:2:right']);
-    expect(p.removals[0]!.why).toMatch(/too small for field peas/);
+    expect(p.removals[0]!.why).toMatch(/too small for peas/);
     expect(p.purchases.map((x) => [x.partNumber, x.quantity])).toEqual([
       ['CW-RB-L-04', 2],
       ['CW-RB-R-04', 2],
@@ -249,7 +249,7 @@ describe('the two modes', () => {
     expect(onHand.counts.purchases).toBe(0);
     const front = onHand.choices.filter((c) => c.place.kind === 'element' && c.place.position <= 3);
     expect(front.every((c) => c.source === 'shelf' && c.rank > 0 && /program's choice is round-bar/.test(c.why))).toBe(true);
-    expect(onHand.notes.join(' ')).toMatch(/6 places hold a part other than the field peas program's own choice/);
+    expect(onHand.notes.join(' ')).toMatch(/6 places hold a part other than the field-pea program's own choice/);
     expect(checkLayout(split, catalog, onHand.layout).filter((f) => f.severity !== 'advice')).toEqual([]);
   });
 
