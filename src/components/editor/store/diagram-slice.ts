@@ -8,6 +8,7 @@ import { partAtPlaceWords, partName as nameOfPart, placeWords } from '../../../l
 import { findingsHereWords } from './announce';
 import { accepts, movedLayout, partNumberAt, withPartAt } from '../../../lib/domain/layout-edits';
 import type { DiagramSlice, EditorInit, EditorSliceCreator } from './types';
+import { countOf } from '../../../lib/domain/words';
 
 export const createDiagramSlice =
   (init: EditorInit): EditorSliceCreator<DiagramSlice> =>
@@ -89,7 +90,7 @@ export const createDiagramSlice =
       },
 
       replaceLayout(layout, why) {
-        commit(layout, (f) => `${why} ${f.length} finding${f.length === 1 ? '' : 's'} in the layout.`);
+        commit(layout, (f) => `${why} ${countOf(f.length, 'finding')} in the layout.`);
       },
 
       announce(text) {
