@@ -106,7 +106,7 @@ describe('one name per kind of part', () => {
     expect(partName(perforated)).toBe('perforated plate element');
     const layout = withPartAt(wheat, elementPlace(1, perforated.kind === 'element' ? perforated.hand : 'left'), perforated.partNumber);
     for (const f of checkLayout(tamarackM4, catalog, layout)) {
-      expect(`${f.title} ${f.explanation} ${f.action}`).not.toMatch(/perforated-plate|Perforated(?! plate)/);
+      expect(`${f.title} ${f.explanation} ${f.fix}`).not.toMatch(/perforated-plate|Perforated(?! plate)/);
     }
   });
 });
