@@ -120,7 +120,7 @@ test.describe('editor: focus follows the selection after a keyboard drop', () =>
     const item = palettePart(page, 'CW-RB-L-04');
     await item.focus();
     await page.keyboard.press('Space');
-    await expect(dndRegion(page)).toContainText('Picked up round-bar element');
+    await expect(dndRegion(page)).toContainText('Picked up left-hand round-bar element');
     await page.keyboard.press('ArrowRight');
     await page.keyboard.press('ArrowRight');
     await expect(dndRegion(page)).toContainText('Over position 2, left');

@@ -15,7 +15,7 @@ test.describe('cage editor', () => {
     await expect(page.getByRole('heading', { level: 1 })).toContainText('wheat setup');
     // Every half-position of the four-position cage is drawn, with its hand in its name.
     for (const p of [1, 2, 3, 4])
-      for (const side of ['left', 'right']) await expect(slot(page, `element:${p}:${side}`)).toHaveAttribute('aria-label', new RegExp(`^${side[0]!.toUpperCase()}${side.slice(1)}, position ${p}: `));
+      for (const side of ['left', 'right']) await expect(slot(page, `element:${p}:${side}`)).toHaveAttribute('aria-label', new RegExp(`^Position ${p}, ${side}: `));
     await expect(slot(page, 'element:1:left')).toHaveAttribute('aria-label', /left-hand fine-wire element/);
     await expect(page.getByTestId('tip-speed')).toContainText('m/s');
     // Pointing at a slot shows its part, opening and how the crop's kernel passes.
@@ -23,7 +23,7 @@ test.describe('cage editor', () => {
     const details = page.getByTestId('slot-details');
     await expect(details).toContainText('Position 1, left: left-hand fine-wire element');
     await expect(details).toContainText('opening 5.0 mm × 25.0 mm · open area 38 %');
-    await expect(details).toContainText(/Wheat kernels \([\d.]+ mm across\) pass, [\d.]+ mm to spare/);
+    await expect(details).toContainText(/Wheat kernels pass by their smallest size \([\d.]+ mm\); the larger ones \(about [\d.]+ mm\) pass with [\d.]+ mm to spare/);
     await page.mouse.move(5, 5);
     await shot(page, 'editor-desktop', false);
     await shot(page, 'editor-desktop-full');
