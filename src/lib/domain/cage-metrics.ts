@@ -36,7 +36,7 @@ export function passageMargin(opening: Opening | null, kernel: KernelSize): numb
  */
 export const LARGER_KERNEL_FACTOR = 1.13;
 export const LARGER_KERNEL_BASIS =
-  'larger kernels taken 13 % above the mean size, the spread of the published canola size range (Razavi et al., 2009)';
+  'taken 13 % above the mean, the spread of the published canola size range, Razavi et al. 2009';
 
 /**
  * Room a moving kernel needs beyond its own size to drop through an opening: 10 % of that size

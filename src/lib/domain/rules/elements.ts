@@ -133,7 +133,7 @@ function checkPassage(ctx: RuleContext, part: ElementPart, position: number, sid
       'hurts-crop',
       [place],
       `Opening too small for ${cropNoun(crop.id)}`,
-      `The ${elementWord(part.elementType)} at ${halfWords(position, side)} has ${openingInWords(o)}. ${through}, ${fmtMm(p.meanSizeMm)} on ${withArticle('average')} ${kernelOf(crop.id)} (${crop.kernel.source}): short by ${fmtMm(-p.meanMarginMm!)}. Threshed grain rides on to the rear and out with the straw.`,
+      `The ${elementWord(part.elementType)} element at ${halfWords(position, side)} has ${openingInWords(o)}. ${through}, ${fmtMm(p.meanSizeMm)} on ${withArticle('average')} ${kernelOf(crop.id)} (${crop.kernel.source}): short by ${fmtMm(-p.meanMarginMm!)}. Threshed grain rides on to the rear and out with the straw.`,
       `Fit ${suggestion} here.`,
     );
     return;
@@ -144,7 +144,7 @@ function checkPassage(ctx: RuleContext, part: ElementPart, position: number, sid
     'hurts-crop',
     [place],
     `Opening tight for the larger ${kernelsOf(crop.id)}`,
-    `The ${elementWord(part.elementType)} at ${halfWords(position, side)} has ${openingInWords(o)}. ${through}: ${fmtMm(p.meanSizeMm)} on average (${crop.kernel.source}), about ${fmtMm(p.largerSizeMm)} on the larger ones (${LARGER_KERNEL_BASIS}). A moving kernel needs ${fmtMm(p.requiredMarginMm)} to spare (${PASSAGE_MARGIN_BASIS}), so the opening is ${fmtMm(-p.spareMm!)} short for the larger ${kernelsOf(crop.id)}: they ride on to the rear and out with the straw.`,
+    `The ${elementWord(part.elementType)} element at ${halfWords(position, side)} has ${openingInWords(o)}. ${through}: ${fmtMm(p.meanSizeMm)} on average (${crop.kernel.source}), about ${fmtMm(p.largerSizeMm)} on the larger ones (${LARGER_KERNEL_BASIS}). A moving kernel needs ${fmtMm(p.requiredMarginMm)} to spare (${PASSAGE_MARGIN_BASIS}), so the opening is ${fmtMm(-p.spareMm!)} short for the larger ${kernelsOf(crop.id)}: they ride on to the rear and out with the straw.`,
     `Fit ${suggestion} here.`,
   );
 }
