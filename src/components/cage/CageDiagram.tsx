@@ -48,7 +48,7 @@ import { diagramGeometry, slotBox, VANE_LEAN_DEG, type DiagramGeometry } from '.
 import { INK, INK_MUTED, INK_SOFT, SEVERITY_STYLE, STEEL } from './palette';
 import { PatternDefs } from './patterns';
 import type { SlotAttrs, SlotInfo } from './slot-types';
-import { partNameWithHand, placeLabel, placeWords, severityWords } from '../../lib/domain/vocabulary';
+import { partNameWithHand, placeLabel, severityWords } from '../../lib/domain/vocabulary';
 
 export type { SlotInfo, SlotAttrs } from './slot-types';
 
