@@ -59,14 +59,14 @@ test.describe('editor on a phone', () => {
     await sheet.locator('[data-part="CW-RB-L-04"]').tap();
     await expect(sheet).toBeHidden();
     await expect(page.getByTestId('chosen-part')).toContainText('Round-bar');
-    await expect(announcer(page)).toContainText('Chosen: round-bar element, left hand');
+    await expect(announcer(page)).toContainText('Chosen: left-hand round-bar element');
     // A slot that does not take it says so and keeps the choice.
     await slot(page, 'bar:1:1').tap();
     await expect(announcer(page)).toContainText('does not take a round-bar element');
     await expect(page.getByTestId('chosen-part')).toBeVisible();
     await slot(page, 'element:4:left').tap();
-    await expect(slot(page, 'element:4:left')).toHaveAttribute('aria-label', /round-bar element, left hand, CW-RB-L-04/);
-    await expect(announcer(page)).toContainText('Placed round-bar element, left, position 4');
+    await expect(slot(page, 'element:4:left')).toHaveAttribute('aria-label', /left-hand round-bar element, CW-RB-L-04/);
+    await expect(announcer(page)).toContainText('Placed round-bar element at position 4, left');
     await expect(page.getByTestId('chosen-part')).toHaveCount(0);
     await expect(page.getByTestId('save-status')).toContainText('Unsaved changes');
     await shot(page, 'editor-phone-390-placed', false);
@@ -83,7 +83,7 @@ test('desktop at 1440: the palette is beside the drawing, no sheet button', asyn
   // Click a part, then click a slot: the same choice works with a mouse.
   await page.getByTestId('palette').locator('[data-part="CW-PF-R-04"]').click();
   await slot(page, 'element:3:right').click();
-  await expect(slot(page, 'element:3:right')).toHaveAttribute('aria-label', /perforated element, right hand/);
+  await expect(slot(page, 'element:3:right')).toHaveAttribute('aria-label', /right-hand perforated plate element/);
   await shot(page, 'editor-desktop-1440', false);
   await context.close();
 });

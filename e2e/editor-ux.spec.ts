@@ -47,7 +47,7 @@ test.describe('editor: mouse drops land where the pointer is', () => {
     await page.mouse.up();
     await expect(slot(page, 'bar:1:4')).toHaveAttribute('aria-label', /discharge bar, CW-BR-DC-04/);
     await expect(slot(page, 'bar:2:4')).toHaveAttribute('aria-label', /: rasp bar, CW-BR-RS-04/);
-    await expect(announcer(page)).toContainText('Placed discharge bar, rotor row 1, position 4');
+    await expect(announcer(page)).toContainText('Placed discharge bar at rotor row 1, position 4');
   });
 
   test('the page scrolled with the wheel during a drag: the part still lands under the pointer', async ({ page }) => {
@@ -76,7 +76,7 @@ test.describe('editor: mouse drops land where the pointer is', () => {
     const cover = palettePart(page, 'CW-CP-L-04');
     await cover.scrollIntoViewIfNeeded();
     await mouseDrag(page, cover, slot(page, 'element:2:left'));
-    await expect(announcer(page)).toContainText('Nothing placed. Left, position 2 does not take a left cover plate');
+    await expect(announcer(page)).toContainText('Nothing placed. Position 2, left does not take a left cover plate');
     await expect(slot(page, 'element:2:left')).toHaveAttribute('aria-label', was!);
     await expect(page.getByTestId('save-status')).not.toContainText('Unsaved');
 
@@ -98,9 +98,9 @@ test.describe('editor: focus follows the selection after a keyboard drop', () =>
     await expect(dndRegion(page)).toContainText('Picked up');
     await page.keyboard.press('ArrowRight');
     await page.keyboard.press('ArrowRight');
-    await expect(dndRegion(page)).toContainText('Over right, position 3');
+    await expect(dndRegion(page)).toContainText('Over position 3, right');
     await page.keyboard.press('Space');
-    await expect(announcer(page)).toContainText('Swapped: fine-wire element now at right, position 3');
+    await expect(announcer(page)).toContainText('Swapped: fine-wire element now at position 3, right');
     await expect(to).toBeFocused();
     await expect(to).toHaveAttribute('aria-pressed', 'true');
     await expect(from).toHaveAttribute('aria-pressed', 'false');
@@ -109,7 +109,7 @@ test.describe('editor: focus follows the selection after a keyboard drop', () =>
     await expect(to).toBeFocused();
 
     await page.keyboard.press('Delete');
-    await expect(announcer(page)).toContainText('Removed fine-wire element from right, position 3');
+    await expect(announcer(page)).toContainText('Removed fine-wire element from position 3, right');
     await expect(to).toHaveAttribute('aria-label', /: empty/);
     await expect(from).toHaveAttribute('aria-label', /wide-wire element/);
   });
@@ -120,10 +120,10 @@ test.describe('editor: focus follows the selection after a keyboard drop', () =>
     const item = palettePart(page, 'CW-RB-L-04');
     await item.focus();
     await page.keyboard.press('Space');
-    await expect(dndRegion(page)).toContainText('Picked up round-bar element');
+    await expect(dndRegion(page)).toContainText('Picked up left-hand round-bar element');
     await page.keyboard.press('ArrowRight');
     await page.keyboard.press('ArrowRight');
-    await expect(dndRegion(page)).toContainText('Over left, position 2');
+    await expect(dndRegion(page)).toContainText('Over position 2, left');
     await page.keyboard.press('Space');
     const target = slot(page, 'element:2:left');
     await expect(target).toHaveAttribute('aria-label', /round-bar element/);

@@ -15,15 +15,15 @@ test.describe('cage editor', () => {
     await expect(page.getByRole('heading', { level: 1 })).toContainText('wheat setup');
     // Every half-position of the four-position cage is drawn, with its hand in its name.
     for (const p of [1, 2, 3, 4])
-      for (const side of ['left', 'right']) await expect(slot(page, `element:${p}:${side}`)).toHaveAttribute('aria-label', new RegExp(`^${side[0]!.toUpperCase()}${side.slice(1)}, position ${p}: `));
-    await expect(slot(page, 'element:1:left')).toHaveAttribute('aria-label', /fine-wire element, left hand/);
+      for (const side of ['left', 'right']) await expect(slot(page, `element:${p}:${side}`)).toHaveAttribute('aria-label', new RegExp(`^Position ${p}, ${side}: `));
+    await expect(slot(page, 'element:1:left')).toHaveAttribute('aria-label', /left-hand fine-wire element/);
     await expect(page.getByTestId('tip-speed')).toContainText('m/s');
     // Pointing at a slot shows its part, opening and how the crop's kernel passes.
     await slot(page, 'element:1:left').hover();
     const details = page.getByTestId('slot-details');
-    await expect(details).toContainText('Left, position 1: fine-wire element, left hand');
+    await expect(details).toContainText('Position 1, left: left-hand fine-wire element');
     await expect(details).toContainText('opening 5.0 mm × 25.0 mm · open area 38 %');
-    await expect(details).toContainText(/Wheat kernels \([\d.]+ mm across\) pass, [\d.]+ mm to spare/);
+    await expect(details).toContainText(/Wheat kernels pass by their smallest size \([\d.]+ mm\); the larger ones \(about [\d.]+ mm\) pass with [\d.]+ mm to spare/);
     await page.mouse.move(5, 5);
     await shot(page, 'editor-desktop', false);
     await shot(page, 'editor-desktop-full');
@@ -53,12 +53,12 @@ test.describe('cage editor', () => {
     const item = page.getByTestId('palette').locator('[data-part="CW-FW-R-04"]');
     await mouseDrag(page, item, target);
 
-    await expect(target).toHaveAttribute('aria-label', /fine-wire element, right hand, CW-FW-R-04/);
-    await expect(announcer(page)).toContainText('Placed fine-wire element, right, position 1');
+    await expect(target).toHaveAttribute('aria-label', /right-hand fine-wire element, CW-FW-R-04/);
+    await expect(announcer(page)).toContainText('Placed fine-wire element at position 1, right');
     // Fine wires in soybeans: the kernel does not pass and the element rubs too hard.
     await expect(announcer(page)).toContainText('Hurts the crop');
     await expect(target).toHaveAttribute('aria-label', /Hurts the crop: /);
-    await expect(page.getByTestId('findings').locator('[data-code="CROP_AGGRESSIVE_FRAGILE"]')).toContainText('right, position 1');
+    await expect(page.getByTestId('findings').locator('[data-code="CROP_AGGRESSIVE_FRAGILE"]')).toContainText('position 1, right');
     expect(await findingCount(page)).toBeGreaterThan(before);
     await expect(page.getByTestId('save-status')).toContainText('Unsaved changes');
     await shot(page, 'editor-after-mouse-drop', false);
@@ -81,24 +81,24 @@ test.describe('cage editor', () => {
     await expect(item).toHaveCount(1);
     await item.focus();
     await page.keyboard.press('Space');
-    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Picked up wide-wire element, left hand');
-    // Right: the first element slot (left, position 1), then along the rotor to position 3;
+    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Picked up left-hand wide-wire element');
+    // Right: the first element slot (position 1, left), then along the rotor to position 3;
     // Down: the right half under it.
     await page.keyboard.press('ArrowRight');
-    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over left, position 1');
+    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over position 1, left');
     await page.keyboard.press('ArrowRight');
     await page.keyboard.press('ArrowRight');
-    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over left, position 3');
+    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over position 3, left');
     await page.keyboard.press('ArrowDown');
-    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over right, position 3');
+    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over position 3, right');
     await page.keyboard.press('Space');
 
     const target = slot(page, 'element:3:right');
-    await expect(announcer(page)).toContainText('Placed wide-wire element, right, position 3');
+    await expect(announcer(page)).toContainText('Placed wide-wire element at position 3, right');
     await expect(announcer(page)).toContainText('Blocks fit: Left-hand element in the right half');
     await expect(target).toHaveAttribute('aria-label', /Blocks fit: Left-hand element in the right half/);
     const finding = page.getByTestId('findings').locator('[data-code="FIT_HAND_MISMATCH"]');
-    await expect(finding).toContainText('right, position 3');
+    await expect(finding).toContainText('position 3, right');
 
     // Choosing the finding puts focus on its place in the drawing.
     await finding.click();
@@ -108,7 +108,7 @@ test.describe('cage editor', () => {
 
     // Keyboard only from the drawing: Delete takes it off, Ctrl+Z puts it back.
     await page.keyboard.press('Delete');
-    await expect(announcer(page)).toContainText('Removed wide-wire element from right, position 3');
+    await expect(announcer(page)).toContainText('Removed wide-wire element from position 3, right');
     await expect(target).toHaveAttribute('aria-label', /: empty/);
     await page.keyboard.press('Control+z');
     await expect(target).toHaveAttribute('aria-label', /Blocks fit: Left-hand element/);
@@ -123,9 +123,9 @@ test.describe('cage editor', () => {
     // Quick keys: the arrow may come before dnd-kit listens for keys; the editor passes it on.
     await page.keyboard.press('Space');
     await page.keyboard.press('ArrowRight');
-    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over left, position 3, holding a wide-wire element');
+    await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over position 3, left, holding a wide-wire element');
     await page.keyboard.press('Space');
-    await expect(announcer(page)).toContainText('Swapped: fine-wire element now at left, position 3, wide-wire element now at left, position 2');
+    await expect(announcer(page)).toContainText('Swapped: fine-wire element now at position 3, left; wide-wire element now at position 2, left');
     await expect(to).toHaveAttribute('aria-label', /fine-wire element/);
     await expect(from).toHaveAttribute('aria-label', /wide-wire element/);
 
@@ -141,9 +141,9 @@ test.describe('cage editor', () => {
     await openEditor(page, 'operator2', 'Bean Runner');
     const from = slot(page, 'element:4:right');
     await mouseDrag(page, from, page.getByTestId('palette').getByRole('heading', { name: 'Parts' }));
-    await expect(from).toHaveAttribute('aria-label', /: empty\. Blocks fit: Nothing at position 4, right half/);
+    await expect(from).toHaveAttribute('aria-label', /: empty\. Blocks fit: Nothing at position 4, right/);
     await expect(announcer(page)).toContainText('Removed');
-    await expect(page.getByTestId('findings').locator('[data-code="FIT_EMPTY_POSITION"]')).toContainText('right, position 4');
+    await expect(page.getByTestId('findings').locator('[data-code="FIT_EMPTY_POSITION"]')).toContainText('position 4, right');
   });
 
   test('settings: rotor speed updates tip speed and findings; units switch to inches and is kept', async ({ page }) => {
@@ -182,7 +182,7 @@ test.describe('cage editor', () => {
 
     await page.reload();
     await expect(page.locator('astro-island[ssr]')).toHaveCount(0);
-    await expect(slot(page, 'element:4:left')).toHaveAttribute('aria-label', /round-bar element, left hand, CW-RB-L-04/);
+    await expect(slot(page, 'element:4:left')).toHaveAttribute('aria-label', /left-hand round-bar element, CW-RB-L-04/);
     await expect(page.getByLabel('Vane setting')).toHaveValue('slow');
     await expect(page.getByTestId('save-status')).toContainText(`Version ${start + 1}`);
     const saved = await (await page.request.get(`/api/layouts/${layoutId}`)).json();

@@ -17,7 +17,7 @@ test('plan a crop change, accept it, make a parts request and send it; the desk 
   await expect(cautions).toContainText('operator’s manual');
   const steps = page.getByTestId('plan-steps').locator('li');
   await expect(steps).toHaveCount(6);
-  await expect(steps.first()).toContainText('Take off the left-hand fine-wire element CW-FW-L-04 at position 1, left half');
+  await expect(steps.first()).toContainText('Take off the left-hand fine-wire element CW-FW-L-04 at position 1, left');
   await expect(steps.last()).toContainText('Order 2 × CW-RB-R-04');
   const cautionsBox = await cautions.boundingBox();
   const firstStep = await steps.first().boundingBox();

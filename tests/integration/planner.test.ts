@@ -31,7 +31,7 @@ describe('POST /api/plans', () => {
     expect(plan.cautions.join(' ')).toMatch(/Engine off, key out/);
     expect(plan.cautions.join(' ')).toMatch(/operator’s manual/);
     expect(plan.steps.map((s: any) => s.kind)).toEqual(['remove', 'remove', 'remove', 'remove', 'buy', 'buy']);
-    expect(plan.steps[0].text).toMatch(/^Take off the left-hand fine-wire element CW-FW-L-04 at position 1, left half/);
+    expect(plan.steps[0].text).toMatch(/^Take off the left-hand fine-wire element CW-FW-L-04 at position 1, left/);
     // The proposal passes every fit rule, checked again by the server's own check endpoint.
     const check = await olive.post('/api/check', { layout: plan.layout });
     expect(check.status).toBe(200);

@@ -4,7 +4,7 @@ import type { BarKind } from '../../lib/domain/schemas';
 import { INK, INK_MUTED, SEVERITY_STYLE, STEEL } from './palette';
 import type { SlotInfo } from './slot-types';
 import { SlotMarks } from './SlotMarks';
-import { BAR_SHORT } from './words';
+import { barKindLabel } from '../../lib/domain/vocabulary';
 
 function BarShape({ kind, x, y, w }: { kind: BarKind; x: number; y: number; w: number }) {
   // y is the bar's centre line.
@@ -56,7 +56,7 @@ function BarSlotView({ info, inLine, compact }: { info: SlotInfo; inLine: boolea
   const barX = x + 22;
   const barW = w - 44;
   const sev = info.severity ? SEVERITY_STYLE[info.severity] : undefined;
-  let words = bar ? BAR_SHORT[bar.barKind] : info.partNumber ? 'Unknown part' : 'no bar';
+  let words = bar ? barKindLabel(bar.barKind) : info.partNumber ? 'Unknown part' : 'no bar';
   if (inLine) words += ' · in line';
   return (
     <>

@@ -48,7 +48,7 @@ import { diagramGeometry, slotBox, VANE_LEAN_DEG, type DiagramGeometry } from '.
 import { INK, INK_MUTED, INK_SOFT, SEVERITY_STYLE, STEEL } from './palette';
 import { PatternDefs } from './patterns';
 import type { SlotAttrs, SlotInfo } from './slot-types';
-import { partWordsWithHand, placeWords, severityWords } from './words';
+import { partNameWithHand, placeLabel, severityWords } from '../../lib/domain/vocabulary';
 
 export type { SlotInfo, SlotAttrs } from './slot-types';
 
@@ -88,17 +88,13 @@ interface DrawnSlot {
 /** The findings at a place as far as the slot shows them (its marks and accessible name). */
 const findingsSignature = (fs: readonly Finding[]) => (fs.length === 0 ? '' : fs.map((f) => `${f.severity}\u0001${f.code}\u0001${f.title}`).join('\u0002'));
 
-function capitalise(s: string) {
-  return s.charAt(0).toUpperCase() + s.slice(1);
-}
-
 function slotLabel(place: Place, part: CatalogPart | undefined, partNumber: string | undefined, seat: boolean, findings: readonly Finding[], changed: boolean): string {
   let content: string;
-  if (part) content = `${partWordsWithHand(part)}, ${part.partNumber}`;
+  if (part) content = `${partNameWithHand(part)}, ${part.partNumber}`;
   else if (partNumber) content = `unknown part ${partNumber}`;
   else if (place.kind === 'cover' && !seat) content = 'no plate seat';
   else content = 'empty';
-  let s = `${capitalise(placeWords(place))}: ${content}`;
+  let s = `${placeLabel(place)}: ${content}`;
   if (changed) s += '. Changed';
   for (const f of findings) s += `. ${severityWords(f.severity)}: ${f.title}`;
   return s;

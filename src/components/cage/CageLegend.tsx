@@ -4,10 +4,11 @@
  */
 import { useId } from 'react';
 import { STEEL } from './palette';
-import { ELEMENT_LABEL, ELEMENT_TYPES, ElementSwatch } from './patterns';
+import { ElementSwatch } from './patterns';
 import { SeverityBadge } from './SeverityIcon';
 import { SEVERITY_STYLE } from './palette';
 import type { Severity } from '../../lib/domain/schemas';
+import { ELEMENT_TYPES, elementTypeLabel } from '../../lib/domain/vocabulary';
 
 const SEVERITIES: Severity[] = ['blocks-fit', 'hurts-crop', 'advice'];
 const OUTLINE_WORDS: Record<Severity, string> = {
@@ -25,7 +26,7 @@ export function CageLegend({ className }: { className?: string }) {
         {ELEMENT_TYPES.map((t) => (
           <li key={t} className="flex items-center gap-1.5">
             <ElementSwatch type={t} prefix={`${prefix}-${t}`} width={34} height={20} />
-            {ELEMENT_LABEL[t]}
+            {elementTypeLabel(t)}
           </li>
         ))}
       </ul>

@@ -4,9 +4,10 @@ import type { Side } from '../../lib/domain/schemas';
 import type { UnitSystem } from '../../lib/domain/units';
 import { formatLength, mm } from '../../lib/domain/units';
 import { INK, INK_MUTED, STEEL } from './palette';
-import { ELEMENT_LABEL, patternId } from './patterns';
+import { patternId } from './patterns';
 import type { SlotInfo } from './slot-types';
 import { SlotMarks } from './SlotMarks';
+import { elementTypeLabel } from '../../lib/domain/vocabulary';
 
 interface Props {
   info: SlotInfo;
@@ -49,7 +50,7 @@ function ElementSlotView({ info, side, prefix, units, compact }: Props) {
         </text>
       )}
       <text x={x + 8} y={y + faceH + (compact ? 15 : 16)} fontSize={compact ? 11.5 : 13.5} fontWeight={700} fill={INK}>
-        {part ? ELEMENT_LABEL[part.elementType] : info.partNumber ? 'Unknown part' : ''}
+        {part ? elementTypeLabel(part.elementType) : info.partNumber ? 'Unknown part' : ''}
       </text>
       {!compact && foreignHand ? (
         <text x={x + 8} y={y + faceH + 31} fontSize={10.5} fontWeight={700} fill="#b3261e">

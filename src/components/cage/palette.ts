@@ -6,6 +6,7 @@
  * outline style, an icon shape and words.
  */
 import type { Severity } from '../../lib/domain/schemas';
+import { severityWords } from '../../lib/domain/vocabulary';
 
 export const INK = '#1c2430';
 export const INK_SOFT = '#3d4a5c';
@@ -38,9 +39,9 @@ export interface SeverityStyle {
 }
 
 export const SEVERITY_STYLE: Record<Severity, SeverityStyle> = {
-  'blocks-fit': { words: 'Blocks fit', colour: '#b3261e', soft: '#fde8e6', dash: undefined, strokeWidth: 3.5, rank: 0 },
-  'hurts-crop': { words: 'Hurts the crop', colour: '#a35200', soft: '#fff1df', dash: '7 4', strokeWidth: 3, rank: 1 },
-  advice: { words: 'Advice', colour: '#1f5fa8', soft: '#e6f0fb', dash: '2 4', strokeWidth: 3, rank: 2 },
+  'blocks-fit': { words: severityWords('blocks-fit'), colour: '#b3261e', soft: '#fde8e6', dash: undefined, strokeWidth: 3.5, rank: 0 },
+  'hurts-crop': { words: severityWords('hurts-crop'), colour: '#a35200', soft: '#fff1df', dash: '7 4', strokeWidth: 3, rank: 1 },
+  advice: { words: severityWords('advice'), colour: '#1f5fa8', soft: '#e6f0fb', dash: '2 4', strokeWidth: 3, rank: 2 },
 };
 
 export const CHANGED_COLOUR = IRIS[700];

@@ -10,27 +10,6 @@ import type React from 'react';
 import type { ElementType } from '../../lib/domain/schemas';
 import { STEEL } from './palette';
 
-export const ELEMENT_TYPES: readonly ElementType[] = [
-  'fine-wire',
-  'wide-wire',
-  'skip-wire',
-  'round-bar',
-  'perforated',
-  'blank',
-  'close-bar',
-];
-
-/** Short labels written on each element in the drawing and in legends. */
-export const ELEMENT_LABEL: Record<ElementType, string> = {
-  'fine-wire': 'Fine-wire',
-  'wide-wire': 'Wide-wire',
-  'skip-wire': 'Skip-wire',
-  'round-bar': 'Round-bar',
-  perforated: 'Perforated',
-  blank: 'Blank plate',
-  'close-bar': 'Close-bar',
-};
-
 export const patternId = (prefix: string, name: ElementType | 'cover' | 'no-seat' | 'empty') => `${prefix}-pat-${name}`;
 
 const BAR = STEEL[600];

@@ -16,6 +16,8 @@ import {
   type CatalogPart,
 } from '../../lib/domain/schemas';
 import { ApiError, sendJson } from '../shared/api';
+import { barKindName, elementTypeLabel } from '../../lib/domain/vocabulary';
+import { capitalise } from '../../lib/domain/words';
 
 export interface FamilyOption {
   id: string;
@@ -43,17 +45,7 @@ const partFormSchema = z.preprocess(
   z.object({ familyId: slugSchema, active: z.boolean(), part: catalogPartSchema }),
 );
 
-const ELEMENT_TYPE_WORDS: Record<string, string> = {
-  'fine-wire': 'Fine-wire',
-  'wide-wire': 'Wide-wire',
-  'skip-wire': 'Skip-wire',
-  'round-bar': 'Round-bar',
-  perforated: 'Perforated plate',
-  blank: 'Blank plate',
-  'close-bar': 'Close-bar',
-};
 const ROLE_WORDS: Record<string, string> = { concave: 'Concave (front, split cage)', grate: 'Grate (rear, split cage)', either: 'Either (modular cage)' };
-const BAR_WORDS: Record<string, string> = { rasp: 'Rasp bar', 'smooth-rasp': 'Smooth-top rasp bar', 'spike-rasp': 'Spike rasp bar', straight: 'Straight interrupter bar', discharge: 'Discharge bar' };
 
 const KINDS = [
   ['element', 'Cage element (concave or grate)'],
@@ -202,7 +194,7 @@ export default function PartForm({ families, existing, readOnly = false }: PartF
               <select id="f-part-elementType" className="field-input" {...register('part.elementType')}>
                 {elementTypeSchema.options.map((t) => (
                   <option key={t} value={t}>
-                    {ELEMENT_TYPE_WORDS[t]}
+                    {elementTypeLabel(t)}
                   </option>
                 ))}
               </select>
@@ -277,7 +269,7 @@ export default function PartForm({ families, existing, readOnly = false }: PartF
             <select id="f-part-barKind" className="field-input" {...register('part.barKind')}>
               {barKindSchema.options.map((b) => (
                 <option key={b} value={b}>
-                  {BAR_WORDS[b]}
+                  {capitalise(barKindName(b))}
                 </option>
               ))}
             </select>

@@ -14,7 +14,8 @@ import { useCallback, useEffect, useId, useMemo, useRef, useState } from 'react'
 import { cropPathModel, kernelFate, seeded, TURNS_PER_SECOND, type CropPathModel, type KernelFate } from '../../lib/classroom/crop-path';
 import type { CatalogPart, Layout, MachineFamily, VaneSetting } from '../../lib/domain/schemas';
 import { INK, INK_MUTED, INK_SOFT, STEEL } from '../cage/palette';
-import { ELEMENT_LABEL, PatternDefs, patternId } from '../cage/patterns';
+import { PatternDefs, patternId } from '../cage/patterns';
+import { elementTypeLabel } from '../../lib/domain/vocabulary';
 
 const VANE_WORDS: Record<VaneSetting, string> = { 'very-slow': 'very slow', slow: 'slow', medium: 'medium', fast: 'fast' };
 const GRAIN = '#a35200';
@@ -355,7 +356,7 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
                 <rect x={x} y={y} width={w} height={BAND - 6} rx={4} fill={h.elementType ? `url(#${patternId(prefix, h.elementType)})` : STEEL[50]} stroke={STEEL[500]} opacity={0.55} />
                 <rect x={x + 4} y={y + 4} width={Math.min(w - 8, 132)} height={46} rx={3} fill="#fff" opacity={0.92} />
                 <text x={x + 9} y={y + 23} fontSize={small} fontWeight={700} fill={INK}>
-                  {h.elementType ? ELEMENT_LABEL[h.elementType] : 'empty'}
+                  {h.elementType ? elementTypeLabel(h.elementType) : 'empty'}
                 </text>
                 <text x={x + 9} y={y + 43} fontSize={small * 0.9} fill={INK_SOFT}>
                   {h.elementType === null

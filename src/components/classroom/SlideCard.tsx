@@ -7,6 +7,7 @@ import type { DeckEditorProps } from './editor-types';
 import type { SlideRecord } from '../../lib/responses';
 import { draftToSource, initialDraft, SourcePicker, type SourceDraft } from './SourcePicker';
 import { sourceWords } from './types';
+import { countOf } from '../../lib/domain/words';
 
 interface Props extends Pick<DeckEditorProps, 'families' | 'catalogs' | 'units' | 'layoutChoices' | 'crops'> {
   deckId: string;
@@ -66,7 +67,7 @@ export function SlideCard(props: Props) {
             <p className="mt-2 rounded bg-steel-100 p-3 text-sm">No layout to show.</p>
           )}
           <p className="mt-1 text-sm text-ink-muted">{sourceWords({ ...slide, familyId: familyId ?? null, findings: [], settings: null }, families)}</p>
-          <p className="text-sm text-ink-muted">{findings.length === 0 ? 'No findings' : `${findings.length} ${findings.length === 1 ? 'finding' : 'findings'}`}</p>
+          <p className="text-sm text-ink-muted">{findings.length === 0 ? 'No findings' : countOf(findings.length, 'finding')}</p>
         </div>
 
         <div className="min-w-[18rem] flex-1 space-y-3">

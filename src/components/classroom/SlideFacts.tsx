@@ -11,7 +11,7 @@ import type { Settings } from '../../lib/domain/compute';
 import type { Finding, Layout, MachineFamily } from '../../lib/domain/schemas';
 import { formatLength, formatSpeed, mm, type UnitSystem } from '../../lib/domain/units';
 import { SeverityBadge } from '../cage/SeverityIcon';
-import { severityWords } from '../cage/words';
+import { severityWords } from '../../lib/domain/vocabulary';
 
 const VANE_WORDS = { 'very-slow': 'very slow', slow: 'slow', medium: 'medium', fast: 'fast' } as const;
 const pct = (x: number) => `${Math.round(x * 100)} %`;

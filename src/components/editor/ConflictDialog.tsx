@@ -7,6 +7,8 @@ import { useEffect, useRef, useState } from 'react';
 import { checkLayout } from '../../lib/domain/rules';
 import { CageDiagram } from '../cage/CageDiagram';
 import { useEditor, useEditorStoreApi } from './store/context';
+import { countOf } from '../../lib/domain/words';
+import { cropNoun } from '../../lib/domain/vocabulary';
 
 export function ConflictDialog() {
   const store = useEditorStoreApi();
@@ -57,7 +59,7 @@ export function ConflictDialog() {
         <figure className="mt-3 rounded-md border border-steel-200 p-2">
           <CageDiagram family={family} layout={v.body} catalog={catalog} findings={theirs} units={units} compact endView={false} title={`Version ${v.version}, as saved`} className="max-h-[38vh]" />
           <figcaption className="mt-1 text-xs text-ink-muted">
-            Version {v.version}: {v.body.crop.replace('-', ' ')}, {v.body.rotorRpm} rpm, {theirs.length} finding{theirs.length === 1 ? '' : 's'}.
+            Version {v.version}: {cropNoun(v.body.crop)}, {v.body.rotorRpm} rpm, {countOf(theirs.length, 'finding')}.
           </figcaption>
         </figure>
         <div className="mt-4 grid gap-4 md:grid-cols-2">

@@ -10,9 +10,9 @@ import { CageDiagram, type SlotAttrs, type SlotInfo } from '../cage/CageDiagram'
 import { diagramGeometry, slotBox } from '../cage/geometry';
 import { IRIS } from '../cage/palette';
 import { isPickUpKey, keepKeyForSensor, useCarry, useCarryUi } from './carry';
-import { accepts } from './store/layout-edits';
+import { accepts } from '../../lib/domain/layout-edits';
 import { partTitle } from './part-visuals';
-import { partWords } from '../cage/words';
+import { partName } from '../../lib/domain/vocabulary';
 import { SlotDetails } from './SlotDetails';
 import { ARROW_DIRECTION, slotsFor, stepPlace } from './keyboard';
 import { useEditor, useEditorStoreApi } from './store/context';
@@ -105,7 +105,7 @@ const EditorSlot = memo(function EditorSlot({ info, attrs, canEdit, children }: 
           if (accepts(armed, info.place)) {
             carry.ui.setState({ armed: null });
             store.getState().placePart(armed.partNumber, info.place, { focus: true });
-          } else store.getState().announce(`${info.label.split(':')[0]} does not take a ${partWords(armed)}; tap a dashed slot.`);
+          } else store.getState().announce(`${info.label.split(':')[0]} does not take a ${partName(armed)}; tap a dashed slot.`);
           return;
         }
         store.getState().select(info.place);

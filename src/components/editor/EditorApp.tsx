@@ -21,7 +21,7 @@ import {
 import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { parsePlaceKey, placeKey } from '../../lib/domain/places';
 import type { Place } from '../../lib/domain/schemas';
-import { partWords, partWordsWithHand, placeWords } from '../cage/words';
+import { partName, partNameWithHand, placeLabel, placeWords } from '../../lib/domain/vocabulary';
 import { CarryHandle, CarryProvider, createCarry, type CarryData } from './carry';
 import { ConflictDialog } from './ConflictDialog';
 import { DiagramPane } from './DiagramPane';
@@ -33,12 +33,11 @@ import { Palette } from './Palette';
 import { PartSwatch, partTitle } from './part-visuals';
 import { SettingsPanel } from './SettingsPanel';
 import { useEditor, useEditorStoreApi } from './store/context';
-import { accepts, partNumberAt } from './store/layout-edits';
+import { accepts, partNumberAt } from '../../lib/domain/layout-edits';
 import { Toolbar } from './Toolbar';
 import { useShortcuts } from './use-shortcuts';
 import { useUnsavedGuard } from './use-unsaved-guard';
 
-const capitalise = (t: string) => t.charAt(0).toUpperCase() + t.slice(1);
 
 /** No dnd-kit drop targets: slots and the palette are found by position (see ./carry.tsx). */
 const collision: CollisionDetection = () => [];
@@ -142,7 +141,7 @@ export function EditorApp() {
         announced.current = null;
         const c = active.data.current as CarryData | undefined;
         if (!c?.part) return undefined;
-        return `Picked up ${partWordsWithHand(c.part)}${c.from ? ` from ${placeWords(c.from)}` : ''}. Arrow keys move between the slots that take it; Space puts it down; Escape puts it back.`;
+        return `Picked up ${partNameWithHand(c.part)}${c.from ? ` from ${placeWords(c.from)}` : ''}. Arrow keys move between the slots that take it; Space puts it down; Escape puts it back.`;
       },
       onDragMove() {
         const { hover, overPalette, carrying } = carry.ui.getState();
@@ -157,14 +156,14 @@ export function EditorApp() {
         if (!hover) return undefined;
         const there = partNumberAt(store.getState().layout, hover);
         const p = there ? store.getState().catalog.byPartNumber.get(there) : undefined;
-        return `Over ${placeWords(hover)}, ${p ? `holding a ${partWords(p)}` : there ? `holding part ${there}` : 'empty'}.`;
+        return `Over ${placeWords(hover)}, ${p ? `holding a ${partName(p)}` : there ? `holding part ${there}` : 'empty'}.`;
       },
       onDragOver: () => undefined,
       // The result of a drop is read from the editor's own live region (with the findings).
       onDragEnd: () => '',
       onDragCancel({ active }) {
         const c = active.data.current as CarryData | undefined;
-        return c?.part ? `Put back: ${partWords(c.part)}${c.from ? ` stays at ${placeWords(c.from)}` : ''}.` : 'Put back.';
+        return c?.part ? `Put back: ${partName(c.part)}${c.from ? ` stays at ${placeWords(c.from)}` : ''}.` : 'Put back.';
       },
     }),
     [carry, store],
@@ -190,9 +189,9 @@ export function EditorApp() {
 
   /** Nothing was placed: say so, and say where the part goes. */
   const dropMissed = (c: CarryData, under: Place | null) => {
-    const what = partWordsWithHand(c.part);
+    const what = partNameWithHand(c.part);
     const goes = c.part.kind === 'element' ? 'a half-position of the element ring' : c.part.kind === 'cover-plate' ? 'a cage-top slot' : 'a place on the rotor strip';
-    const where = under ? `${capitalise(placeWords(under))} does not take a ${what}` : `Not over a slot that takes the ${what}`;
+    const where = under ? `${placeLabel(under)} does not take a ${what}` : `Not over a slot that takes the ${what}`;
     const stays = c.from ? ` It stays at ${placeWords(c.from)}.` : '';
     store.getState().announce(`Nothing placed. ${where}; it goes in ${goes}, shown dashed while you carry it.${stays}`);
   };
@@ -215,7 +214,7 @@ export function EditorApp() {
     const s = store.getState();
     if (overPalette) {
       if (c.from) s.removePart(c.from);
-      else s.announce(`Put back: ${partWords(c.part)}.`);
+      else s.announce(`Put back: ${partName(c.part)}.`);
       return;
     }
     if (!hover || !accepts(c.part, hover)) return dropMissed(c, under);

@@ -8,7 +8,7 @@ import { countBySeverity } from '../../lib/domain/rules';
 import type { Finding, Severity } from '../../lib/domain/schemas';
 import { SeverityBadge } from '../cage/SeverityIcon';
 import { SEVERITY_STYLE } from '../cage/palette';
-import { placeWords } from '../cage/words';
+import { placeWords } from '../../lib/domain/vocabulary';
 import { useEditor, useEditorStoreApi } from './store/context';
 
 const ORDER: Severity[] = ['blocks-fit', 'hurts-crop', 'advice'];

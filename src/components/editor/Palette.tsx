@@ -8,11 +8,10 @@ import { INSTRUCTIONS_ID } from './instructions';
 import { memo, useDeferredValue, useEffect, useMemo, useRef, useState } from 'react';
 import type { CatalogPart, ElementType, Side, Zone } from '../../lib/domain/schemas';
 import { formatLength, mm, type UnitSystem } from '../../lib/domain/units';
-import { ELEMENT_LABEL, ELEMENT_TYPES } from '../cage/patterns';
-import { partWords, partWordsWithHand, placeWords } from '../cage/words';
+import { ELEMENT_TYPES, elementTypeLabel, partName, partNameWithHand, placeWords } from '../../lib/domain/vocabulary';
 import { PartSwatch, partDetail, partTitle } from './part-visuals';
 import { useEditor, useEditorStoreApi } from './store/context';
-import { accepts } from './store/layout-edits';
+import { accepts } from '../../lib/domain/layout-edits';
 import type { StockCount } from './store/types';
 
 type TypeFilter = 'all' | ElementType | 'cover-plate' | 'rotor-bar';
@@ -20,7 +19,7 @@ type TypeFilter = 'all' | ElementType | 'cover-plate' | 'rotor-bar';
 
 /** "Fine-wire", "Fine-wire concave", "Right cover plate", "Rasp bar". */
 function shortName(p: CatalogPart): string {
-  if (p.kind === 'element') return `${ELEMENT_LABEL[p.elementType]}${p.role === 'either' ? '' : ` ${p.role}`}`;
+  if (p.kind === 'element') return `${elementTypeLabel(p.elementType)}${p.role === 'either' ? '' : ` ${p.role}`}`;
   return partTitle(p);
 }
 
@@ -87,11 +86,11 @@ const PaletteItem = memo(function PaletteItem({ part, units, stock, canEdit, tab
         const was = carry.ui.getState().armed;
         if (was?.partNumber === part.partNumber) {
           carry.ui.setState({ armed: null });
-          s.announce(`Let go of the ${partWords(part)}.`);
+          s.announce(`Let go of the ${partName(part)}.`);
           return;
         }
         carry.ui.setState({ armed: part });
-        s.announce(`Chosen: ${partWordsWithHand(part)}. Tap or click a slot that takes it (dashed in the drawing) to put it there.`);
+        s.announce(`Chosen: ${partNameWithHand(part)}. Tap or click a slot that takes it (dashed in the drawing) to put it there.`);
       }}
       className={`palette-option flex w-full items-center md:touch-none gap-2.5 rounded-md border border-steel-200 bg-white px-2 py-1.5 text-left outline-none focus-visible:ring-2 focus-visible:ring-iris-500 ${
         canEdit ? 'cursor-pointer hover:border-iris-400 hover:bg-iris-50' : 'cursor-default'
@@ -140,7 +139,7 @@ const PaletteContents = memo(function PaletteContents() {
       if (zone !== 'any' && p.kind !== 'element') return false;
       if (hand !== 'any' && ((p.kind === 'element' && p.hand !== hand) || (p.kind === 'cover-plate' && p.side !== hand))) return false;
       if (q) {
-        const hay = `${p.name} ${p.partNumber} ${partTitle(p)} ${p.kind === 'element' ? `${p.hand} ${ELEMENT_LABEL[p.elementType]}` : ''}`.toLowerCase();
+        const hay = `${p.name} ${p.partNumber} ${partTitle(p)} ${p.kind === 'element' ? `${p.hand} ${elementTypeLabel(p.elementType)}` : ''}`.toLowerCase();
         if (!q.split(/\s+/).every((w) => hay.includes(w))) return false;
       }
       return true;
@@ -181,7 +180,7 @@ const PaletteContents = memo(function PaletteContents() {
               <option value="all">All</option>
               {ELEMENT_TYPES.map((t) => (
                 <option key={t} value={t}>
-                  {ELEMENT_LABEL[t]}
+                  {elementTypeLabel(t)}
                 </option>
               ))}
               <option value="cover-plate">Cover plate</option>

@@ -16,6 +16,7 @@ import { SEVERITY_STYLE } from '../cage/palette';
 import { useEditor, useEditorStoreApi } from './store/context';
 import { NumberField } from './NumberField';
 import type { EditorState } from './store/types';
+import { CAPACITY_MODEL_WORDS } from '../../lib/domain/cage-metrics';
 
 const VANE_SETTINGS = ['very-slow', 'slow', 'medium', 'fast'] as const;
 const VANE_WORDS = { 'very-slow': 'Very slow', slow: 'Slow', medium: 'Medium', fast: 'Fast' } as const;
@@ -240,6 +241,9 @@ function ComputedFacts() {
       </dd>
       <dt className="text-ink-muted">Capacity factor</dt>
       <dd className="text-right font-semibold">× {c.capacity.value.toFixed(2)}</dd>
+      <dd className="col-span-2 text-xs text-ink-muted" data-testid="capacity-model">
+        {CAPACITY_MODEL_WORDS}
+      </dd>
       <dt className="text-ink-muted">Parts</dt>
       <dd className="text-right font-semibold">
         {c.parts.count} · {formatMass(kg(c.parts.totalMassKg), units)}

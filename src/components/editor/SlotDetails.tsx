@@ -2,25 +2,29 @@
  * What the slot under the pointer (or the selected one) holds: part, part number, opening sizes
  * and open area, and how the opening compares with the crop's kernel. Shown under the drawing.
  */
-import { passageMargin } from '../../lib/domain/cage-metrics';
+import { kernelPassage } from '../../lib/domain/cage-metrics';
+import { capitalise } from '../../lib/domain/words';
 import { cropPrograms } from '../../lib/domain/crops';
 import { placeKey } from '../../lib/domain/places';
 import { formatLength, mm, type UnitSystem } from '../../lib/domain/units';
 import type { CatalogPart, CropId, Place } from '../../lib/domain/schemas';
-import { openingWords, partWordsWithHand, placeWords } from '../cage/words';
+import { kernelsOf, openingWords, partNameWithHand, placeWords } from '../../lib/domain/vocabulary';
 import { useCarryUi } from './carry';
 import { useEditor, useEditorLazy } from './store/context';
-import { partNumberAt } from './store/layout-edits';
+import { partNumberAt } from '../../lib/domain/layout-edits';
 
 function kernelWords(part: CatalogPart, crop: CropId, units: UnitSystem): string | null {
   if (part.kind !== 'element') return null;
   const c = cropPrograms[crop];
-  const margin = passageMargin(part.openingMm, c.kernel);
-  const across = formatLength(mm(c.passingSizeMm), units);
-  if (margin === null) return `No opening: ${c.name.toLowerCase()} (${across} across) does not pass here.`;
-  return margin > 0
-    ? `${c.name} kernels (${across} across) pass, ${formatLength(mm(margin), units)} to spare.`
-    : `${c.name} kernels (${across} across) do not pass: short by ${formatLength(mm(-margin), units)}.`;
+  const p = kernelPassage(part.openingMm, c.kernel);
+  const len = (x: number) => formatLength(mm(x), units);
+  const kernels = capitalise(kernelsOf(crop));
+  if (p.verdict === 'closed') return `No opening: ${kernelsOf(crop)} do not pass here.`;
+  const by = p.opening === 'hole' ? `through a round hole by their middle size (${len(p.meanSizeMm)})` : `by their smallest size (${len(p.meanSizeMm)})`;
+  if (p.verdict === 'blocked') return `${kernels} pass ${by}: they do not pass here, short by ${len(-p.meanMarginMm!)}.`;
+  if (p.verdict === 'tight')
+    return `${kernels} pass ${by}; the larger ones (about ${len(p.largerSizeMm)}) need ${len(p.requiredMarginMm)} to spare: tight here, short by ${len(-p.spareMm!)}.`;
+  return `${kernels} pass ${by}; the larger ones (about ${len(p.largerSizeMm)}) pass with ${len(p.requiredMarginMm)} to spare and ${len(p.spareMm!)} more.`;
 }
 
 export function SlotDetails() {
@@ -44,7 +48,7 @@ export function SlotDetails() {
         <span className="font-semibold">{where.charAt(0).toUpperCase() + where.slice(1)}:</span>{' '}
         {part ? (
           <>
-            {partWordsWithHand(part)} <span className="text-ink-muted">· {part.partNumber}</span>
+            {partNameWithHand(part)} <span className="text-ink-muted">· {part.partNumber}</span>
             {part.kind === 'element' && (
               <span className="text-ink-muted">
                 {' '}

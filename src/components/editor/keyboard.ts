@@ -9,7 +9,7 @@ import type { KeyboardCoordinateGetter } from '@dnd-kit/core';
 import { allPlaces, placeKey } from '../../lib/domain/places';
 import type { CarryData } from './carry';
 import type { CatalogPart, MachineFamily, Place } from '../../lib/domain/schemas';
-import { accepts } from './store/layout-edits';
+import { accepts } from '../../lib/domain/layout-edits';
 
 export type Direction = 'left' | 'right' | 'up' | 'down';
 

@@ -3,7 +3,7 @@ import type { CatalogPart } from '../../lib/domain/schemas';
 import type { UnitSystem } from '../../lib/domain/units';
 import { ElementSwatch } from '../cage/patterns';
 import { STEEL } from '../cage/palette';
-import { openingWords, partWords } from '../cage/words';
+import { openingWords, partName } from '../../lib/domain/vocabulary';
 
 export function PartSwatch({ part, id }: { part: CatalogPart; id: string }) {
   if (part.kind === 'element') return <ElementSwatch type={part.elementType} prefix={id} width={40} height={28} />;
@@ -33,7 +33,7 @@ export function PartSwatch({ part, id }: { part: CatalogPart; id: string }) {
 
 /** "Wide-wire element" + "left hand · 14.0 mm opening". */
 export function partTitle(part: CatalogPart): string {
-  const w = partWords(part);
+  const w = partName(part);
   return w.charAt(0).toUpperCase() + w.slice(1);
 }
 

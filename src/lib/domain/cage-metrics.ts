@@ -25,6 +25,75 @@ export function passageMargin(opening: Opening | null, kernel: KernelSize): numb
   return Math.min(opening.width - d1, opening.length - d2);
 }
 
+/**
+ * The larger kernels of a crop. A mean size lets half the kernels through that the larger half
+ * cannot pass, so passage is judged against kernels above the mean: each dimension times
+ * LARGER_KERNEL_FACTOR. Basis: the one published size range among the crop data, canola's
+ * diameter 1.48–1.91 mm (Razavi et al., J. Agric. Sci. Technol. 11:309, 2009), has its upper end
+ * 13 % above its middle (1.91 / 1.695 = 1.127); the same spread is assumed for every crop whose
+ * source gives a mean only — an extrapolation, said so wherever it is shown. Crops whose stored
+ * size already is a published upper bound (canola) take factor 1.
+ */
+export const LARGER_KERNEL_FACTOR = 1.13;
+export const LARGER_KERNEL_BASIS =
+  'taken 13 % above the mean, the spread of the published canola size range, Razavi et al. 2009';
+
+/**
+ * Room a moving kernel needs beyond its own size to drop through an opening: 10 % of that size
+ * and at least 0.5 mm. Common practice, no published source: kernels meet the wires sliding and
+ * turning, with chaff around them, so an opening only just as wide as the kernel lets few through.
+ */
+export const PASSAGE_MARGIN_SHARE = 0.1;
+export const PASSAGE_MARGIN_MIN_MM = 0.5;
+export const PASSAGE_MARGIN_BASIS = '10 % of the kernel size and at least 0.5 mm, common practice, no published source';
+
+/** True when the crop's stored kernel size is already a published upper bound. */
+const sizeIsUpperBound = (kernel: KernelSize): boolean => /upper bound/i.test(kernel.source);
+
+export type PassageVerdict = 'passes' | 'tight' | 'blocked' | 'closed';
+
+export interface KernelPassage {
+  verdict: PassageVerdict;
+  /** slot: the kernel's smallest size must clear the width; hole: its middle size the diameter. */
+  opening: 'slot' | 'hole' | null;
+  /** The kernel size that decides passage (smallest for a slot, middle for a round hole), mean. */
+  meanSizeMm: number;
+  /** The same size of the larger kernels. */
+  largerSizeMm: number;
+  /** The room asked for beyond the larger kernel's size. */
+  requiredMarginMm: number;
+  /** The opening's decisive dimension (slot width, or hole diameter). */
+  openingMm: number | null;
+  /** Opening minus the mean kernel (negative: the average kernel does not pass). */
+  meanMarginMm: number | null;
+  /** Opening minus the larger kernel minus the required margin (negative: tight). */
+  spareMm: number | null;
+}
+
+/**
+ * How the crop's kernels get through an opening, judged on the larger kernels with a margin:
+ * closed (no opening), blocked (the mean kernel does not pass, passageMargin ≤ 0), tight (the
+ * larger kernels do not pass with PASSAGE_MARGIN to spare) or passes.
+ */
+export function kernelPassage(opening: Opening | null, kernel: KernelSize): KernelPassage {
+  const [d1, d2] = kernelDimsSorted(kernel);
+  const factor = sizeIsUpperBound(kernel) ? 1 : LARGER_KERNEL_FACTOR;
+  const round = opening !== null && isRoundHole(opening);
+  const meanSizeMm = round ? d2 : d1;
+  const largerSizeMm = meanSizeMm * factor;
+  const requiredMarginMm = Math.max(PASSAGE_MARGIN_MIN_MM, PASSAGE_MARGIN_SHARE * largerSizeMm);
+  if (!opening)
+    return { verdict: 'closed', opening: null, meanSizeMm, largerSizeMm, requiredMarginMm, openingMm: null, meanMarginMm: null, spareMm: null };
+  const meanMarginMm = passageMargin(opening, kernel)!;
+  // The larger kernel must clear both ways (smallest size across, middle size along).
+  const spareMm = Math.min(opening.width - d1 * factor, opening.length - d2 * factor) - requiredMarginMm;
+  const verdict: PassageVerdict = meanMarginMm <= 0 ? 'blocked' : spareMm < 0 ? 'tight' : 'passes';
+  return { verdict, opening: round ? 'hole' : 'slot', meanSizeMm, largerSizeMm, requiredMarginMm, openingMm: opening.width, meanMarginMm, spareMm };
+}
+
+/** An opening whose width equals its length is a round hole (schemas.ts, `openingSchema`). */
+export const isRoundHole = (o: Opening): boolean => o.width === o.length;
+
 export interface ElementPassage {
   position: number;
   side: Side;
@@ -35,6 +104,8 @@ export interface ElementPassage {
   /** null for a blank plate. */
   marginMm: number | null;
   passes: boolean | null;
+  /** Judged on the larger kernels with a margin (kernelPassage). */
+  verdict: PassageVerdict;
 }
 
 /** Passage margin of every known element in the layout (unknown part numbers are skipped). */
@@ -53,6 +124,7 @@ export function elementPassages(layout: Layout, catalog: CatalogIndex, crop: Cro
       passingSizeMm: crop.passingSizeMm,
       marginMm,
       passes: marginMm === null ? null : marginMm > 0,
+      verdict: kernelPassage(part.openingMm, crop.kernel).verdict,
     });
   }
   return out;
@@ -179,25 +251,42 @@ export function aggressivenessIndex(i: AggressivenessInput): number {
 /** The slim drum gives about 20 % more capacity in heavy, tough crops (common practice). */
 export const SLIM_DRUM_CAPACITY_GAIN = 0.2;
 
+/**
+ * Separating open area of the reference cage the capacity factor is measured against: 50 %, the
+ * open area of a wide-wire separating zone (Cagewright's reference, no published source).
+ */
+export const CAPACITY_REFERENCE_OPEN_AREA = 0.5;
+
 export interface CapacityFactor {
-  /** The product of the parts below; 1 = a full-drum cage without cover plates. */
+  /** The product of the parts below; 1 = a full-drum cage whose separating zone is 50 % open. */
   value: number;
   drum: number;
+  /** Separating open area after cover plates over the reference open area. */
   separation: number;
 }
 
 /**
- * Capacity factor (Cagewright's model): drum × separation, where drum = 1.2 for the slim drum in
- * a heavy-straw crop (common practice) and 1 otherwise, and separation = the separating zone's
- * open area after cover plates over its open area before them (cover plates trade capacity for
- * threshing).
+ * Capacity factor (Cagewright's model for comparing layouts, no published source):
+ *
+ *   capacity = drum × separation,  separation = A_sep / 0.5
+ *
+ * drum = 1.2 for the slim drum in a heavy-straw crop (common practice), else 1; A_sep = the
+ * separating zone's mean open-area fraction after cover plates (openAreaByZone). Grain leaves the
+ * straw through the separating zone's openings, so the crop the machine can take before rotor
+ * loss climbs is taken as proportional to that open area: a blank separating zone scores 0,
+ * wide-wire (50 % open) 1. Limits: linear and relative only — it ignores straw condition,
+ * moisture, feed rate, rotor speed and where in the zone the open area lies, and it says nothing
+ * about tonnes per hour.
  */
 export function capacityFactor(drumId: string, crop: CropProgram, openArea: OpenAreaByZone): CapacityFactor {
   const drum = drumId === 'slim' && crop.heavyStraw ? 1 + SLIM_DRUM_CAPACITY_GAIN : 1;
-  const sep = openArea.separating;
-  const separation = sep.before > 0 ? sep.after / sep.before : 1;
+  const separation = openArea.separating.after / CAPACITY_REFERENCE_OPEN_AREA;
   return { value: drum * separation, drum, separation };
 }
+
+/** The capacity model and its limits in a sentence, shown wherever the factor is. */
+export const CAPACITY_MODEL_WORDS =
+  'Our own comparison scale: separating open area after cover plates against a 50 % open (wide-wire) separating zone, × 1.2 for the slim drum in heavy straw. Linear and relative only: it ignores straw condition, feed rate and speed, and is not tonnes per hour.';
 
 /** Element types in the threshing zone, one per half-position (null when empty or unknown). */
 export function threshingElementTypes(layout: Layout, family: FamilyIndex, catalog: CatalogIndex): (ElementType | null)[] {

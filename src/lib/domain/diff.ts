@@ -9,6 +9,7 @@
  */
 import { barPlace, coverPlace, elementPlace, placeKey, settingPlace, type Place } from './places';
 import { settingFieldSchema, type Layout, type SettingField, type Side } from './schemas';
+import { placeLabel } from './vocabulary';
 
 /** added: empty in `a`, filled in `b`; removed: the reverse; changed: a different part or value. */
 export type ChangeKind = 'added' | 'removed' | 'changed';
@@ -137,20 +138,9 @@ const SETTING_WORDS: Record<SettingField, string> = {
   vaneSetting: 'Vane setting',
 };
 
-const SIDE_WORDS: Record<Side, string> = { left: 'left', right: 'right' };
-
-/** A plain name for a place: "Position 2, left", "Cover plate, section 2, right", "Rotor bar, row 1, position 4". */
+/** A plain name for a place: "Position 2, left", "Cage-top section 2, right", "Rotor row 1, position 4" (vocabulary.ts); a setting with its unit. */
 export function describePlace(place: Place): string {
-  switch (place.kind) {
-    case 'element':
-      return `Position ${place.position}, ${SIDE_WORDS[place.side]}`;
-    case 'cover':
-      return `Cover plate, section ${place.section}, ${SIDE_WORDS[place.side]}`;
-    case 'bar':
-      return `Rotor bar, row ${place.row}, position ${place.position}`;
-    case 'setting':
-      return SETTING_WORDS[place.field];
-  }
+  return place.kind === 'setting' ? SETTING_WORDS[place.field] : placeLabel(place);
 }
 
 /** One sentence per difference: "Position 2, left: CW-FW-L-04 → CW-WW-L-04". */

@@ -11,6 +11,7 @@ import { asCatalogIndex, type CatalogIndex } from './catalog';
 import { cropPrograms, type CropProgram } from './crops';
 import { starterLayout } from './starter';
 import { placeKey } from './places';
+import { placePart } from './layout-edits';
 import { checkLayout } from './rules';
 import type { CatalogPart, CropId, DrumId, Finding, Layout, MachineFamily, VaneControl } from './schemas';
 import { bomLine, fingerprint, type BomLine } from './planner/bom';
@@ -18,7 +19,8 @@ import { WORK_CAUTIONS } from './planner/cautions';
 import { groupOf, solveGroup, type SlotOutcome, type SlotSource, type Unit } from './planner/solve';
 import { placeOrder, workSteps, type PlanStep, type Removal } from './planner/steps';
 import { buildTargets, elementFits, elementTrouble, type PlanMode, type SlotGroup, type SlotPlace, type Targets } from './planner/targets';
-import { capitalise, elementWord, partWords, placeWords } from './planner/words';
+import { cropAdjective, cropNoun, cropVerb, elementTypeName as elementWord, partNameWithHand as partWords, placeWords } from './vocabulary';
+import { capitalise, countOf, plural } from './words';
 
 export { WORK_CAUTIONS, ONE_PERSON_LIFT_KG } from './planner/cautions';
 export { billOfMaterials, bomLine, bomTotal, handOf, partCounts, fingerprint, type Bom, type BomLine } from './planner/bom';
@@ -138,14 +140,14 @@ function installedUnits(installed: Layout | null, catalog: CatalogIndex): { unit
 /** Why a part now on the machine comes off in the proposal. */
 function removalWhy(unit: Unit, family: MachineFamily, crop: CropProgram, targets: Targets, finalAt: Map<string, CatalogPart | null>): string {
   const { part, at, atKey } = unit;
-  const cropWord = crop.name.toLowerCase();
+  const cropWord = cropNoun(crop.id);
   if (part.fitGroup !== family.fitGroup) return `it belongs to another machine family (fit group "${part.fitGroup}")`;
   const off = targets.offReasons.get(atKey!);
   if (off && part.kind === 'cover-plate') return off;
   if (part.kind === 'rotor-bar') {
     if (part.barKind === 'straight' && crop.rotorBars.straight === 'not-needed') return `straight bars are not needed in ${cropWord} and cost power`;
     if (part.barKind === 'straight') return 'a straight bar bolts only across two rasp bars in line';
-    if (part.barKind === 'discharge' && crop.rotorBars.discharge === 'not-needed') return `discharge bars are for stringy crops; ${cropWord} does not rope`;
+    if (part.barKind === 'discharge' && crop.rotorBars.discharge === 'not-needed') return `discharge bars are for stringy crops; ${cropWord} ${cropVerb(crop.id, 'does', 'do')} not rope`;
   }
   if (part.kind === 'element' && at?.kind === 'element') {
     const zone = family.positions.find((p) => p.index === at.position)?.zone;
@@ -156,8 +158,8 @@ function removalWhy(unit: Unit, family: MachineFamily, crop: CropProgram, target
     if (trouble) return trouble;
   }
   const there = finalAt.get(atKey!);
-  if (there) return `the ${cropWord} plan puts the ${partWords(there)} here instead`;
-  return `no place in the ${cropWord} plan needs it`;
+  if (there) return `the ${cropAdjective(crop.id)} plan puts the ${partWords(there)} here instead`;
+  return `no place in the ${cropAdjective(crop.id)} plan needs it`;
 }
 
 function explain(o: SlotOutcome, cropWord: string): string {
@@ -204,7 +206,7 @@ export function planCropChange(input: PlanInput): Plan {
   const mode: PlanMode = input.mode ?? 'program';
   const catalog = asCatalogIndex(input.catalog);
   const crop = cropPrograms[cropId];
-  const cropWord = crop.name.toLowerCase();
+  const cropWord = cropNoun(cropId);
   const wantedDrum = input.drum ?? installed?.drum;
   const drum = wantedDrum && family.drumOptions.some((d) => d.id === wantedDrum) ? wantedDrum : undefined;
   const wantedVanes = input.vaneControl ?? installed?.vaneControl;
@@ -237,23 +239,13 @@ export function planCropChange(input: PlanInput): Plan {
 
   // The proposal: settings from the crop program on this machine, parts from the assignment.
   const settings = starterLayout(family, cropId, catalog.parts, { drum, vaneControl });
-  const layout: Layout = {
-    ...settings,
-    elements: [],
-    coverPlates: [],
-    rotorBars: [],
-  };
+  // Parts go in through the domain's layout edits, which keep the starter layout's order
+  // (along the rotor, left before right).
+  let layout: Layout = { ...settings, elements: [], coverPlates: [], rotorBars: [] };
   for (const o of outcomes) {
     const pn = o.candidate?.part.partNumber;
-    if (!pn) continue;
-    const p = o.slot.place;
-    if (p.kind === 'element') layout.elements.push({ position: p.position, side: p.side, partNumber: pn });
-    else if (p.kind === 'cover') layout.coverPlates.push({ section: p.section, side: p.side, partNumber: pn });
-    else layout.rotorBars.push({ row: p.row, position: p.position, partNumber: pn });
+    if (pn) layout = placePart(layout, o.slot.place, pn);
   }
-  // The starter layout's order: along the rotor, left before right.
-  layout.elements.sort((a, b) => a.position - b.position || (a.side === 'left' ? 0 : 1) - (b.side === 'left' ? 0 : 1));
-  layout.coverPlates.sort((a, b) => a.section - b.section || (a.side === 'left' ? 0 : 1) - (b.side === 'left' ? 0 : 1));
 
   const beforeAt = new Map(units.map((u) => [u.atKey!, u.partNumber] as const));
   for (const r of unknown) beforeAt.set(r.unit.atKey!, r.unit.partNumber);
@@ -312,7 +304,7 @@ export function planCropChange(input: PlanInput): Plan {
   const departures = choices.filter((c) => c.rank > 0 && c.after);
   if (departures.length)
     notes.push(
-      `${departures.length} place${departures.length === 1 ? '' : 's'} hold${departures.length === 1 ? 's' : ''} a part other than the ${cropWord} program's own choice; see the reasons beside ${departures.length === 1 ? 'it' : 'them'}.`,
+      `${countOf(departures.length, 'place')} ${plural(departures.length, 'holds', 'hold')} a part other than the ${cropAdjective(cropId)} program's own choice; see the reasons beside ${plural(departures.length, 'it', 'them')}.`,
     );
   if (!installed) notes.push('Nothing is recorded as installed in this machine, so every part is fitted from the shelf or bought.');
 
@@ -342,9 +334,9 @@ export function planCropChange(input: PlanInput): Plan {
 export function planSummaryWords(plan: PlanOk): string {
   const { purchases, moves } = plan.counts;
   const settings = plan.settings.length;
-  const buy = purchases === 0 ? 'nothing to buy' : `${purchases} part${purchases === 1 ? '' : 's'} to buy`;
-  const handle = moves === 0 ? 'no part to take off, move or fit' : `${moves} part${moves === 1 ? '' : 's'} to take off, move or fit`;
-  const set = settings === 0 ? '' : `, ${settings} setting${settings === 1 ? '' : 's'} to change`;
+  const buy = purchases === 0 ? 'nothing to buy' : `${countOf(purchases, 'part')} to buy`;
+  const handle = moves === 0 ? 'no part to take off, move or fit' : `${countOf(moves, 'part')} to take off, move or fit`;
+  const set = settings === 0 ? '' : `, ${countOf(settings, 'setting')} to change`;
   // "Nothing to change" only when the plan really changes nothing (no part and no setting).
   if (purchases === 0 && moves === 0 && settings === 0) return 'Nothing to buy, nothing to change.';
   return `${capitalise(buy)}, ${handle}${set}.`;

@@ -100,6 +100,20 @@ describe('computeSettings', () => {
     expect(c.separation).toBeLessThan(1);
     expect(c.value).toBeCloseTo(c.drum * c.separation, 12);
   });
+  it('capacity follows separating open area: blank plates in every separating position score below wide-wire (Cagewright model, no published source)', () => {
+    const wide = computeSettings(modular, catalog, start('wheat')).capacity;
+    let blank = start('wheat');
+    for (const p of modular.positions)
+      if (p.zone === 'separating') for (const side of ['left', 'right'] as const) blank = setElement(blank, p.index, side, `CW-BL-${side === 'left' ? 'L' : 'R'}-04`);
+    const closed = computeSettings(modular, catalog, blank).capacity;
+    expect(closed.value).toBeLessThan(wide.value);
+    expect(closed.value).toBe(0);
+    // Half the separating half-positions blank: half the open area, half the capacity.
+    const half = setElement(setElement(start('wheat'), 4, 'left', 'CW-BL-L-04'), 4, 'right', 'CW-BL-R-04');
+    expect(computeSettings(modular, catalog, half).capacity.value).toBeCloseTo(0.5, 9);
+    // Skip-wire (62 % open) separates more than wide-wire (50 %): 0.62 / 0.5 = 1.24.
+    expect(computeSettings(modular, catalog, start('corn')).capacity.separation).toBeCloseTo(0.62 / 0.5, 9);
+  });
   it('loss rule for the crop: canola, 50 lb bushel and 4 g TSW → 130 seeds/ft² (Canola Council of Canada 2012)', () => {
     const s = computeSettings(split, catalog, start('canola', split));
     expect(Math.round(s.lossRule.kernelsPerFt2PerBuAc)).toBe(130);

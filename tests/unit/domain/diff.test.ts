@@ -56,7 +56,7 @@ describe('diffLayouts', () => {
     expect(cover.map((c) => c.change)).toEqual(['added', 'removed']);
     expect(cover[1]).toMatchObject({ place: { kind: 'cover', section: 2, side: 'right' }, before: 'CW-CP-R-04', after: null });
     expect(cover[0]).toMatchObject({ place: { kind: 'cover', section: 2, side: 'left' }, before: null, after: 'CW-CP-L-04' });
-    expect(describeDifference(cover[0]!)).toBe('Cover plate, section 2, left: CW-CP-L-04 added');
+    expect(describeDifference(cover[0]!)).toBe('Cage-top section 2, left: CW-CP-L-04 added');
     expect(describeDifference(element)).toBe(`Position 4, right: ${removed.partNumber} removed`);
   });
 
@@ -103,7 +103,7 @@ describe('diffLayouts', () => {
       { kind: 'bar', row: 1, position: 3 },
     ]);
     expect([...diffPlaceKeys(d.differences)]).toEqual(['setting:vaneSetting', 'bar:1:3']);
-    expect(describePlace({ kind: 'bar', row: 1, position: 3 })).toBe('Rotor bar, row 1, position 3');
+    expect(describePlace({ kind: 'bar', row: 1, position: 3 })).toBe('Rotor row 1, position 3');
   });
 });
 

@@ -1,7 +1,10 @@
 import {
+  barPlace,
   checkLayout,
   demoCatalog,
+  elementPlace,
   indexCatalog,
+  placePart,
   sedgeS6,
   starterLayout,
   tamarackM4,
@@ -11,6 +14,7 @@ import {
   type Layout,
   type MachineFamily,
   type Side,
+  withPartAt,
 } from '~/lib/domain';
 
 export const catalog = indexCatalog(demoCatalog);
@@ -29,19 +33,17 @@ export function codes(findings: readonly Finding[]): FindingCode[] {
   return findings.map((f) => f.code);
 }
 
+// Layouts are edited through the domain's own layout edits (src/lib/domain/layout-edits.ts).
+
 /** The layout with the element at (position, side) replaced (or added). */
 export function setElement(layout: Layout, position: number, side: Side, partNumber: string): Layout {
-  const elements = layout.elements.filter((e) => !(e.position === position && e.side === side));
-  elements.push({ position, side, partNumber });
-  return { ...layout, elements };
+  return placePart(layout, elementPlace(position, side), partNumber);
 }
 
 export function removeElement(layout: Layout, position: number, side: Side): Layout {
-  return { ...layout, elements: layout.elements.filter((e) => !(e.position === position && e.side === side)) };
+  return withPartAt(layout, elementPlace(position, side), null);
 }
 
 export function setBar(layout: Layout, row: number, position: number, partNumber: string): Layout {
-  const rotorBars = layout.rotorBars.filter((b) => !(b.row === row && b.position === position));
-  rotorBars.push({ row, position, partNumber });
-  return { ...layout, rotorBars };
+  return placePart(layout, barPlace(row, position), partNumber);
 }

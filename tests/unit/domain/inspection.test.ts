@@ -55,7 +55,7 @@ describe('buildChecklist', () => {
     const row2 = lines.find((l) => l.placeKey === 'row:2')!;
     const row1 = lines.find((l) => l.placeKey === 'row:1')!;
     expect(row2.partNumber).toBeNull();
-    expect(row2.label).toMatch(/^Rotor bar row 2: 6 bars \(/);
+    expect(row2.label).toMatch(/^Rotor row 2: 6 bars \(/);
     expect(row2.label).toContain('2 straight');
     expect(row1.label).not.toContain('straight');
   });

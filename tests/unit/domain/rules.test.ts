@@ -1,7 +1,10 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import {
   checkLayout,
+  cropIds,
+  cropPrograms,
   demoCatalog,
+  kernelPassage,
   findingCodeSchema,
   findingSchema,
   type Finding,
@@ -273,6 +276,118 @@ describe('crop', () => {
   it('CROP_OPEN_HARD_THRESHING does not fire for wide-wire in the separating zone, nor in wheat', () => {
     expect(codes(run(start('rice')))).not.toContain('CROP_OPEN_HARD_THRESHING');
     expect(codes(run(setElement(start('wheat'), 1, 'left', 'CW-WW-L-04')))).not.toContain('CROP_OPEN_HARD_THRESHING');
+  });
+});
+
+describe('kernel passage with a margin', () => {
+  // Kernel sizes: maize (dent) 10.54 × 7.26 × 4.57 mm, Sezer et al., African J. Biotechnology;
+  // wheat 7.08 × 3.27 × 2.98 mm, Tabatabaeefar, Int. Agrophysics 17:207 (2003); dry bean (large)
+  // 17.55 × 9.75 × 5.83 mm, Isik (2013); sunflower 12.14 × 5.79 × 3.86 mm, Seifi & Alimardani.
+  // Larger kernels ×1.13: the published canola range Ø 1.48–1.91 mm (Razavi et al., 2009) has its
+  // upper end 13 % above its middle. Margin 10 %, at least 0.5 mm: common practice, no published source.
+  const everywhere = (layout: Layout, pn: (side: 'left' | 'right') => string): Layout => {
+    let l = layout;
+    for (const p of modular.positions) for (const side of ['left', 'right'] as const) l = setElement(l, p.index, side, pn(side));
+    return l;
+  };
+  const fineWire = (side: 'left' | 'right') => `CW-FW-${side === 'left' ? 'L' : 'R'}-04`;
+
+  it('fine-wire everywhere in corn (5 mm against a 4.57 mm mean thickness) is tight at every half-position', () => {
+    const findings = run(everywhere(start('corn'), fineWire));
+    const tight = only(findings, 'CROP_OPENING_TIGHT');
+    expect(tight).toHaveLength(8);
+    expect(tight[0]!.severity).toBe('hurts-crop');
+    // 4.57 × 1.13 = 5.16 mm; margin max(0.5, 0.516) = 0.52 mm; 5 − 5.16 − 0.52 = −0.68 mm.
+    expect(tight[0]!.explanation).toContain('4.57 mm on average');
+    expect(tight[0]!.explanation).toContain('5.16 mm on the larger ones');
+    expect(tight[0]!.explanation).toContain('0.68 mm short');
+    expect(tight[0]!.title).toBe('Opening tight for the larger corn kernels');
+    expect(codes(findings)).not.toContain('CROP_OPENING_TOO_SMALL');
+  });
+  it('kernelPassage: corn in fine-wire is tight, wheat in fine-wire passes with room to spare', () => {
+    const corn = kernelPassage({ width: 5, length: 25 }, cropPrograms.corn.kernel);
+    expect(corn.verdict).toBe('tight');
+    expect(corn.largerSizeMm).toBeCloseTo(4.57 * 1.13, 6);
+    expect(corn.spareMm!).toBeCloseTo(5 - 4.57 * 1.13 - Math.max(0.5, 0.1 * 4.57 * 1.13), 6);
+    const wheat = kernelPassage({ width: 5, length: 25 }, cropPrograms.wheat.kernel);
+    expect(wheat.verdict).toBe('passes');
+    // 2.98 × 1.13 = 3.37 mm + 0.5 mm margin → 1.13 mm to spare in a 5 mm slot.
+    expect(wheat.spareMm!).toBeCloseTo(5 - 2.98 * 1.13 - 0.5, 6);
+    expect(kernelPassage(null, cropPrograms.wheat.kernel).verdict).toBe('closed');
+    // Canola's stored size is the published upper bound already (Razavi et al., 2009): factor 1.
+    expect(kernelPassage({ width: 5, length: 25 }, cropPrograms.canola.kernel).largerSizeMm).toBeCloseTo(1.91, 6);
+  });
+  it('a round hole is judged by its diameter against the kernel\'s middle size', () => {
+    // Perforated plate: 14 mm round holes. A large dry bean is 9.75 mm wide (Isik, 2013).
+    const bean = kernelPassage({ width: 14, length: 14 }, cropPrograms['edible-beans'].kernel);
+    expect(bean.opening).toBe('hole');
+    expect(bean.meanSizeMm).toBe(9.75);
+    expect(bean.verdict).toBe('passes');
+    // A 9 mm round hole passes a bean's 5.83 mm thickness but not its 9.75 mm width.
+    const small = kernelPassage({ width: 9, length: 9 }, cropPrograms['edible-beans'].kernel);
+    expect(small.verdict).toBe('blocked');
+    expect(small.meanMarginMm!).toBeCloseTo(9 - 9.75, 6);
+  });
+  it('the too-small finding describes a round hole by its diameter and the kernel size that matters', () => {
+    const beans = start('edible-beans');
+    const f = expectFires(run(setElement(beans, 3, 'left', 'CW-FW-L-04')), 'CROP_OPENING_TOO_SMALL', 'hurts-crop');
+    expect(f.explanation).toContain('5 mm × 25 mm slots');
+    expect(f.explanation).toContain('by its thickness, its smallest size');
+    expect(f.explanation).toContain('an average bean');
+  });
+  it('wheat, barley and oats starter cages stay clean of passage findings', () => {
+    for (const crop of ['wheat', 'barley', 'oats', 'canola', 'rice', 'sorghum'] as const) {
+      expect(codes(run(start(crop))).filter((c) => c.startsWith('CROP_OPENING'))).toEqual([]);
+    }
+  });
+  it('CROP_SKIP_WIRE_SMALL_GRAIN fires for skip-wire in the threshing zone in wheat, not in the separating zone nor in corn', () => {
+    const f = expectFires(run(setElement(start('wheat'), 1, 'left', 'CW-SW-L-04')), 'CROP_SKIP_WIRE_SMALL_GRAIN', 'hurts-crop');
+    expect(f.places).toEqual([{ kind: 'element', position: 1, side: 'left' }]);
+    expect(f.title).toBe('Skip-wire leaves wheat heads unthreshed');
+    expect(codes(run(setElement(start('barley'), 2, 'right', 'CW-SW-R-04')))).toContain('CROP_SKIP_WIRE_SMALL_GRAIN');
+    expect(codes(run(setElement(start('wheat'), 4, 'left', 'CW-SW-L-04')))).not.toContain('CROP_SKIP_WIRE_SMALL_GRAIN');
+    expect(codes(run(setElement(start('corn'), 1, 'left', 'CW-SW-L-04')))).not.toContain('CROP_SKIP_WIRE_SMALL_GRAIN');
+  });
+  it('CROP_CLOSE_BAR_SMALL_SEED fires for close-bar in canola and grass seed, not in rice', () => {
+    const f = expectFires(run(setElement(start('canola'), 1, 'left', 'CW-CB-L-04')), 'CROP_CLOSE_BAR_SMALL_SEED', 'hurts-crop');
+    expect(f.title).toBe('Close-bar grinds canola straw to chaff');
+    expect(codes(run(setElement(start('grass-seed'), 3, 'right', 'CW-CB-R-04')))).toContain('CROP_CLOSE_BAR_SMALL_SEED');
+    expect(codes(run(start('rice')))).not.toContain('CROP_CLOSE_BAR_SMALL_SEED');
+  });
+  it('ZONE_NO_OPEN_AREA: a blank separating zone raises it in every crop; a sunflower cage blank everywhere raises it for both zones', () => {
+    const blank = (side: 'left' | 'right') => `CW-BL-${side === 'left' ? 'L' : 'R'}-04`;
+    for (const crop of cropIds) {
+      let l = start(crop);
+      for (const p of modular.positions) if (p.zone === 'separating') for (const side of ['left', 'right'] as const) l = setElement(l, p.index, side, blank(side));
+      const f = only(run(l), 'ZONE_NO_OPEN_AREA');
+      expect(f.map((x) => x.title), crop).toEqual(['No open area in the separating zone']);
+      expect(f[0]!.places).toHaveLength(4);
+    }
+    const sunflower = run(everywhere(start('sunflower'), blank));
+    expect(only(sunflower, 'ZONE_NO_OPEN_AREA').map((x) => x.title).sort()).toEqual([
+      'No open area in the separating zone',
+      'No open area in the threshing zone',
+    ]);
+    // A few blank plates in sunflower (whole heads kept up) raise nothing.
+    expect(codes(run(setElement(start('sunflower'), 1, 'left', 'CW-BL-L-04')))).not.toContain('ZONE_NO_OPEN_AREA');
+  });
+});
+
+describe('findings read as a person says them', () => {
+  it('crop names are nouns, with the verb that agrees', () => {
+    const beans = run(setElement(start('edible-beans'), 1, 'left', 'CW-FW-L-04'));
+    const fragile = expectFires(beans, 'CROP_AGGRESSIVE_FRAGILE', 'hurts-crop');
+    expect(fragile.explanation).toMatch(/^Edible beans crack and split easily; a fine-wire element/);
+    const wheat = run(setElement(start('wheat'), 3, 'right', 'CW-BL-R-04'));
+    expect(expectFires(wheat, 'CROP_BLANK_PLATE', 'hurts-crop').title).toBe('Blank plate in a wheat cage');
+    const soy = run(setElement(start('soybeans'), 3, 'right', 'CW-BL-R-04'));
+    expect(expectFires(soy, 'CROP_BLANK_PLATE', 'hurts-crop').title).toBe('Blank plate in a soybean cage');
+    const soyFine = expectFires(run(setElement(start('soybeans'), 3, 'left', 'CW-FW-L-04')), 'CROP_OPENING_TOO_SMALL', 'hurts-crop');
+    expect(soyFine.title).toBe('Opening too small for soybeans');
+    expect(soyFine.explanation).toContain('an average soybean kernel');
+    const rice = run(setElement(start('rice'), 1, 'left', 'CW-WW-L-04'));
+    expect(expectFires(rice, 'CROP_OPEN_HARD_THRESHING', 'hurts-crop').explanation).toMatch(/^Rice is hard to thresh/);
+    for (const f of [...beans, ...wheat, ...soy, ...rice]) expect(`${f.title} ${f.explanation} ${f.fix}`).not.toMatch(/\b(soybeans|edible beans|field peas) (kernel|cage|heads|program)\b/i);
   });
 });
 

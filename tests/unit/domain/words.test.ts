@@ -1,5 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { countOf, withArticle } from '../../../src/lib/domain/words';
+import { countOf, listWords, plural, withArticle } from '../../../src/lib/domain/words';
+import { aKernelOf, cropAdjective, cropNoun, cropSays, kernelsOf } from '../../../src/lib/domain/vocabulary';
+import { cropIds } from '../../../src/lib/domain/crops';
 
 // English usage: the article follows the first sound; common practice, no published source.
 describe('words', () => {
@@ -42,5 +44,29 @@ describe('plan headline', () => {
     expect(planSummaryWords(plan(0, 0, 0))).toBe('Nothing to buy, nothing to change.');
     expect(planSummaryWords(plan(0, 0, 2))).toBe('Nothing to buy, no part to take off, move or fit, 2 settings to change.');
     expect(planSummaryWords(plan(1, 3, 1))).toBe('1 part to buy, 3 parts to take off, move or fit, 1 setting to change.');
+  });
+  it('takes the number from the language\'s plural rules (Intl.PluralRules), fractions included', () => {
+    // English: only exactly 1 takes the singular (Unicode CLDR plural rules, "en").
+    expect(countOf(1.5, 'kernel')).toBe('1.5 kernels');
+    expect(countOf(0.5, 'kernel')).toBe('0.5 kernels');
+    expect(plural(1, 'it', 'them')).toBe('it');
+    expect(plural(3, 'it arrives', 'they arrive')).toBe('they arrive');
+  });
+  it('parts a list whose items hold commas by semicolons', () => {
+    expect(listWords(['position 1, left', 'position 2, left', 'position 3, right'])).toBe('position 1, left; position 2, left and position 3, right');
+    expect(listWords([1, 2, 3])).toBe('1, 2 and 3');
+  });
+  it('says crops as nouns, with their kernels and the verb that agrees', () => {
+    expect(aKernelOf('soybeans')).toBe('a soybean kernel');
+    expect(aKernelOf('oats')).toBe('an oat kernel');
+    expect(cropSays('edible-beans', 'wants', 'want')).toBe('Edible beans want');
+    expect(cropSays('wheat', 'wants', 'want')).toBe('Wheat wants');
+    expect(kernelsOf('field-peas')).toBe('peas');
+    expect(kernelsOf('corn', 1)).toBe('corn kernel');
+    expect(cropAdjective('soybeans')).toBe('soybean');
+    for (const id of cropIds) {
+      expect(cropNoun(id)).toBe(cropNoun(id).toLowerCase());
+      expect(aKernelOf(id)).toMatch(/^an? /);
+    }
   });
 });

@@ -24,9 +24,9 @@ describe('cage diagram on the server', () => {
   it('names the hand, the part and the zone; lengths follow the unit choice', () => {
     const layout = starterLayout(tamarackM4, 'wheat', demoCatalog);
     const metric = renderToStaticMarkup(<CageDiagram family={tamarackM4} layout={layout} catalog={demoCatalog} units="metric" />);
-    expect(ariaOf(metric, 'element:1:left')).toBe('Left, position 1: fine-wire element, left hand, CW-FW-L-04');
-    expect(ariaOf(metric, 'cover:1:left')).toBe('Cage top left, section 1: no plate seat');
-    expect(ariaOf(metric, 'cover:2:left')).toBe('Cage top left, section 2: empty');
+    expect(ariaOf(metric, 'element:1:left')).toBe('Position 1, left: left-hand fine-wire element, CW-FW-L-04');
+    expect(ariaOf(metric, 'cover:1:left')).toBe('Cage-top section 1, left: no plate seat');
+    expect(ariaOf(metric, 'cover:2:left')).toBe('Cage-top section 2, left: empty');
     expect(metric).toContain('THRESHING ZONE');
     expect(metric).toContain('SEPARATING ZONE');
     expect(metric).toContain('CW-FW-L-04 · 5.0 mm');

@@ -4,10 +4,11 @@ import { indexCatalog } from '../../../lib/domain/catalog';
 import type { Layout, Place } from '../../../lib/domain/schemas';
 
 const NO_PLACES: Place[] = [];
-import { partAtPlaceWords, partWords, placeWords } from '../../cage/words';
+import { partAtPlaceWords, partName as nameOfPart, placeWords } from '../../../lib/domain/vocabulary';
 import { findingsHereWords } from './announce';
-import { accepts, movedLayout, partNumberAt, withPartAt } from './layout-edits';
+import { accepts, movedLayout, partNumberAt, withPartAt } from '../../../lib/domain/layout-edits';
 import type { DiagramSlice, EditorInit, EditorSliceCreator } from './types';
+import { countOf } from '../../../lib/domain/words';
 
 export const createDiagramSlice =
   (init: EditorInit): EditorSliceCreator<DiagramSlice> =>
@@ -33,7 +34,7 @@ export const createDiagramSlice =
     };
     const partName = (pn: string | undefined) => {
       const p = pn ? catalog.byPartNumber.get(pn) : undefined;
-      return p ? partWords(p) : pn ? `part ${pn}` : 'nothing';
+      return p ? nameOfPart(p) : pn ? `part ${pn}` : 'nothing';
     };
 
     return {
@@ -47,7 +48,7 @@ export const createDiagramSlice =
         const part = catalog.byPartNumber.get(partNumber);
         if (!get().canEdit || !part) return false;
         if (!accepts(part, place)) {
-          get().announce(`A ${partWords(part)} does not go at ${placeWords(place)}.`);
+          get().announce(`A ${nameOfPart(part)} does not go at ${placeWords(place)}.`);
           return false;
         }
         const before = partNumberAt(get().layout, place);
@@ -72,7 +73,7 @@ export const createDiagramSlice =
         const there = partNumberAt(layout, to);
         commit(next, (f) =>
           there
-            ? `Swapped: ${partName(moving)} now at ${placeWords(to)}, ${partName(there)} now at ${placeWords(from)}. ${findingsHereWords(f, to)}`
+            ? `Swapped: ${partName(moving)} now at ${placeWords(to)}; ${partName(there)} now at ${placeWords(from)}. ${findingsHereWords(f, to)}`
             : `Moved ${partName(moving)} from ${placeWords(from)} to ${placeWords(to)}. ${findingsHereWords(f, to)}`,
           to,
           !!opts?.focus,
@@ -89,7 +90,7 @@ export const createDiagramSlice =
       },
 
       replaceLayout(layout, why) {
-        commit(layout, (f) => `${why} ${f.length} finding${f.length === 1 ? '' : 's'} in the layout.`);
+        commit(layout, (f) => `${why} ${countOf(f.length, 'finding')} in the layout.`);
       },
 
       announce(text) {

@@ -1,5 +1,6 @@
 /** Undo and redo (zundo's temporal store), and saving versions with conflict handling. */
 import type { EditorDeps, EditorInit, EditorSliceCreator, EditorStoreApi, HistorySlice } from './types';
+import { countOf } from '../../../lib/domain/words';
 
 export const createHistorySlice =
   (init: EditorInit, deps: EditorDeps): EditorSliceCreator<HistorySlice> =>
@@ -27,7 +28,7 @@ export const createHistorySlice =
       if (t.pastStates.length === 0) return get().announce('Nothing to undo.');
       t.undo();
       set({ activeFinding: null, highlightPlaces: [] });
-      get().announce(`Undone. ${get().findings.length} finding${get().findings.length === 1 ? '' : 's'} in the layout.`);
+      get().announce(`Undone. ${countOf(get().findings.length, 'finding')} in the layout.`);
     },
 
     redo() {
@@ -35,7 +36,7 @@ export const createHistorySlice =
       if (t.futureStates.length === 0) return get().announce('Nothing to redo.');
       t.redo();
       set({ activeFinding: null, highlightPlaces: [] });
-      get().announce(`Redone. ${get().findings.length} finding${get().findings.length === 1 ? '' : 's'} in the layout.`);
+      get().announce(`Redone. ${countOf(get().findings.length, 'finding')} in the layout.`);
     },
 
     async save() {

@@ -2,6 +2,7 @@
 import { checkLayout } from '../../../lib/domain/rules';
 import { formatLength, mm } from '../../../lib/domain/units';
 import type { EditorDeps, EditorInit, EditorSliceCreator, LayoutSettingField, SettingsSlice } from './types';
+import { countOf } from '../../../lib/domain/words';
 
 const FIELD_WORDS: Record<LayoutSettingField, string> = {
   crop: 'Crop',
@@ -42,6 +43,6 @@ export const createSettingsSlice =
         activeFinding: null,
         highlightPlaces: [],
       });
-      get().announce(`${FIELD_WORDS[field]} set to ${shown}. ${findings.length} finding${findings.length === 1 ? '' : 's'} in the layout.`);
+      get().announce(`${FIELD_WORDS[field]} set to ${shown}. ${countOf(findings.length, 'finding')} in the layout.`);
     },
   });

@@ -5,6 +5,9 @@
  */
 import { z } from 'zod';
 import type { CatalogPart, Layout, MachineFamily, Side } from '../schemas';
+import { coverPlace, elementPlace } from '../places';
+import { barKindName, barRowWords, placeLabel } from '../vocabulary';
+import { capitalise, countOf } from '../words';
 import { clearanceTolerance, parseClearanceReadingKey, surveyFromMeasurements } from './survey';
 import { assessWear } from './wear';
 
@@ -113,8 +116,6 @@ export function checklistKind(placeKey: string): ChecklistKind | null {
   return null;
 }
 
-const sideWord = (s: Side) => (s === 'left' ? 'left' : 'right');
-
 /**
  * The checklist for what is installed: every element (front to rear, left then right), every
  * cover plate, every rotor bar row that carries bars, and the clearance survey last.
@@ -130,7 +131,7 @@ export function buildChecklist(family: MachineFamily, layout: Layout, catalog: r
       placeKey: `element:${e.position}:${e.side}`,
       kind: 'element',
       partNumber: e.partNumber,
-      label: `Position ${e.position}, ${sideWord(e.side)}: ${name(e.partNumber)}`,
+      label: `${placeLabel(elementPlace(e.position, e.side))}: ${name(e.partNumber)}`,
       measurements: {},
     });
   }
@@ -141,7 +142,7 @@ export function buildChecklist(family: MachineFamily, layout: Layout, catalog: r
       placeKey: `cover:${c.section}:${c.side}`,
       kind: 'cover',
       partNumber: c.partNumber,
-      label: `Cage-top section ${c.section}, ${sideWord(c.side)}: ${name(c.partNumber)}`,
+      label: `${placeLabel(coverPlace(c.section, c.side))}: ${name(c.partNumber)}`,
       measurements: {},
     });
   }
@@ -153,7 +154,7 @@ export function buildChecklist(family: MachineFamily, layout: Layout, catalog: r
       placeKey: rowKey(row.index),
       kind: 'row',
       partNumber: null,
-      label: `Rotor bar row ${row.index}: ${describeRowBars(bars.map((b) => b.partNumber), byNumber)}`,
+      label: `${capitalise(barRowWords(row.index))}: ${describeRowBars(bars.map((b) => b.partNumber), byNumber)}`,
       measurements: {},
     });
   }
@@ -172,21 +173,13 @@ function describeRowBars(partNumbers: string[], byNumber: ReadonlyMap<string, Ca
   const counts = new Map<string, number>();
   for (const pn of partNumbers) {
     const p = byNumber.get(pn);
-    const what = p?.kind === 'rotor-bar' ? BAR_WORD[p.barKind] : pn;
+    const what = p?.kind === 'rotor-bar' ? barKindName(p.barKind).replace(/ bar$/, '') : pn;
     counts.set(what, (counts.get(what) ?? 0) + 1);
   }
   const total = partNumbers.length;
   const parts = [...counts].map(([what, n]) => `${n} ${what}`);
-  return `${total} ${total === 1 ? 'bar' : 'bars'} (${parts.join(', ')})`;
+  return `${countOf(total, 'bar')} (${parts.join(', ')})`;
 }
-
-const BAR_WORD: Record<string, string> = {
-  rasp: 'rasp',
-  'smooth-rasp': 'smooth-top rasp',
-  'spike-rasp': 'spike rasp',
-  straight: 'straight',
-  discharge: 'discharge',
-};
 
 // ---------------------------------------------------------------------------------------------
 // Measurements a line accepts, and the severity the findings suggest

@@ -9,7 +9,8 @@ import { placeKey } from '../places';
 import { ONE_PERSON_LIFT_KG } from './cautions';
 import type { SlotOutcome, Unit } from './solve';
 import type { SlotPlace } from './targets';
-import { capitalise, listWords, partWithNumber, partWords, placeWords } from './words';
+import { partNameWithHand as partWords, partWithNumber, placeWords } from '../vocabulary';
+import { capitalise, listWords, plural } from '../words';
 
 export type StepKind = 'remove' | 'move' | 'swap' | 'install' | 'buy';
 
@@ -153,7 +154,7 @@ export function workSteps(outcomes: readonly SlotOutcome[], removals: readonly R
     const where = listWords(os.map((o) => placeWords(o.slot.place)));
     push(
       'buy',
-      `Order ${os.length} × ${pn} (${partWords(part)}) and fit ${os.length === 1 ? 'it' : 'them'} at ${where} when ${os.length === 1 ? 'it arrives' : 'they arrive'}.`,
+      `Order ${os.length} × ${pn} (${partWords(part)}) and fit ${plural(os.length, 'it', 'them')} at ${where} when ${plural(os.length, 'it arrives', 'they arrive')}.`,
       os.map(() => ({ partNumber: pn, part })),
       os.map((o) => o.slot.place),
     );

@@ -14,9 +14,9 @@
  *              plates only when on hand. Fewer purchases, at the cost of departing from the program.
  */
 import { indexFamily, type CatalogIndex } from '../catalog';
-import { ELEMENT_AGGRESSIVENESS } from '../cage-metrics';
+import { ELEMENT_AGGRESSIVENESS, kernelPassage } from '../cage-metrics';
+import { SMALL_GRAINS, SMALL_SEEDED } from '../rules/elements';
 import { AGGRESSIVE_ELEMENT_TYPES, OPEN_ELEMENT_TYPES, type CropProgram } from '../crops';
-import { passageMargin } from '../cage-metrics';
 import { barPlace, coverPlace, elementPlace, placeKey, type BarPlace, type CoverPlace, type ElementPlace } from '../places';
 import type {
   BarKind,
@@ -29,7 +29,8 @@ import type {
   VaneControl,
   Zone,
 } from '../schemas';
-import { elementWord, listWords } from './words';
+import { cropAdjective, cropNoun, cropVerb, elementPlaceWords, elementTypeName as elementWord, kernelsOf } from '../vocabulary';
+import { listWords } from '../words';
 
 export type PlanMode = 'program' | 'on-hand';
 export type SlotPlace = ElementPlace | CoverPlace | BarPlace;
@@ -82,12 +83,16 @@ export function elementFits(family: MachineFamily, part: CatalogPart, zone: Zone
 
 /** Why an element would work badly for the crop in this zone (the rules' crop tests), or null. */
 export function elementTrouble(part: ElementPart, zone: Zone, crop: CropProgram): string | null {
-  const cropWord = crop.name.toLowerCase();
-  const margin = passageMargin(part.openingMm, crop.kernel);
-  if (margin !== null && margin <= 0) return `its opening is too small for ${cropWord} kernels`;
+  const cropWord = cropNoun(crop.id);
+  const passage = kernelPassage(part.openingMm, crop.kernel);
+  if (passage.verdict === 'blocked') return `its opening is too small for ${kernelsOf(crop.id)}`;
+  if (passage.verdict === 'tight') return `its opening is tight for the larger ${kernelsOf(crop.id)}`;
   if (crop.fragile && AGGRESSIVE_ELEMENT_TYPES.has(part.elementType)) return `it rubs hard and cracks ${cropWord}`;
   if (crop.threshability === 'hard' && zone === 'threshing' && OPEN_ELEMENT_TYPES.has(part.elementType))
-    return `it lets ${cropWord} heads through unthreshed`;
+    return `it lets ${cropAdjective(crop.id)} heads through unthreshed`;
+  if (SMALL_GRAINS.has(crop.id) && zone === 'threshing' && part.elementType === 'skip-wire')
+    return `it lets ${cropAdjective(crop.id)} heads through unthreshed`;
+  if (SMALL_SEEDED.has(crop.id) && part.elementType === 'close-bar') return `it grinds ${cropAdjective(crop.id)} straw to chaff that loads the sieves`;
   return null;
 }
 
@@ -109,12 +114,12 @@ function elementSlot(
 ): SlotTarget | Impossible {
   const place = elementPlace(position, side);
   const want = zone === 'threshing' ? crop.suggested.threshing : crop.suggested.separating;
-  const cropWord = crop.name.toLowerCase();
+  const cropWord = cropNoun(crop.id);
   const role = roleWord(family, zone);
   const fits = parts.filter((p): p is ElementPart => p.kind === 'element' && elementFits(family, p, zone, side));
   const suited = fits.filter((p) => elementTrouble(p, zone, crop) === null);
   const own = suited.filter((p) => p.elementType === want);
-  const programWhy = `the ${cropWord} program asks for a ${elementWord(want)} ${role} in the ${zone} zone`;
+  const programWhy = `the ${cropAdjective(crop.id)} program asks for a ${elementWord(want)} ${role} in the ${zone} zone`;
   const distance = (p: ElementPart) => 1 + Math.round(Math.abs(ELEMENT_AGGRESSIVENESS[p.elementType] - ELEMENT_AGGRESSIVENESS[want]) * 20);
 
   const candidates: Candidate[] = own.map((part) => ({ part, rank: 0, why: programWhy }));
@@ -133,11 +138,11 @@ function elementSlot(
   if (candidates.length === 0) {
     const what = `${side}-hand ${role}`;
     if (fits.length === 0)
-      return { place, message: `The catalog has no ${what} for the ${family.name} that fits position ${position}, ${side} half (${zone} zone), so that half-position cannot be filled.` };
+      return { place, message: `The catalog has no ${what} for the ${family.name} that fits ${elementPlaceWords(position, side)} (${zone} zone), so that half-position cannot be filled.` };
     const troubles = fits.map((p) => `${elementWord(p.elementType)}: ${elementTrouble(p, zone, crop)}`);
     return {
       place,
-      message: `None of the ${what}s in the catalog suits ${cropWord} at position ${position}, ${side} half (${zone} zone): ${listWords(troubles)}. Add a ${elementWord(want)} ${role} to the catalog.`,
+      message: `None of the ${what}s in the catalog suits ${cropWord} at ${elementPlaceWords(position, side)} (${zone} zone): ${listWords(troubles)}. Add a ${elementWord(want)} ${role} to the catalog.`,
     };
   }
   return { place, key: placeKey(place), candidates: candidates.sort(byRankThenPrice), empty: null };
@@ -152,7 +157,7 @@ function coverSlots(
   notes: string[],
   offReasons: Map<string, string>,
 ): SlotTarget[] {
-  const cropWord = crop.name.toLowerCase();
+  const cropWord = cropNoun(crop.id);
   const slots: SlotTarget[] = [];
   const plates = (side: Side) =>
     parts.filter((p): p is CoverPlatePart => p.kind === 'cover-plate' && p.fitGroup === family.fitGroup && p.side === side);
@@ -166,7 +171,7 @@ function coverSlots(
         continue;
       }
       if (crop.threshability !== 'hard') {
-        offReasons.set(key, `${cropWord} threshes without cover plates; they only cost separating area and capacity`);
+        offReasons.set(key, `${cropWord} ${cropVerb(crop.id, 'threshes', 'thresh')} without cover plates; they only cost separating area and capacity`);
         continue;
       }
       if (side === 'left' && vaneControl !== 'fixed') {
@@ -178,16 +183,16 @@ function coverSlots(
         rank: side === 'right' ? 0 : 1,
         why:
           side === 'right'
-            ? `${cropWord} is hard to thresh; the right cover plate keeps heads in the threshing zone longer`
-            : `with fixed vanes the left plate may stay on in ${cropWord}, which is hard to thresh`,
+            ? `${cropWord} ${cropVerb(crop.id, 'is', 'are')} hard to thresh; the right cover plate keeps heads in the threshing zone longer`
+            : `with fixed vanes the left plate may stay on in ${cropWord}, which ${cropVerb(crop.id, 'is', 'are')} hard to thresh`,
       }));
       if (side === 'right' && rightWanted) {
         rightWanted = false;
         if (candidates.length === 0) {
-          notes.push(`The ${cropWord} program would fit a right cover plate, but the catalog has none for the ${family.name}.`);
+          notes.push(`The ${cropAdjective(crop.id)} program would fit a right cover plate, but the catalog has none for the ${family.name}.`);
           slots.push({ place, key, candidates, empty: { rank: 0, why: 'the catalog has no right cover plate for this family' } });
         } else if (mode === 'on-hand') {
-          slots.push({ place, key, candidates, empty: { rank: 1, why: `no right cover plate is on hand; fit one if ${cropWord} heads go through unthreshed` } });
+          slots.push({ place, key, candidates, empty: { rank: 1, why: `no right cover plate is on hand; fit one if ${cropAdjective(crop.id)} heads go through unthreshed` } });
         } else {
           slots.push({ place, key, candidates, empty: null });
         }
@@ -210,7 +215,7 @@ function barSlots(
   mode: PlanMode,
   notes: string[],
 ): SlotTarget[] {
-  const cropWord = crop.name.toLowerCase();
+  const cropWord = cropNoun(crop.id);
   const bars = parts.filter((p): p is RotorBarPart => p.kind === 'rotor-bar' && p.fitGroup === family.fitGroup);
   const ofKind = (k: BarKind) => bars.filter((b) => b.barKind === k);
   const straightWanted = crop.rotorBars.straight === 'wanted';
@@ -218,9 +223,9 @@ function barSlots(
   const straight = ofKind('straight');
   const discharge = ofKind('discharge');
   if (straightWanted && straight.length === 0 && family.rotorBarPlaces.some((p) => p.inLine))
-    notes.push(`The ${cropWord} program would bolt straight bars across the in-line rasp bars, but the catalog has none for the ${family.name}.`);
+    notes.push(`The ${cropAdjective(crop.id)} program would bolt straight bars across the in-line rasp bars, but the catalog has none for the ${family.name}.`);
   if (dischargeWanted && discharge.length === 0)
-    notes.push(`The ${cropWord} program would fit discharge bars at the rear, but the catalog has none for the ${family.name}.`);
+    notes.push(`The ${cropAdjective(crop.id)} program would fit discharge bars at the rear, but the catalog has none for the ${family.name}.`);
 
   // Discharge places as the starter layout sets them: the first two rows at the rear, and the
   // extra pair one position ahead on the rows 180° from them (common practice).
@@ -252,7 +257,7 @@ function barSlots(
       candidates = straight.map((part) => ({ part, rank: 0, why: crop.rotorBars.advice.replace(/\s*\(common practice\)/, '') }));
       if (mode === 'on-hand') candidates.push(...raspCandidates('a rasp bar works here too; the straight bar only helps kernels out of husks', 2));
     } else if (dischargeWanted && isDischargePlace(p.row, p.position) && discharge.length) {
-      candidates = discharge.map((part) => ({ part, rank: 0, why: `discharge bars move stringy ${cropWord} out at the rear before it ropes` }));
+      candidates = discharge.map((part) => ({ part, rank: 0, why: `discharge bars move stringy ${cropWord} out at the rear before ${cropVerb(crop.id, 'it ropes', 'they rope')}` }));
     } else {
       candidates = raspCandidates(`rasp bars keep ${cropWord} moving along the rotor`, 0);
     }

@@ -2,7 +2,7 @@
 import type { Place } from '../schemas';
 import { emit, type RuleContext } from './context';
 import { resolvePart } from './parts';
-import { coverWords } from './words';
+import { coverPlaceWords as coverWords, cropNoun } from '../vocabulary';
 
 export function checkCoverPlates(ctx: RuleContext): void {
   const { fam, family, layout, crop } = ctx;
@@ -79,7 +79,7 @@ export function checkCoverPlates(ctx: RuleContext): void {
       'COVER_NOT_NEEDED',
       'advice',
       fitted,
-      `Cover plates are rarely needed in ${crop.name.toLowerCase()}`,
+      `Cover plates are rarely needed in ${cropNoun(crop.id)}`,
       `Cover plates keep hard-to-thresh heads in the threshing zone longer, at the cost of separating area and capacity.${adjustable ? ' On adjustable-vane machines the linkage already closes much of the cage top (common practice).' : ''}`,
       'Take the plates off unless you see unthreshed heads in the tank or behind the machine.',
     );

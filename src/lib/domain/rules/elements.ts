@@ -1,10 +1,14 @@
 /** Rules for the element ring: position, hand, zone, empty half-positions, and the crop's fit. */
 import { AGGRESSIVE_ELEMENT_TYPES, OPEN_ELEMENT_TYPES } from '../crops';
-import { passageMargin } from '../cage-metrics';
-import type { ElementPart, Side, Zone } from '../schemas';
+import { isRoundHole, kernelPassage, LARGER_KERNEL_BASIS, PASSAGE_MARGIN_BASIS } from '../cage-metrics';
+import type { KernelSize } from '../crops';
+import type { ElementPlace } from '../places';
+import type { CropId, ElementPart, Opening, Side, Zone } from '../schemas';
 import { emit, type RuleContext } from './context';
 import { resolvePart } from './parts';
-import { elementWord, fmtMm, halfWords, partWords } from './words';
+import { elementPlaceWords as halfWords, elementTypeName as elementWord, partNameWithHand as partWords } from '../vocabulary';
+import { cropAdjective, cropNoun, cropSays, kernelOf, kernelsOf } from '../vocabulary';
+import { capitalise, fmtMm, withArticle } from '../words';
 
 const SIDES: readonly Side[] = ['left', 'right'];
 
@@ -47,6 +51,7 @@ export function checkElements(ctx: RuleContext): void {
     checkFit(ctx, part, e.position, e.side, zone);
     checkCrop(ctx, part, e.position, e.side, zone);
   }
+  checkClosedZones(ctx);
 
   for (const p of family.positions) {
     for (const side of SIDES) {
@@ -58,7 +63,7 @@ export function checkElements(ctx: RuleContext): void {
         [{ kind: 'element', position: p.index, side }],
         `Nothing at ${halfWords(p.index, side)}`,
         `Every half-position must hold an element: an open gap lets unthreshed crop and straw fall straight through and leaves the rotor nothing to work against there.`,
-        `Fit a ${side}-hand ${elementWord(p.zone === 'threshing' ? crop.suggested.threshing : crop.suggested.separating)} element (suggested for ${crop.name.toLowerCase()} in the ${p.zone} zone).`,
+        `Fit a ${side}-hand ${elementWord(p.zone === 'threshing' ? crop.suggested.threshing : crop.suggested.separating)} element (suggested for ${cropNoun(crop.id)} in the ${p.zone} zone).`,
       );
     }
   }
@@ -90,35 +95,72 @@ function checkFit(ctx: RuleContext, part: ElementPart, position: number, side: S
       `${what[0]!.toUpperCase()}${what.slice(1)} in the ${zone} zone`,
       ctx.family.cageKind === 'split'
         ? `On a split cage concaves fit the front (threshing) positions only and grates the rear (separating) positions only; ${part.partNumber} is a ${partWords(part)} at ${halfWords(position, side)}.`
-        : `${part.partNumber} (${partWords(part)}) is made for the ${part.zones.join(' and ')} zone, not the ${zone} zone at position ${position}.`,
+        : `${part.partNumber} (${partWords(part)}) is made for the ${part.zones.join(' and ')} zone, not the ${zone} zone at ${halfWords(position, side)}.`,
       `Fit a ${zone === 'threshing' ? (ctx.family.cageKind === 'split' ? 'concave' : 'threshing element') : ctx.family.cageKind === 'split' ? 'grate' : 'separating element'} here.`,
     );
   }
 }
 
-function checkCrop(ctx: RuleContext, part: ElementPart, position: number, side: Side, zone: Zone): void {
+/** Small grains: the cereals whose heads must be rubbed out in the threshing zone (trade usage). */
+export const SMALL_GRAINS: ReadonlySet<CropId> = new Set(['wheat', 'barley', 'oats', 'rice']);
+/** Small-seeded crops: seed under about 2 mm across, carried along by fine chaff (trade usage). */
+export const SMALL_SEEDED: ReadonlySet<CropId> = new Set(['canola', 'grass-seed']);
+
+/** "thickness", "width" or "length": which of the kernel's measured sizes `value` is. */
+function dimensionName(k: KernelSize, value: number): string {
+  return value === k.thicknessMm ? 'thickness' : value === k.widthMm ? 'width' : 'length';
+}
+
+/** "5 mm × 25 mm slots" or "round holes 14 mm across". */
+function openingInWords(o: Opening): string {
+  return isRoundHole(o) ? `round holes ${fmtMm(o.width)} across` : `${fmtMm(o.width)} × ${fmtMm(o.length)} slots`;
+}
+
+function checkPassage(ctx: RuleContext, part: ElementPart, position: number, side: Side, zone: Zone): void {
   const { crop } = ctx;
   const place = { kind: 'element', position, side } as const;
-  const cropWord = crop.name.toLowerCase();
-  const margin = passageMargin(part.openingMm, crop.kernel);
-  if (margin !== null && margin <= 0) {
+  const p = kernelPassage(part.openingMm, crop.kernel);
+  if (p.verdict !== 'blocked' && p.verdict !== 'tight') return;
+  const o = part.openingMm!;
+  const dim = dimensionName(crop.kernel, p.meanSizeMm);
+  const through = p.opening === 'hole' ? `A round hole lets a kernel through by its ${dim}, its middle size` : `A slot lets a kernel through by its ${dim}, its smallest size`;
+  const suggested = elementWord(zone === 'threshing' ? crop.suggested.threshing : crop.suggested.separating);
+  const suggestion = suggested === elementWord(part.elementType) ? 'an element with a wider opening' : withArticle(`${suggested} element`);
+  if (p.verdict === 'blocked') {
     emit(
       ctx,
       'CROP_OPENING_TOO_SMALL',
       'hurts-crop',
       [place],
-      `Opening too small for ${cropWord}`,
-      `The ${elementWord(part.elementType)} opening at ${halfWords(position, side)} is ${fmtMm(part.openingMm!.width)} × ${fmtMm(part.openingMm!.length)}; a ${cropWord} kernel needs more than ${fmtMm(crop.passingSizeMm)} across (short by ${fmtMm(-margin)}). Threshed grain rides on to the rear and out with the straw.`,
-      `Fit a ${elementWord(zone === 'threshing' ? crop.suggested.threshing : crop.suggested.separating)} element here.`,
+      `Opening too small for ${cropNoun(crop.id)}`,
+      `The ${elementWord(part.elementType)} element at ${halfWords(position, side)} has ${openingInWords(o)}. ${through}, ${fmtMm(p.meanSizeMm)} on ${withArticle('average')} ${kernelOf(crop.id)} (${crop.kernel.source}): short by ${fmtMm(-p.meanMarginMm!)}. Threshed grain rides on to the rear and out with the straw.`,
+      `Fit ${suggestion} here.`,
     );
+    return;
   }
+  emit(
+    ctx,
+    'CROP_OPENING_TIGHT',
+    'hurts-crop',
+    [place],
+    `Opening tight for the larger ${kernelsOf(crop.id)}`,
+    `The ${elementWord(part.elementType)} element at ${halfWords(position, side)} has ${openingInWords(o)}. ${through}: ${fmtMm(p.meanSizeMm)} on average (${crop.kernel.source}), about ${fmtMm(p.largerSizeMm)} on the larger ones (${LARGER_KERNEL_BASIS}). A moving kernel needs ${fmtMm(p.requiredMarginMm)} to spare (${PASSAGE_MARGIN_BASIS}), so the opening is ${fmtMm(-p.spareMm!)} short for the larger ${kernelsOf(crop.id)}: they ride on to the rear and out with the straw.`,
+    `Fit ${suggestion} here.`,
+  );
+}
+
+function checkCrop(ctx: RuleContext, part: ElementPart, position: number, side: Side, zone: Zone): void {
+  const { crop } = ctx;
+  const place = { kind: 'element', position, side } as const;
+  const cropWord = cropNoun(crop.id);
+  checkPassage(ctx, part, position, side, zone);
   if (part.elementType === 'blank' && !crop.blankPlatesUsed) {
     emit(
       ctx,
       'CROP_BLANK_PLATE',
       'hurts-crop',
       [place],
-      `Blank plate in a ${cropWord} cage`,
+      `Blank plate in ${withArticle(cropAdjective(crop.id))} cage`,
       `A blank plate has no openings: ${cropWord} threshed over ${halfWords(position, side)} cannot fall through there and rides on to the positions behind it, which loads them and raises rotor loss. Blank plates are for crops such as sunflower, where whole heads must not drop through (common practice).`,
       `Fit a ${elementWord(zone === 'threshing' ? crop.suggested.threshing : crop.suggested.separating)} element here, unless this half is meant to be closed.`,
     );
@@ -129,8 +171,8 @@ function checkCrop(ctx: RuleContext, part: ElementPart, position: number, side: 
       'CROP_AGGRESSIVE_FRAGILE',
       'hurts-crop',
       [place],
-      `${elementWord(part.elementType)} element cracks ${cropWord}`,
-      `${crop.name} crack and split easily; a ${elementWord(part.elementType)} element at ${halfWords(position, side)} rubs hard and raises damage (common practice).`,
+      `${capitalise(elementWord(part.elementType))} element cracks ${cropWord}`,
+      `${cropSays(crop.id, 'cracks and splits', 'crack and split')} easily; ${withArticle(elementWord(part.elementType))} element at ${halfWords(position, side)} rubs hard and raises damage (common practice).`,
       `Use a gentler element here, such as ${elementWord(zone === 'threshing' ? crop.suggested.threshing : crop.suggested.separating)}.`,
     );
   }
@@ -140,9 +182,66 @@ function checkCrop(ctx: RuleContext, part: ElementPart, position: number, side: 
       'CROP_OPEN_HARD_THRESHING',
       'hurts-crop',
       [place],
-      `Open element leaves ${cropWord} heads unthreshed`,
-      `${crop.name} is hard to thresh. An open ${elementWord(part.elementType)} element in the threshing zone at ${halfWords(position, side)} lets heads through before they are threshed, and they leave as whitecaps (common practice).`,
+      `Open element leaves ${cropAdjective(crop.id)} heads unthreshed`,
+      `${cropSays(crop.id, 'is', 'are')} hard to thresh. An open ${elementWord(part.elementType)} element in the threshing zone at ${halfWords(position, side)} lets heads through before they are threshed, and they leave as whitecaps (common practice).`,
       `Use a ${elementWord(crop.suggested.threshing)} element in the threshing zone.`,
+    );
+  }
+  if (SMALL_GRAINS.has(crop.id) && zone === 'threshing' && part.elementType === 'skip-wire' && crop.threshability !== 'hard') {
+    emit(
+      ctx,
+      'CROP_SKIP_WIRE_SMALL_GRAIN',
+      'hurts-crop',
+      [place],
+      `Skip-wire leaves ${cropAdjective(crop.id)} heads unthreshed`,
+      `Skip-wire has wires taken out for big, loose crops. In the threshing zone at ${halfWords(position, side)} its openings let whole ${cropAdjective(crop.id)} heads and pieces of heads drop through before the rotor has rubbed the grain out; they reach the sieves or leave as whitecaps (common practice, no published source).`,
+      `Fit ${withArticle(`${elementWord(crop.suggested.threshing)} element`)} in the threshing zone.`,
+    );
+  }
+  if (SMALL_SEEDED.has(crop.id) && part.elementType === 'close-bar') {
+    emit(
+      ctx,
+      'CROP_CLOSE_BAR_SMALL_SEED',
+      'hurts-crop',
+      [place],
+      `Close-bar grinds ${cropNoun(crop.id)} straw to chaff`,
+      `Close-bar rubs hardest of all elements and has the least open area. At ${halfWords(position, side)} it breaks ${cropAdjective(crop.id)} straw and pods into fine chaff that loads the sieves, and the small seed rides out with it (common practice, no published source).`,
+      `Fit ${withArticle(`${elementWord(zone === 'threshing' ? crop.suggested.threshing : crop.suggested.separating)} element`)} here.`,
+    );
+  }
+}
+
+/**
+ * A zone whose every fitted element is closed (no opening at all) lets nothing through: grain
+ * threshed there rides on, and with a closed separating zone everything leaves with the straw.
+ * Raised in every crop, blank-plate crops included (common practice, no published source).
+ */
+function checkClosedZones(ctx: RuleContext): void {
+  const { fam, layout, catalog, crop } = ctx;
+  const byZone: Record<Zone, { places: ElementPlace[]; open: boolean }> = {
+    threshing: { places: [], open: false },
+    separating: { places: [], open: false },
+  };
+  for (const e of layout.elements) {
+    const zone = fam.zoneByPosition[e.position];
+    const part = catalog.byPartNumber.get(e.partNumber);
+    if (!zone || !part || part.kind !== 'element') continue;
+    byZone[zone].places.push({ kind: 'element', position: e.position, side: e.side });
+    if (part.openingMm && part.openArea > 0) byZone[zone].open = true;
+  }
+  for (const zone of ['threshing', 'separating'] as const) {
+    const z = byZone[zone];
+    if (z.places.length === 0 || z.open) continue;
+    emit(
+      ctx,
+      'ZONE_NO_OPEN_AREA',
+      'hurts-crop',
+      z.places,
+      `No open area in the ${zone} zone`,
+      zone === 'separating'
+        ? `Every element in the separating zone is closed, so threshed ${cropNoun(crop.id)} cannot be shaken out of the straw: the grain still in the crop mat leaves over the rear with the straw, and rotor loss climbs (common practice, no published source).`
+        : `Every element in the threshing zone is closed, so nothing threshed there can fall through to the sieves: all of it rides on into the separating zone, which overloads it and raises rotor loss${crop.blankPlatesUsed ? `; even in ${cropNoun(crop.id)}, where blank plates keep whole heads up, some threshing positions must stay open` : ''} (common practice, no published source).`,
+      `Fit ${withArticle(`${elementWord(zone === 'threshing' ? crop.suggested.threshing : crop.suggested.separating)} element`)} in at least some of the ${zone} positions.`,
     );
   }
 }

@@ -6,8 +6,7 @@
  */
 import { asCatalogIndex, indexFamily, type CatalogIndex } from '../catalog';
 import { cropPrograms } from '../crops';
-import { placeKey } from '../places';
-import type { CatalogPart, Finding, Layout, MachineFamily, Place, Severity } from '../schemas';
+import type { CatalogPart, Finding, Layout, MachineFamily, Severity } from '../schemas';
 import type { RuleContext } from './context';
 import { checkCoverPlates } from './cover-plates';
 import { checkElements } from './elements';
@@ -46,54 +45,4 @@ export function countBySeverity(findings: readonly Finding[]): Record<Severity, 
   const out: Record<Severity, number> = { 'blocks-fit': 0, 'hurts-crop': 0, advice: 0 };
   for (const f of findings) out[f.severity]++;
   return out;
-}
-
-/**
- * The findings a part would raise where it is dropped: the layout with `partNumber` put at
- * `place` (replacing what is there) is checked, and the findings pinned to that place are
- * returned. The editor uses it to preview a drop; an empty result (or advice only) means the
- * rules allow the part there.
- */
-export function checkPlacement(
-  family: MachineFamily,
-  catalog: readonly CatalogPart[] | CatalogIndex,
-  layout: Layout,
-  place: Place,
-  partNumber: string,
-): Finding[] {
-  const next = placePart(layout, place, partNumber);
-  const key = placeKey(place);
-  return checkLayout(family, catalog, next).filter((f) => f.places.some((p) => placeKey(p) === key));
-}
-
-/** The layout with `partNumber` at `place` (a setting place leaves the layout as it is). */
-export function placePart(layout: Layout, place: Place, partNumber: string): Layout {
-  switch (place.kind) {
-    case 'element':
-      return {
-        ...layout,
-        elements: [
-          ...layout.elements.filter((e) => !(e.position === place.position && e.side === place.side)),
-          { position: place.position, side: place.side, partNumber },
-        ],
-      };
-    case 'cover':
-      return {
-        ...layout,
-        coverPlates: [
-          ...layout.coverPlates.filter((c) => !(c.section === place.section && c.side === place.side)),
-          { section: place.section, side: place.side, partNumber },
-        ],
-      };
-    case 'bar':
-      return {
-        ...layout,
-        rotorBars: [
-          ...layout.rotorBars.filter((b) => !(b.row === place.row && b.position === place.position)),
-          { row: place.row, position: place.position, partNumber },
-        ],
-      };
-    case 'setting':
-      return layout;
-  }
 }

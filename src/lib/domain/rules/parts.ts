@@ -1,7 +1,7 @@
 /** Resolving a placed part number against the catalog, with the findings when that fails. */
 import type { CatalogPart, CatalogPartKind, Place } from '../schemas';
 import { emit, type RuleContext } from './context';
-import { partWords } from './words';
+import { partNameWithHand as partWords } from '../vocabulary';
 
 const KIND_WORDS: Record<CatalogPartKind, string> = {
   element: 'an element',

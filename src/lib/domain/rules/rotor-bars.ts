@@ -2,7 +2,9 @@
 import type { Place } from '../schemas';
 import { emit, type RuleContext } from './context';
 import { resolvePart } from './parts';
-import { barWords, listWords } from './words';
+import { barPlaceWords as barWords } from '../vocabulary';
+import { listWords } from '../words';
+import { cropNoun, cropVerb } from '../vocabulary';
 
 interface Placed {
   row: number;
@@ -18,7 +20,7 @@ export function checkRotorBars(ctx: RuleContext): void {
   const straight: Placed[] = [];
   const discharge: Placed[] = [];
   const rear = family.rearPosition;
-  const cropWord = crop.name.toLowerCase();
+  const cropWord = cropNoun(crop.id);
 
   for (const b of layout.rotorBars) {
     const key = `${b.row}:${b.position}`;
@@ -112,7 +114,7 @@ export function checkRotorBars(ctx: RuleContext): void {
       'hurts-crop',
       straight.map((s) => s.place),
       `Straight bars are not needed in ${cropWord}`,
-      `Straight interrupter bars slow the crop so corn kernels hidden in husks come free; ${cropWord} does not need them, and they cost power (common practice).`,
+      `Straight interrupter bars slow the crop so corn kernels hidden in husks come free; ${cropWord} ${cropVerb(crop.id, 'does', 'do')} not need them, and they cost power (common practice).`,
       'Take the straight bars off; spike rasp bars can take their place.',
     );
   }

@@ -3,6 +3,7 @@ import { sourceInWords } from '../crops';
 import { drumFor } from '../compute';
 import { inRpmWindow, rpmWindow, rpmWindowWhole } from '../speed';
 import { emit, type RuleContext } from './context';
+import { cropNoun, cropSays } from '../vocabulary';
 
 export function checkSettings(ctx: RuleContext): void {
   const { family, layout, crop } = ctx;
@@ -49,8 +50,8 @@ export function checkSettings(ctx: RuleContext): void {
       'CROP_RPM_OUTSIDE_WINDOW',
       'hurts-crop',
       [{ kind: 'setting', field: 'rotorRpm' }],
-      `Rotor ${slow ? 'too slow' : 'too fast'} for ${crop.name.toLowerCase()}`,
-      `${crop.name} wants a rotor tip speed of ${w.tipMinMs}–${w.tipMaxMs} m/s (${sourceInWords(w.source)}), which is ${lo}–${hi} rpm on the ${drum.label.toLowerCase()} (${drum.diameterMm} mm${w.shiftRpm ? `, +${w.shiftRpm} rpm for the slim drum, common practice` : ''}). At ${layout.rotorRpm} rpm ${slow ? 'heads go through unthreshed' : 'kernels crack: rotor speed is the main cause of cracked grain (USDA 1961; University of Wisconsin)'}.`,
+      `Rotor ${slow ? 'too slow' : 'too fast'} for ${cropNoun(crop.id)}`,
+      `${cropSays(crop.id, 'wants', 'want')} a rotor tip speed of ${w.tipMinMs}–${w.tipMaxMs} m/s (${sourceInWords(w.source)}), which is ${lo}–${hi} rpm on the ${drum.label.toLowerCase()} (${drum.diameterMm} mm${w.shiftRpm ? `, +${w.shiftRpm} rpm for the slim drum, common practice` : ''}). At ${layout.rotorRpm} rpm ${slow ? 'heads go through unthreshed' : 'kernels crack: rotor speed is the main cause of cracked grain (USDA 1961; University of Wisconsin)'}.`,
       slow ? `Raise the rotor speed to at least ${lo} rpm; start low in the window and go up only as needed.` : `Lower the rotor speed to ${hi} rpm or less.`,
     );
   }

@@ -1,8 +1,13 @@
 /**
- * Pure edits of a layout: what sits at a place, put, take away, move or swap. Each returns a new
- * layout object (or the same one when nothing changes), so undo can keep references.
+ * Pure edits of a layout: what sits at a place, put, take away, move or swap, and what the rules
+ * say about a part dropped at a place. Each edit returns a new layout object (or the same one
+ * when nothing changes), so the editor's undo can keep references. The editor store, the planner
+ * and the tests all edit layouts through this module.
  */
-import type { CatalogPart, Layout, Place, Side } from '../../../lib/domain/schemas';
+import type { CatalogIndex } from './catalog';
+import { placeKey } from './places';
+import { checkLayout } from './rules';
+import type { CatalogPart, Finding, Layout, MachineFamily, Place, Side } from './schemas';
 
 // Left before right. A plain comparison: String#localeCompare builds a collator, which costs
 // more than the rest of an edit.
@@ -63,4 +68,26 @@ export function movedLayout(layout: Layout, from: Place, to: Place): Layout | nu
   if (!moving) return null;
   const there = partNumberAt(layout, to) ?? null;
   return withPartAt(withPartAt(layout, from, there), to, moving);
+}
+
+/** The layout with `partNumber` at `place`, replacing what is there (a setting place leaves it as it is). */
+export function placePart(layout: Layout, place: Place, partNumber: string): Layout {
+  return withPartAt(layout, place, partNumber);
+}
+
+/**
+ * The findings a part would raise where it is dropped: the layout with `partNumber` put at
+ * `place` (replacing what is there) is checked, and the findings pinned to that place are
+ * returned. The editor uses it to preview a drop, the planner to offer parts; an empty result
+ * (or advice only) means the rules allow the part there.
+ */
+export function checkPlacement(
+  family: MachineFamily,
+  catalog: readonly CatalogPart[] | CatalogIndex,
+  layout: Layout,
+  place: Place,
+  partNumber: string,
+): Finding[] {
+  const key = placeKey(place);
+  return checkLayout(family, catalog, placePart(layout, place, partNumber)).filter((f) => f.places.some((p) => placeKey(p) === key));
 }
