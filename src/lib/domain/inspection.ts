@@ -7,6 +7,7 @@
  * Lengths are millimetres throughout; the pages convert for people who work in inches.
  */
 import { z } from 'zod';
+import { rotorModel } from './rotor';
 import type { CatalogPart, Layout, MachineFamily, Side } from './schemas';
 
 // ---------------------------------------------------------------------------------------------
@@ -185,7 +186,7 @@ const BAR_WORD: Record<string, string> = {
   rasp: 'rasp',
   'smooth-rasp': 'smooth-top rasp',
   'spike-rasp': 'spike rasp',
-  straight: 'straight',
+  straight: 'straight (one across two in-line mounts)',
   discharge: 'discharge',
 };
 
@@ -432,13 +433,16 @@ export interface ReplacementLine {
 /**
  * The parts that lines marked "replace" call for: an element or cover plate is replaced by the
  * same part number (so the same hand); a rotor bar row by the bars bolted in it now (from
- * `layout`). Equal part numbers are added up; the order follows the checklist. Lines whose part
+ * `layout`) AND by the bars of its opposite row (180° around, from `family`): bars are replaced as
+ * matched sets so the rotor stays in balance (common practice; see rotor.ts). A row is counted
+ * once even when it and its opposite are both marked. Equal part numbers are added up; the order follows the checklist. Lines whose part
  * is not in the catalog are left out and returned in `unknown`.
  */
 export function replacementLines(
   lines: readonly InspectedLine[],
   layout: Layout | null,
   catalog: readonly CatalogPart[],
+  family: MachineFamily | null,
 ): { lines: ReplacementLine[]; unknown: string[] } {
   const byNumber = new Map(catalog.map((p) => [p.partNumber, p] as const));
   const out = new Map<string, ReplacementLine>();
@@ -462,13 +466,19 @@ export function replacementLines(
       unitPriceCents: part.priceCents,
     });
   };
+  const rows = new Set<number>();
+  const opposite = family ? rotorModel(family).oppositeRow : new Map<number, number>();
   for (const line of lines) {
     if (line.severity !== 'replace') continue;
     const kind = checklistKind(line.placeKey);
     if ((kind === 'element' || kind === 'cover') && line.partNumber) add(line.partNumber, 1);
     if (kind === 'row' && layout) {
       const row = Number(line.placeKey.slice(4));
-      for (const b of layout.rotorBars.filter((x) => x.row === row)) add(b.partNumber, 1);
+      for (const r of [row, opposite.get(row)]) {
+        if (r === undefined || rows.has(r)) continue;
+        rows.add(r);
+        for (const b of layout.rotorBars.filter((x) => x.row === r)) add(b.partNumber, 1);
+      }
     }
   }
   return { lines: [...out.values()], unknown };

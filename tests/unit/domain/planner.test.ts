@@ -151,12 +151,16 @@ describe('a wheat machine going to peas, corn and rice', () => {
       expect.stringMatching(/^Move the right-hand wide-wire element CW-WW-R-04 from position 3, right half to position 1, right half/),
       expect.stringMatching(/^Move the right-hand wide-wire element CW-WW-R-04 from position 4, right half to position 2, right half/),
     ]);
-    // Straight bars across the in-line rasp bars, as the corn program wants.
+    // Straight bars across the in-line mounts, as the corn program wants: ONE bar spans each
+    // pair of in-line mounts (common practice, no published source), so two pairs need two bars,
+    // not one per mount.
     expect(p.purchases.map((x) => [x.partNumber, x.quantity])).toEqual([
       ['CW-SW-L-04', 2],
       ['CW-SW-R-04', 2],
-      ['CW-BR-ST-04', 4],
+      ['CW-BR-ST-04', 2],
     ]);
+    const straightFits = p.steps.filter((s) => s.kind === 'install' && /CW-BR-ST-04/.test(s.text));
+    expect(straightFits).toHaveLength(2);
     const removedBars = p.removals.filter((r) => r.place.kind === 'bar');
     expect(removedBars).toHaveLength(4);
     // Every moved element is heavy: the step says how to lift it.
