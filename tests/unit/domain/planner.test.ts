@@ -159,8 +159,12 @@ describe('a wheat machine going to peas, corn and rice', () => {
       ['CW-SW-R-04', 2],
       ['CW-BR-ST-04', 2],
     ]);
-    const straightFits = p.steps.filter((s) => s.kind === 'install' && /CW-BR-ST-04/.test(s.text));
-    expect(straightFits).toHaveLength(2);
+    const straightBuy = p.steps.find((s) => s.kind === 'buy' && s.partNumbers.includes('CW-BR-ST-04'))!;
+    expect(straightBuy.text).toMatch(/^Order 2 × CW-BR-ST-04 .* each spanning that mount and the in-line mount behind it/);
+    expect(straightBuy.places).toEqual([
+      { kind: 'bar', row: 1, position: 1 },
+      { kind: 'bar', row: 3, position: 1 },
+    ]);
     const removedBars = p.removals.filter((r) => r.place.kind === 'bar');
     expect(removedBars).toHaveLength(4);
     // Every moved element is heavy: the step says how to lift it.
