@@ -94,7 +94,7 @@ function median(xs: number[]): number {
   return s.length % 2 ? s[m]! : (s[m - 1]! + s[m]!) / 2;
 }
 
-function measure(label: string, fn: (c: (typeof cases)[number]) => unknown): number {
+function measure(label: string, fn: (c: (typeof cases)[number]) => unknown): { med: number; p99: number } {
   for (let i = 0; i < Math.min(2000, cases.length); i++) fn(cases[i]!); // warm up the JIT
   const times: number[] = new Array(cases.length);
   let sink = 0;
