@@ -37,6 +37,7 @@ const BAR_KIND_WORDS: Record<BarKind, string> = {
 };
 const barKindWord = (k: BarKind): string => BAR_KIND_WORDS[k];
 const bar = (row: number, position: number) => ({ kind: 'bar', row, position }) as const;
+const capitalise = (s: string) => s.charAt(0).toUpperCase() + s.slice(1);
 const round = (n: number, digits: number) => {
   const f = 10 ** digits;
   return Math.round(n * f) / f;
@@ -274,7 +275,7 @@ function checkBalance(ctx: RuleContext, unresolved: ReadonlySet<string>): void {
       blocks ? 'blocks-fit' : 'hurts-crop',
       [bar(p.row, p.position), bar(o, p.position)],
       `Rotor out of balance at position ${p.position}: rows ${p.row} and ${o}`,
-      `${barWords(p.row, p.position)} and its opposite place, ${barWords(o, p.position)} (180° around), carry ${what}. ` +
+      `${capitalise(barWords(p.row, p.position))} and its opposite place, ${barWords(o, p.position)} (180° around), carry ${what}. ` +
         `At ${layout.rotorRpm} rpm that is an out-of-balance force of ${forceWords}, from F = m·r·ω² with m = ${round(dm, 2)} kg at r = ${round(radiusM * 1000, 0)} mm (a standard mechanics text). ` +
         `A ${rotorMass} kg rotor balanced to grade G ${ROTOR_BALANCE_GRADE_MM_S} (ISO 21940-11) may carry at most ${Math.round(allowed)} N at this speed; ` +
         (blocks
