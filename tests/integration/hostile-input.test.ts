@@ -46,7 +46,7 @@ function hostileBodies(valid: unknown): fc.Arbitrary<{ raw: string; why: string 
 }
 
 /** Fields whose absence is allowed: dropping them leaves a valid body, so skip that case. */
-const OPTIONAL_FIELDS = new Set(['note', 'label', 'expiresAt', 'mode', 'version', 'name', 'active', 'orgId', 'notes', 'title', 'baseVersion', 'fingerprint', 'layoutId']);
+const OPTIONAL_FIELDS = new Set(['note', 'label', 'expiresAt', 'mode', 'version', 'name', 'active', 'orgId', 'notes', 'title', 'baseVersion', 'fingerprint', 'layoutId', 'rotorMassKg']);
 
 describe('hostile input on every write route', () => {
   let clients: Awaited<ReturnType<typeof clientsByRole>>;
