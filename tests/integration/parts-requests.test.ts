@@ -228,10 +228,11 @@ describe('other ways in', () => {
     const res = await olive.post('/api/parts-requests', { from: 'layout', layoutId: made.body.layout.id });
     expect(res.status).toBe(201);
     // Installed is the wheat cage: wide-wire moves forward, skip-wire and straight bars are bought.
+    // One straight bar spans each pair of in-line mounts (common practice): two pairs, two bars.
     expect(res.body.lines.map((l: any) => [l.partNumber, l.quantity])).toEqual([
       ['CW-SW-L-04', 2],
       ['CW-SW-R-04', 2],
-      ['CW-BR-ST-04', 4],
+      ['CW-BR-ST-04', 2],
     ]);
     expect(res.body.source).toBe('layout');
   });

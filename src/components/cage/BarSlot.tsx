@@ -49,15 +49,23 @@ function BarShape({ kind, x, y, w }: { kind: BarKind; x: number; y: number; w: n
   }
 }
 
-function BarSlotView({ info, inLine, compact }: { info: SlotInfo; inLine: boolean; compact: boolean }) {
+interface SpanEnd {
+  end: 'front' | 'rear';
+  /** The front position of the pair. */
+  front: number;
+}
+
+function BarSlotView({ info, inLine, compact, span }: { info: SlotInfo; inLine: boolean; compact: boolean; span?: SpanEnd | undefined }) {
   const { x, y, w, h } = info.box;
   const bar = info.part?.kind === 'rotor-bar' ? info.part : undefined;
   const midY = y + (compact ? 11 : 12);
-  const barX = x + 22;
-  const barW = w - 44;
+  // A straight bar runs on from its front mount into the rear one: one part across two mounts.
+  const barX = span?.end === 'rear' ? x : x + 22;
+  const barW = span ? w - 22 : w - 44;
   const sev = info.severity ? SEVERITY_STYLE[info.severity] : undefined;
-  let words = bar ? barKindLabel(bar.barKind) : info.partNumber ? 'Unknown part' : 'no bar';
-  if (inLine) words += ' · in line';
+  let words = bar ? barKindLabel(bar.barKind) : info.partNumber ? 'Unknown part' : span?.end === 'rear' ? `Straight, from pos. ${span.front}` : 'no bar';
+  if (span?.end === 'front' && bar?.barKind === 'straight') words += ' · 2 mounts';
+  else if (inLine && span?.end !== 'rear') words += ' · in line';
   return (
     <>
       <rect x={x} y={y} width={w} height={h} rx={3} fill="#fff" fillOpacity={0.6} stroke="none" />
@@ -70,6 +78,8 @@ function BarSlotView({ info, inLine, compact }: { info: SlotInfo; inLine: boolea
       )}
       {bar ? (
         <BarShape kind={bar.barKind} x={barX} y={midY} w={barW} />
+      ) : span?.end === 'rear' ? (
+        <BarShape kind="straight" x={barX} y={midY} w={barW} />
       ) : (
         <rect x={barX} y={midY - 5} width={barW} height={10} rx={3} fill="none" stroke={STEEL[400]} strokeDasharray="4 3" />
       )}

@@ -38,6 +38,7 @@
 import { memo, useId, useMemo, useRef, type ReactNode, type SVGProps } from 'react';
 import { asCatalogIndex, type CatalogIndex } from '../../lib/domain/catalog';
 import { allPlaces, placeKey } from '../../lib/domain/places';
+import { rotorModel } from '../../lib/domain/rotor';
 import type { CatalogPart, Finding, Layout, MachineFamily, Place, Side } from '../../lib/domain/schemas';
 import type { UnitSystem } from '../../lib/domain/units';
 import { BarSlot } from './BarSlot';
@@ -78,6 +79,7 @@ const NO_PLACES: readonly Place[] = [];
 /** What a drawn slot was made from; an unchanged slot keeps its element from the last render. */
 interface DrawnSlot {
   partNumber: string | undefined;
+  span: string;
   findings: string;
   selected: boolean;
   highlighted: boolean;
@@ -88,10 +90,11 @@ interface DrawnSlot {
 /** The findings at a place as far as the slot shows them (its marks and accessible name). */
 const findingsSignature = (fs: readonly Finding[]) => (fs.length === 0 ? '' : fs.map((f) => `${f.severity}\u0001${f.code}\u0001${f.title}`).join('\u0002'));
 
-function slotLabel(place: Place, part: CatalogPart | undefined, partNumber: string | undefined, seat: boolean, findings: readonly Finding[], changed: boolean): string {
+function slotLabel(place: Place, part: CatalogPart | undefined, partNumber: string | undefined, seat: boolean, findings: readonly Finding[], changed: boolean, span?: { end: 'front' | 'rear'; front: number }): string {
   let content: string;
-  if (part) content = `${partNameWithHand(part)}, ${part.partNumber}`;
+  if (part) content = `${partNameWithHand(part)}, ${part.partNumber}${span?.end === 'front' ? ', across this mount and the one behind it' : ''}`;
   else if (partNumber) content = `unknown part ${partNumber}`;
+  else if (span?.end === 'rear') content = `taken by the straight bar from position ${span.front}`;
   else if (place.kind === 'cover' && !seat) content = 'no plate seat';
   else content = 'empty';
   let s = `${placeLabel(place)}: ${content}`;
@@ -194,13 +197,28 @@ export function CageDiagram(props: CageDiagramProps) {
     return m;
   }, [layout.elements, layout.coverPlates, layout.rotorBars]);
 
+  // A straight bar is one part across a pair of in-line mounts, listed at the front one: the
+  // front slot draws it running on, the rear slot draws its continuation (when nothing else is
+  // listed there).
+  const spanOf = useMemo(() => {
+    const m = new Map<string, { end: 'front' | 'rear'; front: number }>();
+    for (const s of rotorModel(family).spans) {
+      const pn = occupant.get(`bar:${s.row}:${s.front}`);
+      const part = pn ? cat.byPartNumber.get(pn) : undefined;
+      if (part?.kind !== 'rotor-bar' || part.barKind !== 'straight') continue;
+      m.set(`bar:${s.row}:${s.front}`, { end: 'front', front: s.front });
+      if (!occupant.has(`bar:${s.row}:${s.rear}`)) m.set(`bar:${s.row}:${s.rear}`, { end: 'rear', front: s.front });
+    }
+    return m;
+  }, [family, occupant, cat]);
+
   const selectedKey = selectedPlace ? placeKey(selectedPlace) : null;
   const highlightKeys = useMemo(() => new Set(highlightPlaces.map(placeKey)), [highlightPlaces]);
   const diffKeys = useMemo(() => new Set(diffPlaces.map(placeKey)), [diffPlaces]);
 
   const inLine = useMemo(() => new Set(family.rotorBarPlaces.filter((b) => b.inLine).map((b) => `bar:${b.row}:${b.position}`)), [family]);
 
-  const infoFor = (place: Place, box: SlotInfo['box'], seat: boolean): SlotInfo => {
+  const infoFor = (place: Place, box: SlotInfo['box'], seat: boolean, span?: { end: 'front' | 'rear'; front: number }): SlotInfo => {
     const key = placeKey(place);
     const partNumber = occupant.get(key);
     const part = partNumber ? cat.byPartNumber.get(partNumber) : undefined;
@@ -221,7 +239,7 @@ export function CageDiagram(props: CageDiagramProps) {
       selected: key === selectedKey,
       highlighted: highlightKeys.has(key),
       changed,
-      label: slotLabel(place, part, partNumber, seat, fs, changed),
+      label: slotLabel(place, part, partNumber, seat, fs, changed, span),
       box,
     };
   };
@@ -242,8 +260,10 @@ export function CageDiagram(props: CageDiagramProps) {
     const selected = key === selectedKey;
     const highlighted = highlightKeys.has(key);
     const changed = diffKeys.has(key);
+    const spanHere = spanOf.get(key);
+    const span = spanHere ? `${spanHere.end}:${spanHere.front}` : '';
     const before = cache.get(key);
-    if (before && before.partNumber === partNumber && before.findings === fsig && before.selected === selected && before.highlighted === highlighted && before.changed === changed) {
+    if (before && before.partNumber === partNumber && before.span === span && before.findings === fsig && before.selected === selected && before.highlighted === highlighted && before.changed === changed) {
       slots.push(before.node);
       continue;
     }
@@ -264,14 +284,14 @@ export function CageDiagram(props: CageDiagramProps) {
           drawing={<CoverSlot info={info} prefix={prefix} compact={compact} />} />
       );
     } else if (place.kind === 'bar') {
-      const info = infoFor(place, box, true);
+      const info = infoFor(place, box, true, spanHere);
       node = (
         <Slot key={info.key} info={info} slotProps={slotProps} renderSlot={renderSlot}
-          drawing={<BarSlot info={info} inLine={inLine.has(info.key)} compact={compact} />} />
+          drawing={<BarSlot info={info} inLine={inLine.has(info.key)} compact={compact} span={spanHere} />} />
       );
     }
     if (!node) continue;
-    cache.set(key, { partNumber, findings: fsig, selected, highlighted, changed, node });
+    cache.set(key, { partNumber, span, findings: fsig, selected, highlighted, changed, node });
     slots.push(node);
   }
 

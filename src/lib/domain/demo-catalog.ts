@@ -48,6 +48,7 @@ export const tamarackM4: MachineFamily = {
   rotorBarRows: FOUR_ROWS,
   rotorBarPlaces: barPlaces(4, (row, p) => (row === 1 || row === 3) && p <= 2),
   rearPosition: 4,
+  rotorMassKg: 480,
 };
 
 export const sedgeS6: MachineFamily = {
@@ -73,6 +74,7 @@ export const sedgeS6: MachineFamily = {
   rotorBarRows: FOUR_ROWS,
   rotorBarPlaces: barPlaces(6, (row, p) => (row === 2 || row === 4) && (p === 2 || p === 3)),
   rearPosition: 6,
+  rotorMassKg: 430,
 };
 
 export const demoFamilies: readonly MachineFamily[] = [tamarackM4, sedgeS6];

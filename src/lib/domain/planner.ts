@@ -159,6 +159,9 @@ function removalWhy(unit: Unit, family: MachineFamily, crop: CropProgram, target
   }
   const there = finalAt.get(atKey!);
   if (there) return `the ${cropAdjective(crop.id)} plan puts the ${partWords(there)} here instead`;
+  // A mount the plan leaves bare on purpose (the straight bar in front takes it) says so.
+  const slot = at?.kind === 'bar' ? targets.slots.find((s) => s.key === atKey) : undefined;
+  if (slot && slot.candidates.length === 0 && slot.empty) return slot.empty.why;
   return `no place in the ${cropAdjective(crop.id)} plan needs it`;
 }
 

@@ -164,6 +164,8 @@ export const machineFamilyBaseSchema = z.object({
   rotorBarPlaces: z.array(rotorBarPlaceSchema),
   /** The last position (discharge end). */
   rearPosition: index1,
+  /** The threshing rotor's own mass, kg, for the balance check (rotor.ts has the default). */
+  rotorMassKg: z.number().min(20).max(5000).optional(),
 });
 
 export const machineFamilySchema = machineFamilyBaseSchema.superRefine((f, ctx) => {
@@ -344,6 +346,10 @@ export const findingCodeSchema = z.enum([
   'BAR_STRAIGHT_NOT_NEEDED',
   'BAR_STRAIGHT_SUGGESTED',
   'BAR_DISCHARGE_SUGGESTED',
+  'BAR_PLACE_EMPTY',
+  'BAR_UNDER_STRAIGHT',
+  'BAR_UNBALANCED',
+  'COVER_UNSLOTTED_VANES',
   // crop
   'CROP_OPENING_TOO_SMALL',
   'CROP_OPENING_TIGHT',

@@ -3,7 +3,7 @@
  * target begin from. Domain logic over any catalog (demo or a dealer's), kept out of the demo data.
  */
 import { cropPrograms } from './crops';
-import { indexFamily } from './catalog';
+import { isDischargeMount, rotorModel } from './rotor';
 import { drumFor } from './compute';
 import { middleRpm, rpmWindow } from './speed';
 import { passageMargin } from './cage-metrics';
@@ -39,7 +39,8 @@ function vaneSettingFor(crop: CropId): VaneSetting {
 /**
  * A layout for `family` in `crop` that the rules pass (advice at most): the crop's suggested
  * element in each half-position, correctly handed and of the right role, rasp bars on every
- * rotor place (straight bars across the in-line ones for corn, discharge bars for hemp), rotor
+ * rotor mount (one straight bar across each in-line pair for corn, spike rasp bars on those mounts
+ * otherwise; an opposite pair of discharge bars at the rear and one ahead of it for hemp), rotor
  * speed in the middle of the crop's window, and a right cover plate for hard-threshing crops.
  * Falls back to any element of the family that fits and passes the kernel when the suggested
  * type is missing from the catalog.
@@ -73,24 +74,19 @@ export function starterLayout(
 
   const bar = (kind: string) => mine.find((p) => p.kind === 'rotor-bar' && p.barKind === kind)?.partNumber;
   const rasp = bar('rasp');
+  // In-line mounts: one straight bar across each pair where the crop wants it; otherwise spike
+  // rasp bars go on those mounts (common practice, no published source).
+  const inLineBar = bar('spike-rasp') ?? rasp;
   const straight = c.rotorBars.straight === 'wanted' ? bar('straight') : undefined;
   const discharge = c.rotorBars.discharge === 'wanted' ? bar('discharge') : undefined;
-  const fam = indexFamily(family);
-  const rear = family.rearPosition;
-  // Discharge bars: a pair on the first two rows at the rear, and the extra pair one position
-  // ahead on the rows opposite them.
-  const rows = family.rotorBarRows;
-  const rearRows = rows.slice(0, 2).map((r) => r.index);
-  const oppositeRows = rearRows
-    .map((ri) => rows.find((r) => Math.abs(((r.angleDeg - (fam.rowAngle.get(ri) ?? 0) + 360) % 360) - 180) < 1)?.index)
-    .filter((x): x is number => x !== undefined);
+  const model = rotorModel(family);
   const rotorBars: Layout['rotorBars'] = [];
   for (const place of family.rotorBarPlaces) {
-    let partNumber = rasp;
-    if (straight && place.inLine) partNumber = straight;
-    if (discharge && place.position === rear && rearRows.includes(place.row)) partNumber = discharge;
-    if (discharge && place.position === rear - 1 && oppositeRows.length === 2 && oppositeRows.includes(place.row))
-      partNumber = discharge;
+    const key = `${place.row}:${place.position}`;
+    let partNumber = place.inLine ? inLineBar : rasp;
+    if (straight && model.spanByRear.has(key)) continue; // the straight bar in front takes this mount
+    if (straight && model.spanByFront.has(key)) partNumber = straight;
+    if (discharge && isDischargeMount(family, place.row, place.position)) partNumber = discharge;
     if (partNumber) rotorBars.push({ row: place.row, position: place.position, partNumber });
   }
 

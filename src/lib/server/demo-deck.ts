@@ -40,7 +40,7 @@ export async function seedDemoDeck(db: Db | Tx, who: { orgId: string; trainerId:
       notes: [
         '- **Fine-wire elements in the threshing zone** rub the heads hard and hold the small kernel until it is free.',
         '- **Wide-wire at the rear** lets loose kernels drop through quickly, so little goes out over the rotor.',
-        '- Rasp bars only: straight bars cost power and are not needed in small grains (common practice).',
+        '- Rasp bars, with spike rasp bars on the in-line mounts: straight bars cost power and are not needed in small grains (common practice).',
         '',
         '*Ask the class:* what happens to a pea on this cage?',
       ].join('\n'),

@@ -144,7 +144,7 @@ export async function seedDemoInspection(db: Db, store: ObjectStorage = storage(
         contentType: 'image/jpeg', bytes: p.bytes.byteLength, createdBy: inspector.id, createdAt: new Date(startedAt.getTime() + 30 * 60 * 1000),
       });
     }
-    const { lines: parts } = replacementLines(items, inst.layout, catalog);
+    const { lines: parts } = replacementLines(items, inst.layout, catalog, family.spec);
     const request = parts.length
       ? await demoDraftRequest(tx, actor, {
           orgId: machine.orgId, dealerOrgId: org.dealerId, machineId: machine.id, source: 'inspection', lines: parts,

@@ -50,13 +50,14 @@ describe('buildChecklist', () => {
   });
 
   it('describes a rotor bar row by what is bolted in it', () => {
-    // Corn on the split family: straight bars across the in-line places of rows 2 and 4.
+    // Corn on the split family: one straight bar across the in-line mounts (positions 2 and 3)
+    // of rows 2 and 4, so row 2 carries four rasp bars and ONE straight bar (five parts).
     const lines = buildChecklist(sedgeS6, corn, demoCatalog);
     const row2 = lines.find((l) => l.placeKey === 'row:2')!;
     const row1 = lines.find((l) => l.placeKey === 'row:1')!;
     expect(row2.partNumber).toBeNull();
-    expect(row2.label).toMatch(/^Rotor row 2: 6 bars \(/);
-    expect(row2.label).toContain('2 straight');
+    expect(row2.label).toMatch(/^Rotor row 2: 5 bars \(/);
+    expect(row2.label).toContain('1 straight (one across two in-line mounts)');
     expect(row1.label).not.toContain('straight');
   });
 
@@ -250,7 +251,7 @@ describe('replacementLines', () => {
   const mark = (keys: string[]) => lines.map((l) => ({ ...l, severity: keys.includes(l.placeKey) ? ('replace' as const) : ('ok' as const) }));
 
   it('orders the same part number and hand for a flagged element', () => {
-    const { lines: out, unknown } = replacementLines(mark(['element:2:left']), withPlate, demoCatalog);
+    const { lines: out, unknown } = replacementLines(mark(['element:2:left']), withPlate, demoCatalog, tamarackM4);
     const pn = withPlate.elements.find((e) => e.position === 2 && e.side === 'left')!.partNumber;
     const part = demoCatalog.find((p) => p.partNumber === pn)!;
     expect(unknown).toEqual([]);
@@ -259,7 +260,7 @@ describe('replacementLines', () => {
 
   it('adds up equal part numbers and keeps hands apart', () => {
     // Fine-wire in positions 1 and 2 on both sides for wheat: two left, two right.
-    const { lines: out } = replacementLines(mark(['element:1:left', 'element:2:left', 'element:1:right', 'element:2:right']), withPlate, demoCatalog);
+    const { lines: out } = replacementLines(mark(['element:1:left', 'element:2:left', 'element:1:right', 'element:2:right']), withPlate, demoCatalog, tamarackM4);
     expect(out.map((l) => [l.hand, l.quantity])).toEqual([
       ['left', 2],
       ['right', 2],
@@ -268,23 +269,36 @@ describe('replacementLines', () => {
     expect(out[1]!.partNumber).toMatch(/-R-/);
   });
 
-  it('replaces a cover plate by the same plate and a rotor bar row by the bars in it', () => {
-    const { lines: out } = replacementLines(mark(['cover:2:right', 'row:1']), withPlate, demoCatalog);
+  it('replaces a cover plate by the same plate and a rotor bar row by the bars in it and in its opposite row', () => {
+    const { lines: out } = replacementLines(mark(['cover:2:right', 'row:1']), withPlate, demoCatalog, tamarackM4);
     expect(out[0]).toMatchObject({ partNumber: 'CW-CP-R-04', hand: 'right', quantity: 1 });
-    const barsInRow1 = withPlate.rotorBars.filter((b) => b.row === 1).length;
-    expect(out.slice(1).reduce((n, l) => n + l.quantity, 0)).toBe(barsInRow1);
+    // Bars are replaced as matched sets (common practice, no published source): row 1 brings
+    // row 3, 180° around on this rotor, with it.
+    const barsInRows1And3 = withPlate.rotorBars.filter((b) => b.row === 1 || b.row === 3).length;
+    expect(barsInRows1And3).toBe(8);
+    expect(out.slice(1).reduce((n, l) => n + l.quantity, 0)).toBe(barsInRows1And3);
     expect(out.slice(1).every((l) => l.hand === null)).toBe(true);
+  });
+
+  it('orders a row and its opposite once, whichever of the two are marked', () => {
+    const one = replacementLines(mark(['row:3']), withPlate, demoCatalog, tamarackM4).lines;
+    const both = replacementLines(mark(['row:1', 'row:3']), withPlate, demoCatalog, tamarackM4).lines;
+    expect(both).toEqual(one);
+    expect(one.reduce((n, l) => n + l.quantity, 0)).toBe(8);
+    const rows2And4 = replacementLines(mark(['row:2']), withPlate, demoCatalog, tamarackM4).lines;
+    const want = withPlate.rotorBars.filter((b) => b.row === 2 || b.row === 4).length;
+    expect(rows2And4.reduce((n, l) => n + l.quantity, 0)).toBe(want);
   });
 
   it('orders nothing for watch or ok lines, nor for the survey', () => {
     const watched = lines.map((l) => ({ ...l, severity: 'watch' as const }));
-    expect(replacementLines(watched, withPlate, demoCatalog).lines).toEqual([]);
+    expect(replacementLines(watched, withPlate, demoCatalog, tamarackM4).lines).toEqual([]);
     const survey = lines.map((l) => ({ ...l, severity: l.placeKey === 'survey' ? ('replace' as const) : ('ok' as const) }));
-    expect(replacementLines(survey, withPlate, demoCatalog).lines).toEqual([]);
+    expect(replacementLines(survey, withPlate, demoCatalog, tamarackM4).lines).toEqual([]);
   });
 
   it('reports parts missing from the catalog instead of inventing them', () => {
-    const { lines: out, unknown } = replacementLines([{ placeKey: 'element:1:left', partNumber: 'CW-XX-L-99', severity: 'replace' }], null, demoCatalog);
+    const { lines: out, unknown } = replacementLines([{ placeKey: 'element:1:left', partNumber: 'CW-XX-L-99', severity: 'replace' }], null, demoCatalog, tamarackM4);
     expect(out).toEqual([]);
     expect(unknown).toEqual(['CW-XX-L-99']);
   });

@@ -151,14 +151,25 @@ describe('a wheat machine going to peas, corn and rice', () => {
       expect.stringMatching(/^Move the right-hand wide-wire element CW-WW-R-04 from position 3, right to position 1, right/),
       expect.stringMatching(/^Move the right-hand wide-wire element CW-WW-R-04 from position 4, right to position 2, right/),
     ]);
-    // Straight bars across the in-line rasp bars, as the corn program wants.
+    // Straight bars across the in-line mounts, as the corn program wants: ONE bar spans each
+    // pair of in-line mounts (common practice, no published source), so two pairs need two bars,
+    // not one per mount.
     expect(p.purchases.map((x) => [x.partNumber, x.quantity])).toEqual([
       ['CW-SW-L-04', 2],
       ['CW-SW-R-04', 2],
-      ['CW-BR-ST-04', 4],
+      ['CW-BR-ST-04', 2],
+    ]);
+    const straightBuy = p.steps.find((s) => s.kind === 'buy' && s.partNumbers.includes('CW-BR-ST-04'))!;
+    expect(straightBuy.text).toMatch(/^Order 2 × CW-BR-ST-04 .* each spanning that mount and the in-line mount behind it/);
+    expect(straightBuy.places).toEqual([
+      { kind: 'bar', row: 1, position: 1 },
+      { kind: 'bar', row: 3, position: 1 },
     ]);
     const removedBars = p.removals.filter((r) => r.place.kind === 'bar');
     expect(removedBars).toHaveLength(4);
+    // The rear mount of each pair comes free because the straight bar takes it, and the step says so.
+    const rearOff = p.steps.find((s) => s.kind === 'remove' && /row 1 at position 2/.test(s.text))!;
+    expect(rearOff.text).toMatch(/the straight bar from position 1 takes this mount too/);
     // Every moved element is heavy: the step says how to lift it.
     for (const s of moves) {
       expect(s.heavy).toBe(true);

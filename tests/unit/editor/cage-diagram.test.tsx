@@ -54,9 +54,23 @@ describe('cage diagram on the server', () => {
     const html = renderToStaticMarkup(
       <CageDiagram family={tamarackM4} layout={layout} catalog={demoCatalog} units="metric" diffPlaces={[{ kind: 'bar', row: 1, position: 1 }]} selectedPlace={{ kind: 'element', position: 2, side: 'left' }} />,
     );
-    expect(ariaOf(html, 'bar:1:1')).toBe('Rotor row 1, position 1: straight bar, CW-BR-ST-04. Changed');
+    expect(ariaOf(html, 'bar:1:1')).toBe('Rotor row 1, position 1: straight bar, CW-BR-ST-04, across this mount and the one behind it. Changed');
     expect(html).toContain('Δ CHANGED');
-    expect(html).toContain('Straight · in line');
+    expect(html).toContain('Straight · 2 mounts');
+  });
+
+  it('draws a straight bar as one part across its pair of in-line mounts', () => {
+    const corn = starterLayout(tamarackM4, 'corn', demoCatalog);
+    const html = renderToStaticMarkup(<CageDiagram family={tamarackM4} layout={corn} catalog={demoCatalog} units="metric" />);
+    expect(ariaOf(html, 'bar:1:1')).toBe('Rotor row 1, position 1: straight bar, CW-BR-ST-04, across this mount and the one behind it');
+    expect(ariaOf(html, 'bar:1:2')).toBe('Rotor row 1, position 2: taken by the straight bar from position 1');
+    expect(html).toContain('Straight, from pos. 1');
+    // Without the straight bar the rear mount is simply empty (and a finding).
+    const bare = { ...corn, rotorBars: corn.rotorBars.filter((b) => !(b.row === 1 && b.position === 1)) };
+    const html2 = renderToStaticMarkup(<CageDiagram family={tamarackM4} layout={bare} catalog={demoCatalog} units="metric" findings={checkLayout(tamarackM4, demoCatalog, bare)} />);
+    expect(ariaOf(html2, 'bar:1:2')).toMatch(/^Rotor row 1, position 2: empty\. /);
+    expect(ariaOf(html2, 'bar:1:2')).toContain('Rotor bar row 1: nothing at positions 1 and 2');
+    expect(ariaOf(html2, 'bar:1:2')).toContain('Rotor out of balance at position 2: rows 1 and 3');
   });
 
   it('two diagrams on one page never share pattern ids', () => {

@@ -10,6 +10,7 @@ import { barKindName, barRowWords, placeLabel } from '../vocabulary';
 import { capitalise, countOf } from '../words';
 import { clearanceTolerance, parseClearanceReadingKey, surveyFromMeasurements } from './survey';
 import { assessWear } from './wear';
+import { rotorModel } from '../rotor';
 
 // ---------------------------------------------------------------------------------------------
 // Checklist lines
@@ -173,7 +174,10 @@ function describeRowBars(partNumbers: string[], byNumber: ReadonlyMap<string, Ca
   const counts = new Map<string, number>();
   for (const pn of partNumbers) {
     const p = byNumber.get(pn);
-    const what = p?.kind === 'rotor-bar' ? barKindName(p.barKind).replace(/ bar$/, '') : pn;
+    const what =
+      p?.kind === 'rotor-bar'
+        ? barKindName(p.barKind).replace(/ bar$/, '') + (p.barKind === 'straight' ? ' (one across two in-line mounts)' : '')
+        : pn;
     counts.set(what, (counts.get(what) ?? 0) + 1);
   }
   const total = partNumbers.length;
@@ -237,13 +241,16 @@ export interface ReplacementLine {
 /**
  * The parts that lines marked "replace" call for: an element or cover plate is replaced by the
  * same part number (so the same hand); a rotor bar row by the bars bolted in it now (from
- * `layout`). Equal part numbers are added up; the order follows the checklist. Lines whose part
+ * `layout`) AND by the bars of its opposite row (180° around, from `family`): bars are replaced as
+ * matched sets so the rotor stays in balance (common practice; see rotor.ts). A row is counted
+ * once even when it and its opposite are both marked. Equal part numbers are added up; the order follows the checklist. Lines whose part
  * is not in the catalog are left out and returned in `unknown`.
  */
 export function replacementLines(
   lines: readonly InspectedLine[],
   layout: Layout | null,
   catalog: readonly CatalogPart[],
+  family: MachineFamily | null,
 ): { lines: ReplacementLine[]; unknown: string[] } {
   const byNumber = new Map(catalog.map((p) => [p.partNumber, p] as const));
   const out = new Map<string, ReplacementLine>();
@@ -267,13 +274,19 @@ export function replacementLines(
       unitPriceCents: part.priceCents,
     });
   };
+  const rows = new Set<number>();
+  const opposite = family ? rotorModel(family).oppositeRow : new Map<number, number>();
   for (const line of lines) {
     if (line.severity !== 'replace') continue;
     const kind = checklistKind(line.placeKey);
     if ((kind === 'element' || kind === 'cover') && line.partNumber) add(line.partNumber, 1);
     if (kind === 'row' && layout) {
       const row = Number(line.placeKey.slice(4));
-      for (const b of layout.rotorBars.filter((x) => x.row === row)) add(b.partNumber, 1);
+      for (const r of [row, opposite.get(row)]) {
+        if (r === undefined || rows.has(r)) continue;
+        rows.add(r);
+        for (const b of layout.rotorBars.filter((x) => x.row === r)) add(b.partNumber, 1);
+      }
     }
   }
   return { lines: [...out.values()], unknown };

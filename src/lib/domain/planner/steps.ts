@@ -152,9 +152,11 @@ export function workSteps(outcomes: readonly SlotOutcome[], removals: readonly R
   for (const [pn, os] of buys) {
     const part = os[0]!.candidate!.part;
     const where = listWords(os.map((o) => placeWords(o.slot.place)));
+    // A straight bar is one part across two in-line mounts; it is listed at the front one.
+    const span = part.kind === 'rotor-bar' && part.barKind === 'straight' ? `, ${os.length === 1 ? 'it spans' : 'each spanning'} that mount and the in-line mount behind it` : '';
     push(
       'buy',
-      `Order ${os.length} × ${pn} (${partWords(part)}) and fit ${plural(os.length, 'it', 'them')} at ${where} when ${plural(os.length, 'it arrives', 'they arrive')}.`,
+      `Order ${os.length} × ${pn} (${partWords(part)}) and fit ${plural(os.length, 'it', 'them')} at ${where} when ${plural(os.length, 'it arrives', 'they arrive')}${span}.`,
       os.map(() => ({ partNumber: pn, part })),
       os.map((o) => o.slot.place),
     );

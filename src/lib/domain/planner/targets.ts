@@ -14,6 +14,7 @@
  *              plates only when on hand. Fewer purchases, at the cost of departing from the program.
  */
 import { indexFamily, type CatalogIndex } from '../catalog';
+import { isDischargeMount, rotorModel } from '../rotor';
 import { ELEMENT_AGGRESSIVENESS, kernelPassage } from '../cage-metrics';
 import { SMALL_GRAINS, SMALL_SEEDED } from '../rules/elements';
 import { AGGRESSIVE_ELEMENT_TYPES, OPEN_ELEMENT_TYPES, type CropProgram } from '../crops';
@@ -178,9 +179,10 @@ function coverSlots(
         offReasons.set(key, `the ${vaneControl} vane linkage runs over the left side of the cage top, so the left plate cannot stay on`);
         continue;
       }
+      // With vanes set by bolts, a slotted plate lets them be moved with the plate on.
       const candidates = plates(side).map((part) => ({
         part,
-        rank: side === 'right' ? 0 : 1,
+        rank: (side === 'right' ? 0 : 1) + (vaneControl === 'fixed' && !part.slotted ? 1 : 0),
         why:
           side === 'right'
             ? `${cropWord} ${cropVerb(crop.id, 'is', 'are')} hard to thresh; the right cover plate keeps heads in the threshing zone longer`
@@ -227,39 +229,45 @@ function barSlots(
   if (dischargeWanted && discharge.length === 0)
     notes.push(`The ${cropAdjective(crop.id)} program would fit discharge bars at the rear, but the catalog has none for the ${family.name}.`);
 
-  // Discharge places as the starter layout sets them: the first two rows at the rear, and the
-  // extra pair one position ahead on the rows 180° from them (common practice).
-  const fam = indexFamily(family);
-  const rear = family.rearPosition;
-  const rows = family.rotorBarRows;
-  const rearRows = rows.slice(0, 2).map((r) => r.index);
-  const opposite = rearRows
-    .map((ri) => rows.find((r) => Math.abs(((r.angleDeg - (fam.rowAngle.get(ri) ?? 0) + 360) % 360) - 180) < 1)?.index)
-    .filter((x): x is number => x !== undefined);
-  const isDischargePlace = (row: number, position: number) =>
-    (position === rear && rearRows.includes(row)) || (position === rear - 1 && opposite.length === 2 && opposite.includes(row));
+  // Discharge and straight-bar mounts as the starter layout sets them (rotor.ts): an opposite
+  // pair of discharge bars at the rear and one ahead of it; one straight bar across each in-line
+  // pair, which takes both mounts; spike rasp bars on in-line mounts without one (common practice).
+  const model = rotorModel(family);
+  const useStraight = straightWanted && straight.length > 0;
 
-  const raspCandidates = (rank0Why: string, baseRank: number): Candidate[] =>
-    RASP_KINDS.flatMap((k, i) =>
-      ofKind(k).map((part) => ({
-        part,
-        rank: baseRank + (i === 0 ? 0 : 1),
-        why: i === 0 ? rank0Why : `a ${k.replace('-', ' ')} bar does the rasp bar's job here`,
-      })),
-    );
+  // One kind per mount: the wanted kind, else the first rasp kind the catalog has. Offering a
+  // choice of kinds would let the solver put different kinds on opposite places (unbalanced).
+  const raspCandidates = (rank0Why: string, first: BarKind = 'rasp'): Candidate[] => {
+    const kinds = [first, ...RASP_KINDS.filter((k) => k !== first)];
+    const i = kinds.findIndex((k) => ofKind(k).length > 0);
+    if (i < 0) return [];
+    const k = kinds[i]!;
+    return ofKind(k).map((part) => ({
+      part,
+      rank: i === 0 ? 0 : 1,
+      why: i === 0 ? rank0Why : `a ${k.replace('-', ' ')} bar does the ${first.replace('-', ' ')} bar's job here`,
+    }));
+  };
 
   const slots: SlotTarget[] = [];
   for (const p of [...family.rotorBarPlaces].sort((a, b) => a.row - b.row || a.position - b.position)) {
     const place = barPlace(p.row, p.position);
     const key = placeKey(place);
+    const spanKey = `${p.row}:${p.position}`;
+    if (useStraight && model.spanByRear.has(spanKey)) {
+      const span = model.spanByRear.get(spanKey)!;
+      slots.push({ place, key, candidates: [], empty: { rank: 0, why: `the straight bar from position ${span.front} takes this mount too` } });
+      continue;
+    }
     let candidates: Candidate[];
-    if (straightWanted && p.inLine && straight.length) {
+    if (useStraight && model.spanByFront.has(spanKey)) {
       candidates = straight.map((part) => ({ part, rank: 0, why: crop.rotorBars.advice.replace(/\s*\(common practice\)/, '') }));
-      if (mode === 'on-hand') candidates.push(...raspCandidates('a rasp bar works here too; the straight bar only helps kernels out of husks', 2));
-    } else if (dischargeWanted && isDischargePlace(p.row, p.position) && discharge.length) {
+    } else if (dischargeWanted && isDischargeMount(family, p.row, p.position) && discharge.length) {
       candidates = discharge.map((part) => ({ part, rank: 0, why: `discharge bars move stringy ${cropWord} out at the rear before ${cropVerb(crop.id, 'it ropes', 'they rope')}` }));
+    } else if (p.inLine) {
+      candidates = raspCandidates(`spike rasp bars go on the in-line mounts when no straight bar is fitted`, 'spike-rasp');
     } else {
-      candidates = raspCandidates(`rasp bars keep ${cropWord} moving along the rotor`, 0);
+      candidates = raspCandidates(`rasp bars keep ${cropWord} moving along the rotor`);
     }
     candidates.sort(byRankThenPrice);
     slots.push({

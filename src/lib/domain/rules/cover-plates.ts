@@ -8,6 +8,7 @@ export function checkCoverPlates(ctx: RuleContext): void {
   const { fam, family, layout, crop } = ctx;
   const seen = new Set<string>();
   const fitted: Place[] = [];
+  const unslotted: Place[] = [];
   const adjustable = layout.vaneControl !== 'fixed';
   const plateSections = family.cageTopSections.filter((s) => s.coverPlateSides.length > 0);
   const whereAllowed = plateSections.length
@@ -39,6 +40,7 @@ export function checkCoverPlates(ctx: RuleContext): void {
     const part = resolvePart(ctx, c.partNumber, 'cover-plate', place, where);
     if (!part) continue;
     fitted.push(place);
+    if (!part.slotted && layout.vaneControl === 'fixed' && section.coverPlateSides.includes(c.side)) unslotted.push(place);
     if (part.side !== c.side) {
       emit(
         ctx,
@@ -71,6 +73,20 @@ export function checkCoverPlates(ctx: RuleContext): void {
         'Remove the left plate; in extreme hard threshing fit the right plate alone.',
       );
     }
+  }
+
+  // Slots in a cover plate let the vane bolts pass, so vanes set with bolts can still be moved
+  // with the plate on (common practice, no published source).
+  if (unslotted.length) {
+    emit(
+      ctx,
+      'COVER_UNSLOTTED_VANES',
+      'advice',
+      [...unslotted, { kind: 'setting', field: 'vaneSetting' }],
+      unslotted.length === 1 ? 'Cover plate without vane-bolt slots' : 'Cover plates without vane-bolt slots',
+      `This machine's vanes are set with bolts, and a cover plate without slots covers those bolts: to change the vane setting the plate must come off first. A slotted plate lets the bolts pass, so the vanes can be moved with the plate on (common practice).`,
+      'Fit the slotted version of the plate, or plan to take the plate off whenever the vanes are reset.',
+    );
   }
 
   if (fitted.length && crop.threshability !== 'hard') {

@@ -55,14 +55,16 @@ export function checkSettings(ctx: RuleContext): void {
       slow ? `Raise the rotor speed to at least ${lo} rpm; start low in the window and go up only as needed.` : `Lower the rotor speed to ${hi} rpm or less.`,
     );
   }
-  if (layout.drum === 'slim') {
+  // Once per layout, and only where it matters: the slim drum's extra capacity shows in heavy,
+  // tough straw; in a light-strawed crop it brings only its costs (common practice).
+  if (layout.drum === 'slim' && !crop.heavyStraw) {
     emit(
       ctx,
       'DRUM_SLIM_ADVICE',
       'advice',
       [{ kind: 'setting', field: 'drum' }],
-      'Slim drum: more capacity, more tuning',
-      'The slim drum gives about 20 % more capacity in heavy, tough crops and runs about 100 rpm faster, but it needs more fine tuning and loses more grain over the rotor (common practice).',
+      `Slim drum in ${crop.name.toLowerCase()}: tuning without the capacity gain`,
+      `The slim drum gives about 20 % more capacity in heavy, tough straw and runs about 100 rpm faster, but it needs more fine tuning and loses more grain over the rotor (common practice). ${crop.name} is not a heavy-straw crop, so the extra capacity does not show here while the extra rotor loss does.`,
       'Check rotor loss behind the machine after each change of speed or clearance.',
     );
   }

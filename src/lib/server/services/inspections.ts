@@ -364,7 +364,7 @@ export async function finishInspection(actor: Actor, id: string, opts: { acceptU
     catalogForFamily(ctx.family.id, db, ctx.machine.orgId),
     installedLayout(ctx.machine.id, db),
   ]);
-  const { lines, unknown } = replacementLines(items, current?.layout ?? null, catalog);
+  const { lines, unknown } = replacementLines(items, current?.layout ?? null, catalog, ctx.family);
   const disagrees = surveyVerdictDisagrees(ctx.family, items);
   if (disagrees && !opts.acceptUnevenSurvey)
     throw new HttpError(
