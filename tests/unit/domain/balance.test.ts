@@ -56,7 +56,7 @@ describe('the three layouts the review found silent', () => {
     const f3 = u[2]!;
     const F = mass('CW-BR-RS-04') * 0.381 * omega(base.rotorRpm) ** 2;
     expect(f3.explanation).toContain(`${Math.round(F)} N (${Math.round(F / 4.4482216152605)} lbf)`);
-    expect(f3.explanation).toContain('rotor bar row 3 at position 3');
+    expect(f3.explanation).toContain('rotor row 3, position 3');
     expect(f3.severity).toBe('blocks-fit');
   });
 
@@ -69,7 +69,7 @@ describe('the three layouts the review found silent', () => {
       { kind: 'bar', row: 1, position: 4 },
       { kind: 'bar', row: 3, position: 4 },
     ]);
-    expect(u[0]!.explanation).toContain('rotor bar row 3 at position 4');
+    expect(u[0]!.explanation).toContain('rotor row 3, position 4');
     const dm = mass('CW-BR-DC-04') - mass('CW-BR-RS-04'); // 8.1 − 6.8 kg
     const F = dm * 0.381 * omega(base.rotorRpm) ** 2;
     const allowed = 480 * 0.016 * omega(base.rotorRpm); // ISO 21940-11, G 16, 480 kg demo rotor

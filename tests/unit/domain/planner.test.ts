@@ -168,7 +168,7 @@ describe('a wheat machine going to peas, corn and rice', () => {
     const removedBars = p.removals.filter((r) => r.place.kind === 'bar');
     expect(removedBars).toHaveLength(4);
     // The rear mount of each pair comes free because the straight bar takes it, and the step says so.
-    const rearOff = p.steps.find((s) => s.kind === 'remove' && /row 1 at position 2/.test(s.text))!;
+    const rearOff = p.steps.find((s) => s.kind === 'remove' && /rotor row 1, position 2/i.test(s.text))!;
     expect(rearOff.text).toMatch(/the straight bar from position 1 takes this mount too/);
     // Every moved element is heavy: the step says how to lift it.
     for (const s of moves) {
