@@ -5,6 +5,7 @@ export * from './places';
 export * from './crops';
 export * from './catalog';
 export * from './compute';
+export * from './vanes';
 export { checkLayout, checkPlacement, placePart, hasBlockingFindings, countBySeverity } from './rules';
 export * from './demo-catalog';
 export * from './starter';
