@@ -25,6 +25,9 @@ export interface RpmRange {
   /** Lower end rounded down, upper end rounded up (a figure given in rpm comes back exact). */
   readonly lo: number;
   readonly hi: number;
+  /** The ends before rounding. */
+  readonly minRpm: number;
+  readonly maxRpm: number;
   readonly tipMinMs: MetresPerSecond;
   readonly tipMaxMs: MetresPerSecond;
   readonly source: string;
@@ -57,6 +60,8 @@ function onDrum(r: SpeedRange, d: Mm, shiftRpm: number): RpmRange {
   return {
     lo: Math.floor(minRpm + EPS),
     hi: Math.ceil(maxRpm - EPS),
+    minRpm,
+    maxRpm,
     tipMinMs: metresPerSecond(r.minMs),
     tipMaxMs: metresPerSecond(r.maxMs),
     source: r.source,
@@ -128,7 +133,9 @@ export function inStartBand(speed: number, w: RpmWindow): boolean {
  * has no band (start slow, go up only as losses call for it: Iowa State University Extension, Hanna).
  */
 export function startRpm(w: RpmWindow): number {
-  return w.start ? w.start.lo : rpmWindowWhole(w).lo;
+  const slowest = w.start ?? [...w.ranges].sort((a, b) => a.minRpm - b.minRpm)[0]!;
+  // The first whole rpm at or above the source's own lower end, so the start is inside it exactly.
+  return Math.ceil(slowest.minRpm - EPS);
 }
 
 /** A whole-rpm speed in the middle of the window. */

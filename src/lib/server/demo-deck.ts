@@ -51,7 +51,8 @@ export async function seedDemoDeck(db: Db | Tx, who: { orgId: string; trainerId:
       notes: [
         '- **Round-bar elements** thresh gently: a pea rubbed like wheat splits.',
         '- The openings are wide enough for the pea to drop through at once — see the passage figures.',
-        '- Rotor speed far lower than for wheat: the tip-speed window for peas is about half as fast.',
+        '- Rotor speed much lower than for wheat: peas start at 350 rpm, the lowest speed that threshes (NDSU Crop & Pest Report, 2008); wheat starts near 490 rpm on the same rotor (Harrison, 1975).',
+        '- Concave wide: as wide as still threshes all pods (NDSU, 2008); close it only as losses call for it.',
         '- Vanes on *fast*: pods open easily, so keep the crop moving.',
       ].join('\n'),
     },
