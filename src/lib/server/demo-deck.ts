@@ -61,7 +61,7 @@ export async function seedDemoDeck(db: Db | Tx, who: { orgId: string; trainerId:
       sampleLayout: wrongForPeas,
       notes: [
         '- The rules flag the **fine-wire** elements: the pea cannot pass the opening and the rubbing cracks it.',
-        '- The rotor speed is far above the window for peas.',
+        '- The rotor speed was set for wheat: it sits at the top of the range for peas. Peas want the lowest speed that threshes (NDSU Crop & Pest Report, 2008), so bring it down towards the start band the rules name.',
         '- Open the comparison with the pea start to see every change in one list.',
       ].join('\n'),
     },

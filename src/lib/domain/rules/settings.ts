@@ -1,7 +1,7 @@
 /** Rules for the settings beside the diagram: family, drum, vane control and setting, rotor speed, clearance. */
 import { MECHANICAL_MIN_CLEARANCE_MM, sourceInWords } from '../crops';
 import { drumFor } from '../compute';
-import { inRpmWindow, inStartBand, rpmWindow, rpmWindowWords, type RpmWindow } from '../speed';
+import { inRpmWindow, inStartBand, rpmWindow, rpmWindowWords, startRpm, type RpmWindow } from '../speed';
 import { VANE_CONTROL_HOW, VANE_SETTING_WORDS, adviseVaneSetting, vaneSettingsFor } from '../vanes';
 import { emit, type RuleContext } from './context';
 
@@ -38,11 +38,11 @@ function checkSpeed(ctx: RuleContext, w: RpmWindow, drumLabel: string, diameterM
       'CROP_RPM_OUTSIDE_START',
       'advice',
       [{ kind: 'setting', field: 'rotorRpm' }],
-      `Rotor ${below ? 'below' : 'above'} where ${crop.name.toLowerCase()} usually starts`,
+      `Rotor ${below ? 'below' : 'above'} the usual starting band for ${crop.name.toLowerCase()}`,
       `${speed} rpm is inside a cited range (${rpmWindowWords(w)} ${on}), but the usual place to start is ${w.start.lo === w.start.hi ? `${w.start.lo} rpm` : `${w.start.lo}–${w.start.hi} rpm`} (${sourceInWords(w.start.source)}).`,
       below
-        ? `Fine if it threshes cleanly; if heads or pods go through unthreshed, close the concave first, then come up towards ${w.start.lo} rpm.`
-        : `Start at ${w.start.lo} rpm and go faster only if losses behind the machine call for it.`,
+        ? `Fine if it threshes cleanly; if heads or pods go through unthreshed, close the concave first, then come up towards ${startRpm(w)} rpm.`
+        : `Start at ${startRpm(w)} rpm and go faster only if losses behind the machine call for it.`,
     );
   }
 }
