@@ -9,7 +9,7 @@ import { computeSettings, drumFor } from '../../lib/domain/compute';
 import { cropIds, cropPrograms } from '../../lib/domain/crops';
 import { CLEARANCE_MAX_MM, CLEARANCE_MIN_MM, RPM_MAX, RPM_MIN, type SettingField } from '../../lib/domain/schemas';
 import { inRpmWindow, rpmWindow, rpmWindowWhole, rpmWindowWords, startRpm, tipSpeed } from '../../lib/domain/speed';
-import { vaneSettingsFor } from '../../lib/domain/vanes';
+import { VANE_CONTROL_HOW, vaneSettingsFor } from '../../lib/domain/vanes';
 import { formatLength, formatMass, formatSpeed, kg, mm, MM_PER_INCH, rpm } from '../../lib/domain/units';
 import { CageEndView } from '../cage/EndView';
 import { SeverityBadge } from '../cage/SeverityIcon';
@@ -20,7 +20,7 @@ import type { EditorState } from './store/types';
 
 const VANE_SETTINGS = ['very-slow', 'slow', 'medium', 'fast'] as const;
 const VANE_WORDS = { 'very-slow': 'Very slow', slow: 'Slow', medium: 'Medium', fast: 'Fast' } as const;
-const CONTROL_WORDS = { fixed: 'Bolt-set (in the shop)', manual: 'Adjustable at the linkage', powered: 'Powered from the cab' } as const;
+const CONTROL_WORDS = { fixed: 'Bolt-set', manual: 'Adjustable', powered: 'Powered' } as const;
 const SEP = '\u0001';
 
 /** The findings pinned to one setting, packed in a string (worked out once per findings list). */
@@ -222,6 +222,9 @@ function SettingsFields() {
           </select>
         </div>
       </div>
+      <p className="-mt-2 text-xs text-ink-muted" data-testid="vane-how">
+        {VANE_CONTROL_HOW[vaneControl][0]!.toUpperCase() + VANE_CONTROL_HOW[vaneControl].slice(1)}.
+      </p>
       <FieldFinding field="vaneControl" />
       <FieldFinding field="vaneSetting" />
     </div>
