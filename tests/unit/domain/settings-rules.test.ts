@@ -173,3 +173,26 @@ describe('starting settings start slow and wide', () => {
           }
   });
 });
+
+describe('the planner proposes the same starting settings', () => {
+  it('a slim-drum wheat machine going to each crop: slow end of the slim window, wide concave, vanes the control takes, no settings finding above advice', async () => {
+    const { planCropChange } = await import('~/lib/domain/planner');
+    const { catalog } = await import('./helpers');
+    let planned = 0;
+    for (const control of modular.vaneControls)
+      for (const crop of crops) {
+        const installed = start('wheat', modular, { drum: 'slim', vaneControl: control });
+        const plan = planCropChange({ family: modular, catalog, installed, shelf: {}, crop, vaneControl: control });
+        if (!plan.ok) continue;
+        planned++;
+        const w = rpmWindow(crop, { id: 'slim', diameterMm: 762 });
+        expect(plan.layout.drum).toBe('slim');
+        expect(plan.layout.rotorRpm, crop).toBe(startRpm(w));
+        expect(plan.layout.clearanceMm, crop).toBe(cropPrograms[crop].clearanceMm.maxMm);
+        expect(vaneSettingsFor(control)).toContain(plan.layout.vaneSetting);
+        const bad = plan.findings.filter((f) => [...SPEED_CODES, ...CLEARANCE_CODES, ...VANE_CODES].includes(f.code) && f.severity !== 'advice');
+        expect(bad.map((f) => f.code), `${control} ${crop}`).toEqual([]);
+      }
+    expect(planned).toBeGreaterThan(crops.length);
+  });
+});
