@@ -75,12 +75,27 @@ function onDrum(r: SpeedRange, d: Mm, shiftRpm: number): RpmRange {
  */
 export function rpmWindow(crop: CropProgram | CropId, drum: { id: DrumId; diameterMm: number }): RpmWindow {
   const c = typeof crop === 'string' ? cropPrograms[crop] : crop;
+  // The built-in programs are frozen: their windows are worked out once per drum (checkLayout runs on every edit).
+  const builtIn = cropPrograms[c.id] === c;
+  const key = `${c.id}|${drum.id}|${drum.diameterMm}`;
+  if (builtIn) {
+    const hit = WINDOWS.get(key);
+    if (hit) return hit;
+  }
+  const w = computeWindow(c, drum);
+  if (builtIn) WINDOWS.set(key, w);
+  return w;
+}
+
+const WINDOWS = new Map<string, RpmWindow>();
+
+function computeWindow(c: CropProgram, drum: { id: DrumId; diameterMm: number }): RpmWindow {
   const d = mm(drum.diameterMm);
   const shiftRpm = drum.id === 'slim' ? SLIM_DRUM_RPM_SHIFT : 0;
   const ranges = c.speed.ranges.map((r) => onDrum(r, d, shiftRpm));
   const tipMin = Math.min(...c.speed.ranges.map((r) => r.minMs));
   const tipMax = Math.max(...c.speed.ranges.map((r) => r.maxMs));
-  return {
+  return Object.freeze({
     minRpm: rpm(rpmForTipSpeed(metresPerSecond(tipMin), d) + shiftRpm),
     maxRpm: rpm(rpmForTipSpeed(metresPerSecond(tipMax), d) + shiftRpm),
     tipMinMs: metresPerSecond(tipMin),
@@ -90,7 +105,7 @@ export function rpmWindow(crop: CropProgram | CropId, drum: { id: DrumId; diamet
     ranges,
     start: c.speed.start ? onDrum(c.speed.start, d, shiftRpm) : null,
     source: [...new Set(c.speed.ranges.map((r) => r.source))].join('; '),
-  };
+  });
 }
 
 /**

@@ -97,6 +97,8 @@ function checkVanes(ctx: RuleContext): void {
   const can = vaneSettingsFor(control);
   const words = (xs: readonly string[]) => list(xs.map((x) => VANE_SETTING_WORDS[x as keyof typeof VANE_SETTING_WORDS]));
   const place = [{ kind: 'setting', field: 'vaneSetting' } as const];
+  const suits = crop.vanes.suits.includes(setting);
+  if (can.includes(setting) && suits) return;
   const advise = adviseVaneSetting(control, crop.vanes.suits, setting);
   if (!can.includes(setting)) {
     emit(
@@ -123,7 +125,7 @@ function checkVanes(ctx: RuleContext): void {
         : `${crop.name} cracks easily: ${VANE_SETTING_WORDS[setting]} vanes keep it under the rasp bars longer than it needs (${crop.vanes.source}).`,
       `Set the vanes to ${VANE_SETTING_WORDS[advise]} (${VANE_CONTROL_HOW[control]}).`,
     );
-  } else if (!crop.vanes.suits.includes(setting)) {
+  } else if (!suits) {
     emit(
       ctx,
       'CROP_VANES_ADVICE',
