@@ -8,7 +8,8 @@ import { memo, useDeferredValue, useMemo } from 'react';
 import { computeSettings, drumFor } from '../../lib/domain/compute';
 import { cropIds, cropPrograms } from '../../lib/domain/crops';
 import { CLEARANCE_MAX_MM, CLEARANCE_MIN_MM, RPM_MAX, RPM_MIN, type SettingField } from '../../lib/domain/schemas';
-import { inRpmWindow, rpmWindow, rpmWindowWords, tipSpeed } from '../../lib/domain/speed';
+import { inRpmWindow, rpmWindow, rpmWindowWhole, rpmWindowWords, startRpm, tipSpeed } from '../../lib/domain/speed';
+import { VANE_CONTROL_HOW, vaneSettingsFor } from '../../lib/domain/vanes';
 import { formatLength, formatMass, formatSpeed, kg, mm, MM_PER_INCH, rpm } from '../../lib/domain/units';
 import { CageEndView } from '../cage/EndView';
 import { SeverityBadge } from '../cage/SeverityIcon';
@@ -20,7 +21,7 @@ import { CAPACITY_MODEL_WORDS } from '../../lib/domain/cage-metrics';
 
 const VANE_SETTINGS = ['very-slow', 'slow', 'medium', 'fast'] as const;
 const VANE_WORDS = { 'very-slow': 'Very slow', slow: 'Slow', medium: 'Medium', fast: 'Fast' } as const;
-const CONTROL_WORDS = { fixed: 'Fixed', manual: 'Manually adjusted', powered: 'Powered' } as const;
+const CONTROL_WORDS = { fixed: 'Bolt-set', manual: 'Adjustable', powered: 'Powered' } as const;
 const SEP = '\u0001';
 
 /** The findings pinned to one setting, packed in a string (worked out once per findings list). */
@@ -100,7 +101,9 @@ function SettingsFields() {
   const w = rpmWindow(program, { id: drum, diameterMm: d.diameterMm });
   const v = tipSpeed(mm(d.diameterMm), rpm(rotorRpm));
   const inside = inRpmWindow(rotorRpm, w);
+  const whole = rpmWindowWhole(w);
   const imperial = units === 'imperial';
+  const canTake = vaneSettingsFor(vaneControl);
 
   return (
     <div className="mt-3 flex flex-col gap-4">
@@ -159,7 +162,10 @@ function SettingsFields() {
           </p>
           <p className={inside ? 'font-semibold text-ok' : 'font-semibold text-crop'}>
             <span aria-hidden="true">{inside ? '✓ ' : '▲ '}</span>
-            {inside ? 'Inside the window' : rotorRpm < w.minRpm ? 'Below the window' : 'Above the window'}
+            {inside ? 'Inside the window' : rotorRpm < whole.lo ? 'Below the window' : rotorRpm > whole.hi ? 'Above the window' : 'Between the cited ranges'}
+          </p>
+          <p className="text-ink-muted" data-testid="rpm-start">
+            Start at {startRpm(w)} rpm, the slow end{w.start ? ' of the usual starting band' : ''}; go faster only as losses call for it.
           </p>
         </div>
         <FieldFinding field="rotorRpm" />
@@ -178,6 +184,10 @@ function SettingsFields() {
           disabled={!canEdit}
           onCommit={(n) => set('clearanceMm', Math.round((imperial ? n * MM_PER_INCH : n) * 100) / 100)}
         />
+        <p className="mt-1 text-sm" data-testid="clearance-window">
+          {program.name} window: <strong>{formatLength(mm(program.clearanceMm.minMm), units)}–{formatLength(mm(program.clearanceMm.maxMm), units)}</strong>
+          <span className="text-ink-muted"> · start at the wide end</span>
+        </p>
         <p className="mt-1 text-xs text-ink-muted">{program.clearanceAdvice.split('(')[0]!.trim()}</p>
         <FieldFinding field="clearanceMm" />
         {/* The end view is left out on a phone (its words would be too small there). */}
@@ -205,13 +215,17 @@ function SettingsFields() {
           </label>
           <select id="setting-vaneSetting" className="field-input py-1.5" value={vaneSetting} disabled={!canEdit} onChange={(e) => set('vaneSetting', e.target.value as typeof vaneSetting)}>
             {VANE_SETTINGS.map((x) => (
-              <option key={x} value={x}>
+              <option key={x} value={x} disabled={!canTake.includes(x) && x !== vaneSetting}>
                 {VANE_WORDS[x]}
+                {canTake.includes(x) ? '' : ' (not on these vanes)'}
               </option>
             ))}
           </select>
         </div>
       </div>
+      <p className="-mt-2 text-xs text-ink-muted" data-testid="vane-how">
+        {VANE_CONTROL_HOW[vaneControl][0]!.toUpperCase() + VANE_CONTROL_HOW[vaneControl].slice(1)}.
+      </p>
       <FieldFinding field="vaneControl" />
       <FieldFinding field="vaneSetting" />
     </div>

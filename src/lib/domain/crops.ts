@@ -6,7 +6,7 @@
  * of the trade with no published source.
  */
 import { z } from 'zod';
-import { cropIdSchema, elementTypeSchema, type CropId, type ElementType } from './schemas';
+import { cropIdSchema, elementTypeSchema, vaneSettingSchema, type CropId, type ElementType } from './schemas';
 import { bushelsPerTonne } from './units';
 
 const sourced = z.object({ value: z.number().positive(), source: z.string().min(1) });
@@ -19,6 +19,21 @@ export const kernelSizeSchema = z.object({
   source: z.string().min(1),
 });
 export type KernelSize = z.infer<typeof kernelSizeSchema>;
+
+/** A tip-speed range, m/s, with its citation (and the figure as the source gave it, if not m/s). */
+export const speedRangeSchema = z.object({
+  minMs: z.number().positive(),
+  maxMs: z.number().positive(),
+  source: z.string().min(1),
+});
+export type SpeedRange = z.infer<typeof speedRangeSchema>;
+
+export const clearanceWindowSchema = z.object({
+  minMm: z.number().positive(),
+  maxMm: z.number().positive(),
+  source: z.string().min(1),
+});
+export type ClearanceWindow = z.infer<typeof clearanceWindowSchema>;
 
 export const cropProgramSchema = z.object({
   id: cropIdSchema,
@@ -46,8 +61,15 @@ export const cropProgramSchema = z.object({
     discharge: z.enum(['wanted', 'not-needed']),
     advice: z.string(),
   }),
-  /** Rotor tip-speed window, m/s; rpm is derived from the rotor diameter. */
-  tipSpeedMs: z.object({ min: z.number().positive(), max: z.number().positive(), source: z.string().min(1) }),
+  /**
+   * Rotor speed, stored as tip speed (m/s) so rpm follows from the rotor diameter. `ranges` are
+   * the windows the program cites (a speed inside any of them never hurts the crop; outside all of
+   * them it does); `start` is a narrower "start here" band inside them (outside it is advice).
+   */
+  speed: z.object({
+    ranges: z.array(speedRangeSchema).min(1),
+    start: speedRangeSchema.nullable(),
+  }),
   bushel: z.object({
     /** US bushel weight, lb/bu. */
     usLb: sourced,
@@ -56,8 +78,13 @@ export const cropProgramSchema = z.object({
   }),
   /** A published kernels-per-area rule of thumb: kernels per ft² ≈ 1 bu/ac loss. */
   publishedLossCount: sourced.nullable(),
-  /** Where to start the concave clearance, mm (the starter layout uses it). */
-  startClearanceMm: sourced,
+  /**
+   * Concave clearance window, mm: tighter than `minMm` cracks kernels or crushes the crop; wider
+   * than `maxMm` lets heads or pods through unthreshed. A new layout starts at `maxMm`.
+   */
+  clearanceMm: clearanceWindowSchema,
+  /** Vane settings that suit the crop, and those that work against it (common practice). */
+  vanes: z.object({ suits: z.array(vaneSettingSchema).min(1), against: z.array(vaneSettingSchema), source: z.string().min(1) }),
   clearanceAdvice: z.string(),
   notes: z.string().optional(),
 });
@@ -82,21 +109,51 @@ const SRC = {
   smallgrains: 'smallgrains.org, "How to Estimate Grain Harvest Losses" (2003)',
   isu: 'Iowa State University Extension (Hanna, 2017)',
   ccc: 'Canola Council of Canada (2012) seeds/ft² table',
-  manitoba: 'Manitoba Agriculture: 300–400 rpm on rotary machines (11.9–15.9 m/s on a 760 mm rotor)',
-  agrophysics1994: 'International Agrophysics (1994): 9.04–10.17 m/s optimum for dry beans (peg drum)',
-  stepon: 'Steponavičius et al., J. Vibroengineering (2017): corn ears tested at 11.0–17.3 m/s',
-  ndsuEb25: 'NDSU Extension EB-25 (2007): 220 rpm on a 30 in rotor (8.8 m/s); window width [mem]',
+  manitoba: 'Manitoba Agriculture, field pea harvest guidance: 300–400 rpm on rotary machines (11.9–15.9 m/s on a 760 mm rotor)',
+  ndsuPeas: 'North Dakota State University Extension, Crop & Pest Report (30 July 2008), field pea harvest: 350–500 rpm, the lowest speed that threshes (on a 762 mm rotor)',
+  peasStart: 'where NDSU Crop & Pest Report (30 July 2008, 350–500 rpm) and Manitoba Agriculture (300–400 rpm) agree: 350–400 rpm, starting at the lowest speed that threshes',
+  agrophysics1994: 'International Agrophysics (1994), dry-bean threshing on a peg drum: 9.04–10.17 m/s optimum (laboratory)',
+  stepon: 'Steponavičius et al. (2017), corn-ear threshing tests at 11.0, 14.1 and 17.3 m/s, Journal of Vibroengineering',
+  steponStart: 'Steponavičius et al. (2017), Journal of Vibroengineering: the lower two of the tested speeds, 11.0 and 14.1 m/s',
+  harrisonTested: 'Harrison (1975), cylinder-speed tests in wheat, Canadian Agricultural Engineering 17(1):55–58: 533 mm cylinder at 700–1,100 rpm (19.5–30.7 m/s)',
+  harrisonBest: 'Harrison (1975), Canadian Agricultural Engineering 17(1):55–58: wheat at 10 % moisture threshed best below 800 rpm (22.3 m/s)',
+  ndsuEb25: 'North Dakota State University Extension (2007), EB-25 "Sunflower Production": 220 rpm on a 30 in rotor (8.8 m/s)',
+  memSunflower: '[mem] window around the 220 rpm of NDSU Extension EB-25 (2007), 7.5–10.5 m/s',
   memSmall: '[mem] small grains ≈ 25–35 m/s',
   memCornSoy: '[mem] corn and soybeans ≈ 10–20 m/s',
   memPulse: '[mem] pulses and beans ≈ 7–15 m/s',
+  memCob: '[mem] about the cob diameter (20–30 mm)',
+  cp: 'common practice, no published source',
+  cpPeas: 'common practice, no published source; as wide as still threshes all pods (NDSU Crop & Pest Report, 30 July 2008)',
   mem: '[mem]',
 } as const;
 
 const canada = (buPerTonne: number) => ({ value: buPerTonne, source: SRC.alberta });
 
-const WIDE_CLEARANCE = 'Start with the rotor slow and the concave wide; tighten only as far as needed (Iowa State University Extension, Hanna). Fix unthreshed loss with clearance before speed (University of Wisconsin, "Combine Adjustments").';
+/** Rotary machines measure about 762 mm (30 in) across the rasp bars (common practice). */
+const ROTARY_MM = 762;
+/** A tip-speed range given in m/s. */
+const ms = (minMs: number, maxMs: number, source: string): SpeedRange => ({ minMs, maxMs, source });
+/** A range published in rpm on a rotor of `diameterMm`, kept as tip speed. */
+const rpmOn = (lo: number, hi: number, diameterMm: number, source: string): SpeedRange => ({
+  minMs: (Math.PI * (diameterMm / 1000) * lo) / 60,
+  maxMs: (Math.PI * (diameterMm / 1000) * hi) / 60,
+  source,
+});
 
-type Draft = Omit<CropProgram, 'passingSizeMm'>;
+const WIDE_CLEARANCE = 'Start with the rotor at the slow end of its window and the concave at the wide end; tighten only as losses call for it (Iowa State University Extension, Hanna). Fix unthreshed loss with clearance before speed (University of Wisconsin, "Combine Adjustments").';
+
+type Draft = Omit<CropProgram, 'passingSizeMm' | 'vanes'>;
+
+const VANE_SOURCE = 'common practice, no published source: slower vanes keep crop longer in the threshing zone for hard threshing; faster vanes move it on for capacity';
+
+/** The vane settings that suit a crop and those that work against it (common practice). */
+function vanesFor(d: Draft): CropProgram['vanes'] {
+  if (d.threshability === 'hard') return { suits: ['very-slow', 'slow'], against: ['fast'], source: VANE_SOURCE };
+  if (d.fragile) return { suits: ['medium', 'fast'], against: ['very-slow'], source: VANE_SOURCE };
+  if (d.threshability === 'easy') return { suits: ['medium', 'fast'], against: [], source: VANE_SOURCE };
+  return { suits: ['slow', 'medium', 'fast'], against: [], source: VANE_SOURCE };
+}
 
 const drafts: Draft[] = [
   {
@@ -110,10 +167,10 @@ const drafts: Draft[] = [
     stringy: false,
     suggested: { threshing: 'fine-wire', separating: 'wide-wire' },
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only; straight bars cost power and are not needed in small grains (common practice).' },
-    tipSpeedMs: { min: 25, max: 35, source: SRC.memSmall },
+    speed: { ranges: [ms(19.5, 30.7, SRC.harrisonTested)], start: ms(19.5, 22.3, SRC.harrisonBest) },
     bushel: { usLb: { value: 60, source: SRC.uw }, canadaPerTonne: canada(36.744) },
     publishedLossCount: { value: 20, source: `${SRC.smallgrains}, hard red spring wheat` },
-    startClearanceMm: { value: 10, source: '[mem]' },
+    clearanceMm: { minMm: 6, maxMm: 18, source: SRC.cp },
     clearanceAdvice: WIDE_CLEARANCE,
     notes: 'Harrison, Canadian Agricultural Engineering 17(1):55 (1975): wheat at 10 % moisture threshed best below 22.3 m/s on a 533 mm cylinder. Powered vanes moved through their range clean up hard-threshing wheat (common practice).',
   },
@@ -128,10 +185,10 @@ const drafts: Draft[] = [
     stringy: false,
     suggested: { threshing: 'fine-wire', separating: 'wide-wire' },
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only (common practice).' },
-    tipSpeedMs: { min: 25, max: 35, source: SRC.memSmall },
+    speed: { ranges: [ms(25, 35, SRC.memSmall)], start: null },
     bushel: { usLb: { value: 48, source: SRC.uw }, canadaPerTonne: canada(45.93) },
     publishedLossCount: { value: 14, source: SRC.smallgrains },
-    startClearanceMm: { value: 12, source: '[mem]' },
+    clearanceMm: { minMm: 6, maxMm: 20, source: SRC.cp },
     clearanceAdvice: WIDE_CLEARANCE,
   },
   {
@@ -145,10 +202,10 @@ const drafts: Draft[] = [
     stringy: false,
     suggested: { threshing: 'fine-wire', separating: 'wide-wire' },
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only (common practice).' },
-    tipSpeedMs: { min: 25, max: 35, source: SRC.memSmall },
+    speed: { ranges: [ms(25, 35, SRC.memSmall)], start: null },
     bushel: { usLb: { value: 32, source: SRC.uw }, canadaPerTonne: { value: 64.842, source: `${SRC.alberta}; Canadian oats bushel is 34 lb` } },
     publishedLossCount: { value: 10, source: SRC.smallgrains },
-    startClearanceMm: { value: 12, source: '[mem]' },
+    clearanceMm: { minMm: 6, maxMm: 20, source: SRC.cp },
     clearanceAdvice: WIDE_CLEARANCE,
   },
   {
@@ -162,13 +219,13 @@ const drafts: Draft[] = [
     stringy: false,
     suggested: { threshing: 'fine-wire', separating: 'wide-wire' },
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only; straight bars are not needed in canola (common practice).' },
-    tipSpeedMs: { min: 18, max: 28, source: SRC.mem },
+    speed: { ranges: [ms(18, 28, SRC.mem)], start: null },
     bushel: {
       usLb: { value: 50, source: `derived from ${SRC.alberta}: 44.0920 bu/t is a 50 lb bushel` },
       canadaPerTonne: canada(44.092),
     },
     publishedLossCount: null,
-    startClearanceMm: { value: 15, source: '[mem]' },
+    clearanceMm: { minMm: 8, maxMm: 25, source: SRC.cp },
     clearanceAdvice: WIDE_CLEARANCE,
     notes: `Loss counts: ${SRC.ccc} — the seeds/ft² for 1 bu/ac depend on thousand-seed weight.`,
   },
@@ -183,10 +240,10 @@ const drafts: Draft[] = [
     stringy: false,
     suggested: { threshing: 'round-bar', separating: 'wide-wire' },
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only; pulses do not need straight bars (common practice).' },
-    tipSpeedMs: { min: 11.9, max: 15.9, source: SRC.manitoba },
+    speed: { ranges: [rpmOn(350, 500, ROTARY_MM, SRC.ndsuPeas), ms(11.9, 15.9, SRC.manitoba)], start: rpmOn(350, 400, ROTARY_MM, SRC.peasStart) },
     bushel: { usLb: { value: 60, source: `derived from ${SRC.alberta}: 36.7440 bu/t is a 60 lb bushel` }, canadaPerTonne: canada(36.744) },
     publishedLossCount: null,
-    startClearanceMm: { value: 25, source: '[mem]' },
+    clearanceMm: { minMm: 12, maxMm: 35, source: SRC.cpPeas },
     clearanceAdvice: 'Concave as wide as still threshes all pods (NDSU Crop & Pest Report, 2008); lowest rotor speed that threshes.',
     notes: 'NDSU Crop & Pest Report (30 July 2008): 350–500 rpm, the lowest speed that threshes.',
   },
@@ -201,10 +258,10 @@ const drafts: Draft[] = [
     stringy: false,
     suggested: { threshing: 'round-bar', separating: 'wide-wire' },
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only (common practice).' },
-    tipSpeedMs: { min: 7, max: 15, source: SRC.memPulse },
+    speed: { ranges: [ms(7, 15, SRC.memPulse)], start: null },
     bushel: { usLb: { value: 60, source: '[mem] 60 lb' }, canadaPerTonne: null },
     publishedLossCount: null,
-    startClearanceMm: { value: 20, source: '[mem]' },
+    clearanceMm: { minMm: 10, maxMm: 30, source: SRC.cp },
     clearanceAdvice: 'Concave as wide as still threshes all pods (NDSU Crop & Pest Report, 2008, for peas).',
   },
   {
@@ -218,10 +275,10 @@ const drafts: Draft[] = [
     stringy: false,
     suggested: { threshing: 'round-bar', separating: 'wide-wire' },
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only (common practice).' },
-    tipSpeedMs: { min: 10, max: 20, source: SRC.memCornSoy },
+    speed: { ranges: [ms(10, 20, SRC.memCornSoy)], start: null },
     bushel: { usLb: { value: 60, source: SRC.uw }, canadaPerTonne: canada(36.744) },
     publishedLossCount: { value: 4, source: SRC.isu },
-    startClearanceMm: { value: 20, source: '[mem]' },
+    clearanceMm: { minMm: 12, maxMm: 30, source: SRC.cp },
     clearanceAdvice: `${WIDE_CLEARANCE} Loss target ≤ 2.75 % in soybeans (University of Nebraska).`,
   },
   {
@@ -235,10 +292,10 @@ const drafts: Draft[] = [
     stringy: false,
     suggested: { threshing: 'perforated', separating: 'wide-wire' },
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only; no straight bars in beans (common practice).' },
-    tipSpeedMs: { min: 9.04, max: 10.17, source: SRC.agrophysics1994 },
+    speed: { ranges: [ms(9.04, 10.17, SRC.agrophysics1994), ms(7, 15, SRC.memPulse)], start: ms(9.04, 10.17, SRC.agrophysics1994) },
     bushel: { usLb: { value: 60, source: '[mem] 60 lb' }, canadaPerTonne: null },
     publishedLossCount: null,
-    startClearanceMm: { value: 30, source: '[mem]' },
+    clearanceMm: { minMm: 18, maxMm: 40, source: SRC.cp },
     clearanceAdvice: 'Wide concave and the gentlest elements; beans crack easily (common practice).',
   },
   {
@@ -256,11 +313,11 @@ const drafts: Draft[] = [
       discharge: 'not-needed',
       advice: 'Straight interrupter bars across the in-line rasp bars slow the crop so kernels hidden in husks come free (common practice); spike rasp bars take their place when they come off.',
     },
-    tipSpeedMs: { min: 11, max: 17.3, source: SRC.stepon },
+    speed: { ranges: [ms(11, 17.3, SRC.stepon)], start: ms(11, 14.1, SRC.steponStart) },
     bushel: { usLb: { value: 56, source: SRC.uw }, canadaPerTonne: canada(39.368) },
     publishedLossCount: { value: 2, source: SRC.isu },
-    startClearanceMm: { value: 25, source: '[mem] about the cob diameter (20–30 mm)' },
-    clearanceAdvice: 'Clearance about the cob diameter (20–30 mm, a rule of thumb with no published source); round-bar elements for high-moisture corn (common practice).',
+    clearanceMm: { minMm: 20, maxMm: 30, source: SRC.memCob },
+    clearanceAdvice: 'Clearance about the cob diameter (20–30 mm, a rule of thumb with no published source), starting wide; round-bar elements for high-moisture corn (common practice).',
   },
   {
     id: 'rice',
@@ -273,10 +330,10 @@ const drafts: Draft[] = [
     stringy: false,
     suggested: { threshing: 'close-bar', separating: 'wide-wire' },
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only (common practice).' },
-    tipSpeedMs: { min: 25, max: 35, source: SRC.memSmall },
+    speed: { ranges: [ms(25, 35, SRC.memSmall)], start: null },
     bushel: { usLb: { value: 45, source: SRC.usda }, canadaPerTonne: null },
     publishedLossCount: null,
-    startClearanceMm: { value: 10, source: '[mem]' },
+    clearanceMm: { minMm: 6, maxMm: 18, source: SRC.cp },
     clearanceAdvice: WIDE_CLEARANCE,
   },
   {
@@ -291,13 +348,13 @@ const drafts: Draft[] = [
     suggested: { threshing: 'round-bar', separating: 'wide-wire' },
     blankPlatesUsed: true,
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only (common practice).' },
-    tipSpeedMs: { min: 7.5, max: 10.5, source: SRC.ndsuEb25 },
+    speed: { ranges: [ms(7.5, 10.5, SRC.memSunflower)], start: rpmOn(220, 220, ROTARY_MM, SRC.ndsuEb25) },
     bushel: {
       usLb: { value: 30, source: `derived from ${SRC.alberta}: 73.4870 bu/t is a 30 lb bushel` },
       canadaPerTonne: canada(73.487),
     },
     publishedLossCount: null,
-    startClearanceMm: { value: 25, source: '[mem]' },
+    clearanceMm: { minMm: 18, maxMm: 40, source: SRC.cp },
     clearanceAdvice: 'Wide concave; a blank plate keeps whole heads from dropping through where needed (common practice).',
   },
   {
@@ -311,10 +368,10 @@ const drafts: Draft[] = [
     stringy: false,
     suggested: { threshing: 'fine-wire', separating: 'fine-wire' },
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only (common practice).' },
-    tipSpeedMs: { min: 20, max: 30, source: SRC.mem },
+    speed: { ranges: [ms(20, 30, SRC.mem)], start: null },
     bushel: { usLb: { value: 24, source: '[mem] varies widely by species' }, canadaPerTonne: null },
     publishedLossCount: null,
-    startClearanceMm: { value: 8, source: '[mem]' },
+    clearanceMm: { minMm: 4, maxMm: 15, source: SRC.cp },
     clearanceAdvice: WIDE_CLEARANCE,
   },
   {
@@ -328,10 +385,10 @@ const drafts: Draft[] = [
     stringy: false,
     suggested: { threshing: 'fine-wire', separating: 'wide-wire' },
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only (common practice).' },
-    tipSpeedMs: { min: 18, max: 28, source: SRC.mem },
+    speed: { ranges: [ms(18, 28, SRC.mem)], start: null },
     bushel: { usLb: { value: 56, source: SRC.usda }, canadaPerTonne: null },
     publishedLossCount: null,
-    startClearanceMm: { value: 15, source: '[mem]' },
+    clearanceMm: { minMm: 8, maxMm: 25, source: SRC.cp },
     clearanceAdvice: WIDE_CLEARANCE,
   },
   {
@@ -349,16 +406,16 @@ const drafts: Draft[] = [
       discharge: 'wanted',
       advice: 'Discharge bars at the rear move stringy crop that ropes; an extra pair one position ahead, 180° from the rear ones, cuts rotor loss (common practice).',
     },
-    tipSpeedMs: { min: 15, max: 25, source: SRC.mem },
+    speed: { ranges: [ms(15, 25, SRC.mem)], start: null },
     bushel: { usLb: { value: 44, source: '[mem]' }, canadaPerTonne: null },
     publishedLossCount: null,
-    startClearanceMm: { value: 20, source: '[mem]' },
+    clearanceMm: { minMm: 10, maxMm: 30, source: SRC.cp },
     clearanceAdvice: WIDE_CLEARANCE,
   },
 ];
 
 function finish(d: Draft): CropProgram {
-  return { ...d, passingSizeMm: Math.min(d.kernel.widthMm, d.kernel.thicknessMm) };
+  return { ...d, passingSizeMm: Math.min(d.kernel.widthMm, d.kernel.thicknessMm), vanes: vanesFor(d) };
 }
 
 export const cropPrograms: Readonly<Record<CropId, CropProgram>> = Object.freeze(
@@ -370,6 +427,12 @@ export const cropIds: readonly CropId[] = cropIdSchema.options;
 export function cropProgram(id: CropId): CropProgram {
   return cropPrograms[id];
 }
+
+/**
+ * Below this concave clearance the rasp bars can touch the concave as the rotor deflects under
+ * load: no crop runs there (common practice, no published source).
+ */
+export const MECHANICAL_MIN_CLEARANCE_MM = 2;
 
 /** Elements that rub hard: bad news for crops that crack (common practice). */
 export const AGGRESSIVE_ELEMENT_TYPES: ReadonlySet<ElementType> = new Set(['fine-wire', 'close-bar']);

@@ -9,6 +9,7 @@ export { checkLayout, hasBlockingFindings, countBySeverity } from './rules';
 export * from './layout-edits';
 export * from './vocabulary';
 export * from './words';
+export * from './vanes';
 export * from './demo-catalog';
 export * from './starter';
 export * from './check-input';

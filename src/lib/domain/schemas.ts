@@ -361,6 +361,13 @@ export const findingCodeSchema = z.enum([
   'CROP_BLANK_PLATE',
   'CROP_RPM_OUTSIDE_WINDOW',
   'DRUM_SLIM_ADVICE',
+  // settings: speed band, clearance, vanes
+  'CROP_RPM_OUTSIDE_START',
+  'FIT_CLEARANCE_BELOW_MINIMUM',
+  'CROP_CLEARANCE_OUTSIDE_WINDOW',
+  'FIT_VANE_SETTING_UNAVAILABLE',
+  'CROP_VANES_AGAINST_CROP',
+  'CROP_VANES_ADVICE',
 ]);
 export type FindingCode = z.infer<typeof findingCodeSchema>;
 

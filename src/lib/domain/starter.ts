@@ -5,7 +5,8 @@
 import { cropPrograms } from './crops';
 import { isDischargeMount, rotorModel } from './rotor';
 import { drumFor } from './compute';
-import { middleRpm, rpmWindow } from './speed';
+import { rpmWindow, startRpm } from './speed';
+import { adviseVaneSetting } from './vanes';
 import { passageMargin } from './cage-metrics';
 import type {
   CatalogPart,
@@ -29,19 +30,22 @@ export interface StarterOptions {
   vaneControl?: VaneControl;
 }
 
-function vaneSettingFor(crop: CropId): VaneSetting {
+/** A vane setting the crop suits and the control can take (the slower one where the crop is hard to thresh). */
+function vaneSettingFor(crop: CropId, control: VaneControl): VaneSetting {
   const c = cropPrograms[crop];
-  if (c.threshability === 'hard') return 'slow';
-  if (c.fragile) return 'fast';
-  return 'medium';
+  const from: VaneSetting = c.threshability === 'hard' ? 'slow' : c.fragile ? 'fast' : 'medium';
+  return adviseVaneSetting(control, c.vanes.suits, from);
 }
 
 /**
  * A layout for `family` in `crop` that the rules pass (advice at most): the crop's suggested
  * element in each half-position, correctly handed and of the right role, rasp bars on every
  * rotor mount (one straight bar across each in-line pair for corn, spike rasp bars on those mounts
- * otherwise; an opposite pair of discharge bars at the rear and one ahead of it for hemp), rotor
- * speed in the middle of the crop's window, and a right cover plate for hard-threshing crops.
+ * otherwise; an opposite pair of discharge bars at the rear and one ahead of it for hemp), and a
+ * right cover plate for hard-threshing crops. Settings start slow and wide: the rotor at the slow
+ * end of the crop's speed window (its "start here" band where it has one) on the chosen drum, the
+ * concave at the wide end of its clearance window, and vanes the crop suits that the control can
+ * take; tighten only as losses call for it (Iowa State University Extension, Hanna, 2017).
  * Falls back to any element of the family that fits and passes the kernel when the suggested
  * type is missing from the catalog.
  */
@@ -108,9 +112,9 @@ export function starterLayout(
     crop,
     drum: drumId,
     vaneControl,
-    vaneSetting: vaneSettingFor(crop),
-    rotorRpm: middleRpm(rpmWindow(c, { id: drumId, diameterMm: drum.diameterMm })),
-    clearanceMm: c.startClearanceMm.value,
+    vaneSetting: vaneSettingFor(crop, vaneControl),
+    rotorRpm: startRpm(rpmWindow(c, { id: drumId, diameterMm: drum.diameterMm })),
+    clearanceMm: c.clearanceMm.maxMm,
     elements: layoutElements,
     coverPlates,
     rotorBars,

@@ -51,7 +51,8 @@ export async function seedDemoDeck(db: Db | Tx, who: { orgId: string; trainerId:
       notes: [
         '- **Round-bar elements** thresh gently: a pea rubbed like wheat splits.',
         '- The openings are wide enough for the pea to drop through at once — see the passage figures.',
-        '- Rotor speed far lower than for wheat: the tip-speed window for peas is about half as fast.',
+        '- Rotor speed much lower than for wheat: peas start at 350 rpm, the lowest speed that threshes (NDSU Crop & Pest Report, 2008); wheat starts near 490 rpm on the same rotor (Harrison, 1975).',
+        '- Concave wide: as wide as still threshes all pods (NDSU, 2008); close it only as losses call for it.',
         '- Vanes on *fast*: pods open easily, so keep the crop moving.',
       ].join('\n'),
     },
@@ -60,7 +61,7 @@ export async function seedDemoDeck(db: Db | Tx, who: { orgId: string; trainerId:
       sampleLayout: wrongForPeas,
       notes: [
         '- The rules flag the **fine-wire** elements: the pea cannot pass the opening and the rubbing cracks it.',
-        '- The rotor speed is far above the window for peas.',
+        '- The rotor speed was set for wheat: it sits at the top of the range for peas. Peas want the lowest speed that threshes (NDSU Crop & Pest Report, 2008), so bring it down towards the start band the rules name.',
         '- Open the comparison with the pea start to see every change in one list.',
       ].join('\n'),
     },

@@ -84,7 +84,9 @@ export async function seedDemo(db: Db) {
       const [machine] = await tx.insert(t.machines).values({
         orgId: orgs[m.org].id, familyId: m.family.id, drum, vaneControl, serial: m.serial, nickname: m.nickname, notes: m.notes,
       }).returning();
-      const layout: Layout = { ...starterLayout(m.family, m.crop, demoCatalog), drum, vaneControl };
+      // The starter on this machine's own drum and vanes: the slim drum runs its crop's window 100 rpm
+      // higher (common practice), and the vane setting is one this vane control can take.
+      const layout: Layout = starterLayout(m.family, m.crop, demoCatalog, { drum, vaneControl });
       const owner = m.org === 'larkspur' ? userIds['olive@larkspur.example'] : userIds['dev@haldane.example'];
       const [plan] = await tx.insert(t.layouts).values({
         machineId: machine!.id, orgId: orgs[m.org].id, name: `${m.crop.replace('-', ' ')} setup`, currentVersion: 1, createdBy: owner,

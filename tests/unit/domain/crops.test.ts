@@ -17,7 +17,9 @@ describe('crop programs', () => {
     for (const c of Object.values(cropPrograms)) {
       expect(c.kernel.source.length, c.id).toBeGreaterThan(2);
       expect(c.tkwG.source.length, c.id).toBeGreaterThan(2);
-      expect(c.tipSpeedMs.source.length, c.id).toBeGreaterThan(2);
+      for (const r of c.speed.ranges) expect(r.source.length, c.id).toBeGreaterThan(2);
+      if (c.speed.start) expect(c.speed.start.source.length, c.id).toBeGreaterThan(2);
+      expect(c.clearanceMm.source.length, c.id).toBeGreaterThan(2);
       expect(c.bushel.usLb.source.length, c.id).toBeGreaterThan(2);
     }
   });

@@ -199,7 +199,7 @@ describe('a wheat machine going to peas, corn and rice', () => {
     const p = plan('field-peas');
     const fields = p.settings.map((s) => s.field);
     expect(fields).toEqual(expect.arrayContaining(['rotorRpm', 'clearanceMm', 'vaneSetting']));
-    expect(p.settings.find((s) => s.field === 'clearanceMm')).toMatchObject({ before: 10, after: cropPrograms['field-peas'].startClearanceMm.value });
+    expect(p.settings.find((s) => s.field === 'clearanceMm')).toMatchObject({ before: cropPrograms.wheat.clearanceMm.maxMm, after: cropPrograms['field-peas'].clearanceMm.maxMm });
   });
 
   it('the fingerprint changes when the shelf changes the plan, and not otherwise', () => {

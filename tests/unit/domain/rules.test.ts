@@ -436,9 +436,48 @@ describe('settings', () => {
     const fast = expectFires(run({ ...start('wheat'), rotorRpm: 1400 }), 'CROP_RPM_OUTSIDE_WINDOW', 'hurts-crop');
     expect(fast.title).toMatch(/too fast/);
   });
-  it('CROP_RPM_OUTSIDE_WINDOW follows the slim-drum shift: 340 rpm suits edible beans on the slim drum, not the full one', () => {
-    expect(codes(run({ ...start('edible-beans'), drum: 'full', rotorRpm: 340 }))).toContain('CROP_RPM_OUTSIDE_WINDOW');
-    expect(codes(run({ ...start('edible-beans'), drum: 'slim', rotorRpm: 340 }))).not.toContain('CROP_RPM_OUTSIDE_WINDOW');
+  it('CROP_RPM_OUTSIDE_WINDOW follows the slim-drum shift: 420 rpm suits edible beans on the slim drum, not the full one', () => {
+    // Full drum: widest cited range 7–15 m/s ([mem]) = 175–376 rpm on 762 mm; slim: +100 rpm (common practice).
+    expect(codes(run({ ...start('edible-beans'), drum: 'full', rotorRpm: 420 }))).toContain('CROP_RPM_OUTSIDE_WINDOW');
+    expect(codes(run({ ...start('edible-beans'), drum: 'slim', rotorRpm: 420 }))).not.toContain('CROP_RPM_OUTSIDE_WINDOW');
+  });
+  it('CROP_RPM_OUTSIDE_START: edible beans at 260 rpm are inside a cited range (no "hurts crop") but above the laboratory optimum', () => {
+    // International Agrophysics (1994): 9.04–10.17 m/s = 226.6–254.9 rpm on 762 mm; 260 rpm = 10.4 m/s.
+    const f = run({ ...start('edible-beans'), rotorRpm: 260 });
+    expect(codes(f)).not.toContain('CROP_RPM_OUTSIDE_WINDOW');
+    expect(expectFires(f, 'CROP_RPM_OUTSIDE_START', 'advice').explanation).toMatch(/International Agrophysics \(1994\)/);
+  });
+  it('field peas at 480 rpm (NDSU Crop & Pest Report, 30 July 2008: 350–500 rpm) and wheat at 22 m/s (Harrison 1975: best below 22.3 m/s) do not hurt the crop', () => {
+    expect(codes(run({ ...start('field-peas'), rotorRpm: 480 }))).not.toContain('CROP_RPM_OUTSIDE_WINDOW');
+    // 551 rpm on 762 mm = 21.98 m/s.
+    expect(codes(run({ ...start('wheat'), rotorRpm: 551 }))).not.toContain('CROP_RPM_OUTSIDE_WINDOW');
+    expect(codes(run({ ...start('field-peas'), rotorRpm: 501 }))).toContain('CROP_RPM_OUTSIDE_WINDOW');
+  });
+  it('FIT_CLEARANCE_BELOW_MINIMUM: wheat at 0.5 mm blocks fit', () => {
+    const f = expectFires(run({ ...start('wheat'), clearanceMm: 0.5 }), 'FIT_CLEARANCE_BELOW_MINIMUM', 'blocks-fit');
+    expect(f.places).toEqual([{ kind: 'setting', field: 'clearanceMm' }]);
+  });
+  it('CROP_CLEARANCE_OUTSIDE_WINDOW: corn at 3 mm is too tight, wheat at 40 mm too wide (common practice windows)', () => {
+    expect(expectFires(run({ ...start('corn', split), clearanceMm: 3 }, split), 'CROP_CLEARANCE_OUTSIDE_WINDOW', 'hurts-crop').title).toMatch(/too tight/);
+    expect(expectFires(run({ ...start('wheat'), clearanceMm: 40 }), 'CROP_CLEARANCE_OUTSIDE_WINDOW', 'hurts-crop').title).toMatch(/too wide/);
+    expect(codes(run({ ...start('wheat'), clearanceMm: 12 }))).not.toContain('CROP_CLEARANCE_OUTSIDE_WINDOW');
+  });
+  it('FIT_VANE_SETTING_UNAVAILABLE: bolt-set vanes cannot be set very slow, and the fix names a setting they take', () => {
+    const f = expectFires(run({ ...start('wheat', modular, { vaneControl: 'fixed' }), vaneSetting: 'very-slow' }), 'FIT_VANE_SETTING_UNAVAILABLE', 'blocks-fit');
+    expect(f.explanation).toMatch(/in the shop/);
+    expect(f.fix).toMatch(/Set the vanes to (slow|medium|fast)\b/);
+    expect(codes(run({ ...start('wheat', modular, { vaneControl: 'powered' }), vaneSetting: 'very-slow' }))).not.toContain('FIT_VANE_SETTING_UNAVAILABLE');
+  });
+  it('CROP_VANES_AGAINST_CROP: rice with fast vanes hurts the crop (common practice: slow vanes for hard threshing)', () => {
+    const f = expectFires(run({ ...start('rice', modular, { vaneControl: 'powered' }), vaneSetting: 'fast' }), 'CROP_VANES_AGAINST_CROP', 'hurts-crop');
+    expect(f.fix).toMatch(/very slow|slow/);
+    expect(f.fix).toMatch(/from the cab/);
+    // On bolt-set vanes the advice is slow, never very slow (they cannot take it).
+    const g = expectFires(run({ ...start('rice', modular, { vaneControl: 'fixed' }), vaneSetting: 'fast' }), 'CROP_VANES_AGAINST_CROP', 'hurts-crop');
+    expect(g.fix).toMatch(/^Set the vanes to slow /);
+  });
+  it('CROP_VANES_ADVICE: wheat on very slow vanes is advice only', () => {
+    expectFires(run({ ...start('wheat', modular, { vaneControl: 'powered' }), vaneSetting: 'very-slow' }), 'CROP_VANES_ADVICE', 'advice');
   });
   it('DRUM_SLIM_ADVICE advises once, on a slim drum in a crop without heavy straw only', () => {
     // The slim drum's capacity gain shows in heavy, tough straw (common practice, no published

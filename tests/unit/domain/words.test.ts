@@ -27,7 +27,7 @@ import { planSummaryWords, type PlanOk } from '../../../src/lib/domain/planner';
 
 describe('one rpm window everywhere', () => {
   // A window whose ends fall between whole rpm (invented numbers for the check).
-  const w = { minRpm: 533.4, maxRpm: 721.6 } as RpmWindow;
+  const w = { minRpm: 533.4, maxRpm: 721.6, ranges: [{ lo: 533, hi: 722 }] } as unknown as RpmWindow;
   it('shows the whole-rpm window that inRpmWindow judges by', () => {
     expect(rpmWindowWhole(w)).toEqual({ lo: 533, hi: 722 });
     expect(rpmWindowWords(w)).toBe('533–722 rpm');
