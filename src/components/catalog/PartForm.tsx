@@ -16,6 +16,7 @@ import {
   type CatalogPart,
 } from '../../lib/domain/schemas';
 import { ApiError, sendJson } from '../shared/api';
+import { DEFAULT_CURRENCY, formatMoney } from '../../lib/domain/format';
 
 export interface FamilyOption {
   id: string;
@@ -191,7 +192,7 @@ export default function PartForm({ families, existing, readOnly = false }: PartF
           label="List price, cents (dealers may set their own)"
           path="part.priceCents"
           errors={errors}
-          hint={Number.isFinite(price) ? `= ${(Number(price) / 100).toLocaleString('en', { minimumFractionDigits: 2 })}` : 'Whole cents: 118500 is 1,185.00'}
+          hint={Number.isFinite(price) ? `= ${formatMoney(Number(price), DEFAULT_CURRENCY)}` : 'Whole cents: 118500 is 1,185.00'}
         >
           <input id="f-part-priceCents" className="field-input" type="number" step="1" {...register('part.priceCents', num)} />
         </Field>

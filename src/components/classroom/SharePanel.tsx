@@ -2,9 +2,10 @@
 import { useId, useState } from 'react';
 import { sendJson } from '../shared/api';
 import type { ShareLinkRow } from './editor-types';
+import { formatDate } from '../../lib/domain/format';
 
 const STATUS_WORDS = { active: 'Active', revoked: 'Revoked', expired: 'Expired' } as const;
-const date = (s: string) => new Date(s).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' });
+const date = (s: string) => formatDate(s);
 
 export function SharePanel({ deckId, initial }: { deckId: string; initial: ShareLinkRow[] }) {
   const id = useId();

@@ -7,6 +7,7 @@ import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, use
 import { useMemo, useState } from 'react';
 import type { UnitSystem } from '../../lib/domain/units';
 import { SortableHead } from '../shared/SortableHead';
+import { formatDateTime } from '../../lib/domain/format';
 
 export interface SeasonRow {
   id: string;
@@ -32,7 +33,7 @@ export interface SeasonRow {
 }
 
 const col = createColumnHelper<SeasonRow>();
-const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit', timeZone: 'UTC' });
+const when = (iso: string) => formatDateTime(iso, { year: false, timeZone: 'UTC' });
 
 export default function SeasonTable({ rows, units }: { rows: SeasonRow[]; units: UnitSystem }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: 'checkedAt', desc: false }]);

@@ -24,9 +24,12 @@ import {
   partsRequestStatuses,
   users,
   type PartsRequestLine,
+  type PartsRequestSettings,
 } from '../../../db/schema';
 import { indexCatalog } from '../../domain/catalog';
-import { cropIdSchema, partNumberSchema, type CatalogPart } from '../../domain/schemas';
+import { cropIdSchema, partNumberSchema, type CatalogPart, type Layout } from '../../domain/schemas';
+import { DEFAULT_CURRENCY, formatMoney, moneyAmount } from '../../domain/format';
+import { formatLength, mm, type UnitSystem } from '../../domain/units';
 import { billOfMaterials, bomLine, planModeSchema } from '../../domain/planner';
 import type { Actor } from '../access';
 import { audit } from '../audit';
@@ -130,6 +133,10 @@ export interface PartsRequestView {
   machine: { id: string; nickname: string; serial: string; familyId: string; familyName: string } | null;
   lines: (PartsRequestLine & { lineTotalCents: number })[];
   totalCents: number;
+  /** ISO 4217 code of the prices: the dealer's currency. */
+  currency: string;
+  /** What the layout it was made for asks of the machine (plan and layout requests). */
+  settings: PartsRequestSettings | null;
   totalQuantity: number;
   note: string;
   createdAt: Date;
@@ -170,7 +177,7 @@ async function viewOf(actor: Actor, row: Row, db: Db): Promise<PartsRequestView>
   const ids = [row.orgId, ...(row.dealerOrgId ? [row.dealerOrgId] : [])];
   const [orgRows, machineRows, creator] = await Promise.all([
     db
-      .select({ id: organisations.id, name: organisations.name, ownerEmail: organisations.ownerEmail, partsDeskEmail: organisations.partsDeskEmail })
+      .select({ id: organisations.id, name: organisations.name, ownerEmail: organisations.ownerEmail, partsDeskEmail: organisations.partsDeskEmail, currency: organisations.currency })
       .from(organisations)
       .where(inArray(organisations.id, ids)),
     row.machineId
@@ -197,6 +204,8 @@ async function viewOf(actor: Actor, row: Row, db: Db): Promise<PartsRequestView>
     machine: machineRows[0] ?? null,
     lines,
     totalCents: lines.reduce((s, l) => s + l.lineTotalCents, 0),
+    currency: dealer?.currency ?? DEFAULT_CURRENCY,
+    settings: row.settings ?? null,
     totalQuantity: lines.reduce((s, l) => s + l.quantity, 0),
     note: row.note,
     createdAt: row.createdAt,
@@ -240,6 +249,7 @@ export async function listPartsRequests(actor: Actor, query: z.infer<typeof list
       updatedAt: partsRequests.updatedAt,
       sentAt: partsRequests.sentAt,
       sendError: partsRequests.sendError,
+      dealerCurrency: sql<string | null>`(select d.currency from organisations d where d.id = ${partsRequests.dealerOrgId})`,
     })
     .from(partsRequests)
     .innerJoin(organisations, eq(organisations.id, partsRequests.orgId))
@@ -248,8 +258,9 @@ export async function listPartsRequests(actor: Actor, query: z.infer<typeof list
     .orderBy(desc(partsRequests.updatedAt))
     .limit(200);
   return {
-    items: rows.map(({ lines, ...r }) => ({
+    items: rows.map(({ lines, dealerCurrency, ...r }) => ({
       ...r,
+      currency: dealerCurrency ?? DEFAULT_CURRENCY,
       number: requestNumber(r.id),
       statusWords: STATUS_WORDS[r.status],
       lineCount: lines.length,
@@ -312,6 +323,17 @@ function mergeLines(existing: readonly PartsRequestLine[], added: readonly Parts
   return out;
 }
 
+const settingsOf = (l: Layout): PartsRequestSettings => ({ rotorRpm: l.rotorRpm, clearanceMm: l.clearanceMm, vaneSetting: l.vaneSetting });
+
+/** The settings a request carries, in the reader's units: "rotor speed 420 rpm · concave clearance 0.98 in · vanes medium". */
+export function requestSettingsWords(settings: PartsRequestSettings, units: UnitSystem): string {
+  return [
+    `rotor speed ${settings.rotorRpm} rpm`,
+    `concave clearance ${formatLength(mm(settings.clearanceMm), units)}`,
+    `vanes ${settings.vaneSetting.replace('-', ' ')}`,
+  ].join(' · ');
+}
+
 const NOTHING_TO_ORDER = 'Nothing to order: everything it needs is on the machine or on the shelf.';
 
 export async function createPartsRequest(actor: Actor, input: CreatePartsRequest): Promise<PartsRequestView> {
@@ -320,6 +342,7 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
   let lines: PartsRequestLine[];
   let detail: Record<string, unknown> = {};
   let autoNote = '';
+  let settings: PartsRequestSettings | null = null;
   if (input.from === 'plan') {
     const proposal = await proposePlan(actor, input);
     const plan = requirePlan(proposal.plan);
@@ -328,6 +351,7 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
     lines = plan.purchases.map((p) => ({ partNumber: p.partNumber, description: p.description, hand: p.hand, quantity: p.quantity, unitPriceCents: p.unitPriceCents }));
     if (!lines.length) throw new HttpError(422, `${NOTHING_TO_ORDER} The plan buys nothing.`, 'crop');
     detail = { crop: input.crop, mode: input.mode, fingerprint: plan.fingerprint };
+    settings = settingsOf(plan.layout);
     autoNote = `For the change to ${input.crop.replace('-', ' ')} on ${proposal.machine.nickname}.`;
   } else if (input.from === 'layout') {
     const { layout, machine, family } = await getLayout(actor, input.layoutId).catch(
@@ -345,6 +369,7 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
     machineId = machine.id;
     orgId = machine.orgId;
     detail = { layoutId: layout.id, version: version.version };
+    settings = settingsOf(version.body);
     autoNote = `Parts for “${layout.name}” version ${version.version} on ${machine.nickname}.`;
   } else {
     const ctx = await machineForActor(actor, input.machineId);
@@ -357,7 +382,7 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
     const dealerOrgId = await dealerFor(orgId, tx);
     const [row] = await tx
       .insert(partsRequests)
-      .values({ orgId, dealerOrgId, machineId, source: input.from, status: 'draft', lines, note: input.note || autoNote, createdBy: actor.id })
+      .values({ orgId, dealerOrgId, machineId, source: input.from, status: 'draft', lines, settings, note: input.note || autoNote, createdBy: actor.id })
       .returning({ id: partsRequests.id });
     await audit(tx, actor, 'create', 'parts-request', row!.id, { source: input.from, lines: lines.length, ...detail }, orgId);
     return row!.id;
@@ -481,16 +506,15 @@ export async function deletePartsRequest(actor: Actor, id: string) {
 // ---------------------------------------------------------------------------------------------
 // Sending and the parts desk
 
-const money = (cents: number) => (cents / 100).toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: 2 });
 
 /** The request as a CSV file (papaparse, formulas neutralised): one row per line and a total row. */
-export function partsRequestCsv(view: Pick<PartsRequestView, 'lines' | 'totalCents' | 'totalQuantity'>): string {
-  const plain = (cents: number) => (cents / 100).toFixed(2);
+export function partsRequestCsv(view: Pick<PartsRequestView, 'lines' | 'totalCents' | 'totalQuantity' | 'currency'>): string {
+  const plain = moneyAmount;
   return toCsv(
-    ['Part number', 'Description', 'Hand', 'Quantity', 'Unit price', 'Line total'],
+    ['Part number', 'Description', 'Hand', 'Quantity', 'Unit price', 'Line total', 'Currency'],
     [
-      ...view.lines.map((l) => [l.partNumber, l.description, l.hand ?? '', l.quantity, plain(l.unitPriceCents), plain(l.lineTotalCents)]),
-      ['', 'Total', '', view.totalQuantity, '', plain(view.totalCents)],
+      ...view.lines.map((l) => [l.partNumber, l.description, l.hand ?? '', l.quantity, plain(l.unitPriceCents), plain(l.lineTotalCents), view.currency]),
+      ['', 'Total', '', view.totalQuantity, '', plain(view.totalCents), view.currency],
     ],
   );
 }
@@ -500,6 +524,7 @@ export function csvFileName(view: Pick<PartsRequestView, 'number'>) {
 }
 
 function mailText(view: PartsRequestView, actor: Actor, link: string): string {
+  const money = (cents: number) => formatMoney(cents, view.currency);
   const rows = view.lines.map((l) => {
     const hand = l.hand ? `${l.hand} hand` : '';
     return `  ${String(l.quantity).padStart(3)} × ${l.partNumber.padEnd(14)} ${hand.padEnd(10)} ${money(l.unitPriceCents).padStart(10)}  ${money(l.lineTotalCents).padStart(11)}  ${l.description}`;
@@ -512,6 +537,8 @@ function mailText(view: PartsRequestView, actor: Actor, link: string): string {
     `Requested by: ${actor.name} <${actor.email}>`,
     `Made from:    ${SOURCE_WORDS[view.source]}`,
     ...(view.note ? [`Note:         ${view.note.replace(/\n/g, '\n              ')}`] : []),
+    ...(view.settings ? [`Settings:     ${requestSettingsWords(view.settings, actor.unitSystem)} (after fitting)`] : []),
+    `Prices in:    ${view.currency}`,
     '',
     `  Qty   Part number    Hand        Unit price   Line total  Description`,
     ...rows,

@@ -15,6 +15,7 @@ import type { Actor } from '../access';
 import { HttpError, whenNotFound } from '../http';
 import { createLayout, getLayout, saveVersion } from './layouts';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
+import { currencyFor } from './prices';
 
 /** Who may run the planner and accept its plans (trainers look at layouts, they do not plan). */
 export const PLAN_ROLES = ['operator', 'technician', 'dealer_admin'] as const;
@@ -62,6 +63,7 @@ export async function planInputs(actor: Actor, machineId: string) {
 
 export async function proposePlan(actor: Actor, input: PlanRequest) {
   const inputs = await planInputs(actor, input.machineId);
+  const currency = await currencyFor(inputs.machine.orgId);
   const plan: Plan = planCropChange({
     family: inputs.family,
     catalog: inputs.catalog,
@@ -71,6 +73,7 @@ export async function proposePlan(actor: Actor, input: PlanRequest) {
     mode: input.mode,
     drum: inputs.machine.drum,
     vaneControl: inputs.machine.vaneControl,
+    units: actor.unitSystem,
   });
   return {
     machine: {
@@ -88,6 +91,8 @@ export async function proposePlan(actor: Actor, input: PlanRequest) {
     installedFindings: inputs.installed ? checkLayout(inputs.family, inputs.catalog, inputs.installed) : [],
     shelf: inputs.shelf,
     plan,
+    /** ISO 4217 code of the plan's prices (the dealer's). */
+    currency,
     // For the diagram beside the plan (server pages); the API leaves these out.
     family: inputs.family,
     catalog: inputs.catalog,
