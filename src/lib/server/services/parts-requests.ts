@@ -28,7 +28,7 @@ import {
 } from '../../../db/schema';
 import { indexCatalog } from '../../domain/catalog';
 import { cropIdSchema, partNumberSchema, type CatalogPart, type Layout } from '../../domain/schemas';
-import { DEFAULT_CURRENCY, formatMoney, moneyAmount } from '../../domain/format';
+import { DEFAULT_CURRENCY, formatMoney, formatNumber, moneyAmount } from '../../domain/format';
 import { formatLength, mm, type UnitSystem } from '../../domain/units';
 import { billOfMaterials, bomLine, planModeSchema } from '../../domain/planner';
 import type { Actor } from '../access';
@@ -524,7 +524,8 @@ export function csvFileName(view: Pick<PartsRequestView, 'number'>) {
 }
 
 function mailText(view: PartsRequestView, actor: Actor, link: string): string {
-  const money = (cents: number) => formatMoney(cents, view.currency);
+  // Amounts in columns headed with the currency: plain grouped numbers line up.
+  const money = (cents: number) => formatNumber(cents / 100, { digits: 2 });
   const rows = view.lines.map((l) => {
     const hand = l.hand ? `${l.hand} hand` : '';
     return `  ${String(l.quantity).padStart(3)} × ${l.partNumber.padEnd(14)} ${hand.padEnd(10)} ${money(l.unitPriceCents).padStart(10)}  ${money(l.lineTotalCents).padStart(11)}  ${l.description}`;
@@ -538,12 +539,11 @@ function mailText(view: PartsRequestView, actor: Actor, link: string): string {
     `Made from:    ${SOURCE_WORDS[view.source]}`,
     ...(view.note ? [`Note:         ${view.note.replace(/\n/g, '\n              ')}`] : []),
     ...(view.settings ? [`Settings:     ${requestSettingsWords(view.settings, actor.unitSystem)} (after fitting)`] : []),
-    `Prices in:    ${view.currency}`,
     '',
-    `  Qty   Part number    Hand        Unit price   Line total  Description`,
+    `  Qty   Part number    Hand       Unit ${view.currency}   Line ${view.currency}  Description`,
     ...rows,
     '',
-    `  ${String(view.totalQuantity).padStart(3)} parts${' '.repeat(31)}Total ${money(view.totalCents).padStart(11)}`,
+    `  ${String(view.totalQuantity).padStart(3)} parts${' '.repeat(31)}Total ${formatMoney(view.totalCents, view.currency).padStart(11)}`,
     '',
     `Open the request: ${link}`,
     'The attached CSV file lists the same lines.',
