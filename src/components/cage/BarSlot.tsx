@@ -5,6 +5,11 @@ import { INK, INK_MUTED, SEVERITY_STYLE, STEEL } from './palette';
 import type { SlotInfo } from './slot-types';
 import { SlotMarks } from './SlotMarks';
 import { BAR_SHORT } from './words';
+import { fitLabel } from './fit-text';
+
+/** The severity icon's size on a bar, and the room it takes at the slot's right end. */
+export const BAR_ICON = 14;
+const ICON_ROOM = BAR_ICON + 8;
 
 function BarShape({ kind, x, y, w }: { kind: BarKind; x: number; y: number; w: number }) {
   // y is the bar's centre line.
@@ -56,8 +61,16 @@ function BarSlotView({ info, inLine, compact }: { info: SlotInfo; inLine: boolea
   const barX = x + 22;
   const barW = w - 44;
   const sev = info.severity ? SEVERITY_STYLE[info.severity] : undefined;
-  let words = bar ? BAR_SHORT[bar.barKind] : info.partNumber ? 'Unknown part' : 'no bar';
-  if (inLine) words += ' · in line';
+  const fontSize = compact ? 9 : 10;
+  const name = bar ? BAR_SHORT[bar.barKind] : info.partNumber ? 'Unknown part' : 'no bar';
+  const where = inLine ? `${name} · in line` : name;
+  // The label never runs past its slot; with a finding it keeps clear of the icon's column too
+  // (on both sides, as it is centred) where the icon reaches down into the label's lane.
+  const iconInLane = compact;
+  const room = w - 8 - (sev && iconInLane ? 2 * ICON_ROOM : 0);
+  const label = fitLabel(sev && !compact ? [`${where} · ${sev.words}`, `${name} · ${sev.words}`, where, name] : [where, name], room, fontSize);
+  const withSev = sev && !compact && label.endsWith(` · ${sev.words}`);
+  const words = withSev ? label.slice(0, -` · ${sev!.words}`.length) : label;
   return (
     <>
       <rect x={x} y={y} width={w} height={h} rx={3} fill="#fff" fillOpacity={0.6} stroke="none" />
@@ -73,11 +86,11 @@ function BarSlotView({ info, inLine, compact }: { info: SlotInfo; inLine: boolea
       ) : (
         <rect x={barX} y={midY - 5} width={barW} height={10} rx={3} fill="none" stroke={STEEL[400]} strokeDasharray="4 3" />
       )}
-      <text x={x + w / 2} y={y + h - 3} textAnchor="middle" fontSize={compact ? 9 : 10} fill={bar ? INK : INK_MUTED}>
+      <text x={x + w / 2} y={y + h - 4} textAnchor="middle" fontSize={fontSize} fill={bar ? INK : INK_MUTED} data-bar-label="">
         {words}
-        {sev && !compact && <tspan fill={sev.colour} fontWeight={700}>{`\u00a0· ${sev.words}`}</tspan>}
+        {withSev && <tspan fill={sev!.colour} fontWeight={700}>{`\u00a0· ${sev!.words}`}</tspan>}
       </text>
-      <SlotMarks info={info} compact={compact} words={false} />
+      <SlotMarks info={info} compact={compact} words={false} iconY={midY - y} iconSize={BAR_ICON} />
     </>
   );
 }

@@ -7,6 +7,7 @@ import { INK, INK_MUTED, STEEL } from './palette';
 import { ELEMENT_LABEL, patternId } from './patterns';
 import type { SlotInfo } from './slot-types';
 import { SlotMarks } from './SlotMarks';
+import { fitLabel } from './fit-text';
 
 interface Props {
   info: SlotInfo;
@@ -25,7 +26,8 @@ function ElementSlotView({ info, side, prefix, units, compact }: Props) {
   let line2 = '';
   if (part && !compact) {
     const gap = part.openingMm ? formatLength(mm(part.openingMm.width), units) : 'no gap';
-    line2 = `${part.partNumber} · ${gap}`;
+    // Part number and opening, or as much as the slot holds (the details panel has the rest).
+    line2 = fitLabel([`${part.partNumber} · ${gap}`, part.partNumber], w - 16, 10.5);
   }
   const foreignHand = part && part.hand !== side;
   return (
@@ -59,7 +61,7 @@ function ElementSlotView({ info, side, prefix, units, compact }: Props) {
         !compact &&
         (line2 || info.partNumber) && (
           <text x={x + 8} y={y + faceH + 31} fontSize={10.5} fill={INK_MUTED}>
-            {line2 || info.partNumber}
+            {line2 || fitLabel([info.partNumber ?? ''], w - 16, 10.5)}
           </text>
         )
       )}

@@ -6,8 +6,26 @@ import { IRIS, SEVERITY_STYLE, CHANGED_COLOUR } from './palette';
 import { SeverityIcon } from './SeverityIcon';
 import type { SlotInfo } from './slot-types';
 
-/** tagY: where the severity tag sits, from the slot's top (default: near the top edge). */
-export function SlotMarks({ info, compact, words = true, tagY = 6 }: { info: SlotInfo; compact: boolean; words?: boolean; tagY?: number }) {
+/**
+ * tagY: where the severity tag sits, from the slot's top (default: near the top edge).
+ * iconY: where the lone severity icon is centred, from the slot's top (default: near the top
+ * edge); iconSize its size. Rotor bars put it in the bar's lane so it never meets the label.
+ */
+export function SlotMarks({
+  info,
+  compact,
+  words = true,
+  tagY = 6,
+  iconY,
+  iconSize,
+}: {
+  info: SlotInfo;
+  compact: boolean;
+  words?: boolean;
+  tagY?: number;
+  iconY?: number;
+  iconSize?: number;
+}) {
   const { x, y, w, h } = info.box;
   const sev = info.severity ? SEVERITY_STYLE[info.severity] : undefined;
   const showWords = words && !compact && w >= 110 && h >= 30;
@@ -32,7 +50,7 @@ export function SlotMarks({ info, compact, words = true, tagY = 6 }: { info: Slo
               </text>
             </g>
           ) : (
-            <SeverityIcon severity={info.severity!} x={x + w - 11} y={y + Math.min(11, h / 2)} size={compact ? 14 : 16} />
+            <SeverityIcon severity={info.severity!} x={x + w - 11} y={y + (iconY ?? Math.min(11, h / 2))} size={iconSize ?? (compact ? 14 : 16)} />
           )}
         </>
       )}
