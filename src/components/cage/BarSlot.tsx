@@ -3,7 +3,7 @@ import { memo } from 'react';
 import type { BarKind } from '../../lib/domain/schemas';
 import { INK, INK_MUTED, SEVERITY_STYLE, STEEL } from './palette';
 import type { SlotInfo } from './slot-types';
-import { SlotMarks } from './SlotMarks';
+import { CORNER_BADGE, SlotMarks } from './SlotMarks';
 import { BAR_SHORT } from './words';
 import { fitLabel } from './fit-text';
 
@@ -67,7 +67,8 @@ function BarSlotView({ info, inLine, compact }: { info: SlotInfo; inLine: boolea
   // The label never runs past its slot; with a finding it keeps clear of the icon's column too
   // (on both sides, as it is centred) where the icon reaches down into the label's lane.
   const iconInLane = compact;
-  const room = w - 8 - (sev && iconInLane ? 2 * ICON_ROOM : 0);
+  // A compare view's corner badge takes the lane's right end (and, the label being centred, as much on the left).
+  const room = w - 8 - Math.max(sev && iconInLane ? 2 * ICON_ROOM : 0, info.changed ? 2 * (CORNER_BADGE + 4) : 0);
   const label = fitLabel(sev && !compact ? [`${where} · ${sev.words}`, `${name} · ${sev.words}`, where, name] : [where, name], room, fontSize);
   const withSev = sev && !compact && label.endsWith(` · ${sev.words}`);
   const words = withSev ? label.slice(0, -` · ${sev!.words}`.length) : label;
@@ -90,7 +91,7 @@ function BarSlotView({ info, inLine, compact }: { info: SlotInfo; inLine: boolea
         {words}
         {withSev && <tspan fill={sev!.colour} fontWeight={700}>{`\u00a0· ${sev!.words}`}</tspan>}
       </text>
-      <SlotMarks info={info} compact={compact} words={false} iconY={midY - y} iconSize={BAR_ICON} />
+      <SlotMarks info={info} compact={compact} words={false} iconY={midY - y} iconSize={BAR_ICON} changedAt="corner" />
     </>
   );
 }

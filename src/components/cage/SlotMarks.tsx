@@ -6,10 +6,15 @@ import { IRIS, SEVERITY_STYLE, CHANGED_COLOUR } from './palette';
 import { SeverityIcon } from './SeverityIcon';
 import type { SlotInfo } from './slot-types';
 
+/** Width of the small corner "Δ" badge (rotor bars). */
+export const CORNER_BADGE = 16;
+
 /**
  * tagY: where the severity tag sits, from the slot's top (default: near the top edge).
  * iconY: where the lone severity icon is centred, from the slot's top (default: near the top
  * edge); iconSize its size. Rotor bars put it in the bar's lane so it never meets the label.
+ * changedAt: where the compare views' "Δ changed" badge sits: across the top edge, or (rotor
+ * bars, whose rows touch) a small "Δ" in the slot's lower right corner, inside the slot.
  */
 export function SlotMarks({
   info,
@@ -18,6 +23,7 @@ export function SlotMarks({
   tagY = 6,
   iconY,
   iconSize,
+  changedAt = 'top',
 }: {
   info: SlotInfo;
   compact: boolean;
@@ -25,6 +31,7 @@ export function SlotMarks({
   tagY?: number;
   iconY?: number;
   iconSize?: number;
+  changedAt?: 'top' | 'corner';
 }) {
   const { x, y, w, h } = info.box;
   const sev = info.severity ? SEVERITY_STYLE[info.severity] : undefined;
@@ -54,7 +61,15 @@ export function SlotMarks({
           )}
         </>
       )}
-      {info.changed && (
+      {info.changed && changedAt === 'corner' && (
+        <g data-mark="changed">
+          <rect x={x + w - CORNER_BADGE - 2} y={y + h - 15} width={CORNER_BADGE} height={13} rx={3} fill={CHANGED_COLOUR} stroke="#fff" strokeWidth={1} />
+          <text x={x + w - 2 - CORNER_BADGE / 2} y={y + h - 5} textAnchor="middle" fontSize={9} fontWeight={700} fill="#fff">
+            Δ
+          </text>
+        </g>
+      )}
+      {info.changed && changedAt === 'top' && (
         <g>
           <rect x={x + w / 2 - 36} y={y - 8} width={72} height={15} rx={3} fill={CHANGED_COLOUR} stroke="#fff" strokeWidth={1.5} />
           <text x={x + w / 2} y={y + 3} textAnchor="middle" fontSize={9} fontWeight={700} fill="#fff" letterSpacing={0.4}>
