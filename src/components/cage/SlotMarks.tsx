@@ -57,7 +57,9 @@ export function SlotMarks({
               </text>
             </g>
           ) : (
-            <SeverityIcon severity={info.severity!} x={x + w - 11} y={y + (iconY ?? Math.min(11, h / 2))} size={iconSize ?? (compact ? 14 : 16)} />
+            <g data-mark="severity">
+              <SeverityIcon severity={info.severity!} x={x + w - 11} y={y + (iconY ?? Math.min(11, h / 2))} size={iconSize ?? (compact ? 14 : 16)} />
+            </g>
           )}
         </>
       )}
