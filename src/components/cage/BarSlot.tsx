@@ -87,7 +87,7 @@ function BarSlotView({ info, inLine, compact }: { info: SlotInfo; inLine: boolea
       ) : (
         <rect x={barX} y={midY - 5} width={barW} height={10} rx={3} fill="none" stroke={STEEL[400]} strokeDasharray="4 3" />
       )}
-      <text x={x + w / 2} y={y + h - 4} textAnchor="middle" fontSize={fontSize} fill={bar ? INK : INK_MUTED} data-bar-label="">
+      <text x={x + w / 2} y={y + h - (compact ? 5 : 6)} textAnchor="middle" fontSize={fontSize} fill={bar ? INK : INK_MUTED} data-bar-label="">
         {words}
         {withSev && <tspan fill={sev!.colour} fontWeight={700}>{`\u00a0· ${sev!.words}`}</tspan>}
       </text>
