@@ -37,9 +37,10 @@ async function collisions(page: Page) {
 test('six-position cage: rotor labels, finding icons and compare badges do not collide; compare marks vanes and drum', async ({ page }) => {
   await signIn(page, 'technician');
   // A six-position machine whose cage holds bars of another family on the in-line places (blocks fit).
-  const foreign = demoCatalog.find((p) => p.kind === 'rotor-bar' && p.familyId !== sedgeS6.id)!;
-  const inLine = new Set(sedgeS6.rotorBarPlaces.filter((b) => b.inLine).map((b) => `${b.row}:${b.position}`));
   const base = starterLayout(sedgeS6, 'corn', demoCatalog);
+  const ownGroup = demoCatalog.find((p) => p.partNumber === base.rotorBars[0]!.partNumber)!.fitGroup;
+  const foreign = demoCatalog.find((p) => p.kind === 'rotor-bar' && p.fitGroup !== ownGroup)!;
+  const inLine = new Set(sedgeS6.rotorBarPlaces.filter((b) => b.inLine).map((b) => `${b.row}:${b.position}`));
   const layout = {
     ...base,
     vaneSetting: base.vaneSetting === 'slow' ? 'fast' : 'slow',
