@@ -22,7 +22,7 @@ test('plan a crop change, accept it, make a parts request and send it; the desk 
   const cautionsBox = await cautions.boundingBox();
   const firstStep = await steps.first().boundingBox();
   expect(cautionsBox!.y).toBeLessThan(firstStep!.y);
-  await expect(page.getByTestId('plan-purchases')).toContainText('5,240.00');
+  await expect(page.getByTestId('plan-purchases')).toContainText('CA$5,240.00');
   await shot(page, 'planner-proposal');
 
   // Accept as a new layout version.
@@ -38,7 +38,7 @@ test('plan a crop change, accept it, make a parts request and send it; the desk 
   await expect(page.getByTestId('request-status')).toContainText('Draft');
   const table = page.getByTestId('bom-table');
   await expect(table.locator('tbody tr')).toHaveCount(2);
-  await expect(page.getByTestId('bom-total')).toHaveText('5,240.00');
+  await expect(page.getByTestId('bom-total')).toHaveText('CA$5,240.00');
   await expect(page.getByTestId('work-cautions')).toBeVisible();
 
   // A negative quantity is refused and nothing changes.
@@ -48,13 +48,13 @@ test('plan a crop change, accept it, make a parts request and send it; the desk 
   await expect(page.getByText('cannot be negative')).toBeVisible();
   await shot(page, 'parts-request-bad-quantity');
   await page.goto(page.url().replace(/\?.*$/, ''));
-  await expect(page.getByTestId('bom-total')).toHaveText('5,240.00');
+  await expect(page.getByTestId('bom-total')).toHaveText('CA$5,240.00');
 
   // One spare of the left-hand element, then send it.
   await page.getByLabel('Quantity of CW-RB-L-04').fill('3');
   await page.getByRole('button', { name: 'Save quantities' }).click();
   await expect(page.getByTestId('request-notice')).toHaveText('Quantities saved.');
-  await expect(page.getByTestId('bom-total')).toHaveText('6,550.00');
+  await expect(page.getByTestId('bom-total')).toHaveText('CA$6,550.00');
   await page.getByRole('button', { name: 'Send to the parts desk' }).click();
   await expect(page.getByTestId('request-notice')).toContainText('Sent to the parts desk of Kestrel Valley Implement');
   await expect(page.getByTestId('request-status')).toContainText('Sent to the parts desk');

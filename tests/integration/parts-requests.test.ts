@@ -95,11 +95,11 @@ describe('a parts request from a plan, sent to the parts desk', () => {
     expect(res.headers.get('content-disposition')).toBe(`attachment; filename="${number.toLowerCase()}.csv"`);
     const rows = Papa.parse<string[]>((await res.text()).trim()).data;
     expect(rows).toEqual([
-      ['Part number', 'Description', 'Hand', 'Quantity', 'Unit price', 'Line total'],
-      ['CW-RB-L-04', 'Round-bar element, left hand, Tamarack M4', 'left', '3', '1310.00', '3930.00'],
-      ['CW-RB-R-04', 'Round-bar element, right hand, Tamarack M4', 'right', '3', '1310.00', '3930.00'],
-      ['CW-CP-R-04', 'Cover plate, right, Tamarack M4', 'right', '1', '245.00', '245.00'],
-      ['', 'Total', '', '7', '', '8105.00'],
+      ['Part number', 'Description', 'Hand', 'Quantity', 'Unit price', 'Line total', 'Currency'],
+      ['CW-RB-L-04', 'Round-bar element, left hand, Tamarack M4', 'left', '3', '1310.00', '3930.00', 'CAD'],
+      ['CW-RB-R-04', 'Round-bar element, right hand, Tamarack M4', 'right', '3', '1310.00', '3930.00', 'CAD'],
+      ['CW-CP-R-04', 'Cover plate, right, Tamarack M4', 'right', '1', '245.00', '245.00', 'CAD'],
+      ['', 'Total', '', '7', '', '8105.00', 'CAD'],
     ]);
     const bad = await olive.get(`/api/parts-requests/${id}?format=pdf`);
     expect(bad.status).toBe(400);
@@ -127,11 +127,11 @@ describe('a parts request from a plan, sent to the parts desk', () => {
     expect(mail.text).toMatch(/^\s+3 × CW-RB-L-04\s+left hand\s+1,310\.00\s+3,930\.00\s+Round-bar element, left hand, Tamarack M4$/m);
     expect(mail.text).toMatch(/^\s+3 × CW-RB-R-04\s+right hand\s+1,310\.00\s+3,930\.00/m);
     expect(mail.text).toMatch(/^\s+1 × CW-CP-R-04\s+right hand\s+245\.00\s+245\.00/m);
-    expect(mail.text).toMatch(/Total\s+8,105\.00/);
+    expect(mail.text).toMatch(/Total\s+CA\$8,105\.00/);
     expect(mail.text).toContain('One spare of each, please.');
     expect(mail.text).toContain(`/parts-requests/${id}`);
     expect(mail.attachments).toEqual([expect.objectContaining({ filename: `${number.toLowerCase()}.csv`, contentType: 'text/csv' })]);
-    expect(mail.attachments[0]!.content).toContain('CW-CP-R-04,"Cover plate, right, Tamarack M4",right,1,245.00,245.00');
+    expect(mail.attachments[0]!.content).toContain('CW-CP-R-04,"Cover plate, right, Tamarack M4",right,1,245.00,245.00,CAD');
   });
 
   it('a sent request can no longer be changed, deleted or sent again', async () => {

@@ -3,8 +3,13 @@ import { memo } from 'react';
 import type { BarKind } from '../../lib/domain/schemas';
 import { INK, INK_MUTED, SEVERITY_STYLE, STEEL } from './palette';
 import type { SlotInfo } from './slot-types';
-import { SlotMarks } from './SlotMarks';
+import { CORNER_BADGE, SlotMarks } from './SlotMarks';
 import { barKindLabel } from '../../lib/domain/vocabulary';
+import { fitLabel } from './fit-text';
+
+/** The severity icon's size on a bar, and the room it takes at the slot's right end. */
+export const BAR_ICON = 14;
+const ICON_ROOM = BAR_ICON + 8;
 
 function BarShape({ kind, x, y, w }: { kind: BarKind; x: number; y: number; w: number }) {
   // y is the bar's centre line.
@@ -63,9 +68,18 @@ function BarSlotView({ info, inLine, compact, span }: { info: SlotInfo; inLine: 
   const barX = span?.end === 'rear' ? x : x + 22;
   const barW = span ? w - 22 : w - 44;
   const sev = info.severity ? SEVERITY_STYLE[info.severity] : undefined;
-  let words = bar ? barKindLabel(bar.barKind) : info.partNumber ? 'Unknown part' : span?.end === 'rear' ? `Straight, from pos. ${span.front}` : 'no bar';
-  if (span?.end === 'front' && bar?.barKind === 'straight') words += ' · 2 mounts';
-  else if (inLine && span?.end !== 'rear') words += ' · in line';
+  const fontSize = compact ? 9 : 10;
+  const name = bar ? barKindLabel(bar.barKind) : info.partNumber ? 'Unknown part' : span?.end === 'rear' ? `Straight, from pos. ${span.front}` : 'no bar';
+  const where =
+    span?.end === 'front' && bar?.barKind === 'straight' ? `${name} · 2 mounts` : inLine && span?.end !== 'rear' ? `${name} · in line` : name;
+  // The label never runs past its slot; with a finding it keeps clear of the icon's column too
+  // (on both sides, as it is centred) where the icon reaches down into the label's lane.
+  const iconInLane = compact;
+  // A compare view's corner badge takes the lane's right end (and, the label being centred, as much on the left).
+  const room = w - 8 - Math.max(sev && iconInLane ? 2 * ICON_ROOM : 0, info.changed ? 2 * (CORNER_BADGE + 4) : 0);
+  const label = fitLabel(sev && !compact ? [`${where} · ${sev.words}`, `${name} · ${sev.words}`, where, name] : [where, name], room, fontSize);
+  const withSev = sev && !compact && label.endsWith(` · ${sev.words}`);
+  const words = withSev ? label.slice(0, -` · ${sev!.words}`.length) : label;
   return (
     <>
       <rect x={x} y={y} width={w} height={h} rx={3} fill="#fff" fillOpacity={0.6} stroke="none" />
@@ -83,11 +97,11 @@ function BarSlotView({ info, inLine, compact, span }: { info: SlotInfo; inLine: 
       ) : (
         <rect x={barX} y={midY - 5} width={barW} height={10} rx={3} fill="none" stroke={STEEL[400]} strokeDasharray="4 3" />
       )}
-      <text x={x + w / 2} y={y + h - 3} textAnchor="middle" fontSize={compact ? 9 : 10} fill={bar ? INK : INK_MUTED}>
+      <text x={x + w / 2} y={y + h - (compact ? 5 : 6)} textAnchor="middle" fontSize={fontSize} fill={bar ? INK : INK_MUTED} data-bar-label="">
         {words}
-        {sev && !compact && <tspan fill={sev.colour} fontWeight={700}>{`\u00a0· ${sev.words}`}</tspan>}
+        {withSev && <tspan fill={sev!.colour} fontWeight={700}>{`\u00a0· ${sev!.words}`}</tspan>}
       </text>
-      <SlotMarks info={info} compact={compact} words={false} />
+      <SlotMarks info={info} compact={compact} words={false} iconY={midY - y} iconSize={BAR_ICON} changedAt="corner" />
     </>
   );
 }

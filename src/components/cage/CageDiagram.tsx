@@ -20,7 +20,8 @@
  *   units           'metric' | 'imperial' — every length in the drawing follows it.
  *   selectedPlace?  Place | null — the user's selection (iris ring).
  *   highlightPlaces? readonly Place[] — places of a chosen finding (iris dashed halo).
- *   diffPlaces?     readonly Place[] — compare views: places marked "Δ changed".
+ *   diffPlaces?     readonly Place[] — compare views: places marked "Δ changed"; setting places
+ *                   for the vanes or the drum mark the cage-top bands or the rotor strip.
  *   slotProps?      (info: SlotInfo) => SVG attributes merged onto each slot's <g>
  *                   (onClick, tabIndex, role …). Keep it referentially stable (useCallback).
  *   renderSlot?     (info, attrs, drawing) => ReactNode — replace the slot's <g> wrapper, e.g.
@@ -45,8 +46,9 @@ import { BarSlot } from './BarSlot';
 import { CoverSlot } from './CoverSlot';
 import { ElementSlot } from './ElementSlot';
 import { EndView } from './EndView';
+import { SettingMarks } from './SettingMarks';
 import { diagramGeometry, slotBox, VANE_LEAN_DEG, type DiagramGeometry } from './geometry';
-import { INK, INK_MUTED, INK_SOFT, SEVERITY_STYLE, STEEL } from './palette';
+import { CHANGED_COLOUR, INK, INK_MUTED, INK_SOFT, SEVERITY_STYLE, STEEL } from './palette';
 import { PatternDefs } from './patterns';
 import type { SlotAttrs, SlotInfo } from './slot-types';
 import { partNameWithHand, placeLabel, severityWords } from '../../lib/domain/vocabulary';
@@ -215,6 +217,7 @@ export function CageDiagram(props: CageDiagramProps) {
   const selectedKey = selectedPlace ? placeKey(selectedPlace) : null;
   const highlightKeys = useMemo(() => new Set(highlightPlaces.map(placeKey)), [highlightPlaces]);
   const diffKeys = useMemo(() => new Set(diffPlaces.map(placeKey)), [diffPlaces]);
+  const changedSettings = useMemo(() => new Set(diffPlaces.flatMap((p) => (p.kind === 'setting' ? [p.field] : []))), [diffPlaces]);
 
   const inLine = useMemo(() => new Set(family.rotorBarPlaces.filter((b) => b.inLine).map((b) => `bar:${b.row}:${b.position}`)), [family]);
 
@@ -310,8 +313,9 @@ export function CageDiagram(props: CageDiagramProps) {
       style={{ display: 'block', maxWidth: '100%', height: 'auto' }}
     >
       <PatternDefs prefix={prefix} />
-      <Frame family={family} vaneSetting={layout.vaneSetting} vaneControl={layout.vaneControl} geo={geo} compact={compact} />
+      <Frame family={family} vaneSetting={layout.vaneSetting} vaneControl={layout.vaneControl} geo={geo} compact={compact} drum={drum} changed={changedSettings} />
       {slots}
+      <SettingMarks geo={geo} changed={changedSettings} />
       {geo.endView && (
         <EndView family={family} {...geo.endView} clearanceMm={layout.clearanceMm} diameterMm={drum.diameterMm} units={units} />
       )}
@@ -327,12 +331,17 @@ const Frame = memo(function Frame({
   vaneControl,
   geo,
   compact,
+  drum,
+  changed,
 }: {
   family: MachineFamily;
   vaneSetting: Layout['vaneSetting'];
   vaneControl: Layout['vaneControl'];
   geo: DiagramGeometry;
   compact: boolean;
+  drum: MachineFamily['drumOptions'][number];
+  /** Settings that differ in a compare view: their words are marked in the drawing. */
+  changed: ReadonlySet<string>;
 }) {
   const { labelW, colW, drawingRight } = geo;
   const fs = compact ? 10.5 : 12;
@@ -346,11 +355,13 @@ const Frame = memo(function Frame({
   const cageBottom = geo.coverTop.right.y + geo.coverTop.right.h;
   const lean = VANE_LEAN_DEG[vaneSetting];
   const adjustable = vaneControl !== 'fixed';
-  const vaneWords = `vanes ${vaneSetting.replace('-', ' ')}`;
+  const vanesChanged = changed.has('vaneSetting') || changed.has('vaneControl');
+  const vaneWords = `${vanesChanged ? 'Δ ' : ''}vanes ${vaneSetting.replace('-', ' ')}`;
+  const drumChanged = changed.has('drum');
   const rowLabel = (lines: string[], y: number, h: number) => (
     <text x={labelW - 10} y={y + h / 2 - (lines.length - 1) * (fs * 0.6) + fs * 0.35} textAnchor="end" fontSize={fs} fill={INK_SOFT}>
       {lines.map((l, i) => (
-        <tspan key={i} x={labelW - 10} dy={i === 0 ? 0 : fs * 1.2} fontWeight={i === 0 ? 700 : 400} fill={i === 0 ? INK : INK_MUTED}>
+        <tspan key={i} x={labelW - 10} dy={i === 0 ? 0 : fs * 1.2} fontWeight={i === 0 || l.startsWith('Δ') ? 700 : 400} fill={l.startsWith('Δ') ? CHANGED_COLOUR : i === 0 ? INK : INK_MUTED}>
           {l}
         </tspan>
       ))}
@@ -447,7 +458,7 @@ const Frame = memo(function Frame({
             )}
             {rowLabel(
               compact
-                ? ['Top ' + (side === 'left' ? 'L' : 'R')]
+                ? ['Top ' + (side === 'left' ? 'L' : 'R'), ...(vanesChanged && side === 'left' ? ['Δ vanes'] : [])]
                 : side === 'left'
                   ? ['Cage top, left', vaneWords, adjustable ? `${vaneControl} linkage` : 'fixed vanes']
                   : ['Cage top, right', vaneWords],
@@ -473,7 +484,11 @@ const Frame = memo(function Frame({
       {/* rotor strip */}
       <text x={labelW} y={geo.rotorTitle.y + 14} fontSize={fs} fontWeight={700} fill={INK}>
         Rotor, developed
-        <tspan fontWeight={400} fill={INK_MUTED}>{compact ? '' : '\u00a0— rasp-bar rows; two short bars mark places where two rasp bars stand in line'}</tspan>
+        {drumChanged ? (
+          <tspan fontWeight={700} fill={CHANGED_COLOUR} data-mark="drum-words">{`\u00a0· Δ ${drum.label.toLowerCase()}`}</tspan>
+        ) : (
+          <tspan fontWeight={400} fill={INK_MUTED}>{compact ? '' : '\u00a0— rasp-bar rows; two short bars mark places where two rasp bars stand in line'}</tspan>
+        )}
       </text>
       {family.rotorBarRows.map((r, i) => {
         const band = geo.rotorRow(i + 1);

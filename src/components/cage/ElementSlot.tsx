@@ -8,6 +8,7 @@ import { patternId } from './patterns';
 import type { SlotInfo } from './slot-types';
 import { SlotMarks } from './SlotMarks';
 import { elementTypeLabel } from '../../lib/domain/vocabulary';
+import { fitLabel } from './fit-text';
 
 interface Props {
   info: SlotInfo;
@@ -26,7 +27,8 @@ function ElementSlotView({ info, side, prefix, units, compact }: Props) {
   let line2 = '';
   if (part && !compact) {
     const gap = part.openingMm ? formatLength(mm(part.openingMm.width), units) : 'no gap';
-    line2 = `${part.partNumber} · ${gap}`;
+    // Part number and opening, or as much as the slot holds (the details panel has the rest).
+    line2 = fitLabel([`${part.partNumber} · ${gap}`, part.partNumber], w - 16, 10.5);
   }
   const foreignHand = part && part.hand !== side;
   return (
@@ -60,7 +62,7 @@ function ElementSlotView({ info, side, prefix, units, compact }: Props) {
         !compact &&
         (line2 || info.partNumber) && (
           <text x={x + 8} y={y + faceH + 31} fontSize={10.5} fill={INK_MUTED}>
-            {line2 || info.partNumber}
+            {line2 || fitLabel([info.partNumber ?? ''], w - 16, 10.5)}
           </text>
         )
       )}

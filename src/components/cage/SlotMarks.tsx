@@ -6,8 +6,33 @@ import { IRIS, SEVERITY_STYLE, CHANGED_COLOUR } from './palette';
 import { SeverityIcon } from './SeverityIcon';
 import type { SlotInfo } from './slot-types';
 
-/** tagY: where the severity tag sits, from the slot's top (default: near the top edge). */
-export function SlotMarks({ info, compact, words = true, tagY = 6 }: { info: SlotInfo; compact: boolean; words?: boolean; tagY?: number }) {
+/** Width of the small corner "Δ" badge (rotor bars). */
+export const CORNER_BADGE = 16;
+
+/**
+ * tagY: where the severity tag sits, from the slot's top (default: near the top edge).
+ * iconY: where the lone severity icon is centred, from the slot's top (default: near the top
+ * edge); iconSize its size. Rotor bars put it in the bar's lane so it never meets the label.
+ * changedAt: where the compare views' "Δ changed" badge sits: across the top edge, or (rotor
+ * bars, whose rows touch) a small "Δ" in the slot's lower right corner, inside the slot.
+ */
+export function SlotMarks({
+  info,
+  compact,
+  words = true,
+  tagY = 6,
+  iconY,
+  iconSize,
+  changedAt = 'top',
+}: {
+  info: SlotInfo;
+  compact: boolean;
+  words?: boolean;
+  tagY?: number;
+  iconY?: number;
+  iconSize?: number;
+  changedAt?: 'top' | 'corner';
+}) {
   const { x, y, w, h } = info.box;
   const sev = info.severity ? SEVERITY_STYLE[info.severity] : undefined;
   const showWords = words && !compact && w >= 110 && h >= 30;
@@ -32,11 +57,21 @@ export function SlotMarks({ info, compact, words = true, tagY = 6 }: { info: Slo
               </text>
             </g>
           ) : (
-            <SeverityIcon severity={info.severity!} x={x + w - 11} y={y + Math.min(11, h / 2)} size={compact ? 14 : 16} />
+            <g data-mark="severity">
+              <SeverityIcon severity={info.severity!} x={x + w - 11} y={y + (iconY ?? Math.min(11, h / 2))} size={iconSize ?? (compact ? 14 : 16)} />
+            </g>
           )}
         </>
       )}
-      {info.changed && (
+      {info.changed && changedAt === 'corner' && (
+        <g data-mark="changed">
+          <rect x={x + w - CORNER_BADGE - 2} y={y + h - 15} width={CORNER_BADGE} height={13} rx={3} fill={CHANGED_COLOUR} stroke="#fff" strokeWidth={1} />
+          <text x={x + w - 2 - CORNER_BADGE / 2} y={y + h - 5} textAnchor="middle" fontSize={9} fontWeight={700} fill="#fff">
+            Δ
+          </text>
+        </g>
+      )}
+      {info.changed && changedAt === 'top' && (
         <g>
           <rect x={x + w / 2 - 36} y={y - 8} width={72} height={15} rx={3} fill={CHANGED_COLOUR} stroke="#fff" strokeWidth={1.5} />
           <text x={x + w / 2} y={y + 3} textAnchor="middle" fontSize={9} fontWeight={700} fill="#fff" letterSpacing={0.4}>

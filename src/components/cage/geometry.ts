@@ -62,7 +62,8 @@ export function diagramGeometry(family: MachineFamily, opts: GeometryOptions = {
   const right = band(compact ? 86 : 108);
   const coverRight = band(compact ? 46 : 58, 14);
   const rotorTitle = band(20, 4);
-  const rowH = compact ? 30 : 34;
+  // Tall enough for the bar, its label below and a finding's outline around both.
+  const rowH = compact ? 32 : 38;
   const rowsTop = y;
   const rotorRows = family.rotorBarRows.length;
   y += rotorRows * rowH;

@@ -18,6 +18,7 @@ import {
 import { ApiError, sendJson } from '../shared/api';
 import { barKindName, elementTypeLabel } from '../../lib/domain/vocabulary';
 import { capitalise } from '../../lib/domain/words';
+import { DEFAULT_CURRENCY, formatMoney } from '../../lib/domain/format';
 
 export interface FamilyOption {
   id: string;
@@ -183,7 +184,7 @@ export default function PartForm({ families, existing, readOnly = false }: PartF
           label="List price, cents (dealers may set their own)"
           path="part.priceCents"
           errors={errors}
-          hint={Number.isFinite(price) ? `= ${(Number(price) / 100).toLocaleString('en', { minimumFractionDigits: 2 })}` : 'Whole cents: 118500 is 1,185.00'}
+          hint={Number.isFinite(price) ? `= ${formatMoney(Number(price), DEFAULT_CURRENCY)}` : 'Whole cents: 118500 is 1,185.00'}
         >
           <input id="f-part-priceCents" className="field-input" type="number" step="1" {...register('part.priceCents', num)} />
         </Field>

@@ -3,7 +3,7 @@
  * sorted, filtered and paged in the browser with TanStack Table (a catalog is a few hundred
  * rows at most).
  */
-import { formatMoney } from '../parts/money';
+import { DEFAULT_CURRENCY, formatMoney } from '../parts/money';
 import { useQuery } from '@tanstack/react-query';
 import {
   createColumnHelper,
@@ -22,6 +22,7 @@ import { getJson } from '../shared/api';
 import { PagerButtons } from '../shared/PagerButtons';
 import { QueryIsland } from '../shared/QueryIsland';
 import { SortableHead } from '../shared/SortableHead';
+
 
 interface PartRow {
   partNumber: string;
@@ -42,7 +43,7 @@ const col = createColumnHelper<PartRow>();
 // its page on every render, and that reset schedules another render, without end.
 const NO_ROWS: PartRow[] = [];
 // One money formatter for every screen.
-const money = formatMoney;
+const money = (cents: number) => formatMoney(cents, DEFAULT_CURRENCY);
 
 function detail(p: CatalogPart): string {
   if (p.kind === 'element') {

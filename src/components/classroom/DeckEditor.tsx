@@ -204,7 +204,7 @@ export function DeckEditor(props: DeckEditorProps) {
         </section>
       )}
 
-      <SharePanel deckId={deck.id} initial={props.links} />
+      <SharePanel deckId={deck.id} initial={props.links} locale={props.locale} />
     </div>
   );
 }

@@ -2,12 +2,14 @@
 import { useId, useState } from 'react';
 import { sendJson } from '../shared/api';
 import type { ShareLinkRow } from './editor-types';
+import { formatDate } from '../../lib/domain/format';
 
 const STATUS_WORDS = { active: 'Active', revoked: 'Revoked', expired: 'Expired' } as const;
-const date = (s: string) => new Date(s).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' });
 
-export function SharePanel({ deckId, initial }: { deckId: string; initial: ShareLinkRow[] }) {
+export function SharePanel({ deckId, initial, locale }: { deckId: string; initial: ShareLinkRow[]; locale?: string }) {
   const id = useId();
+  // In the reader's locale, the same on the server and in the browser (no hydration mismatch).
+  const date = (s: string) => formatDate(s, { locale });
   const [links, setLinks] = useState(initial);
   const [label, setLabel] = useState('');
   const [until, setUntil] = useState('');
@@ -71,6 +73,11 @@ export function SharePanel({ deckId, initial }: { deckId: string; initial: Share
             Valid until (optional)
           </label>
           <input id={`${id}-until`} type="date" className="field-input" value={until} onChange={(e) => setUntil(e.target.value)} />
+          {until && (
+            <span className="mt-1 block text-xs text-ink-muted" data-testid="share-until-words">
+              Open until the end of {formatDate(`${until}T12:00:00`, { locale, month: 'long' })}
+            </span>
+          )}
         </div>
         <button type="button" className="btn-primary" onClick={create}>
           Create link

@@ -24,6 +24,8 @@ export interface DeckEditorProps {
   catalogs: Record<string, CatalogPart[]>;
   crops: { id: CropId; name: string }[];
   units: UnitSystem;
+  /** The reader's locale for dates (Accept-Language, see lib/server/locale.ts). */
+  locale?: string;
   links: ShareLinkRow[];
 }
 

@@ -9,6 +9,7 @@ import { CageDiagram } from '../cage/CageDiagram';
 import { useEditor, useEditorStoreApi } from './store/context';
 import { countOf } from '../../lib/domain/words';
 import { cropNoun } from '../../lib/domain/vocabulary';
+import { formatDateTime } from '../../lib/domain/format';
 
 export function ConflictDialog() {
   const store = useEditorStoreApi();
@@ -53,7 +54,7 @@ export function ConflictDialog() {
           Someone saved a newer version
         </h2>
         <p className="mt-1 text-sm text-ink-soft">
-          Version {v.version} was saved{v.createdByName ? ` by ${v.createdByName}` : ''} on {when.toLocaleString()}
+          Version {v.version} was saved{v.createdByName ? ` by ${v.createdByName}` : ''} on {formatDateTime(when)}
           {v.note ? <> with the note “{v.note}”</> : null} while you were editing. Your edits are not saved yet, and nothing is lost whichever you choose.
         </p>
         <figure className="mt-3 rounded-md border border-steel-200 p-2">

@@ -10,6 +10,7 @@ import type { CropId, VaneSetting } from '../../lib/domain/schemas';
 import type { UnitSystem } from '../../lib/domain/units';
 import { ApiError, sendJson } from '../shared/api';
 import { LossResult } from './LossResult';
+import { DEFAULT_CURRENCY } from '../../lib/domain/format';
 
 export interface StartValues {
   fanRpm: number | null;
@@ -24,6 +25,8 @@ export interface LossCheckProps {
   defaults: { crop: CropId; rotorRpm: number | null; clearanceMm: number | null; vaneSetting: VaneSetting | null };
   /** The dealer's starting values by crop, to prefill the rest-of-machine settings. */
   starting: Partial<Record<CropId, StartValues>>;
+  /** The dealer's currency (ISO 4217), the price field's starting currency. */
+  currency?: string;
 }
 
 type Place = 'preHarvest' | 'header' | 'behindMachine';
@@ -67,7 +70,7 @@ export default function LossCheckIsland(props: LossCheckProps) {
   const [typed, setTyped] = useState('');
   const [yieldValue, setYieldValue] = useState('');
   const [price, setPrice] = useState('');
-  const [currency, setCurrency] = useState('$');
+  const [currency, setCurrency] = useState(props.currency ?? DEFAULT_CURRENCY);
   const [target, setTarget] = useState('');
   const [signs, setSigns] = useState<LossSign[]>([]);
   const [fieldName, setFieldName] = useState('');

@@ -1,11 +1,14 @@
 /** The outcome of a loss check: the verdict, each part of the loss, the basis and the advice. */
 import type { LossCheckResult, LossFigure } from '../../lib/domain/field-check';
 import type { UnitSystem } from '../../lib/domain/units';
+import { formatMoney, isCurrencyCode } from '../../lib/domain/format';
 
 const fixed = (n: number, d: number) => (Math.abs(n) < 10 ** -d / 2 ? 0 : n).toFixed(d);
 
+/** Money per area: through the one money formatter when the currency is an ISO 4217 code, else as typed. */
 export function money(value: number | null, currency: string): string {
   if (value === null) return '';
+  if (isCurrencyCode(currency.toUpperCase())) return formatMoney(Math.round(value * 100), currency.toUpperCase());
   return `${currency}${currency && !/^[^A-Za-z]+$/.test(currency) ? ' ' : ''}${fixed(value, 2)}`;
 }
 

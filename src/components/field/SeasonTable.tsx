@@ -7,6 +7,9 @@ import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, use
 import { useMemo, useState } from 'react';
 import type { UnitSystem } from '../../lib/domain/units';
 import { SortableHead } from '../shared/SortableHead';
+import { formatDateTime } from '../../lib/domain/format';
+import { formatNumber } from '../../lib/domain/format';
+import { formatLength, mm } from '../../lib/domain/units';
 
 export interface SeasonRow {
   id: string;
@@ -32,13 +35,13 @@ export interface SeasonRow {
 }
 
 const col = createColumnHelper<SeasonRow>();
-const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit', timeZone: 'UTC' });
+const when = (iso: string) => formatDateTime(iso, { year: false, timeZone: 'UTC' });
 
 export default function SeasonTable({ rows, units }: { rows: SeasonRow[]; units: UnitSystem }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: 'checkedAt', desc: false }]);
   const imperial = units === 'imperial';
-  const len = (mm: number | null) => (mm === null ? '—' : imperial ? `${(mm / 25.4).toFixed(2)} in` : `${mm.toFixed(1)} mm`);
-  const rate = (bu: number, kg: number) => (imperial ? `${bu.toFixed(2)} bu/ac` : `${kg.toFixed(0)} kg/ha`);
+  const len = (v: number | null) => (v === null ? '—' : formatLength(mm(v), units, imperial ? 2 : 1));
+  const rate = (bu: number, kg: number) => (imperial ? `${formatNumber(bu, { digits: 2 })} bu/ac` : `${formatNumber(kg)} kg/ha`);
   const columns = useMemo(
     () => [
       col.accessor('checkedAt', { header: 'When (UTC)', cell: (c) => when(c.getValue()) }),

@@ -17,6 +17,7 @@ import { getJson } from '../shared/api';
 import { PagerButtons } from '../shared/PagerButtons';
 import { QueryIsland } from '../shared/QueryIsland';
 import { SortableHead } from '../shared/SortableHead';
+import { formatDate } from '../../lib/domain/format';
 
 export interface MachineListItem {
   id: string;
@@ -50,7 +51,7 @@ const col = createColumnHelper<MachineListItem>();
 // A stable empty array while loading, so the table does not see new data on every render.
 const NO_ROWS: MachineListItem[] = [];
 
-const dateFmt = new Intl.DateTimeFormat('en-GB', { day: 'numeric', month: 'short', year: 'numeric' });
+const dateFmt = { format: (d: Date | string | number) => formatDate(d) };
 
 function useDebounced<T>(value: T, ms: number): T {
   const [v, setV] = useState(value);

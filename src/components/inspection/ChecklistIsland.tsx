@@ -4,6 +4,7 @@
  * a draft parts request.
  */
 import { formatMoney } from '../parts/money';
+import { formatDate } from '../../lib/domain/format';
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { countSeverities, suggestSeverity, surveyFromMeasurements, type ChecklistKind, type ReplacementLine } from '../../lib/domain/inspection';
 import type { UnitSystem } from '../../lib/domain/units';
@@ -28,11 +29,10 @@ const SECTIONS: { kind: ChecklistKind; title: string }[] = [
   { kind: 'survey', title: 'Clearance survey' },
 ];
 
-// One money formatter for every screen.
-const money = formatMoney;
 
 export default function ChecklistIsland({ initial, units, canEdit }: Props) {
   const [insp, setInsp] = useState(initial);
+  const money = (cents: number) => formatMoney(cents, insp.currency);
   const [saveState, setSaveState] = useState<'idle' | 'saving' | 'saved' | 'error'>('idle');
   const [saveError, setSaveError] = useState<string | null>(null);
   const [confirming, setConfirming] = useState(false);
@@ -164,7 +164,7 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
       {insp.status === 'finished' && (
         <section aria-labelledby="finished-h" className="card mb-6 border-ok">
           <h2 id="finished-h" tabIndex={-1} className="text-lg font-semibold">
-            Inspection finished{insp.finishedAt ? ` ${new Date(insp.finishedAt).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric' })}` : ''}
+            Inspection finished{insp.finishedAt ? ` ${formatDate(insp.finishedAt)}` : ''}
           </h2>
           {insp.partsRequest ? (
             <>

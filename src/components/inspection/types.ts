@@ -38,4 +38,6 @@ export interface InspectionView {
   counts: { ok: number; watch: number; replace: number; total: number };
   photoCount: number;
   partsRequest: { id: string; status: string; lines: ReplacementLine[]; added: ReplacementLine[] } | null;
+  /** ISO 4217 code of the replacement prices (the dealer's). */
+  currency?: string;
 }

@@ -1,5 +1,5 @@
 /** Lengths in the person's own units for the checklist's inputs; stored in millimetres. */
-import { MM_PER_INCH, type UnitSystem } from '../../lib/domain/units';
+import { formatLength, mm, MM_PER_INCH, type UnitSystem } from '../../lib/domain/units';
 
 export const unitLabel = (u: UnitSystem) => (u === 'imperial' ? 'in' : 'mm');
 
@@ -19,8 +19,9 @@ export function fromInput(text: string, u: UnitSystem): number | null {
   return Math.round((u === 'imperial' ? v * MM_PER_INCH : v) * 100) / 100;
 }
 
-export function showLength(mm: number, u: UnitSystem): string {
-  return u === 'imperial' ? `${(mm / MM_PER_INCH).toFixed(2)} in` : `${(Math.round(mm * 10) / 10).toFixed(1)} mm`;
+/** A length for reading: the one length formatter, two decimals of an inch or one of a millimetre. */
+export function showLength(value: number, u: UnitSystem): string {
+  return formatLength(mm(value), u, u === 'imperial' ? 2 : 1);
 }
 
 /** A survey finding in the person's units (the domain's own message is in millimetres). */

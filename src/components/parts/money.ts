@@ -1,4 +1,2 @@
-/** Prices are whole cents of the catalog currency; shown with two decimals and grouped thousands. */
-export function formatMoney(cents: number): string {
-  return (cents / 100).toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: 2 });
-}
+/** Money on every screen: the one formatter (domain/format.ts), whole cents of an ISO 4217 currency, shown with it. */
+export { formatMoney, DEFAULT_CURRENCY } from '../../lib/domain/format';

@@ -11,6 +11,11 @@ export const organisations = pgTable('organisations', {
   dealerId: uuid('dealer_id'),
   partsDeskEmail: text('parts_desk_email'),
   ownerEmail: text('owner_email'),
+  /**
+   * A dealer's currency (ISO 4217 code): its price list, and every price its customer farms see,
+   * are in it. Null: the catalog's currency (DEFAULT_CURRENCY in domain/format.ts). Unused for farms.
+   */
+  currency: text('currency'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 

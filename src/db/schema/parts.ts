@@ -13,6 +13,13 @@ export interface PartsRequestLine {
   unitPriceCents: number;
 }
 
+/** The settings the layout a request was made for asks of the machine, stored in mm and rpm. */
+export interface PartsRequestSettings {
+  rotorRpm: number;
+  clearanceMm: number;
+  vaneSetting: string;
+}
+
 /** A bill of materials sent from a farm to its dealer's parts desk. */
 export const partsRequests = pgTable(
   'parts_requests',
@@ -25,6 +32,8 @@ export const partsRequests = pgTable(
     status: text('status', { enum: partsRequestStatuses }).notNull().default('draft'),
     lines: jsonb('lines').$type<PartsRequestLine[]>().notNull().default([]),
     note: text('note').notNull().default(''),
+    /** Settings of the layout it was made for (plan or layout requests); shown in the reader's units. */
+    settings: jsonb('settings').$type<PartsRequestSettings>(),
     createdBy: uuid('created_by').references(() => users.id),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),

@@ -15,3 +15,4 @@ export * from './starter';
 export * from './check-input';
 export * from './text';
 export * from './field-check';
+export * from './format';

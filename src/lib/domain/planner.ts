@@ -21,6 +21,7 @@ import { placeOrder, workSteps, type PlanStep, type Removal } from './planner/st
 import { buildTargets, elementFits, elementTrouble, type PlanMode, type SlotGroup, type SlotPlace, type Targets } from './planner/targets';
 import { cropAdjective, cropNoun, cropVerb, elementTypeName as elementWord, partNameWithHand as partWords, placeWords } from './vocabulary';
 import { capitalise, countOf, plural } from './words';
+import { formatLength, mm, type UnitSystem } from './units';
 
 export { WORK_CAUTIONS, ONE_PERSON_LIFT_KG } from './planner/cautions';
 export { billOfMaterials, bomLine, bomTotal, handOf, partCounts, fingerprint, type Bom, type BomLine } from './planner/bom';
@@ -42,6 +43,8 @@ export interface PlanInput {
   /** The machine's drum and vane control (default: as installed, else the family's first). */
   drum?: DrumId;
   vaneControl?: VaneControl;
+  /** The reader's unit system for the words of the setting changes (default metric). */
+  units?: UnitSystem;
 }
 
 export interface PlanChoice {
@@ -181,20 +184,21 @@ function explain(o: SlotOutcome, cropWord: string): string {
   }
 }
 
-function settingChanges(installed: Layout | null, layout: Layout): SettingChange[] {
+function settingChanges(installed: Layout | null, layout: Layout, units: UnitSystem): SettingChange[] {
   const out: SettingChange[] = [];
+  const length = (v: unknown) => formatLength(mm(Number(v)), units);
   const words = {
     drum: (v: unknown) => `${v} drum`,
     vaneControl: (v: unknown) => `${v} vanes`,
     vaneSetting: (v: unknown) => `vanes to ${String(v).replace('-', ' ')}`,
     rotorRpm: (v: unknown) => `rotor speed to ${v} rpm`,
-    clearanceMm: (v: unknown) => `concave clearance to ${v} mm`,
+    clearanceMm: (v: unknown) => `concave clearance to ${length(v)}`,
   } as const;
   for (const field of ['drum', 'vaneControl', 'vaneSetting', 'rotorRpm', 'clearanceMm'] as const) {
     const before = installed ? installed[field] : null;
     const after = layout[field];
     if (before === after) continue;
-    const now = before === null ? '' : ` (now ${field === 'rotorRpm' ? `${before} rpm` : field === 'clearanceMm' ? `${before} mm` : String(before).replace('-', ' ')})`;
+    const now = before === null ? '' : ` (now ${field === 'rotorRpm' ? `${before} rpm` : field === 'clearanceMm' ? length(before) : String(before).replace('-', ' ')})`;
     const text =
       field === 'drum' || field === 'vaneControl'
         ? `Record the machine's ${words[field](after)}${now}.`
@@ -325,7 +329,7 @@ export function planCropChange(input: PlanInput): Plan {
     purchases,
     cautions: WORK_CAUTIONS,
     steps: workSteps(outcomes, removals),
-    settings: settingChanges(installed, layout),
+    settings: settingChanges(installed, layout, input.units ?? 'metric'),
     counts,
     findings,
     notes,

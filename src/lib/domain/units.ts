@@ -7,6 +7,7 @@
  * 1 lb = 0.45359237 kg, 1 ft = 0.3048 m, hence 1 ft/min = 0.00508 m/s and
  * 1 acre = 43,560 ft² = 4,046.8564224 m².
  */
+import { formatNumber } from './format';
 
 declare const unitBrand: unique symbol;
 /** A number tagged with the unit it is measured in. */
@@ -69,10 +70,9 @@ export const bushelsPerTonne = (lbPerBu: number): number => 1000 / (lbPerBu * KG
 /** Pounds per bushel from bushels per tonne. */
 export const lbPerBuFromBushelsPerTonne = (buPerT: number): number => 1000 / buPerT / KG_PER_LB;
 
+/** A measurement's number: the one number formatter, fixed decimals, no "-0", no grouping. */
 function fixed(n: number, digits: number): string {
-  // Avoid "-0.0" for tiny negatives.
-  const s = n.toFixed(digits);
-  return /^-0(\.0+)?$/.test(s) ? s.slice(1) : s;
+  return formatNumber(n, { digits, grouping: false });
 }
 
 /**

@@ -39,7 +39,7 @@ export async function seedDemo(db: Db) {
   const hash = await hashPassword(DEMO_PASSWORD);
   await db.transaction(async (tx) => {
     const [kestrel] = await tx.insert(t.organisations).values({
-      name: 'Kestrel Valley Implement', kind: 'dealer', partsDeskEmail: 'parts@kestrel.example',
+      name: 'Kestrel Valley Implement', kind: 'dealer', partsDeskEmail: 'parts@kestrel.example', currency: 'CAD',
     }).returning();
     const [larkspur] = await tx.insert(t.organisations).values({
       name: 'Larkspur Farms', kind: 'farm', dealerId: kestrel!.id, ownerEmail: 'olive@larkspur.example',

@@ -20,7 +20,7 @@ export const FIXTURE_USERS = {
 export async function seedTestFixtures(db: Db) {
   const hash = await hashPassword(DEMO_PASSWORD);
   await db.transaction(async (tx) => {
-    const [dealer] = await tx.insert(t.organisations).values({ name: 'Brackenridge Ag Supply', kind: 'dealer', partsDeskEmail: 'parts@brackenridge.example' }).returning();
+    const [dealer] = await tx.insert(t.organisations).values({ name: 'Brackenridge Ag Supply', kind: 'dealer', partsDeskEmail: 'parts@brackenridge.example', currency: 'EUR' }).returning();
     const [farm] = await tx.insert(t.organisations).values({ name: 'Fenwick Acres', kind: 'farm', dealerId: dealer!.id, ownerEmail: 'op@fenwick.example' }).returning();
     const people = [
       [FIXTURE_USERS.otherTechnician, 'Rowan Pike', dealer!.id, 'technician'],

@@ -52,10 +52,12 @@ describe('cage diagram on the server', () => {
   it('marks changed places in compare views, and the selection', () => {
     const layout = starterLayout(tamarackM4, 'corn', demoCatalog);
     const html = renderToStaticMarkup(
-      <CageDiagram family={tamarackM4} layout={layout} catalog={demoCatalog} units="metric" diffPlaces={[{ kind: 'bar', row: 1, position: 1 }]} selectedPlace={{ kind: 'element', position: 2, side: 'left' }} />,
+      <CageDiagram family={tamarackM4} layout={layout} catalog={demoCatalog} units="metric" diffPlaces={[{ kind: 'bar', row: 1, position: 1 }, { kind: 'element', position: 1, side: 'left' }]} selectedPlace={{ kind: 'element', position: 2, side: 'left' }} />,
     );
     expect(ariaOf(html, 'bar:1:1')).toBe('Rotor row 1, position 1: straight bar, CW-BR-ST-04, across this mount and the one behind it. Changed');
     expect(html).toContain('Δ CHANGED');
+    // Elements carry the badge across their top edge; rotor bars, whose rows touch, a "Δ" inside the slot.
+    expect(/data-place="bar:1:1"[^]*?<\/g><\/g>/.exec(html)![0]).toContain('data-mark="changed"');
     expect(html).toContain('Straight · 2 mounts');
   });
 

@@ -22,6 +22,7 @@ import type { Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
+import { currencyFor } from './prices';
 import { addLinesToDraftRequest } from './parts-requests';
 
 export type InspectionRow = typeof inspections.$inferSelect;
@@ -219,8 +220,11 @@ export async function getInspection(actor: Actor, id: string, dbArg?: Db) {
     };
   });
   const surveyLine = lines.find((l) => l.kind === 'survey');
+  const currency = await currencyFor(ctx.machine.orgId, db);
   return {
     id: row.id,
+    /** ISO 4217 code of the replacement prices (the dealer's). */
+    currency,
     title: row.title,
     status: row.status,
     startedAt: row.startedAt,

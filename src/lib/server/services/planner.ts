@@ -15,6 +15,7 @@ import type { Actor } from '../access';
 import { HttpError, whenNotFound } from '../http';
 import { createLayout, getLayout, saveVersion } from './layouts';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
+import { currencyFor } from './prices';
 
 export const planRequestSchema = z.object({
   machineId: z.uuid(),
@@ -59,6 +60,7 @@ export async function planInputs(actor: Actor, machineId: string) {
 
 export async function proposePlan(actor: Actor, input: PlanRequest) {
   const inputs = await planInputs(actor, input.machineId);
+  const currency = await currencyFor(inputs.machine.orgId);
   const plan: Plan = planCropChange({
     family: inputs.family,
     catalog: inputs.catalog,
@@ -68,6 +70,7 @@ export async function proposePlan(actor: Actor, input: PlanRequest) {
     mode: input.mode,
     drum: inputs.machine.drum,
     vaneControl: inputs.machine.vaneControl,
+    units: actor.unitSystem,
   });
   return {
     machine: {
@@ -85,6 +88,8 @@ export async function proposePlan(actor: Actor, input: PlanRequest) {
     installedFindings: inputs.installed ? checkLayout(inputs.family, inputs.catalog, inputs.installed) : [],
     shelf: inputs.shelf,
     plan,
+    /** ISO 4217 code of the plan's prices (the dealer's). */
+    currency,
     // For the diagram beside the plan (server pages); the API leaves these out.
     family: inputs.family,
     catalog: inputs.catalog,

@@ -11,7 +11,8 @@ import { z } from 'zod';
 import { getDb, type Db } from '../db';
 import { catalogParts, dealerPrices, organisations } from '../../../db/schema';
 import type { CatalogPart } from '../../domain/schemas';
-import { dealerOf, type Actor } from '../access';
+import { currencyCodeSchema, DEFAULT_CURRENCY } from '../../domain/format';
+import { can, dealerOf, type Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
 
@@ -33,6 +34,37 @@ export async function pricingDealerOf(orgId: string, db?: Reader): Promise<strin
   if (!org) return null;
   if (org.kind === 'dealer') return orgId;
   return org.kind === 'farm' ? org.dealerId : null;
+}
+
+/**
+ * The currency an organisation's prices are in: its pricing dealer's (ISO 4217), else the
+ * catalog's (DEFAULT_CURRENCY). Every screen, sheet, e-mail and file that shows a price shows it.
+ */
+export async function currencyFor(orgId: string | null | undefined, db?: Reader): Promise<string> {
+  if (!orgId) return DEFAULT_CURRENCY;
+  const d = db ?? (await getDb());
+  const dealerId = await pricingDealerOf(orgId, d);
+  if (!dealerId) return DEFAULT_CURRENCY;
+  const [dealer] = await d.select({ currency: organisations.currency }).from(organisations).where(eq(organisations.id, dealerId)).limit(1);
+  return dealer?.currency ?? DEFAULT_CURRENCY;
+}
+
+export const setCurrencySchema = z.object({ currency: currencyCodeSchema }).strict();
+
+/** Sets the actor's dealer's currency (its administrator only); audited. */
+export async function setDealerCurrency(actor: Actor, currency: string): Promise<string> {
+  if (!can(actor, 'prices.write')) throw new HttpError(403, 'Only the dealer’s administrator changes the currency.');
+  const dealerId = ownDealer(actor);
+  const parsed = setCurrencySchema.safeParse({ currency });
+  if (!parsed.success) throw new HttpError(400, `currency: ${parsed.error.issues[0]?.message ?? 'not a currency code'}`, 'currency');
+  const code = parsed.data.currency;
+  const db = await getDb();
+  await db.transaction(async (tx) => {
+    const [before] = await tx.select({ currency: organisations.currency }).from(organisations).where(eq(organisations.id, dealerId)).limit(1);
+    await tx.update(organisations).set({ currency: code }).where(eq(organisations.id, dealerId));
+    await audit(tx, actor, 'set-currency', 'organisation', dealerId, { from: before?.currency ?? DEFAULT_CURRENCY, to: code }, dealerId);
+  });
+  return code;
 }
 
 /** A dealer's prices for some part numbers (all of them when none are named). */
@@ -78,11 +110,12 @@ export interface PriceListItem {
 }
 
 /** The actor's dealer's price list: every catalog part with the dealer's price beside the list price. */
-export async function listPriceList(actor: Actor): Promise<{ dealer: { id: string; name: string }; items: PriceListItem[] }> {
+export async function listPriceList(actor: Actor): Promise<{ dealer: { id: string; name: string; currency: string }; items: PriceListItem[] }> {
   const dealerId = ownDealer(actor);
   const db = await getDb();
-  const [dealer] = await db.select({ id: organisations.id, name: organisations.name }).from(organisations).where(eq(organisations.id, dealerId)).limit(1);
-  if (!dealer) throw notFound('Dealer not found');
+  const [row] = await db.select({ id: organisations.id, name: organisations.name, currency: organisations.currency }).from(organisations).where(eq(organisations.id, dealerId)).limit(1);
+  if (!row) throw notFound('Dealer not found');
+  const dealer = { ...row, currency: row.currency ?? DEFAULT_CURRENCY };
   const rows = await db
     .select({
       partNumber: catalogParts.partNumber,

@@ -5,7 +5,7 @@ import { catalogParts, layouts, layoutVersions, machines, organisations, shareLi
 import { computeSettings } from '../../domain/compute';
 import { checkLayout } from '../../domain/rules';
 import type { CatalogPart } from '../../domain/schemas';
-import { priceCatalogFor } from './prices';
+import { currencyFor, priceCatalogFor } from './prices';
 import type { Actor } from '../access';
 import { audit } from '../audit';
 import { HttpError, notFound } from '../http';
@@ -170,6 +170,7 @@ async function shareView(layoutVersionId: string) {
     ...v,
     family,
     catalog,
+    currency: await currencyFor(v.orgId, db),
     findings: checkLayout(family, catalog, v.body),
     settings: computeSettings(family, catalog, v.body),
     link: null as null | { label: string; expiresAt: Date | null; createdAt: Date },

@@ -1,17 +1,16 @@
 /** Parts requests: the request as a spreadsheet file. */
 import { toCsv } from '../../csv';
+import { moneyAmount } from '../../../domain/format';
 import type { PartsRequestView } from './views';
 
-export const money = (cents: number) => (cents / 100).toLocaleString('en-US', { minimumFractionDigits: 2, maximumFractionDigits: 2 });
-
 /** The request as a CSV file (papaparse, formulas neutralised): one row per line and a total row. */
-export function partsRequestCsv(view: Pick<PartsRequestView, 'lines' | 'totalCents' | 'totalQuantity'>): string {
-  const plain = (cents: number) => (cents / 100).toFixed(2);
+export function partsRequestCsv(view: Pick<PartsRequestView, 'lines' | 'totalCents' | 'totalQuantity' | 'currency'>): string {
+  const plain = moneyAmount;
   return toCsv(
-    ['Part number', 'Description', 'Hand', 'Quantity', 'Unit price', 'Line total'],
+    ['Part number', 'Description', 'Hand', 'Quantity', 'Unit price', 'Line total', 'Currency'],
     [
-      ...view.lines.map((l) => [l.partNumber, l.description, l.hand ?? '', l.quantity, plain(l.unitPriceCents), plain(l.lineTotalCents)]),
-      ['', 'Total', '', view.totalQuantity, '', plain(view.totalCents)],
+      ...view.lines.map((l) => [l.partNumber, l.description, l.hand ?? '', l.quantity, plain(l.unitPriceCents), plain(l.lineTotalCents), view.currency]),
+      ['', 'Total', '', view.totalQuantity, '', plain(view.totalCents), view.currency],
     ],
   );
 }

@@ -5,9 +5,10 @@
 import { and, eq, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, type Db } from '../../db';
-import { families, machines, organisations, partsRequests, type PartsRequestLine } from '../../../../db/schema';
+import { families, machines, organisations, partsRequests, type PartsRequestLine, type PartsRequestSettings } from '../../../../db/schema';
+import { formatLength, mm, type UnitSystem } from '../../../domain/units';
 import { indexCatalog } from '../../../domain/catalog';
-import type { CatalogPart } from '../../../domain/schemas';
+import type { CatalogPart, Layout } from '../../../domain/schemas';
 import { billOfMaterials, bomLine } from '../../../domain/planner';
 import { can, rolesFor, type Actor } from '../../access';
 import { audit } from '../../audit';
@@ -69,6 +70,17 @@ function mergeLines(existing: readonly PartsRequestLine[], added: readonly Parts
   return out;
 }
 
+const settingsOf = (l: Layout): PartsRequestSettings => ({ rotorRpm: l.rotorRpm, clearanceMm: l.clearanceMm, vaneSetting: l.vaneSetting });
+
+/** The settings a request carries, in the reader's units: "rotor speed 420 rpm · concave clearance 0.98 in · vanes medium". */
+export function requestSettingsWords(settings: PartsRequestSettings, units: UnitSystem): string {
+  return [
+    `rotor speed ${settings.rotorRpm} rpm`,
+    `concave clearance ${formatLength(mm(settings.clearanceMm), units)}`,
+    `vanes ${settings.vaneSetting.replace('-', ' ')}`,
+  ].join(' · ');
+}
+
 const NOTHING_TO_ORDER = 'Nothing to order: everything it needs is on the machine or on the shelf.';
 
 export async function createPartsRequest(actor: Actor, input: CreatePartsRequest): Promise<PartsRequestView> {
@@ -77,6 +89,7 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
   let lines: PartsRequestLine[];
   let detail: Record<string, unknown> = {};
   let autoNote = '';
+  let settings: PartsRequestSettings | null = null;
   if (input.from === 'plan') {
     const proposal = await proposePlan(actor, input);
     const plan = requirePlan(proposal.plan);
@@ -85,6 +98,7 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
     lines = plan.purchases.map((p) => ({ partNumber: p.partNumber, description: p.description, hand: p.hand, quantity: p.quantity, unitPriceCents: p.unitPriceCents }));
     if (!lines.length) throw new HttpError(422, `${NOTHING_TO_ORDER} The plan buys nothing.`, 'crop');
     detail = { crop: input.crop, mode: input.mode, fingerprint: plan.fingerprint };
+    settings = settingsOf(plan.layout);
     autoNote = `For the change to ${input.crop.replace('-', ' ')} on ${proposal.machine.nickname}.`;
   } else if (input.from === 'layout') {
     const { layout, machine, family } = await getLayout(actor, input.layoutId).catch(
@@ -102,6 +116,7 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
     machineId = machine.id;
     orgId = machine.orgId;
     detail = { layoutId: layout.id, version: version.version };
+    settings = settingsOf(version.body);
     autoNote = `Parts for “${layout.name}” version ${version.version} on ${machine.nickname}.`;
   } else {
     const ctx = await machineForActor(actor, input.machineId);
@@ -114,7 +129,7 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
     const dealerOrgId = await dealerFor(orgId, tx);
     const [row] = await tx
       .insert(partsRequests)
-      .values({ orgId, dealerOrgId, machineId, source: input.from, status: 'draft', lines, note: input.note || autoNote, createdBy: actor.id })
+      .values({ orgId, dealerOrgId, machineId, source: input.from, status: 'draft', lines, settings, note: input.note || autoNote, createdBy: actor.id })
       .returning({ id: partsRequests.id });
     await audit(tx, actor, 'create', 'parts-request', row!.id, { source: input.from, lines: lines.length, ...detail }, orgId);
     return row!.id;

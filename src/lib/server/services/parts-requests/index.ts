@@ -13,7 +13,7 @@
 export { type PartsRequestStatus, type PartsRequestSource, NEXT_STATUS, STATUS_WORDS, SOURCE_WORDS, sourceOrigin, requestNumber } from './statuses';
 export { lineInputSchema, type LineInput, createPartsRequestSchema, type CreatePartsRequest, updatePartsRequestSchema, statusChangeSchema, listQuerySchema } from './schemas';
 export { type PartsRequestView, getPartsRequest, listPartsRequests } from './views';
-export { linesFromInput, createPartsRequest, addLinesToDraftRequest, updatePartsRequest, deletePartsRequest } from './drafts';
+export { linesFromInput, requestSettingsWords, createPartsRequest, addLinesToDraftRequest, updatePartsRequest, deletePartsRequest } from './drafts';
 export { partsRequestCsv, csvFileName } from './csv';
 export { submitPartsRequest, STUCK_SEND_REASON, recoverStuckSends } from './sending';
 export { advancePartsRequest } from './desk';

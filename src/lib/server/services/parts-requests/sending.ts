@@ -9,13 +9,17 @@ import type { Actor } from '../../access';
 import { audit } from '../../audit';
 import { HttpError } from '../../http';
 import { mailDeadlineMs, sendMail } from '../mail';
-import { csvFileName, money, partsRequestCsv } from './csv';
+import { csvFileName, partsRequestCsv } from './csv';
+import { requestSettingsWords } from './drafts';
+import { formatMoney, formatNumber } from '../../../domain/format';
 import { assertDraft, assertWriter } from './drafts';
 import { rowForActor } from './rows';
 import { SOURCE_WORDS } from './statuses';
 import { type PartsRequestView, getPartsRequest, viewOf } from './views';
 
 function mailText(view: PartsRequestView, actor: Actor, link: string): string {
+  // Amounts in columns headed with the currency: plain grouped numbers line up.
+  const money = (cents: number) => formatNumber(cents / 100, { digits: 2 });
   const rows = view.lines.map((l) => {
     const hand = l.hand ? `${l.hand} hand` : '';
     return `  ${String(l.quantity).padStart(3)} × ${l.partNumber.padEnd(14)} ${hand.padEnd(10)} ${money(l.unitPriceCents).padStart(10)}  ${money(l.lineTotalCents).padStart(11)}  ${l.description}`;
@@ -28,11 +32,12 @@ function mailText(view: PartsRequestView, actor: Actor, link: string): string {
     `Requested by: ${actor.name} <${actor.email}>`,
     `Made from:    ${SOURCE_WORDS[view.source]}`,
     ...(view.note ? [`Note:         ${view.note.replace(/\n/g, '\n              ')}`] : []),
+    ...(view.settings ? [`Settings:     ${requestSettingsWords(view.settings, actor.unitSystem)} (after fitting)`] : []),
     '',
-    `  Qty   Part number    Hand        Unit price   Line total  Description`,
+    `  Qty   Part number    Hand       Unit ${view.currency}   Line ${view.currency}  Description`,
     ...rows,
     '',
-    `  ${String(view.totalQuantity).padStart(3)} parts${' '.repeat(31)}Total ${money(view.totalCents).padStart(11)}`,
+    `  ${String(view.totalQuantity).padStart(3)} parts${' '.repeat(31)}Total ${formatMoney(view.totalCents, view.currency).padStart(11)}`,
     '',
     `Open the request: ${link}`,
     'The attached CSV file lists the same lines.',

@@ -2,7 +2,8 @@
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, type Db } from '../../db';
-import { families, machines, organisations, partsRequests, users, type PartsRequestLine } from '../../../../db/schema';
+import { families, machines, organisations, partsRequests, users, type PartsRequestLine, type PartsRequestSettings } from '../../../../db/schema';
+import { DEFAULT_CURRENCY } from '../../../domain/format';
 import { can, type Actor } from '../../access';
 import { permissions } from './permissions';
 import { type Row, rowForActor, visibleTo } from './rows';
@@ -20,6 +21,10 @@ export interface PartsRequestView {
   machine: { id: string; nickname: string; serial: string; familyId: string; familyName: string } | null;
   lines: (PartsRequestLine & { lineTotalCents: number })[];
   totalCents: number;
+  /** ISO 4217 code of the prices: the dealer's currency. */
+  currency: string;
+  /** What the layout it was made for asks of the machine (plan and layout requests). */
+  settings: PartsRequestSettings | null;
   totalQuantity: number;
   note: string;
   createdAt: Date;
@@ -36,7 +41,7 @@ export async function viewOf(actor: Actor, row: Row, db: Db): Promise<PartsReque
   const ids = [row.orgId, ...(row.dealerOrgId ? [row.dealerOrgId] : [])];
   const [orgRows, machineRows, creator] = await Promise.all([
     db
-      .select({ id: organisations.id, name: organisations.name, ownerEmail: organisations.ownerEmail, partsDeskEmail: organisations.partsDeskEmail })
+      .select({ id: organisations.id, name: organisations.name, ownerEmail: organisations.ownerEmail, partsDeskEmail: organisations.partsDeskEmail, currency: organisations.currency })
       .from(organisations)
       .where(inArray(organisations.id, ids)),
     row.machineId
@@ -63,6 +68,8 @@ export async function viewOf(actor: Actor, row: Row, db: Db): Promise<PartsReque
     machine: machineRows[0] ?? null,
     lines,
     totalCents: lines.reduce((s, l) => s + l.lineTotalCents, 0),
+    currency: dealer?.currency ?? DEFAULT_CURRENCY,
+    settings: row.settings ?? null,
     totalQuantity: lines.reduce((s, l) => s + l.quantity, 0),
     note: row.note,
     createdAt: row.createdAt,
@@ -106,6 +113,7 @@ export async function listPartsRequests(actor: Actor, query: z.infer<typeof list
       updatedAt: partsRequests.updatedAt,
       sentAt: partsRequests.sentAt,
       sendError: partsRequests.sendError,
+      dealerCurrency: sql<string | null>`(select d.currency from organisations d where d.id = ${partsRequests.dealerOrgId})`,
     })
     .from(partsRequests)
     .innerJoin(organisations, eq(organisations.id, partsRequests.orgId))
@@ -114,8 +122,9 @@ export async function listPartsRequests(actor: Actor, query: z.infer<typeof list
     .orderBy(desc(partsRequests.updatedAt))
     .limit(200);
   return {
-    items: rows.map(({ lines, ...r }) => ({
+    items: rows.map(({ lines, dealerCurrency, ...r }) => ({
       ...r,
+      currency: dealerCurrency ?? DEFAULT_CURRENCY,
       number: requestNumber(r.id),
       statusWords: STATUS_WORDS[r.status],
       lineCount: lines.length,
