@@ -1,6 +1,6 @@
 import { and, count, desc, eq, inArray, lt, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb } from '../db';
+import { getDb, store, storeWriteGeneration, type Db } from '../db';
 import { families, layouts, layoutVersions, machines, organisations, users } from '../../../db/schema';
 import { cropIdSchema, layoutSchema, type Layout } from '../../domain/schemas';
 import { starterLayout } from '../../domain/starter';
@@ -82,14 +82,36 @@ export async function versionOf(layoutId: string, version: number): Promise<Vers
   return v;
 }
 
-/** A layout with its current version and the machine it belongs to. */
 /**
  * What the API's GET of a layout answers: the layout, its current version and the machine's
- * name. One query without the family document: this is the busiest read of the app.
+ * name. One prepared query without the family document: this is the busiest read of the app;
+ * with the embedded store a layout read again before anything is written comes from memory
+ * (`keptLayouts` below), checked against the actor's organisations like the query.
  */
-export async function layoutWithCurrent(actor: Actor, layoutId: string) {
-  const db = await getDb();
-  const [row] = await db
+export async function layoutWithCurrent(actor: Actor, layoutId: string): Promise<LayoutWithCurrent> {
+  const s = await store();
+  const kept = s.mode === 'pglite' ? keptLayouts.get(layoutId) : undefined;
+  if (kept && kept.db === s.db && kept.generation === storeWriteGeneration()) {
+    // The same rule as the query's: the layout's organisation is one the actor sees.
+    if (!actor.visibleOrgIds.includes(kept.row.layout.orgId)) throw notFound('Layout not found', 'layoutId');
+    return kept.row;
+  }
+  const generation = storeWriteGeneration();
+  const [row] = await layoutWithCurrentQuery(s.db).execute({ layoutId, orgIds: actor.visibleOrgIds });
+  if (!row) throw notFound('Layout not found', 'layoutId');
+  if (s.mode === 'pglite' && generation === storeWriteGeneration()) {
+    if (keptLayouts.size >= KEPT_LAYOUTS_CAP) keptLayouts.delete(keptLayouts.keys().next().value!);
+    keptLayouts.set(layoutId, { db: s.db, generation, row: deepFreeze(row) });
+  }
+  return row;
+}
+
+/**
+ * The GET's query, built once per store (drizzle's prepared query: on a PostgreSQL server a named
+ * statement each connection plans once; on the embedded store it saves rebuilding the SQL).
+ */
+function buildLayoutWithCurrent(db: Db) {
+  return db
     .select({
       layout: layouts,
       machine: { id: machines.id, nickname: machines.nickname, familyId: machines.familyId },
@@ -99,10 +121,33 @@ export async function layoutWithCurrent(actor: Actor, layoutId: string) {
     .innerJoin(machines, eq(machines.id, layouts.machineId))
     .innerJoin(layoutVersions, and(eq(layoutVersions.layoutId, layouts.id), eq(layoutVersions.version, layouts.currentVersion)))
     .leftJoin(users, eq(users.id, layoutVersions.createdBy))
-    .where(and(eq(layouts.id, layoutId), inArray(layouts.orgId, actor.visibleOrgIds)))
-    .limit(1);
-  if (!row) throw notFound('Layout not found', 'layoutId');
-  return row;
+    .where(and(eq(layouts.id, sql.placeholder('layoutId')), sql`${layouts.orgId} = any(${sql.placeholder('orgIds')}::uuid[])`))
+    .limit(1)
+    .prepare('cw_layout_with_current');
+}
+export type LayoutWithCurrent = Awaited<ReturnType<ReturnType<typeof buildLayoutWithCurrent>['execute']>>[number];
+const preparedLayoutReads = new WeakMap<Db, ReturnType<typeof buildLayoutWithCurrent>>();
+function layoutWithCurrentQuery(db: Db) {
+  let q = preparedLayoutReads.get(db);
+  if (!q) preparedLayoutReads.set(db, (q = buildLayoutWithCurrent(db)));
+  return q;
+}
+
+/**
+ * Layouts read lately, kept with the embedded store only (one owner: every write passes through
+ * this process) and used only while the store has not been written since they were read
+ * (`storeWriteGeneration`, moved by every write statement and transaction). Reading a layout
+ * that nobody changes in between, the busiest request, then needs no query.
+ */
+const KEPT_LAYOUTS_CAP = 256;
+const keptLayouts = new Map<string, { db: Db; generation: number; row: LayoutWithCurrent }>();
+
+function deepFreeze<T>(value: T): T {
+  if (value && typeof value === 'object' && !Object.isFrozen(value)) {
+    Object.freeze(value);
+    for (const v of Object.values(value)) deepFreeze(v);
+  }
+  return value;
 }
 
 /** A layout with its current version and the machine it belongs to, in one query (a hot path). */
