@@ -91,6 +91,33 @@ describe('reading a layout', () => {
     expect((await owner.get(`/api/layouts/${doomed.body.layout.id}`)).status).toBe(404);
   });
 
+  it('a save answers with the whole new version and is audited with it; a stale one writes nothing', async () => {
+    const c = await signedIn('technician');
+    const { machineId, id, body } = await ownLayout(c, 'kept reads: audited save');
+    const before = Date.now();
+    const saved = await c.put(`/api/layouts/${id}`, { baseVersion: 1, body: { ...body, rotorRpm: body.rotorRpm + 3 }, note: 'audited' });
+    expect(saved.status).toBe(201);
+    const v = saved.body.version;
+    expect(Object.keys(v).sort()).toEqual(['body', 'createdAt', 'createdBy', 'id', 'layoutId', 'note', 'version']);
+    expect(v).toMatchObject({ layoutId: id, version: 2, note: 'audited' });
+    expect(v.body.rotorRpm).toBe(body.rotorRpm + 3);
+    expect(v.createdAt).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\d\.\d{3}Z$/);
+    expect(Date.parse(v.createdAt)).toBeGreaterThan(before - 60_000);
+    expect(v.createdBy).toMatch(/^[0-9a-f-]{36}$/);
+    const back = (await c.get(`/api/layouts/${id}`)).body.current;
+    expect(back.id).toBe(v.id);
+    expect(back.createdAt).toBe(v.createdAt);
+
+    const stale = await c.put(`/api/layouts/${id}`, { baseVersion: 1, body, note: 'stale' });
+    expect(stale.status).toBe(409);
+    expect(stale.body.error.currentVersion).toBe(2);
+    const activity = (await c.get(`/api/machines/${machineId}`)).body.activity as { action: string; entityId: string; detail: Record<string, unknown> }[];
+    const saves = activity.filter((a) => a.entityId === id && a.action === 'save');
+    expect(saves).toHaveLength(1);
+    expect(saves[0]!.detail).toEqual({ version: 2, from: 1 });
+    expect((await c.get(`/api/layouts/${id}/versions`)).body.versions.map((x: { version: number }) => x.version)).toEqual([2, 1]);
+  });
+
   it('parallel saves and reads: a read never shows a version older than one already acknowledged', async () => {
     const c = await signedIn('technician');
     const { id, body } = await ownLayout(c, 'kept reads: parallel');
