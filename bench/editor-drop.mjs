@@ -8,6 +8,10 @@
 // frame in which the finding is painted. Undo between rounds brings the layout back. Reports the
 // median and the maximum of BENCH_ROUNDS (≥ 10) drops at each rate.
 //
+// Work is counted too, as the load of a shared machine does not change it: the React components
+// rendered from the drop's keydown to the painted mark (a minimal stand-in for React's devtools
+// hook, installed before the page loads, counts the fibers that did work in each commit).
+//
 // The machines here are shared: wall time also counts time the browser waited for a core, so
 // the load average of the run is printed with each figure.
 import { mkdtempSync, rmSync } from 'node:fs';
@@ -34,6 +38,34 @@ const browser = await chromium.launch({
 });
 try {
   const page = await browser.newPage({ viewport: { width: 1440, height: 900 }, baseURL: server.base });
+  await page.addInitScript(() => {
+    const counter = (window.__cwRenders = { on: false, rendered: 0, commits: 0 });
+    const named = (f) => typeof f.type === 'function' || (f.type && typeof f.type === 'object');
+    // A fiber did work in this commit when it is new or carries React's PerformedWork flag (1);
+    // a subtree React bailed out of keeps its old child fibers and is not walked.
+    const walk = (f) => {
+      for (; f; f = f.sibling) {
+        const a = f.alternate;
+        if (named(f) && (!a || f.flags & 1)) counter.rendered++;
+        if (!a || a.child !== f.child) walk(f.child);
+      }
+    };
+    window.__REACT_DEVTOOLS_GLOBAL_HOOK__ = {
+      supportsFiber: true,
+      isDisabled: false,
+      renderers: new Map(),
+      inject: () => 1,
+      checkDCE() {},
+      onScheduleFiberRoot() {},
+      onPostCommitFiberRoot() {},
+      onCommitFiberUnmount() {},
+      onCommitFiberRoot(_id, root) {
+        if (!counter.on) return;
+        counter.commits++;
+        walk(root.current.child);
+      },
+    };
+  });
   await page.goto('/signin');
   await page.getByLabel('E-mail address').fill('olive@larkspur.example');
   await page.getByLabel('Password').fill(DEMO_PASSWORD);
@@ -59,6 +91,7 @@ try {
         if (!w.__armed || e.code !== 'Space') return;
         w.__armed = false;
         performance.mark('cw-drop-key', { startTime: e.timeStamp });
+        Object.assign(w.__cwRenders, { on: true, rendered: 0, commits: 0 });
         const list = document.querySelector('[data-testid="findings"]');
         const obs = new MutationObserver(() => {
           obs.disconnect();
@@ -66,9 +99,11 @@ try {
           requestAnimationFrame(() => {
             setTimeout(() => {
               const painted = performance.mark('cw-findings-painted');
+              const { rendered, commits } = w.__cwRenders;
+              w.__cwRenders.on = false;
               const a = performance.measure('cw drop → findings in the document', 'cw-drop-key', 'cw-findings-dom');
               const b = performance.measure('cw drop → findings painted', 'cw-drop-key', 'cw-findings-painted');
-              w.__drops.push({ dom: a.duration, painted: b.duration, domAt: dom.startTime, paintedAt: painted.startTime });
+              w.__drops.push({ dom: a.duration, painted: b.duration, domAt: dom.startTime, paintedAt: painted.startTime, rendered, commits });
             }, 0);
           });
         });
@@ -84,6 +119,8 @@ try {
     await cdp.send('Emulation.setCPUThrottlingRate', { rate });
     const dom = [];
     const painted = [];
+    const rendered = [];
+    const commits = [];
     for (let i = 0; i < ROUNDS; i++) {
       step(`rate ${rate} round ${i}`);
       await item.focus();
@@ -104,11 +141,13 @@ try {
       const d = await page.evaluate((n) => window.__drops[n], done - 1);
       dom.push(d.dom);
       painted.push(d.painted);
+      rendered.push(d.rendered);
+      commits.push(d.commits);
       await page.locator('[data-command="undo"]').click();
       await page.waitForFunction(() => !document.querySelector('[data-testid="findings"] [data-code="FIT_HAND_MISMATCH"]'));
     }
     await cdp.send('Emulation.setCPUThrottlingRate', { rate: 1 });
-    return { dom, painted };
+    return { dom, painted, rendered, commits };
   }
 
   const slow = await drops(4);
@@ -116,6 +155,7 @@ try {
   report(`drop → findings painted, median, CPU 4× slower ${note}`, round1(median(slow.painted)), '≤ 33 ms', true);
   report('drop → findings painted, max, CPU 4× slower', round1(Math.max(...slow.painted)), '(figure)', true);
   report('drop → findings in the document, median, CPU 4× slower', round1(median(slow.dom)), '(figure)', true);
+  report('components rendered, drop key → painted frame, median (React commits)', `${median(slow.rendered)} (${median(slow.commits)})`, '(count)', true, '');
   const fast = await drops(1);
   report(`drop → findings painted, median, unthrottled ${note}`, round1(median(fast.painted)), '≤ 16 ms', true);
   report('drop → findings painted, max, unthrottled', round1(Math.max(...fast.painted)), '(figure)', true);

@@ -9,6 +9,7 @@ import type { MachineFamily, Place } from '../../lib/domain/schemas';
 import { CageDiagram, type SlotAttrs, type SlotInfo } from '../cage/CageDiagram';
 import { diagramGeometry, slotBox } from '../cage/geometry';
 import { IRIS } from '../cage/palette';
+import { beforeNextPaint } from './after-paint';
 import { isPickUpKey, keepKeyForSensor, useCarry, useCarryUi } from './carry';
 import { accepts } from '../../lib/domain/layout-edits';
 import { partTitle } from './part-visuals';
@@ -76,7 +77,10 @@ const EditorSlot = memo(function EditorSlot({ info, attrs, canEdit, children }: 
     if (dir) {
       e.preventDefault();
       const s = store.getState();
-      const next = stepPlace(s.family, allPlaces(s.family), info.place, dir);
+      // From the selected slot: focus follows the selection a frame later, so a quick second
+      // arrow may still reach the slot it left.
+      const from = s.selectedPlace && s.selectedPlace.kind !== 'setting' ? s.selectedPlace : info.place;
+      const next = stepPlace(s.family, allPlaces(s.family), from, dir);
       if (next) s.select(next, { focus: true });
       return;
     }
@@ -189,19 +193,23 @@ export function DiagramPane() {
   const focusSeq = useEditor((s) => s.focusSeq);
   const box = useRef<HTMLDivElement>(null);
 
-  // Move keyboard focus to the selected place when asked (finding chosen, arrow keys).
+  // Move keyboard focus to the selected place when asked (finding chosen, arrow keys, a keyboard
+  // drop). Focusing and scrolling force style and layout: done in the next frame, just before
+  // its own style and layout, they are worked out once, not once here and again for the frame.
   useEffect(() => {
     if (focusSeq === 0) return;
-    const place = store.getState().selectedPlace;
-    if (!place) return;
-    const el =
-      place.kind === 'setting'
-        ? document.getElementById(`setting-${place.field}`)
-        : box.current?.querySelector<SVGGElement>(`[data-place="${placeKey(place)}"]`);
-    if (el) {
-      el.focus({ preventScroll: true });
-      el.scrollIntoView?.({ block: 'nearest', inline: 'nearest' });
-    }
+    return beforeNextPaint(() => {
+      const place = store.getState().selectedPlace;
+      if (!place) return;
+      const el =
+        place.kind === 'setting'
+          ? document.getElementById(`setting-${place.field}`)
+          : box.current?.querySelector<SVGGElement>(`[data-place="${placeKey(place)}"]`);
+      if (el) {
+        el.focus({ preventScroll: true });
+        el.scrollIntoView?.({ block: 'nearest', inline: 'nearest' });
+      }
+    });
   }, [focusSeq, store]);
 
   const renderSlot = useCallback(

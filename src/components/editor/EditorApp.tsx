@@ -22,6 +22,7 @@ import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { parsePlaceKey, placeKey } from '../../lib/domain/places';
 import type { Place } from '../../lib/domain/schemas';
 import { partName, partNameWithHand, placeLabel, placeWords } from '../../lib/domain/vocabulary';
+import { afterPaint } from './after-paint';
 import { CarryHandle, CarryProvider, createCarry, type CarryData } from './carry';
 import { ConflictDialog } from './ConflictDialog';
 import { DiagramPane } from './DiagramPane';
@@ -226,12 +227,12 @@ export function EditorApp() {
   };
 
   // dnd-kit asks before it ends a drag whether to cancel the drop, and waits for the answer.
-  // The drop is made right there, and the answer (never cancel) comes a task later: the part
-  // and its findings are committed first and may be painted before dnd-kit tidies its own
-  // state, which re-renders its context twice.
+  // The drop is made right there, and the answer (never cancel) comes after the next frame is
+  // painted: the part and its findings are painted first, and dnd-kit tidies its own state
+  // (which re-renders its context twice) after that frame, not before it.
   const cancelDrop = ({ activatorEvent }: { activatorEvent: Event | null }) => {
     drop(typeof KeyboardEvent !== 'undefined' && activatorEvent instanceof KeyboardEvent);
-    return new Promise<boolean>((resolve) => setTimeout(() => resolve(false), 0));
+    return new Promise<boolean>((resolve) => afterPaint(() => resolve(false)));
   };
 
   // The drop was made in cancelDrop; this only makes sure nothing is left marked as carried.

@@ -1,8 +1,12 @@
-/** The editor's own live region: what an edit did and what the rules now say. */
+/**
+ * The editor's own live region: what an edit did and what the rules now say. The words follow
+ * the frame that shows the edit (a screen reader reads them a moment later anyway).
+ */
+import { useAfterPaint } from './after-paint';
 import { useEditor } from './store/context';
 
 export function LiveRegion() {
-  const a = useEditor((s) => s.announcement);
+  const a = useAfterPaint(useEditor((s) => s.announcement));
   return (
     <div role="status" aria-live="polite" aria-atomic="true" className="sr-only" data-testid="editor-announcer" data-seq={a.seq}>
       {a.text}

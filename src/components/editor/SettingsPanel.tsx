@@ -4,7 +4,8 @@
  * point at (id "setting-<field>"). The fields read only the settings they show, so placing a part
  * in the drawing does not re-render them.
  */
-import { memo, useDeferredValue, useMemo } from 'react';
+import { memo, useMemo } from 'react';
+import { useAfterPaint } from './after-paint';
 import { computeSettings, drumFor } from '../../lib/domain/compute';
 import { cropIds, cropPrograms } from '../../lib/domain/crops';
 import { CLEARANCE_MAX_MM, CLEARANCE_MIN_MM, RPM_MAX, RPM_MIN, type SettingField } from '../../lib/domain/schemas';
@@ -234,12 +235,13 @@ function SettingsFields() {
 
 /**
  * Figures computed from the whole layout: open area, aggressiveness, capacity, parts. They follow
- * an edit a moment after the drawing and the findings (a deferred value), never before them.
+ * an edit one painted frame after the drawing and the findings (`useAfterPaint`), never before
+ * them: the frame that shows the edit does not wait for them.
  */
 function ComputedFacts() {
   const family = useEditor((s) => s.family);
   const catalog = useEditor((s) => s.catalog);
-  const layout = useDeferredValue(useEditor((s) => s.layout));
+  const layout = useAfterPaint(useEditor((s) => s.layout));
   const units = useEditor((s) => s.units);
   const c = useMemo(() => computeSettings(family, catalog, layout), [family, catalog, layout]);
   const pct = (x: number) => `${Math.round(x * 100)} %`;

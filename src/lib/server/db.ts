@@ -9,6 +9,9 @@ import { resolve } from 'node:path';
 import * as schema from '../../db/schema';
 import { lockDataDir } from './data-dir-lock';
 import { seedDemo } from './seed';
+import { countWrites } from './store-writes';
+
+export { storeWriteGeneration } from './store-writes';
 
 export type Db = PgliteDatabase<typeof schema>;
 
@@ -38,6 +41,7 @@ async function openStore(): Promise<Store> {
   const release = lockDataDir(dir);
   try {
     const client = await PGlite.create({ dataDir: dir });
+    countWrites(client);
     const db = drizzlePglite(client, { schema });
     await migratePglite(db, { migrationsFolder: MIGRATIONS });
     return {

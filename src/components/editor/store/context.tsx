@@ -4,6 +4,7 @@ import { useStore } from 'zustand';
 import type { TemporalState } from 'zundo';
 import { createEditorStore } from './create-editor-store';
 import type { EditorDeps, EditorInit, EditorState, EditorStoreApi, Tracked } from './types';
+import { afterPaint } from '../after-paint';
 
 const EditorStoreContext = createContext<EditorStoreApi | null>(null);
 
@@ -25,8 +26,8 @@ export function useEditor<T>(selector: (s: EditorState) => T): T {
 
 /**
  * A selector for what may follow an edit a moment later (toolbar state, the details line, a
- * setting's own findings): it re-renders in a transition after the edit's own commit, so a drop
- * shows its part and findings first. Reads the undo history too. Primitive or stable results
+ * setting's own findings): it re-renders in a transition after the frame showing the edit has
+ * been painted (`afterPaint`), so a drop shows its part and findings first. Reads the undo history too. Primitive or stable results
  * only (compared with Object.is).
  */
 export function useEditorLazy<T>(selector: (s: EditorState, h: TemporalState<Tracked>) => T): T {
@@ -36,17 +37,23 @@ export function useEditorLazy<T>(selector: (s: EditorState, h: TemporalState<Tra
   latest.current = { selector, value };
   useEffect(() => {
     let last = latest.current.value;
+    let pending: (() => void) | null = null;
     const check = () => {
       const v = latest.current.selector(store.getState(), store.temporal.getState());
       if (Object.is(v, last)) return;
       last = v;
-      startTransition(() => setValue(v));
+      // After the frame that shows the edit is painted (a transition alone may render before it).
+      pending ??= afterPaint(() => {
+        pending = null;
+        startTransition(() => setValue(last));
+      });
     };
     check(); // a change between render and subscription
     const offState = store.subscribe(check);
     // The history is written after the state; a step's undo button follows it.
     const offHistory = store.temporal.subscribe(check);
     return () => {
+      pending?.();
       offState();
       offHistory();
     };

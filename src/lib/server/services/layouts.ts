@@ -1,6 +1,6 @@
 import { and, count, desc, eq, inArray, lt, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb } from '../db';
+import { getDb, store, storeWriteGeneration, type Db } from '../db';
 import { families, layouts, layoutVersions, machines, organisations, users } from '../../../db/schema';
 import { cropIdSchema, layoutSchema, type Layout } from '../../domain/schemas';
 import { starterLayout } from '../../domain/starter';
@@ -72,14 +72,36 @@ export async function versionOf(layoutId: string, version: number): Promise<Vers
   return v;
 }
 
-/** A layout with its current version and the machine it belongs to. */
 /**
  * What the API's GET of a layout answers: the layout, its current version and the machine's
- * name. One query without the family document: this is the busiest read of the app.
+ * name. One prepared query without the family document: this is the busiest read of the app;
+ * with the embedded store a layout read again before anything is written comes from memory
+ * (`keptLayouts` below), checked against the actor's organisations like the query.
  */
-export async function layoutWithCurrent(actor: Actor, layoutId: string) {
-  const db = await getDb();
-  const [row] = await db
+export async function layoutWithCurrent(actor: Actor, layoutId: string): Promise<LayoutWithCurrent> {
+  const s = await store();
+  const kept = s.mode === 'pglite' ? keptLayouts.get(layoutId) : undefined;
+  if (kept && kept.db === s.db && kept.generation === storeWriteGeneration()) {
+    // The same rule as the query's: the layout's organisation is one the actor sees.
+    if (!actor.visibleOrgIds.includes(kept.row.layout.orgId)) throw notFound('Layout not found', 'layoutId');
+    return kept.row;
+  }
+  const generation = storeWriteGeneration();
+  const [row] = await layoutWithCurrentQuery(s.db).execute({ layoutId, orgIds: actor.visibleOrgIds });
+  if (!row) throw notFound('Layout not found', 'layoutId');
+  if (s.mode === 'pglite' && generation === storeWriteGeneration()) {
+    if (keptLayouts.size >= KEPT_LAYOUTS_CAP) keptLayouts.delete(keptLayouts.keys().next().value!);
+    keptLayouts.set(layoutId, { db: s.db, generation, row: deepFreeze(row) });
+  }
+  return row;
+}
+
+/**
+ * The GET's query, built once per store (drizzle's prepared query: on a PostgreSQL server a named
+ * statement each connection plans once; on the embedded store it saves rebuilding the SQL).
+ */
+function buildLayoutWithCurrent(db: Db) {
+  return db
     .select({
       layout: layouts,
       machine: { id: machines.id, nickname: machines.nickname, familyId: machines.familyId },
@@ -89,10 +111,33 @@ export async function layoutWithCurrent(actor: Actor, layoutId: string) {
     .innerJoin(machines, eq(machines.id, layouts.machineId))
     .innerJoin(layoutVersions, and(eq(layoutVersions.layoutId, layouts.id), eq(layoutVersions.version, layouts.currentVersion)))
     .leftJoin(users, eq(users.id, layoutVersions.createdBy))
-    .where(and(eq(layouts.id, layoutId), inArray(layouts.orgId, actor.visibleOrgIds)))
-    .limit(1);
-  if (!row) throw notFound('Layout not found', 'layoutId');
-  return row;
+    .where(and(eq(layouts.id, sql.placeholder('layoutId')), sql`${layouts.orgId} = any(${sql.placeholder('orgIds')}::uuid[])`))
+    .limit(1)
+    .prepare('cw_layout_with_current');
+}
+export type LayoutWithCurrent = Awaited<ReturnType<ReturnType<typeof buildLayoutWithCurrent>['execute']>>[number];
+const preparedLayoutReads = new WeakMap<Db, ReturnType<typeof buildLayoutWithCurrent>>();
+function layoutWithCurrentQuery(db: Db) {
+  let q = preparedLayoutReads.get(db);
+  if (!q) preparedLayoutReads.set(db, (q = buildLayoutWithCurrent(db)));
+  return q;
+}
+
+/**
+ * Layouts read lately, kept with the embedded store only (one owner: every write passes through
+ * this process) and used only while the store has not been written since they were read
+ * (`storeWriteGeneration`, moved by every write statement and transaction). Reading a layout
+ * that nobody changes in between, the busiest request, then needs no query.
+ */
+const KEPT_LAYOUTS_CAP = 256;
+const keptLayouts = new Map<string, { db: Db; generation: number; row: LayoutWithCurrent }>();
+
+function deepFreeze<T>(value: T): T {
+  if (value && typeof value === 'object' && !Object.isFrozen(value)) {
+    Object.freeze(value);
+    for (const v of Object.values(value)) deepFreeze(v);
+  }
+  return value;
 }
 
 /** A layout with its current version and the machine it belongs to, in one query (a hot path). */
@@ -283,7 +328,12 @@ export async function saveVersion(actor: Actor, layoutId: string, input: z.infer
   return appendVersion(actor, row, input, 'save', {});
 }
 
-/** The guarded write shared by a save and a restore; `action` and `detail` go to the audit log. */
+/**
+ * The guarded write shared by a save and a restore; `action` and `detail` go to the audit log.
+ * One statement: moving the layout's current version (only from `baseVersion`), the new version
+ * and its audit row are written together or not at all, in one round trip to the store instead
+ * of five (BEGIN, three writes, COMMIT). The audit row is the one `audit()` writes.
+ */
 async function appendVersion(
   actor: Actor,
   row: LayoutRow,
@@ -293,20 +343,33 @@ async function appendVersion(
 ) {
   const db = await getDb();
   const next = input.baseVersion + 1;
-  const result = await db.transaction(async (tx) => {
-    const moved = await tx
-      .update(layouts)
-      .set({ currentVersion: next, updatedAt: sql`now()` })
-      .where(and(eq(layouts.id, row.id), eq(layouts.currentVersion, input.baseVersion)))
-      .returning({ id: layouts.id });
-    if (moved.length === 0) return null;
-    const [v] = await tx
-      .insert(layoutVersions)
-      .values({ layoutId: row.id, version: next, body: input.body, note: input.note, createdBy: actor.id })
-      .returning();
-    await audit(tx, actor, action, 'layout', row.id, { version: next, from: input.baseVersion, ...detail }, row.orgId);
-    return v!;
-  });
+  const auditDetail = { version: next, from: input.baseVersion, ...detail };
+  const written = await db.execute(sql`
+    with moved as (
+      update layouts set current_version = ${next}, updated_at = now()
+      where id = ${row.id} and current_version = ${input.baseVersion}
+      returning id, org_id
+    ), added as (
+      insert into layout_versions (layout_id, version, body, note, created_by)
+      select id, ${next}, ${JSON.stringify(input.body)}::jsonb, ${input.note}, ${actor.id}::uuid from moved
+      returning id, layout_id, version, body, note, created_by, created_at
+    ), audited as (
+      insert into audit_log (user_id, org_id, action, entity, entity_id, detail)
+      select ${actor.id}::uuid, ${row.orgId}::uuid, ${action}, 'layout', id::text, ${JSON.stringify(auditDetail)}::jsonb from moved
+    )
+    select id, layout_id, version, body, note, created_by, created_at from added`);
+  const [v] = written.rows as { id: string; layout_id: string; version: number; body: Layout | string; note: string; created_by: string | null; created_at: string | Date }[];
+  const result = v
+    ? {
+        id: v.id,
+        layoutId: v.layout_id,
+        version: Number(v.version),
+        body: (typeof v.body === 'string' ? JSON.parse(v.body) : v.body) as Layout,
+        note: v.note,
+        createdBy: v.created_by,
+        createdAt: new Date(v.created_at),
+      }
+    : null;
   if (!result) {
     const [fresh] = await db.select().from(layouts).where(eq(layouts.id, row.id)).limit(1);
     const newer = await versionOf(row.id, fresh!.currentVersion);
