@@ -4,7 +4,7 @@
  * the script.
  */
 import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
-import { useMemo, useState } from 'react';
+import { useCallback, useMemo, useState } from 'react';
 import type { UnitSystem } from '../../lib/domain/units';
 import { SortableHead } from '../shared/SortableHead';
 
@@ -37,8 +37,8 @@ const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { day: 'nume
 export default function SeasonTable({ rows, units }: { rows: SeasonRow[]; units: UnitSystem }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: 'checkedAt', desc: false }]);
   const imperial = units === 'imperial';
-  const len = (mm: number | null) => (mm === null ? '—' : imperial ? `${(mm / 25.4).toFixed(2)} in` : `${mm.toFixed(1)} mm`);
-  const rate = (bu: number, kg: number) => (imperial ? `${bu.toFixed(2)} bu/ac` : `${kg.toFixed(0)} kg/ha`);
+  const len = useCallback((mm: number | null) => (mm === null ? '—' : imperial ? `${(mm / 25.4).toFixed(2)} in` : `${mm.toFixed(1)} mm`), [imperial]);
+  const rate = useCallback((bu: number, kg: number) => (imperial ? `${bu.toFixed(2)} bu/ac` : `${kg.toFixed(0)} kg/ha`), [imperial]);
   const columns = useMemo(
     () => [
       col.accessor('checkedAt', { header: 'When (UTC)', cell: (c) => when(c.getValue()) }),
@@ -67,7 +67,7 @@ export default function SeasonTable({ rows, units }: { rows: SeasonRow[]; units:
       col.accessor('layoutVersion', { header: 'Layout version', cell: (c) => (c.getValue() === null ? '—' : `v${c.getValue()}`) }),
       col.accessor('basis', { header: 'Basis', enableSorting: false }),
     ],
-    [units],
+    [len, rate],
   );
   const table = useReactTable({
     data: rows,

@@ -15,7 +15,7 @@ export class ApiError extends Error {
 /** The body of an answer, or ApiError for a status that is not 2xx. */
 export async function answer<T>(res: Response): Promise<T> {
   const text = await res.text();
-  let data: any = null;
+  let data: { error?: { message?: string; field?: string } } | null = null;
   try {
     data = text ? JSON.parse(text) : null;
   } catch {
