@@ -73,6 +73,25 @@ export default tseslint.config(
       // "Photo 1 of …" tells a photo of the part from the drawings of it; a screen reader says "image" for both.
       'jsx-a11y/img-redundant-alt': 'off',
       'astro/jsx-a11y/img-redundant-alt': 'off',
+      // In .astro a label's words may sit inside a fragment (Prettier keeps one where no space was written).
+      'astro/jsx-a11y/label-has-associated-control': ['error', { depth: 3 }],
+    },
+  },
+  {
+    // Imports into src/ from another folder use the ~ alias (scripts/dev/to-alias-imports.mjs rewrites old ones).
+    // In src/ only a climb out of src/ (scripts/lib, the root auth.config) stays relative.
+    files: ['src/**/*.{ts,tsx,astro}'],
+    rules: {
+      'no-restricted-imports': [
+        'error',
+        { patterns: [{ regex: '^(\\.\\./)+(?!\\.\\./|scripts/|auth\\.config)', message: 'Import from src/ as ~/… (the alias), not ../' }] },
+      ],
+    },
+  },
+  {
+    files: ['tests/**', 'e2e/**', 'bench/**/*.ts'],
+    rules: {
+      'no-restricted-imports': ['error', { patterns: [{ regex: '^(\\.\\./)+src/', message: 'Import from src/ as ~/… (the alias)' }] }],
     },
   },
   {
