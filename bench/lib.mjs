@@ -35,7 +35,9 @@ export async function startServer({ dataDir, outDir = process.env.CAGEWRIGHT_OUT
     try {
       const res = await fetch(`${base}/api/health`);
       if (res.status === 200) firstOk = performance.now() - t0;
-    } catch {}
+    } catch {
+      // not listening yet: try again
+    }
     if (firstOk === null) await new Promise((r) => setTimeout(r, 20));
     if (child.exitCode !== null) throw new Error(`server exited:\n${out}`);
   }

@@ -44,10 +44,10 @@ for (const who of WHO) {
         problems.push(`${route} at 390 px: ${p}`);
         console.log(`[${who}] ${route} at 390 px: ${p}`);
       }
-      if (who === 'technician') await shot(page, `page-390${route.replace(/[\/\[\]]+/g, '-')}`, false);
+      if (who === 'technician') await shot(page, `page-390${route.replace(/[/[\]]+/g, '-')}`, false);
       await page.setViewportSize({ width: 1440, height: 900 });
       for (const p of await axeProblems(page)) problems.push(`${route} at 1440 px: ${p}`);
-      if (who === 'technician') await shot(page, `page-1440${route.replace(/[\/\[\]]+/g, '-')}`, false);
+      if (who === 'technician') await shot(page, `page-1440${route.replace(/[/[\]]+/g, '-')}`, false);
     }
     for (const p of problems) console.log(`[${who}] ${p}`);
     expect(problems).toEqual([]);

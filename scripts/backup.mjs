@@ -46,7 +46,9 @@ let owner = null;
 if (existsSync(ownerFile)) {
   try {
     owner = JSON.parse(readFileSync(ownerFile, 'utf8'));
-  } catch {}
+  } catch {
+    // half-written or unreadable: treated as no owner named
+  }
 }
 
 // The same rule as the server's (src/lib/server/data-dir-lock.ts): an owner is gone only when it

@@ -50,7 +50,9 @@ for (const b of selected) {
         rows.push({ bench: b.name, load: loadavg()[0].toFixed(1), ...row });
         found++;
       }
-    } catch {}
+    } catch {
+      // a line that is not a figure (the bench's own output)
+    }
   }
   if (r.status !== 0 || found === 0) rows.push({ bench: b.name, figure: `(exit ${r.status})`, value: '—', unit: '', budget: '', ok: false });
 }

@@ -66,7 +66,9 @@ try {
       let owner = null;
       try {
         owner = JSON.parse(readFileSync(ownerFile, 'utf8'));
-      } catch {}
+      } catch {
+        // unreadable: the message says only that the owner file is present
+      }
       throw new Error(`the data directory is in use (${owner ? `pid ${owner.pid} on ${owner.host}` : 'owner file present'}): stop the server first`);
     }
     if (!existsSync(join(dataDir, 'PG_VERSION'))) throw new Error(`${dataDir} holds no store yet: start the server once first`);

@@ -1,5 +1,5 @@
 #!/usr/bin/env node
-// `npm test`: type check, build once, then unit + integration tests (vitest) against that build, then the
+// `npm test`: lint (ESLint, Prettier's check), type check, build once, then unit + integration tests (vitest) against that build, then the
 // browser tests (Playwright on Debian chromium). With CAGEWRIGHT_PG_URL set (CI does), the
 // integration suite runs a second time against that PostgreSQL server.
 import { spawnSync } from 'node:child_process';
@@ -18,6 +18,7 @@ function run(title, cmd, args, extraEnv = {}) {
 }
 
 if (!ensureChromium()) process.exit(1);
+run('lint (ESLint, Prettier)', 'npm', ['run', '--silent', 'lint']);
 run('type check (astro check)', 'npx', ['astro', 'check']);
 run('build', 'npx', ['astro', 'build']);
 run('unit and integration tests (embedded PGlite)', 'npx', ['vitest', 'run']);

@@ -29,7 +29,7 @@ export async function withoutSecrets(gzippedTar) {
     stream.pipe(pack.entry(header, next));
   });
   extract.on('finish', () => pack.finalize());
-  const out = pipeline(pack, createGzip(), async function* (source) {
+  const out = pipeline(pack, createGzip(), async function (source) {
     for await (const c of source) chunks.push(c);
   });
   await pipeline(Readable.from([gzippedTar]), createGunzip(), extract);

@@ -149,7 +149,8 @@ function DropHighlights({ family }: { family: MachineFamily }) {
   const geo = useMemo(() => diagramGeometry(family, GEOMETRY_OPTIONS), [family]);
   // A part chosen with a tap shows its slots the same way as one carried.
   const carrying = carried ?? (armed ? { part: armed, from: undefined } : null);
-  const targets = useMemo(() => (carrying ? slotsFor(family, carrying.part) : []), [family, carrying?.part]);
+  const carryingPart = carrying?.part;
+  const targets = useMemo(() => (carryingPart ? slotsFor(family, carryingPart) : []), [family, carryingPart]);
   if (!carrying) return null;
   const hoverKey = hover ? placeKey(hover) : null;
   const from = carrying.from ? slotBox(family, geo, carrying.from) : null;

@@ -205,6 +205,8 @@ const PaletteContents = memo(function PaletteContents() {
       <p id={PALETTE_KEYS_ID} className="sr-only">
         Up and Down arrows move through the parts; Home and End go to the first and last.
       </p>
+      {/* The options take focus themselves (one tab stop, arrows move it); the list only hears their events. */}
+      {/* eslint-disable-next-line jsx-a11y/interactive-supports-focus */}
       <div
         role="listbox"
         aria-labelledby="palette-h"
@@ -307,6 +309,8 @@ export function Palette() {
       >
         {armed ? `Parts · ${partTitle(armed)}` : 'Parts'}
       </button>
+      {/* Escape closes the sheet from whichever of its controls has focus (a delegated handler). */}
+      {/* eslint-disable-next-line jsx-a11y/no-noninteractive-element-interactions */}
       <section
         ref={sheet}
         id="palette"

@@ -4,7 +4,7 @@
  * the script.
  */
 import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
-import { useMemo, useState } from 'react';
+import { useCallback, useMemo, useState } from 'react';
 import type { UnitSystem } from '../../lib/domain/units';
 import { SortableHead } from '../shared/SortableHead';
 import { formatDateTime } from '../../lib/domain/format';
@@ -40,8 +40,8 @@ const when = (iso: string) => formatDateTime(iso, { year: false, timeZone: 'UTC'
 export default function SeasonTable({ rows, units }: { rows: SeasonRow[]; units: UnitSystem }) {
   const [sorting, setSorting] = useState<SortingState>([{ id: 'checkedAt', desc: false }]);
   const imperial = units === 'imperial';
-  const len = (v: number | null) => (v === null ? '—' : formatLength(mm(v), units, imperial ? 2 : 1));
-  const rate = (bu: number, kg: number) => (imperial ? `${formatNumber(bu, { digits: 2 })} bu/ac` : `${formatNumber(kg)} kg/ha`);
+  const len = useCallback((v: number | null) => (v === null ? '—' : formatLength(mm(v), units, imperial ? 2 : 1)), [units, imperial]);
+  const rate = useCallback((bu: number, kg: number) => (imperial ? `${formatNumber(bu, { digits: 2 })} bu/ac` : `${formatNumber(kg)} kg/ha`), [imperial]);
   const columns = useMemo(
     () => [
       col.accessor('checkedAt', { header: 'When (UTC)', cell: (c) => when(c.getValue()) }),
@@ -70,7 +70,7 @@ export default function SeasonTable({ rows, units }: { rows: SeasonRow[]; units:
       col.accessor('layoutVersion', { header: 'Layout version', cell: (c) => (c.getValue() === null ? '—' : `v${c.getValue()}`) }),
       col.accessor('basis', { header: 'Basis', enableSorting: false }),
     ],
-    [units],
+    [len, rate],
   );
   const table = useReactTable({
     data: rows,

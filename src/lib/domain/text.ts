@@ -6,6 +6,7 @@ import { z } from 'zod';
  * at all: it would be stored as U+FFFD, silently changing what was typed. Both are refused
  * wherever text comes in (JSON bodies, query and path parameters, forms), with the field named.
  */
+// eslint-disable-next-line no-control-regex -- finding NUL is the point
 const UNSTORABLE = /\u0000|[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/;
 
 export const UNSTORABLE_MESSAGE = 'contains a character that cannot be stored (a NUL character or half of a surrogate pair)';
@@ -20,6 +21,7 @@ export const storableString = (params?: Parameters<typeof z.string>[0]) =>
   z.string(params).refine(isStorableText, { error: UNSTORABLE_MESSAGE, abort: true });
 
 /** The same characters shown harmlessly (for naming a bad key in an error message). */
+// eslint-disable-next-line no-control-regex -- NUL is what gets shown as \0
 export const visibleText = (s: string) => s.replace(/\u0000/g, '\\0').replace(/[\uD800-\uDFFF]/g, '\uFFFD');
 
 /**

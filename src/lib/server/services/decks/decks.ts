@@ -1,5 +1,5 @@
 /** Decks: list, read, create, rename, delete. */
-import { and, asc, count, desc, eq, inArray, sql } from 'drizzle-orm';
+import { asc, count, desc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../../db';
 import { deckSlides, decks, users } from '../../../../db/schema';

@@ -1,5 +1,5 @@
 /** Who may use decks, what a deck and a slide look like, and loading them for an actor. */
-import { and, asc, eq, inArray, or } from 'drizzle-orm';
+import { and, asc, eq, inArray } from 'drizzle-orm';
 import { getDb, type Db } from '../../db';
 import { deckSlides, decks, layouts, layoutVersions, machines, organisations, users } from '../../../../db/schema';
 import type { Layout } from '../../../domain/schemas';

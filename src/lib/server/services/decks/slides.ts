@@ -1,5 +1,5 @@
 /** Slides: add (a saved layout version, a sample layout or a starter), change, remove, reorder. */
-import { and, count, eq, inArray, max, or, sql } from 'drizzle-orm';
+import { and, count, eq, inArray, max, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb } from '../../db';
 import { deckSlides, decks, layouts, layoutVersions } from '../../../../db/schema';
