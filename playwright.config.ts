@@ -6,7 +6,15 @@ const baseURL = `http://127.0.0.1:${port}`;
 // Debian's Chromium, never a downloaded browser. The flags keep it off the (closed) network.
 export const chromiumLaunch = {
   executablePath: process.env.CAGEWRIGHT_CHROMIUM ?? '/usr/bin/chromium',
-  args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+  args: [
+    '--no-sandbox',
+    '--disable-gpu',
+    '--disable-quic',
+    '--disable-background-networking',
+    '--disable-component-update',
+    '--disable-sync',
+    '--no-first-run',
+  ],
 };
 
 export default defineConfig({

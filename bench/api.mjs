@@ -123,7 +123,13 @@ if (process.env.BENCH_WORKERS !== '0') {
           const f = await fixture(s);
           const r = summary(await cannon({ url: `${s.base}/api/layouts/${f.layoutId}`, headers: f.headers, connections: 10, duration }));
           rps[workers] = r.rps;
-          report(`PostgreSQL, ${workers} worker${workers > 1 ? 's' : ''}: GET /api/layouts/:id, 10 connections`, r.rps, '(reference)', r.errors === 0, 'req/s');
+          report(
+            `PostgreSQL, ${workers} worker${workers > 1 ? 's' : ''}: GET /api/layouts/:id, 10 connections`,
+            r.rps,
+            '(reference)',
+            r.errors === 0,
+            'req/s',
+          );
           report(`PostgreSQL, ${workers} worker${workers > 1 ? 's' : ''}: p95`, r.p95, '(reference)', r.errors === 0, 'ms');
         } finally {
           await s.stop();

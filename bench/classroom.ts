@@ -4,13 +4,13 @@
  * JSON line per figure for scripts/bench.mjs. Figures, not tests.
  *   npx tsx bench/classroom.ts
  */
-import { compareLayouts } from '../src/lib/classroom/compare';
-import { cropPathModel, kernelFate, seeded } from '../src/lib/classroom/crop-path';
-import { cropIds } from '../src/lib/domain/crops';
-import { demoCatalog, demoFamilies } from '../src/lib/domain/demo-catalog';
-import { starterLayout } from '../src/lib/domain/starter';
-import { indexCatalog } from '../src/lib/domain/catalog';
-import { renderNotes } from '../src/lib/server/markdown';
+import { compareLayouts } from '~/lib/classroom/compare';
+import { cropPathModel, kernelFate, seeded } from '~/lib/classroom/crop-path';
+import { cropIds } from '~/lib/domain/crops';
+import { demoCatalog, demoFamilies } from '~/lib/domain/demo-catalog';
+import { starterLayout } from '~/lib/domain/starter';
+import { indexCatalog } from '~/lib/domain/catalog';
+import { renderNotes } from '~/lib/server/markdown';
 
 function median(xs: number[]) {
   const s = [...xs].sort((a, b) => a - b);
@@ -47,7 +47,13 @@ const notes = [
 
 const rows: { figure: string; value: number; unit: string; budget: string; ok: boolean }[] = [];
 const md = measure(`renderNotes (${notes.length} characters)`, 5000, () => renderNotes(notes));
-rows.push({ figure: 'talking points to safe HTML, median per slide', value: Number(md.toFixed(1)), unit: 'µs', budget: '≤ 1000 µs', ok: md <= 1000 });
+rows.push({
+  figure: 'talking points to safe HTML, median per slide',
+  value: Number(md.toFixed(1)),
+  unit: 'µs',
+  budget: '≤ 1000 µs',
+  ok: md <= 1000,
+});
 
 const cp = measure('cropPathModel', 5000, (i) => {
   const c = layouts[i % layouts.length]!;
@@ -65,8 +71,17 @@ rows.push({ figure: 'kernel fates for 36 kernels', value: Number(kf.toFixed(1)),
 const cmp = measure('compareLayouts', 2000, (i) => {
   const a = layouts[i % layouts.length]!;
   const b = layouts[(i * 7 + 3) % layouts.length]!;
-  compareLayouts({ family: a.family, catalog: demoCatalog, layout: a.layout }, { family: b.family, catalog: demoCatalog, layout: b.layout });
+  compareLayouts(
+    { family: a.family, catalog: demoCatalog, layout: a.layout },
+    { family: b.family, catalog: demoCatalog, layout: b.layout },
+  );
 });
-rows.push({ figure: 'side-by-side comparison, median per pair', value: Number(cmp.toFixed(1)), unit: 'µs', budget: '≤ 5000 µs', ok: cmp <= 5000 });
+rows.push({
+  figure: 'side-by-side comparison, median per pair',
+  value: Number(cmp.toFixed(1)),
+  unit: 'µs',
+  budget: '≤ 5000 µs',
+  ok: cmp <= 5000,
+});
 
 for (const r of rows) console.log(JSON.stringify({ bench: 'classroom', ...r }));

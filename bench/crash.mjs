@@ -9,8 +9,7 @@ import { signIn, startServer } from './lib.mjs';
 
 const WRITERS = Number(process.env.BENCH_WRITERS ?? 16);
 const LOAD_MS = Number(process.env.BENCH_LOAD_MS ?? 4000);
-const report = (figure, value, budget, ok, unit = '') =>
-  console.log(JSON.stringify({ bench: 'crash', figure, value, unit, budget, ok }));
+const report = (figure, value, budget, ok, unit = '') => console.log(JSON.stringify({ bench: 'crash', figure, value, unit, budget, ok }));
 
 const dir = mkdtempSync(join(tmpdir(), 'cagewright-bench-crash-'));
 try {
@@ -29,7 +28,11 @@ try {
     while (running) {
       const note = `crash ${w}-${n++}`;
       try {
-        const res = await fetch(`${s.base}/api/machines/${machineId}/layouts`, { method: 'POST', headers, body: JSON.stringify({ name: note, body, note }) });
+        const res = await fetch(`${s.base}/api/machines/${machineId}/layouts`, {
+          method: 'POST',
+          headers,
+          body: JSON.stringify({ name: note, body, note }),
+        });
         if (res.status === 201) acked.push({ id: (await res.json()).layout.id, note });
       } catch {
         return;

@@ -21,7 +21,7 @@ import {
   vaneSettingSchema,
   type Layout,
   type MachineFamily,
-} from '../src/lib/domain/index';
+} from '~/lib/domain/index';
 
 const count = Number(process.argv[2] ?? 10_000);
 
@@ -118,7 +118,9 @@ console.log(`${cases.length} generated layouts, ${(findingsTotal / cases.length)
 const { med, p99 } = measure('checkLayout (indexed catalog)', (c) => checkLayout(c.family, index, c.layout));
 measure('checkLayout (catalog array, indexed per call)', (c) => checkLayout(c.family, demoCatalog, c.layout));
 measure('computeSettings (indexed catalog)', (c) => computeSettings(c.family, index, c.layout));
-console.log(`median per layout: ${med.toFixed(2)} µs (target ≤ 50 µs) ${med <= 50 ? 'OK' : 'OVER'}; p99 ${p99.toFixed(2)} µs over ${cases.length} random valid layouts`);
+console.log(
+  `median per layout: ${med.toFixed(2)} µs (target ≤ 50 µs) ${med <= 50 ? 'OK' : 'OVER'}; p99 ${p99.toFixed(2)} µs over ${cases.length} random valid layouts`,
+);
 // One JSON line for scripts/bench.mjs to tabulate.
 console.log(
   JSON.stringify({

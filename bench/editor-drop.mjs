@@ -34,7 +34,15 @@ const dir = mkdtempSync(join(tmpdir(), 'cagewright-bench-drop-'));
 const server = await startServer({ dataDir: dir });
 const browser = await chromium.launch({
   executablePath: process.env.CAGEWRIGHT_CHROMIUM ?? '/usr/bin/chromium',
-  args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+  args: [
+    '--no-sandbox',
+    '--disable-gpu',
+    '--disable-quic',
+    '--disable-background-networking',
+    '--disable-component-update',
+    '--disable-sync',
+    '--no-first-run',
+  ],
 });
 try {
   const page = await browser.newPage({ viewport: { width: 1440, height: 900 }, baseURL: server.base });
@@ -103,7 +111,14 @@ try {
               w.__cwRenders.on = false;
               const a = performance.measure('cw drop → findings in the document', 'cw-drop-key', 'cw-findings-dom');
               const b = performance.measure('cw drop → findings painted', 'cw-drop-key', 'cw-findings-painted');
-              w.__drops.push({ dom: a.duration, painted: b.duration, domAt: dom.startTime, paintedAt: painted.startTime, rendered, commits });
+              w.__drops.push({
+                dom: a.duration,
+                painted: b.duration,
+                domAt: dom.startTime,
+                paintedAt: painted.startTime,
+                rendered,
+                commits,
+              });
             }, 0);
           });
         });
@@ -128,16 +143,25 @@ try {
       await page.waitForFunction(() => /Picked up/.test(document.querySelector('[id^="DndLiveRegion"]')?.textContent ?? ''));
       await page.waitForTimeout(100); // the sensor starts listening for keys on the next task
       // Each step waits for its announcement (the sensor listens for keys a moment after pick-up).
-      for (const [k, where] of [['ArrowRight', 'left, position 1'], ['ArrowRight', 'left, position 2'], ['ArrowRight', 'left, position 3'], ['ArrowDown', 'right, position 3']]) {
+      for (const [k, where] of [
+        ['ArrowRight', 'left, position 1'],
+        ['ArrowRight', 'left, position 2'],
+        ['ArrowRight', 'left, position 3'],
+        ['ArrowDown', 'right, position 3'],
+      ]) {
         await page.keyboard.press(k);
-        await page.waitForFunction((w) => (document.querySelector('[id^="DndLiveRegion"]')?.textContent ?? '').includes(`Over ${w},`), where);
+        await page.waitForFunction(
+          (w) => (document.querySelector('[id^="DndLiveRegion"]')?.textContent ?? '').includes(`Over ${w},`),
+          where,
+        );
       }
       await page.waitForTimeout(150); // let the carry settle, so only the drop is measured
       await page.evaluate(() => (window.__armed = true));
       await page.keyboard.press('Space');
       done++;
       await page.waitForFunction((n) => window.__drops.length === n, done);
-      if ((await page.locator('[data-testid="findings"] [data-code="FIT_HAND_MISMATCH"]').count()) !== 1) throw new Error('the hand finding did not show after the drop');
+      if ((await page.locator('[data-testid="findings"] [data-code="FIT_HAND_MISMATCH"]').count()) !== 1)
+        throw new Error('the hand finding did not show after the drop');
       const d = await page.evaluate((n) => window.__drops[n], done - 1);
       dom.push(d.dom);
       painted.push(d.painted);
@@ -155,7 +179,13 @@ try {
   report(`drop → findings painted, median, CPU 4× slower ${note}`, round1(median(slow.painted)), '≤ 33 ms', true);
   report('drop → findings painted, max, CPU 4× slower', round1(Math.max(...slow.painted)), '(figure)', true);
   report('drop → findings in the document, median, CPU 4× slower', round1(median(slow.dom)), '(figure)', true);
-  report('components rendered, drop key → painted frame, median (React commits)', `${median(slow.rendered)} (${median(slow.commits)})`, '(count)', true, '');
+  report(
+    'components rendered, drop key → painted frame, median (React commits)',
+    `${median(slow.rendered)} (${median(slow.commits)})`,
+    '(count)',
+    true,
+    '',
+  );
   const fast = await drops(1);
   report(`drop → findings painted, median, unthrottled ${note}`, round1(median(fast.painted)), '≤ 16 ms', true);
   report('drop → findings painted, max, unthrottled', round1(Math.max(...fast.painted)), '(figure)', true);

@@ -18,7 +18,15 @@ const dir = mkdtempSync(join(tmpdir(), 'cagewright-bench-js-'));
 const s = await startServer({ dataDir: dir });
 const browser = await chromium.launch({
   executablePath: process.env.CAGEWRIGHT_CHROMIUM ?? '/usr/bin/chromium',
-  args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+  args: [
+    '--no-sandbox',
+    '--disable-gpu',
+    '--disable-quic',
+    '--disable-background-networking',
+    '--disable-component-update',
+    '--disable-sync',
+    '--no-first-run',
+  ],
 });
 
 /** Opens `path` in a fresh context (empty cache) as `email` and sums the script bytes received. */
@@ -36,7 +44,12 @@ async function scriptBytes(email, path) {
   await cdp.send('Network.enable');
   const scripts = new Map();
   cdp.on('Network.responseReceived', (e) => {
-    if (e.type === 'Script') scripts.set(e.requestId, { url: e.response.url, encoding: e.response.headers['content-encoding'] ?? e.response.headers['Content-Encoding'] ?? 'none', bytes: 0 });
+    if (e.type === 'Script')
+      scripts.set(e.requestId, {
+        url: e.response.url,
+        encoding: e.response.headers['content-encoding'] ?? e.response.headers['Content-Encoding'] ?? 'none',
+        bytes: 0,
+      });
   });
   cdp.on('Network.loadingFinished', (e) => {
     const sc = scripts.get(e.requestId);
@@ -46,7 +59,12 @@ async function scriptBytes(email, path) {
   const status = res?.status() ?? 0;
   await context.close();
   const list = [...scripts.values()];
-  return { status, bytes: list.reduce((n, x) => n + x.bytes, 0), files: list.length, encodings: [...new Set(list.map((x) => x.encoding))].join('+') || 'none' };
+  return {
+    status,
+    bytes: list.reduce((n, x) => n + x.bytes, 0),
+    files: list.length,
+    encodings: [...new Set(list.map((x) => x.encoding))].join('+') || 'none',
+  };
 }
 
 try {
@@ -59,7 +77,9 @@ try {
   const deckId = (await (await get(priya, '/classroom')).text()).match(/\/classroom\/([0-9a-f-]{36})/)?.[1];
   const tomas = await signIn(s.base, 'tomas@kestrel.example');
   const inspectionId = (await (await get(tomas, '/inspections')).text()).match(/\/inspections\/([0-9a-f-]{36})/)?.[1];
-  const part = (await (await get(tomas, '/api/catalog/parts')).json())?.parts?.[0]?.partNumber ?? (await (await get(tomas, '/admin/catalog')).text()).match(/\/admin\/catalog\/parts\/([A-Z0-9-]+)/)?.[1];
+  const part =
+    (await (await get(tomas, '/api/catalog/parts')).json())?.parts?.[0]?.partNumber ??
+    (await (await get(tomas, '/admin/catalog')).text()).match(/\/admin\/catalog\/parts\/([A-Z0-9-]+)/)?.[1];
 
   const pages = [
     ['editor', 'olive@larkspur.example', `/machines/${machineId}/layouts/${layoutId}`, '≤ 160 KB'],
@@ -73,7 +93,12 @@ try {
     ['classroom: a deck', 'priya@kestrel.example', deckId && `/classroom/${deckId}`, '(figure)'],
     ['classroom: present', 'priya@kestrel.example', deckId && `/classroom/${deckId}/present`, '(figure)'],
     ['classroom: presenter', 'priya@kestrel.example', deckId && `/classroom/${deckId}/presenter`, '(figure)'],
-    ['classroom: compare', 'priya@kestrel.example', '/classroom/compare?a=starter:tamarack-m4:wheat&b=starter:tamarack-m4:canola', '(figure)'],
+    [
+      'classroom: compare',
+      'priya@kestrel.example',
+      '/classroom/compare?a=starter:tamarack-m4:wheat&b=starter:tamarack-m4:canola',
+      '(figure)',
+    ],
   ];
   for (const [name, email, path, budget] of pages) {
     if (!path) {

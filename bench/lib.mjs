@@ -20,7 +20,15 @@ export async function startServer({ dataDir, outDir = process.env.CAGEWRIGHT_OUT
   const port = await freePort();
   const t0 = performance.now();
   const child = spawn(process.execPath, ['scripts/start.mjs'], {
-    env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', CAGEWRIGHT_DATA_DIR: dataDir, CAGEWRIGHT_OUT_DIR: outDir, AUTH_SECRET: 'bench-secret-not-for-production-0123456789', ...env },
+    env: {
+      ...process.env,
+      PORT: String(port),
+      HOST: '127.0.0.1',
+      CAGEWRIGHT_DATA_DIR: dataDir,
+      CAGEWRIGHT_OUT_DIR: outDir,
+      AUTH_SECRET: 'bench-secret-not-for-production-0123456789',
+      ...env,
+    },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   let out = '';

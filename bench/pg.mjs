@@ -36,7 +36,16 @@ export async function throwawayPostgres(database = 'cagewright_bench') {
     execFileSync(full[0], full.slice(1), { stdio: ['ignore', 'ignore', 'pipe'] });
   };
   run(join(bin, 'initdb'), ['-D', join(dir, 'data'), '-A', 'trust', '-U', 'cagewright']);
-  run(join(bin, 'pg_ctl'), ['-D', join(dir, 'data'), '-o', `-p ${port} -k ${dir} -c listen_addresses=127.0.0.1 -c max_connections=200`, '-l', join(dir, 'log'), '-w', 'start']);
+  run(join(bin, 'pg_ctl'), [
+    '-D',
+    join(dir, 'data'),
+    '-o',
+    `-p ${port} -k ${dir} -c listen_addresses=127.0.0.1 -c max_connections=200`,
+    '-l',
+    join(dir, 'log'),
+    '-w',
+    'start',
+  ]);
   execFileSync(join(bin, 'createdb'), ['-h', '127.0.0.1', '-p', String(port), '-U', 'cagewright', database]);
   return {
     url: `postgres://cagewright@127.0.0.1:${port}/${database}`,

@@ -82,7 +82,13 @@ try {
     report(`history page, ${LONG_HISTORY} versions`, 'not found', '≤ 100 KB', false);
   } else {
     const html = await (await fetch(`${s.base}${longPath}/history`, { headers })).text();
-    report(`history page HTML, layout with ${LONG_HISTORY} versions`, Math.round(Buffer.byteLength(html) / 102.4) / 10, '≤ 100 KB', true, 'KB');
+    report(
+      `history page HTML, layout with ${LONG_HISTORY} versions`,
+      Math.round(Buffer.byteLength(html) / 102.4) / 10,
+      '≤ 100 KB',
+      true,
+      'KB',
+    );
     const r = summary(await cannon({ url: `${s.base}${longPath}/history`, headers, connections: 10, duration }));
     report(`history page p95, ${LONG_HISTORY} versions, 10 connections`, r.p95, '≤ 100 ms', r.errors === 0, 'ms');
   }

@@ -15,8 +15,15 @@ export function verdict(row) {
   const limit = Number(m[2].replace(/,/g, ''));
   const op = m[1] ?? '=';
   const within =
-    op === '≤' || op === '<=' ? value <= limit : op === '<' ? value < limit : op === '≥' || op === '>=' ? value >= limit : op === '>' ? value > limit : value === limit;
+    op === '≤' || op === '<='
+      ? value <= limit
+      : op === '<'
+        ? value < limit
+        : op === '≥' || op === '>='
+          ? value >= limit
+          : op === '>'
+            ? value > limit
+            : value === limit;
   if (!within) return 'over';
   return row.ok === false ? 'NO' : 'yes';
 }
-

@@ -1,7 +1,9 @@
 import { test, expect } from '@playwright/test';
 import { shot, signIn } from './helpers';
 
-test('the instance administrator adds a part through the form: bad input is named in the browser, then saved and listed', async ({ page }) => {
+test('the instance administrator adds a part through the form: bad input is named in the browser, then saved and listed', async ({
+  page,
+}) => {
   await signIn(page, 'instanceAdmin', '/admin/catalog');
   await page.goto('/admin/catalog');
   const parts = page.getByTestId('parts-table');
@@ -42,7 +44,9 @@ test('the instance administrator adds a part through the form: bad input is name
   await expect(page.getByTestId('parts-table').getByRole('link', { name: 'CW-BR-HD-06' })).toBeVisible();
 });
 
-test('the instance administrator cannot strand machines by removing a drum their family has; the server names the field', async ({ page }) => {
+test('the instance administrator cannot strand machines by removing a drum their family has; the server names the field', async ({
+  page,
+}) => {
   await signIn(page, 'instanceAdmin', '/admin/catalog/families/tamarack-m4');
   await page.goto('/admin/catalog/families/tamarack-m4');
   const form = page.getByTestId('family-form');

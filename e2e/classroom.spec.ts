@@ -242,6 +242,9 @@ test('the demo deck shows a wrong layout’s findings large enough for the room'
   await expect(findings).toBeVisible();
   await expect(findings.locator('li').first()).toBeVisible();
   // The findings are pinned on the diagram too: the fine-wire places carry them in their names.
-  await expect(page.getByTestId('stage-diagram').locator('[data-place="element:1:left"]')).toHaveAttribute('aria-label', /Hurts the crop|Blocks fit/);
+  await expect(page.getByTestId('stage-diagram').locator('[data-place="element:1:left"]')).toHaveAttribute(
+    'aria-label',
+    /Hurts the crop|Blocks fit/,
+  );
   await shot(page, 'present-demo-wrong-layout', false);
 });

@@ -11,7 +11,9 @@ const isZodEvalProbe = (text: string) => /^script-src(-elem)? eval$/.test(text) 
 async function watchViolations(page: Page) {
   await page.addInitScript(() => {
     (window as unknown as { __csp: string[] }).__csp = [];
-    document.addEventListener('securitypolicyviolation', (e) => (window as unknown as { __csp: string[] }).__csp.push(`${e.violatedDirective} ${e.blockedURI}`));
+    document.addEventListener('securitypolicyviolation', (e) =>
+      (window as unknown as { __csp: string[] }).__csp.push(`${e.violatedDirective} ${e.blockedURI}`),
+    );
   });
   const console: string[] = [];
   page.on('console', (m) => {
@@ -31,7 +33,10 @@ async function expectHydrated(page: Page, path: string, consoleViolations: strin
   // Astro removes the `ssr` attribute once an island has hydrated.
   await expect(page.locator('astro-island[client="load"][ssr]'), `${path}: islands still waiting to hydrate`).toHaveCount(0);
   const reported = await page.evaluate(() => (window as unknown as { __csp: string[] }).__csp);
-  expect(reported.filter((v) => !isZodEvalProbe(v)), `${path}: violations`).toEqual([]);
+  expect(
+    reported.filter((v) => !isZodEvalProbe(v)),
+    `${path}: violations`,
+  ).toEqual([]);
   expect(consoleViolations, `${path}: console`).toEqual([]);
 }
 

@@ -1,6 +1,6 @@
 import { test, expect, type Page } from '@playwright/test';
 import { shot, signIn } from './helpers';
-import { demoCatalog, sedgeS6, starterLayout, tamarackM4 } from '../src/lib/domain';
+import { demoCatalog, sedgeS6, starterLayout, tamarackM4 } from '~/lib/domain';
 
 // The cage drawing at phone and desktop width: on the six-position cage, rotor-bar labels stay in
 // their slot and never meet a finding's icon or a compare view's badge; element labels stay in
@@ -15,14 +15,19 @@ async function collisions(page: Page) {
     const out: string[] = [];
     const box = (el: Element) => (el as SVGGraphicsElement).getBBox();
     const meets = (a: Box, b: Box) => a.x < b.x + b.width && b.x < a.x + a.width && a.y < b.y + b.height && b.y < a.y + a.height;
-    const inside = (a: Box, b: Box) => a.x >= b.x - 0.5 && a.x + a.width <= b.x + b.width + 0.5 && a.y >= b.y - 0.5 && a.y + a.height <= b.y + b.height + 0.5;
-    for (const slot of document.querySelectorAll('svg[data-testid="cage-diagram"] g[data-place^="bar:"], svg[data-testid="cage-diagram"] g[data-place^="element:"]')) {
+    const inside = (a: Box, b: Box) =>
+      a.x >= b.x - 0.5 && a.x + a.width <= b.x + b.width + 0.5 && a.y >= b.y - 0.5 && a.y + a.height <= b.y + b.height + 0.5;
+    for (const slot of document.querySelectorAll(
+      'svg[data-testid="cage-diagram"] g[data-place^="bar:"], svg[data-testid="cage-diagram"] g[data-place^="element:"]',
+    )) {
       const place = slot.getAttribute('data-place')!;
       const frame = slot.querySelector('rect');
       if (!frame) continue;
       const area = box(frame);
       const marks = [...slot.querySelectorAll('[data-mark="severity"], [data-mark="changed"]')].map(box);
-      const texts = place.startsWith('bar:') ? [...slot.querySelectorAll('text[data-bar-label]')] : [...slot.querySelectorAll(':scope > text, text')].filter((t) => !t.closest('[data-mark]'));
+      const texts = place.startsWith('bar:')
+        ? [...slot.querySelectorAll('text[data-bar-label]')]
+        : [...slot.querySelectorAll(':scope > text, text')].filter((t) => !t.closest('[data-mark]'));
       for (const t of texts) {
         const b = box(t);
         if (b.width === 0) continue;
@@ -44,14 +49,24 @@ test('six-position cage: rotor labels, finding icons and compare badges do not c
   const layout = {
     ...base,
     vaneSetting: base.vaneSetting === 'slow' ? 'fast' : 'slow',
-    rotorBars: base.rotorBars.map((b) => (inLine.has(`${b.row}:${b.position}`) || b.position === 1 ? { ...b, partNumber: foreign.partNumber } : b)),
+    rotorBars: base.rotorBars.map((b) =>
+      inLine.has(`${b.row}:${b.position}`) || b.position === 1 ? { ...b, partNumber: foreign.partNumber } : b,
+    ),
   };
   const machine = await page.request.post('/api/machines', {
-    data: { familyId: sedgeS6.id, drum: sedgeS6.drumOptions[0]!.id, vaneControl: sedgeS6.vaneControls[0], serial: `FIT-${Date.now().toString(36)}`, nickname: 'Six-position fit' },
+    data: {
+      familyId: sedgeS6.id,
+      drum: sedgeS6.drumOptions[0]!.id,
+      vaneControl: sedgeS6.vaneControls[0],
+      serial: `FIT-${Date.now().toString(36)}`,
+      nickname: 'Six-position fit',
+    },
   });
   expect(machine.status()).toBe(201);
   const machineId = (await machine.json()).machine.id;
-  const created = await page.request.post(`/api/machines/${machineId}/layouts`, { data: { name: 'Bars from another family', body: layout } });
+  const created = await page.request.post(`/api/machines/${machineId}/layouts`, {
+    data: { name: 'Bars from another family', body: layout },
+  });
   expect(created.status(), await created.text()).toBe(201);
   const { layout: saved, version } = await created.json();
 
@@ -78,7 +93,13 @@ test('six-position cage: rotor labels, finding icons and compare badges do not c
 
   // A slim-drum layout against the full-drum start: the rotor strip is marked on both drawings.
   const slim = await page.request.post('/api/machines', {
-    data: { familyId: tamarackM4.id, drum: 'slim', vaneControl: 'powered', serial: `FIT-S-${Date.now().toString(36)}`, nickname: 'Slim drum fit' },
+    data: {
+      familyId: tamarackM4.id,
+      drum: 'slim',
+      vaneControl: 'powered',
+      serial: `FIT-S-${Date.now().toString(36)}`,
+      nickname: 'Slim drum fit',
+    },
   });
   const slimId = (await slim.json()).machine.id;
   const wheat = { ...starterLayout(tamarackM4, 'wheat', demoCatalog), drum: 'slim', vaneControl: 'powered' };

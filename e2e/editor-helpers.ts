@@ -26,7 +26,8 @@ export async function openEditor(page: Page, who: keyof typeof DEMO, nickname: s
 export const slot = (page: Page, key: string): Locator => page.getByTestId('diagram-pane').locator(`[data-place="${key}"]`);
 export const announcer = (page: Page) => page.getByTestId('editor-announcer');
 export const dndRegion = (page: Page) => page.locator('[id^="DndLiveRegion"]');
-export const findingCount = async (page: Page) => Number((await page.getByRole('heading', { name: /^Findings/ }).innerText()).match(/\((\d+)\)/)![1]);
+export const findingCount = async (page: Page) =>
+  Number((await page.getByRole('heading', { name: /^Findings/ }).innerText()).match(/\((\d+)\)/)![1]);
 
 /** Drags with real mouse moves in small steps (the pointer sensor needs to see movement). */
 export async function mouseDrag(page: Page, from: Locator, to: Locator) {

@@ -15,7 +15,9 @@ const centre = async (l: Locator) => {
 };
 
 test.describe('editor: mouse drops land where the pointer is', () => {
-  test('with the parts list scrolled, a left cover plate lands on the left cage top and a discharge bar on row 1, position 4', async ({ page }) => {
+  test('with the parts list scrolled, a left cover plate lands on the left cage top and a discharge bar on row 1, position 4', async ({
+    page,
+  }) => {
     await page.setViewportSize({ width: 1440, height: 900 });
     await openEditor(page, 'operator', 'North Quarter');
     const cover = palettePart(page, 'CW-CP-L-04');
@@ -66,7 +68,8 @@ test.describe('editor: mouse drops land where the pointer is', () => {
     await page.mouse.move(to.x, to.y, { steps: 10 });
     await page.mouse.up();
     await expect(slot(page, 'bar:3:2')).toHaveAttribute('aria-label', /straight bar, CW-BR-ST-04/);
-    for (const other of ['bar:2:2', 'bar:4:2', 'bar:3:1', 'bar:3:3']) await expect(slot(page, other)).not.toHaveAttribute('aria-label', /straight bar/);
+    for (const other of ['bar:2:2', 'bar:4:2', 'bar:3:1', 'bar:3:3'])
+      await expect(slot(page, other)).not.toHaveAttribute('aria-label', /straight bar/);
   });
 
   test('a drop where nothing fits says so and changes nothing', async ({ page }) => {
@@ -114,7 +117,9 @@ test.describe('editor: focus follows the selection after a keyboard drop', () =>
     await expect(from).toHaveAttribute('aria-label', /wide-wire element/);
   });
 
-  test('a part carried from the palette with the keys: focus lands on the slot it went to; Escape puts it back and focus stays in the palette', async ({ page }) => {
+  test('a part carried from the palette with the keys: focus lands on the slot it went to; Escape puts it back and focus stays in the palette', async ({
+    page,
+  }) => {
     await page.setViewportSize({ width: 1440, height: 900 });
     await openEditor(page, 'operator', 'North Quarter');
     const item = palettePart(page, 'CW-RB-L-04');

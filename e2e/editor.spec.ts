@@ -15,7 +15,8 @@ test.describe('cage editor', () => {
     await expect(page.getByRole('heading', { level: 1 })).toContainText('wheat setup');
     // Every half-position of the four-position cage is drawn, with its hand in its name.
     for (const p of [1, 2, 3, 4])
-      for (const side of ['left', 'right']) await expect(slot(page, `element:${p}:${side}`)).toHaveAttribute('aria-label', new RegExp(`^Position ${p}, ${side}: `));
+      for (const side of ['left', 'right'])
+        await expect(slot(page, `element:${p}:${side}`)).toHaveAttribute('aria-label', new RegExp(`^Position ${p}, ${side}: `));
     await expect(slot(page, 'element:1:left')).toHaveAttribute('aria-label', /left-hand fine-wire element/);
     await expect(page.getByTestId('tip-speed')).toContainText('m/s');
     // Pointing at a slot shows its part, opening and how the crop's kernel passes.
@@ -23,7 +24,9 @@ test.describe('cage editor', () => {
     const details = page.getByTestId('slot-details');
     await expect(details).toContainText('Position 1, left: left-hand fine-wire element');
     await expect(details).toContainText('opening 5.0 mm × 25.0 mm · open area 38 %');
-    await expect(details).toContainText(/Wheat kernels pass by their smallest size \([\d.]+ mm\); the larger ones \(about [\d.]+ mm\) pass with [\d.]+ mm to spare/);
+    await expect(details).toContainText(
+      /Wheat kernels pass by their smallest size \([\d.]+ mm\); the larger ones \(about [\d.]+ mm\) pass with [\d.]+ mm to spare/,
+    );
     await page.mouse.move(5, 5);
     await shot(page, 'editor-desktop', false);
     await shot(page, 'editor-desktop-full');
@@ -73,7 +76,9 @@ test.describe('cage editor', () => {
     await expect(target).toHaveAttribute('aria-label', /CW-FW-R-04/);
   });
 
-  test('keyboard only: Space, arrows, Space places a left-hand element on a right half and the hand finding shows there', async ({ page }) => {
+  test('keyboard only: Space, arrows, Space places a left-hand element on a right half and the hand finding shows there', async ({
+    page,
+  }) => {
     await page.setViewportSize({ width: 1440, height: 900 });
     await openEditor(page, 'operator', 'North Quarter');
     await page.getByLabel('Search parts').fill('CW-WW-L-04');
@@ -125,7 +130,9 @@ test.describe('cage editor', () => {
     await page.keyboard.press('ArrowRight');
     await expect(page.locator('[id^="DndLiveRegion"]')).toContainText('Over position 3, left, holding a wide-wire element');
     await page.keyboard.press('Space');
-    await expect(announcer(page)).toContainText('Swapped: fine-wire element now at position 3, left; wide-wire element now at position 2, left');
+    await expect(announcer(page)).toContainText(
+      'Swapped: fine-wire element now at position 3, left; wide-wire element now at position 2, left',
+    );
     await expect(to).toHaveAttribute('aria-label', /fine-wire element/);
     await expect(from).toHaveAttribute('aria-label', /wide-wire element/);
 
@@ -197,7 +204,9 @@ test.describe('cage editor', () => {
     const cur = await (await page.request.get(`/api/layouts/${layoutId}`)).json();
     const theirs = structuredClone(cur.current.body);
     theirs.rotorRpm = theirs.rotorRpm + 20;
-    const put = await page.request.put(`/api/layouts/${layoutId}`, { data: { baseVersion: cur.layout.currentVersion, body: theirs, note: 'Changed elsewhere' } });
+    const put = await page.request.put(`/api/layouts/${layoutId}`, {
+      data: { baseVersion: cur.layout.currentVersion, body: theirs, note: 'Changed elsewhere' },
+    });
     expect(put.status()).toBe(201);
 
     // Here: an edit, then save.
@@ -220,7 +229,9 @@ test.describe('cage editor', () => {
 
     // Someone saves again; this time keep ours as a copy.
     const again = await (await page.request.get(`/api/layouts/${layoutId}`)).json();
-    const put2 = await page.request.put(`/api/layouts/${layoutId}`, { data: { baseVersion: again.layout.currentVersion, body: { ...again.current.body, clearanceMm: 21 }, note: 'Again' } });
+    const put2 = await page.request.put(`/api/layouts/${layoutId}`, {
+      data: { baseVersion: again.layout.currentVersion, body: { ...again.current.body, clearanceMm: 21 }, note: 'Again' },
+    });
     expect(put2.status()).toBe(201);
     await page.getByRole('button', { name: 'Save version' }).click();
     await expect(dialog).toBeVisible();

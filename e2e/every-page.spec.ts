@@ -22,7 +22,13 @@ async function axeProblems(page: Page): Promise<string[]> {
   const result = await new AxeBuilder({ page }).withTags(['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'best-practice']).analyze();
   return result.violations
     .filter((v) => v.impact === 'serious' || v.impact === 'critical')
-    .map((v) => `${v.impact} ${v.id}: ${v.help} — ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
+    .map(
+      (v) =>
+        `${v.impact} ${v.id}: ${v.help} — ${v.nodes
+          .slice(0, 3)
+          .map((n) => n.target.join(' '))
+          .join(' | ')}`,
+    );
 }
 
 for (const who of WHO) {
@@ -37,7 +43,11 @@ for (const who of WHO) {
       expect(res, url).toBeTruthy();
       await page.waitForLoadState('load');
       // Islands hydrate (those shown only when scrolled to may stay as drawn on the server).
-      await page.locator('astro-island[ssr]:not([client="visible"])').first().waitFor({ state: 'detached', timeout: 15_000 }).catch(() => undefined);
+      await page
+        .locator('astro-island[ssr]:not([client="visible"])')
+        .first()
+        .waitFor({ state: 'detached', timeout: 15_000 })
+        .catch(() => undefined);
       const w = await page.evaluate(() => ({ sw: document.documentElement.scrollWidth, cw: document.documentElement.clientWidth }));
       if (w.sw > w.cw) problems.push(`${route}: the page scrolls sideways at 390 px (${w.sw} > ${w.cw})`);
       for (const p of await axeProblems(page)) {
@@ -80,12 +90,22 @@ test('the share page shows every column of the parts list on a phone', async ({ 
   await expect(table).toBeVisible();
   const heads = await table.locator('thead th').allInnerTexts();
   expect(heads).toContain('Weight each');
-  const cells = await table.locator('tbody tr').first().locator('td').evaluateAll((tds) =>
-    tds.map((td) => {
-      const r = td.getBoundingClientRect();
-      return { label: td.getAttribute('data-label'), left: r.left, right: r.right, h: r.height, before: getComputedStyle(td, '::before').content };
-    }),
-  );
+  const cells = await table
+    .locator('tbody tr')
+    .first()
+    .locator('td')
+    .evaluateAll((tds) =>
+      tds.map((td) => {
+        const r = td.getBoundingClientRect();
+        return {
+          label: td.getAttribute('data-label'),
+          left: r.left,
+          right: r.right,
+          h: r.height,
+          before: getComputedStyle(td, '::before').content,
+        };
+      }),
+    );
   expect(cells.map((c) => c.label)).toEqual(['Part number', 'Part', 'Hand', 'Qty', 'Weight each', 'Unit price', 'Where']);
   for (const c of cells) {
     expect(c.h, c.label!).toBeGreaterThan(0);

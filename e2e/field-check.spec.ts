@@ -7,7 +7,9 @@ import { shot, signIn } from './helpers';
 /** Serious or critical accessibility problems axe finds on the page (none expected). */
 async function axeProblems(page: Page) {
   const r = await new AxeBuilder({ page }).analyze();
-  return r.violations.filter((v) => v.impact === 'serious' || v.impact === 'critical').map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
+  return r.violations
+    .filter((v) => v.impact === 'serious' || v.impact === 'critical')
+    .map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).join(', ')}`);
 }
 
 /** Waits until the page's islands have hydrated (typing before that would be lost). */
@@ -106,7 +108,10 @@ test('the printed settings card fits one A4 and one Letter page, with the QR cod
 
   await page.emulateMedia({ media: 'print' });
   mkdirSync('e2e/screenshots', { recursive: true });
-  for (const [format, widthMm, heightMm] of [['A4', 210, 297], ['Letter', 215.9, 279.4]] as const) {
+  for (const [format, widthMm, heightMm] of [
+    ['A4', 210, 297],
+    ['Letter', 215.9, 279.4],
+  ] as const) {
     // The printable box at 10 mm margins, in CSS pixels (96 per inch).
     const px = (mmv: number) => Math.floor(((mmv - 20) / 25.4) * 96);
     await page.setViewportSize({ width: px(widthMm), height: px(heightMm) });

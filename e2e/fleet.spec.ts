@@ -64,11 +64,16 @@ test('technician: machine → versions → compare → share → opens signed ou
 
   // Two more versions, saved through the API with the technician's session.
   await saveVersion(page, layoutId, (b) => (b.rotorRpm = 700), 'Slower rotor for tough straw');
-  await saveVersion(page, layoutId, (b) => {
-    const e = b.elements.find((x: any) => x.position === 2 && x.side === 'right');
-    e.partNumber = 'CW-WW-R-04';
-    b.vaneSetting = 'slow';
-  }, 'Wide-wire right in position 2');
+  await saveVersion(
+    page,
+    layoutId,
+    (b) => {
+      const e = b.elements.find((x: any) => x.position === 2 && x.side === 'right');
+      e.partNumber = 'CW-WW-R-04';
+      b.vaneSetting = 'slow';
+    },
+    'Wide-wire right in position 2',
+  );
 
   // The machine page lists the layout and the activity.
   await page.goto(machineUrl);
@@ -154,7 +159,10 @@ test('technician: machine → versions → compare → share → opens signed ou
   await noJs.close();
 
   // Revoke it; the guest now gets "not found".
-  await page.getByTestId('links-table').getByRole('button', { name: /Revoke link Harvest crew/ }).click();
+  await page
+    .getByTestId('links-table')
+    .getByRole('button', { name: /Revoke link Harvest crew/ })
+    .click();
   await expect(page.getByRole('status')).toContainText('Link revoked');
   const after = await browser.newContext({ baseURL });
   const gone = await after.newPage();

@@ -16,7 +16,9 @@ test('the operator’s home counts their drafts', async ({ page }) => {
   const layouts = (await (await page.request.get(`/api/machines/${machines[0]!.id}/layouts`)).json()).layouts as { id: string }[];
   const layout = await (await page.request.get(`/api/layouts/${layouts[0]!.id}`)).json();
   const partNumber = layout.current.body.elements[0].partNumber as string;
-  const made = await page.request.post('/api/parts-requests', { data: { from: 'manual', machineId: machines[0]!.id, lines: [{ partNumber, quantity: 1 }] } });
+  const made = await page.request.post('/api/parts-requests', {
+    data: { from: 'manual', machineId: machines[0]!.id, lines: [{ partNumber, quantity: 1 }] },
+  });
   expect(made.status()).toBe(201);
   await page.reload();
   await expect(page.getByTestId('home-drafts')).toHaveText(String(before + 1));

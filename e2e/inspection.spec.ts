@@ -9,7 +9,9 @@ async function picture(): Promise<Buffer> {
   return sharp(Buffer.from(svg)).png().toBuffer();
 }
 
-test('a technician inspects on a phone: flags an element, attaches a photo, finishes, and finds the replacement on a parts request', async ({ page }) => {
+test('a technician inspects on a phone: flags an element, attaches a photo, finishes, and finds the replacement on a parts request', async ({
+  page,
+}) => {
   await page.setViewportSize({ width: 390, height: 844 });
   await signIn(page, 'technician', '/inspections');
   await expect(page.getByRole('heading', { name: 'Inspections', level: 1 })).toBeVisible();
@@ -100,7 +102,10 @@ test('a technician inspects on a phone: flags an element, attaches a photo, fini
   await shot(page, 'inspection-report');
 });
 
-test('the demo inspection shows its flagged elements and photos; history per machine; another farm cannot open it', async ({ page, browser }) => {
+test('the demo inspection shows its flagged elements and photos; history per machine; another farm cannot open it', async ({
+  page,
+  browser,
+}) => {
   await signIn(page, 'operator', '/inspections');
   const row = page.getByTestId('inspection-row').filter({ hasText: 'North Quarter' });
   await expect(row).toContainText('Finished');
@@ -113,7 +118,10 @@ test('the demo inspection shows its flagged elements and photos; history per mac
   const url = page.url();
 
   await page.goto('/inspections');
-  await page.getByRole('link', { name: /^North Quarter/ }).last().click();
+  await page
+    .getByRole('link', { name: /^North Quarter/ })
+    .last()
+    .click();
   await expect(page).toHaveURL(/\/inspections\/history\//);
   await expect(page.getByRole('heading', { name: 'Inspections of North Quarter' })).toBeVisible();
 

@@ -19,7 +19,9 @@ export function pageRoutes(root = 'src/pages'): string[] {
       if (statSync(full).isDirectory()) {
         if (relative(root, full) !== 'api') walk(full);
       } else if (/\.(astro|md|mdx|html)$/.test(name)) {
-        const rel = relative(root, full).replace(/\.(astro|md|mdx|html)$/, '').replace(/(^|\/)index$/, '');
+        const rel = relative(root, full)
+          .replace(/\.(astro|md|mdx|html)$/, '')
+          .replace(/(^|\/)index$/, '');
         out.push(`/${rel}`);
       }
     }

@@ -34,7 +34,9 @@ test('share page: a shared version shows the clearance and vane findings', async
   const { layoutId } = await openEditor(page, 'operator', 'North Quarter');
   const cur = await (await page.request.get(`/api/layouts/${layoutId}`)).json();
   const body = { ...cur.current.body, clearanceMm: 40, vaneSetting: 'fast' as const, crop: 'wheat' };
-  const saved = await page.request.put(`/api/layouts/${layoutId}`, { data: { baseVersion: cur.layout.currentVersion, body, note: 'wide concave test' } });
+  const saved = await page.request.put(`/api/layouts/${layoutId}`, {
+    data: { baseVersion: cur.layout.currentVersion, body, note: 'wide concave test' },
+  });
   expect(saved.status()).toBe(201);
   const version = (await saved.json()).version.version as number;
   const link = await page.request.post('/api/share-links', { data: { layoutId, version, label: 'settings check' } });

@@ -1,6 +1,6 @@
 import { expect, test } from '@playwright/test';
 import { shot, signIn } from './helpers';
-import { demoCatalog, formatLength, mm, starterLayout, tamarackM4 } from '../src/lib/domain';
+import { demoCatalog, formatLength, mm, starterLayout, tamarackM4 } from '~/lib/domain';
 
 // A user who chose inches sees inches in the planner, on the parts request sheet and in the
 // e-mail to the parts desk; prices carry the dealer's currency. 1 in = 25.4 mm exactly (NIST
@@ -11,7 +11,13 @@ test('inches in the plan, the request sheet and the e-mail; prices in the dealer
   expect((await page.request.put('/api/me', { data: { unitSystem: 'imperial' } })).status()).toBe(200);
   try {
     const created = await page.request.post('/api/machines', {
-      data: { familyId: tamarackM4.id, drum: 'slim', vaneControl: 'powered', serial: `UN-${Date.now().toString(36)}`, nickname: 'Inch field' },
+      data: {
+        familyId: tamarackM4.id,
+        drum: 'slim',
+        vaneControl: 'powered',
+        serial: `UN-${Date.now().toString(36)}`,
+        nickname: 'Inch field',
+      },
     });
     expect(created.status()).toBe(201);
     const machineId = (await created.json()).machine.id;

@@ -92,7 +92,16 @@ if (owner?.pid && owner.host === myHost && alive(owner.pid)) {
   const { openSync, writeSync, closeSync, rmSync } = await import('node:fs');
   rmSync(ownerFile, { force: true });
   const fd = openSync(ownerFile, 'wx');
-  writeSync(fd, JSON.stringify({ pid: process.pid, host: (await import('node:os')).hostname(), port: null, since: new Date().toISOString(), by: 'backup' }));
+  writeSync(
+    fd,
+    JSON.stringify({
+      pid: process.pid,
+      host: (await import('node:os')).hostname(),
+      port: null,
+      since: new Date().toISOString(),
+      by: 'backup',
+    }),
+  );
   closeSync(fd);
   try {
     const db = await PGlite.create({ dataDir });

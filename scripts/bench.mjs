@@ -54,13 +54,19 @@ for (const b of selected) {
       // a line that is not a figure (the bench's own output)
     }
   }
-  if (r.status !== 0 || found === 0) rows.push({ bench: b.name, figure: `(exit ${r.status})`, value: '—', unit: '', budget: '', ok: false });
+  if (r.status !== 0 || found === 0)
+    rows.push({ bench: b.name, figure: `(exit ${r.status})`, value: '—', unit: '', budget: '', ok: false });
 }
 
 const [l1, l5] = loadavg();
-console.log(`\nmachine: ${cpus().length} × ${cpus()[0]?.model ?? 'cpu'}, ${Math.round(totalmem() / 2 ** 30)} GB, Node ${process.version}; load average ${l1.toFixed(1)} (1 min) ${l5.toFixed(1)} (5 min) at the end`);
+console.log(
+  `\nmachine: ${cpus().length} × ${cpus()[0]?.model ?? 'cpu'}, ${Math.round(totalmem() / 2 ** 30)} GB, Node ${process.version}; load average ${l1.toFixed(1)} (1 min) ${l5.toFixed(1)} (5 min) at the end`,
+);
 const widths = [10, 52, 14, 12, 6, 5];
-const cell = (s, w) => String(s).padEnd(w).slice(0, Math.max(w, String(s).length));
+const cell = (s, w) =>
+  String(s)
+    .padEnd(w)
+    .slice(0, Math.max(w, String(s).length));
 console.log(['bench', 'figure', 'value', 'budget', 'within', 'load'].map((h, i) => cell(h, widths[i])).join(' │ '));
 console.log(widths.map((w) => '─'.repeat(w)).join('─┼─'));
 for (const r of rows) {

@@ -17,7 +17,10 @@ export function ensureChromium() {
   }
   console.log('Installing Debian chromium for the browser tests…');
   const env = { ...process.env, DEBIAN_FRONTEND: 'noninteractive' };
-  for (const args of [['update', '-qq'], ['install', '-y', '-qq', 'chromium']]) {
+  for (const args of [
+    ['update', '-qq'],
+    ['install', '-y', '-qq', 'chromium'],
+  ]) {
     const r = spawnSync('apt-get', args, { stdio: 'inherit', env });
     if (r.status !== 0) {
       console.error(`apt-get ${args.join(' ')} failed (exit ${r.status}).`);

@@ -41,7 +41,11 @@ async function addAdmin(query) {
   if (!org) [org] = await query(`insert into organisations (name, kind) values ('Cagewright installation', 'instance') returning id`);
   const [user] = await query('insert into users (email, name, password_hash) values ($1, $2, $3) returning id', [email, name, hash]);
   await query(`insert into memberships (user_id, org_id, role) values ($1, $2, 'instance_admin')`, [user.id, org.id]);
-  await query(`insert into audit_log (org_id, action, entity, entity_id, detail) values ($1, 'create', 'instance-admin', $2, $3)`, [org.id, user.id, JSON.stringify({ email, by: 'host' })]);
+  await query(`insert into audit_log (org_id, action, entity, entity_id, detail) values ($1, 'create', 'instance-admin', $2, $3)`, [
+    org.id,
+    user.id,
+    JSON.stringify({ email, by: 'host' }),
+  ]);
 }
 
 try {
@@ -69,11 +73,16 @@ try {
       } catch {
         // unreadable: the message says only that the owner file is present
       }
-      throw new Error(`the data directory is in use (${owner ? `pid ${owner.pid} on ${owner.host}` : 'owner file present'}): stop the server first`);
+      throw new Error(
+        `the data directory is in use (${owner ? `pid ${owner.pid} on ${owner.host}` : 'owner file present'}): stop the server first`,
+      );
     }
     if (!existsSync(join(dataDir, 'PG_VERSION'))) throw new Error(`${dataDir} holds no store yet: start the server once first`);
     const fd = openSync(ownerFile, 'wx', 0o600);
-    writeSync(fd, JSON.stringify({ pid: process.pid, host: hostname(), port: null, since: new Date().toISOString(), by: 'instance-admin' }));
+    writeSync(
+      fd,
+      JSON.stringify({ pid: process.pid, host: hostname(), port: null, since: new Date().toISOString(), by: 'instance-admin' }),
+    );
     closeSync(fd);
     try {
       const { PGlite } = await import('@electric-sql/pglite');

@@ -48,7 +48,20 @@ await db.close();
 const filesArchive = file.replace(/\.tar\.gz$/, '') + '-files.tar.gz';
 if (existsSync(filesArchive)) {
   const { spawnSync } = await import('node:child_process');
-  const r = spawnSync('tar', ['-xzf', filesArchive, '-C', dataDir, '--no-same-permissions', '--exclude=auth-secret', '--exclude=backup-token', '--exclude=cagewright.owner'], { stdio: 'inherit' });
+  const r = spawnSync(
+    'tar',
+    [
+      '-xzf',
+      filesArchive,
+      '-C',
+      dataDir,
+      '--no-same-permissions',
+      '--exclude=auth-secret',
+      '--exclude=backup-token',
+      '--exclude=cagewright.owner',
+    ],
+    { stdio: 'inherit' },
+  );
   if (r.status !== 0) {
     console.error(`could not unpack ${filesArchive}`);
     process.exit(1);

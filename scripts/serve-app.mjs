@@ -13,7 +13,9 @@ import https from 'node:https';
 import { readFileSync } from 'node:fs';
 
 const bare = (a) => {
-  const s = String(a ?? '').trim().toLowerCase();
+  const s = String(a ?? '')
+    .trim()
+    .toLowerCase();
   const mapped = /^::ffff:(\d+\.\d+\.\d+\.\d+)$/.exec(s);
   return mapped ? mapped[1] : s;
 };
@@ -37,9 +39,10 @@ export function serveApp(handler, { host, port, env = process.env }) {
     req.headers['x-forwarded-for'] = clientAddress(req.socket.remoteAddress, req.headers['x-forwarded-for'], trusted);
     handler(req, res);
   };
-  const server = env.SERVER_CERT_PATH && env.SERVER_KEY_PATH
-    ? https.createServer({ key: readFileSync(env.SERVER_KEY_PATH), cert: readFileSync(env.SERVER_CERT_PATH) }, listener)
-    : http.createServer(listener);
+  const server =
+    env.SERVER_CERT_PATH && env.SERVER_KEY_PATH
+      ? https.createServer({ key: readFileSync(env.SERVER_KEY_PATH), cert: readFileSync(env.SERVER_CERT_PATH) }, listener)
+      : http.createServer(listener);
   return new Promise((resolve, reject) => {
     server.once('error', reject);
     server.listen(Number(port), host, () => resolve(server));

@@ -81,7 +81,10 @@ function workerCount() {
     process.exit(1);
   }
   if (!process.env.DATABASE_URL) {
-    if (asked && asked !== '1') console.error('cagewright: the embedded store has one owner, so the server runs as one process (set DATABASE_URL for several workers).');
+    if (asked && asked !== '1')
+      console.error(
+        'cagewright: the embedded store has one owner, so the server runs as one process (set DATABASE_URL for several workers).',
+      );
     return 1;
   }
   return asked ? Number(asked) : availableParallelism();
@@ -112,7 +115,8 @@ async function startPrimary() {
 
   // Photo uploads go to a local S3-compatible fake unless a real bucket (or the disk store) is configured.
   const fakes = [];
-  if (!process.env.S3_ENDPOINT && process.env.CAGEWRIGHT_STORAGE !== 'disk') fakes.push(import('./fakes/s3.mjs').then((m) => m.startFakeS3({ dataDir })));
+  if (!process.env.S3_ENDPOINT && process.env.CAGEWRIGHT_STORAGE !== 'disk')
+    fakes.push(import('./fakes/s3.mjs').then((m) => m.startFakeS3({ dataDir })));
   // Mail goes to a local fake SMTP server (messages kept in <data dir>/mailbox) unless SMTP_URL names a real one.
   if (!process.env.SMTP_URL) fakes.push(import('./fakes/smtp.mjs').then((m) => m.startFakeSmtp({ dataDir })));
   const started = Date.now();

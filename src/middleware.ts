@@ -11,7 +11,16 @@ import { DataDirInUseError } from './lib/server/data-dir-lock';
  * Paths open without a session: sign-in, Auth.js itself, shared read-only views, health, assets,
  * and the backup route (which checks an instance administrator's session or the host's backup token itself).
  */
-const PUBLIC = [/^\/signin\/?$/, /^\/api\/auth\//, /^\/share\//, /^\/api\/health\/?$/, /^\/api\/admin\/backup\/?$/, /^\/_astro\//, /^\/favicon/, /^\/fonts\//];
+const PUBLIC = [
+  /^\/signin\/?$/,
+  /^\/api\/auth\//,
+  /^\/share\//,
+  /^\/api\/health\/?$/,
+  /^\/api\/admin\/backup\/?$/,
+  /^\/_astro\//,
+  /^\/favicon/,
+  /^\/fonts\//,
+];
 
 const isPublic = (path: string) => PUBLIC.some((re) => re.test(path));
 

@@ -147,7 +147,8 @@ function walk(raw, out) {
   const disposition = headers['content-disposition'] ?? '';
   const filename = param(disposition, 'filename') ?? param(headers['content-type'], 'name');
   if (filename || /^attachment/i.test(disposition)) {
-    const text = type.startsWith('text/') && bytes.length <= 100_000 ? decodeText(bytes, param(headers['content-type'], 'charset')) : undefined;
+    const text =
+      type.startsWith('text/') && bytes.length <= 100_000 ? decodeText(bytes, param(headers['content-type'], 'charset')) : undefined;
     out.attachments.push({ filename, contentType: type, size: bytes.length, ...(text !== undefined ? { content: text } : {}) });
   } else if (type === 'text/plain' && out.text === null) {
     out.text = decodeText(bytes, param(headers['content-type'], 'charset')).replace(/\r\n/g, '\n');

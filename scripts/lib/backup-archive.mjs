@@ -11,7 +11,9 @@ export const NEVER_ARCHIVED = ['auth-secret', 'backup-token', 'cagewright.owner'
 
 /** True when an archive entry names one of them (with or without a leading slash or ./). */
 export function isSecretEntry(name) {
-  const clean = String(name).replace(/^(\.?\/)+/, '').replace(/\/+$/, '');
+  const clean = String(name)
+    .replace(/^(\.?\/)+/, '')
+    .replace(/\/+$/, '');
   return NEVER_ARCHIVED.some((n) => clean === n || clean.startsWith(`${n}/`));
 }
 

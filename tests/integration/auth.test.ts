@@ -17,7 +17,13 @@ describe('sign-in and roles', () => {
   });
 
   it('puts the role in the session and on /api/me', async () => {
-    for (const [who, role] of [['operator', 'operator'], ['technician', 'technician'], ['trainer', 'trainer'], ['dealerAdmin', 'dealer_admin'], ['instanceAdmin', 'instance_admin']] as const) {
+    for (const [who, role] of [
+      ['operator', 'operator'],
+      ['technician', 'technician'],
+      ['trainer', 'trainer'],
+      ['dealerAdmin', 'dealer_admin'],
+      ['instanceAdmin', 'instance_admin'],
+    ] as const) {
       const c = await signedIn(who);
       const session = await c.get('/api/auth/session');
       expect(session.body.user.role).toBe(role);
@@ -40,7 +46,9 @@ describe('sign-in and roles', () => {
     expect(ok.body.users.map((u: { email: string }) => u.email)).not.toContain('admin@brackenridge.example');
     expect(ok.body.users.map((u: { email: string }) => u.email)).not.toContain(DEMO.instanceAdmin);
     const all = await (await signedIn('instanceAdmin')).get('/api/admin/users');
-    expect(all.body.users.map((u: { email: string }) => u.email)).toEqual(expect.arrayContaining(['admin@brackenridge.example', DEMO.dealerAdmin, DEMO.instanceAdmin]));
+    expect(all.body.users.map((u: { email: string }) => u.email)).toEqual(
+      expect.arrayContaining(['admin@brackenridge.example', DEMO.dealerAdmin, DEMO.instanceAdmin]),
+    );
   });
 
   it('sets no session for a wrong password and says nothing about whether the account exists', async () => {

@@ -37,7 +37,11 @@ beforeAll(async () => {
   layoutId = layout.id;
   base = `/machines/${northQuarter.id}/layouts/${layoutId}`;
   for (let v = 1; v < VERSIONS; v++) {
-    const res = await olive.put(`/api/layouts/${layoutId}`, { baseVersion: v, body: { ...version.body, rotorRpm: 500 + v }, note: `save ${v + 1}` });
+    const res = await olive.put(`/api/layouts/${layoutId}`, {
+      baseVersion: v,
+      body: { ...version.body, rotorRpm: 500 + v },
+      note: `save ${v + 1}`,
+    });
     if (res.status !== 201) throw new Error(`save ${v + 1}: ${res.status} ${JSON.stringify(res.body)}`);
   }
   // More machines of the same family than the copy list shows at once.
@@ -206,7 +210,12 @@ describe('a machine with many layouts', () => {
     }
   }, 180_000);
 
-  const layoutRows = (html: string) => [...(html.match(/data-testid="layouts-table"[\s\S]*?<\/table>/)?.[0] ?? '').matchAll(/class="font-semibold" href="[^"]+">(Plan \d+)</g)].map((m) => m[1]!);
+  const layoutRows = (html: string) =>
+    [
+      ...(html.match(/data-testid="layouts-table"[\s\S]*?<\/table>/)?.[0] ?? '').matchAll(
+        /class="font-semibold" href="[^"]+">(Plan \d+)</g,
+      ),
+    ].map((m) => m[1]!);
 
   it('the machine page shows the 50 most recent with a link to the older ones, and the activity still names them', async () => {
     const first = await page(`/machines/${machineId}`);
@@ -231,7 +240,23 @@ describe('a machine with many layouts', () => {
     expect(all.body.layouts).toHaveLength(50);
     expect(all.body.total).toBe(LAYOUTS);
     const last = await olive.get(`/api/machines/${machineId}/layouts?pageSize=20&page=3`);
-    expect(last.body.layouts.map((l: any) => l.name)).toEqual(['Plan 14', 'Plan 13', 'Plan 12', 'Plan 11', 'Plan 10', 'Plan 09', 'Plan 08', 'Plan 07', 'Plan 06', 'Plan 05', 'Plan 04', 'Plan 03', 'Plan 02', 'Plan 01', 'Plan 00']);
+    expect(last.body.layouts.map((l: any) => l.name)).toEqual([
+      'Plan 14',
+      'Plan 13',
+      'Plan 12',
+      'Plan 11',
+      'Plan 10',
+      'Plan 09',
+      'Plan 08',
+      'Plan 07',
+      'Plan 06',
+      'Plan 05',
+      'Plan 04',
+      'Plan 03',
+      'Plan 02',
+      'Plan 01',
+      'Plan 00',
+    ]);
     for (const bad of ['pageSize=0', 'pageSize=500', 'page=0', 'page=x']) {
       const res = await olive.get(`/api/machines/${machineId}/layouts?${bad}`);
       expect(res.status, bad).toBe(400);

@@ -8,7 +8,12 @@ let noor: Client; // instance administrator: keeps the catalog
 let ada: Client; // a dealer's administrator: reads it, never changes it
 
 beforeAll(async () => {
-  [olive, tomas, noor, ada] = await Promise.all([signedIn('operator'), signedIn('technician'), signedIn('instanceAdmin'), signedIn('dealerAdmin')]);
+  [olive, tomas, noor, ada] = await Promise.all([
+    signedIn('operator'),
+    signedIn('technician'),
+    signedIn('instanceAdmin'),
+    signedIn('dealerAdmin'),
+  ]);
 });
 
 /** An invented three-position modular family with one drum and fixed vanes. */
@@ -100,7 +105,11 @@ describe('machine families', () => {
     expect(dup.status).toBe(409);
     expect(dup.body.error.field).toBe('id');
 
-    const renamed = { ...spec, name: 'Willow W3 (2nd series)', drumOptions: [...spec.drumOptions, { id: 'slim', label: 'Slim drum', diameterMm: 700 }] };
+    const renamed = {
+      ...spec,
+      name: 'Willow W3 (2nd series)',
+      drumOptions: [...spec.drumOptions, { id: 'slim', label: 'Slim drum', diameterMm: 700 }],
+    };
     expect((await tomas.put(`/api/catalog/families/${id}`, renamed)).status).toBe(403);
     expect((await ada.put(`/api/catalog/families/${id}`, renamed)).status).toBe(403);
     const put = await noor.put(`/api/catalog/families/${id}`, renamed);
@@ -116,7 +125,10 @@ describe('machine families', () => {
     const res = await olive.get('/api/catalog/families/tamarack-m4');
     const spec = res.body.family.spec;
     // North Quarter has the slim drum and powered vanes.
-    const noSlim = await noor.put('/api/catalog/families/tamarack-m4', { ...spec, drumOptions: spec.drumOptions.filter((d: any) => d.id !== 'slim') });
+    const noSlim = await noor.put('/api/catalog/families/tamarack-m4', {
+      ...spec,
+      drumOptions: spec.drumOptions.filter((d: any) => d.id !== 'slim'),
+    });
     expect(noSlim.status).toBe(409);
     expect(noSlim.body.error.field).toBe('drumOptions');
     const noPowered = await noor.put('/api/catalog/families/tamarack-m4', { ...spec, vaneControls: ['fixed'] });
@@ -136,7 +148,17 @@ describe('machine families', () => {
       [{ ...base, name: '' }, 'name'],
       [{ ...base, cageKind: 'round' }, 'cageKind'],
       [{ ...base, rearPosition: 2 }, 'rearPosition'],
-      [{ ...base, positions: [{ index: 1, zone: 'separating' }, { index: 2, zone: 'threshing' }, { index: 3, zone: 'separating' }] }, 'positions.1.zone'],
+      [
+        {
+          ...base,
+          positions: [
+            { index: 1, zone: 'separating' },
+            { index: 2, zone: 'threshing' },
+            { index: 3, zone: 'separating' },
+          ],
+        },
+        'positions.1.zone',
+      ],
       [{ ...base, drumOptions: [{ id: 'full', label: 'Full', diameterMm: 20 }] }, 'drumOptions.0.diameterMm'],
       [{ ...base, vaneControls: [] }, 'vaneControls'],
       [{ ...base, rotorBarPlaces: [{ row: 7, position: 1, inLine: false }] }, 'rotorBarPlaces.0.row'],

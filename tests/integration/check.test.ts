@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { Client, signedIn } from './client';
-import { demoCatalog, demoFamilies } from '../../src/lib/domain/demo-catalog';
-import { starterLayout } from '../../src/lib/domain/starter';
+import { demoCatalog, demoFamilies } from '~/lib/domain/demo-catalog';
+import { starterLayout } from '~/lib/domain/starter';
 
 const family = demoFamilies.find((f) => f.cageKind === 'modular')!;
 const valid = starterLayout(family, 'wheat', demoCatalog);
@@ -65,7 +65,11 @@ describe('POST /api/check keeps the catalog between calls, and sees it change', 
     const left = valid.elements.find((e) => e.side === 'left')!;
     const original = demoCatalog.find((p) => p.partNumber === left.partNumber)!;
     const pn = `CW-CACHE-${Date.now().toString(36).toUpperCase()}`;
-    const created = await ada.post('/api/catalog/parts', { familyId: family.id, active: true, part: { ...original, partNumber: pn, name: 'Cache probe element' } });
+    const created = await ada.post('/api/catalog/parts', {
+      familyId: family.id,
+      active: true,
+      part: { ...original, partNumber: pn, name: 'Cache probe element' },
+    });
     expect(created.status, JSON.stringify(created.body)).toBe(201);
     const i = valid.elements.indexOf(left);
     const layout = { ...valid, elements: valid.elements.map((e, j) => (j === i ? { ...e, partNumber: pn } : e)) };

@@ -51,7 +51,11 @@ describe('concurrent edits', () => {
     const base = (await c.get(`/api/layouts/${layout.id}`)).body.current;
     const created = await Promise.all(
       Array.from({ length: 50 }, (_, i) =>
-        c.post(`/api/machines/${machineId}/layouts`, { name: `parallel ${i}`, body: { ...base.body, rotorRpm: 400 + i }, note: `writer ${i}` }),
+        c.post(`/api/machines/${machineId}/layouts`, {
+          name: `parallel ${i}`,
+          body: { ...base.body, rotorRpm: 400 + i },
+          note: `writer ${i}`,
+        }),
       ),
     );
     const acked = created.filter((r) => r.status === 201);

@@ -34,7 +34,11 @@ describe('CSV exports cannot carry formulas', () => {
       expect(res.status, JSON.stringify(res.body)).toBe(201);
     }
     const writer: Client = clients.own.operator;
-    const pr = await writer.post('/api/parts-requests', { from: 'manual', machineId: f.machineId, lines: partNumbers.map((partNumber) => ({ partNumber, quantity: 1 })) });
+    const pr = await writer.post('/api/parts-requests', {
+      from: 'manual',
+      machineId: f.machineId,
+      lines: partNumbers.map((partNumber) => ({ partNumber, quantity: 1 })),
+    });
     expect(pr.status, JSON.stringify(pr.body)).toBe(201);
     requestId = pr.body.id;
     number = pr.body.number;

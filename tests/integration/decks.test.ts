@@ -3,8 +3,8 @@ import { mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { demoCatalog, sedgeS6, tamarackM4 } from '../../src/lib/domain/demo-catalog';
-import { starterLayout } from '../../src/lib/domain/starter';
+import { demoCatalog, sedgeS6, tamarackM4 } from '~/lib/domain/demo-catalog';
+import { starterLayout } from '~/lib/domain/starter';
 import { Client, DEMO_PASSWORD, signedIn } from './client';
 import { firstLayoutOf, machineByNickname, uniq } from './fleet-helpers';
 import { databaseFor, removeDir, startServer, type RunningServer } from './server';
@@ -45,7 +45,12 @@ async function slidesOf(c: Client, deckId: string) {
 }
 
 beforeAll(async () => {
-  [priya, tomas, olive, ada] = await Promise.all([signedIn('trainer'), signedIn('technician'), signedIn('operator'), signedIn('dealerAdmin')]);
+  [priya, tomas, olive, ada] = await Promise.all([
+    signedIn('trainer'),
+    signedIn('technician'),
+    signedIn('operator'),
+    signedIn('dealerAdmin'),
+  ]);
   wheatVersionId = await versionIdOf(priya, 'North Quarter');
 });
 
@@ -57,7 +62,12 @@ describe('the demo deck', () => {
     expect(demo).toMatchObject({ slideCount: 4, createdByName: 'Priya Nand' });
     const slides = await slidesOf(tomas, demo.id);
     expect(slides.map((s) => s.position)).toEqual([1, 2, 3, 4]);
-    expect(slides[0]!.source).toMatchObject({ kind: 'version', layoutVersionId: wheatVersionId, machineNickname: 'North Quarter', orgName: 'Larkspur Farms' });
+    expect(slides[0]!.source).toMatchObject({
+      kind: 'version',
+      layoutVersionId: wheatVersionId,
+      machineNickname: 'North Quarter',
+      orgName: 'Larkspur Farms',
+    });
     expect(slides.slice(1).map((s) => s.source.kind)).toEqual(['sample', 'sample', 'sample']);
     expect(slides[2]!.layout.crop).toBe('field-peas');
     expect(slides[3]!.layout.familyId).toBe('sedge-s6');
@@ -73,13 +83,24 @@ describe('building a deck', () => {
     expect(renamed.status).toBe(200);
     expect(renamed.body.deck.title).toBe('Pulses, week 2');
 
-    const a = await priya.post(`/api/decks/${deck.id}/slides`, { title: 'Wheat on North Quarter', notes: '**Fine** up front', layoutVersionId: wheatVersionId });
+    const a = await priya.post(`/api/decks/${deck.id}/slides`, {
+      title: 'Wheat on North Quarter',
+      notes: '**Fine** up front',
+      layoutVersionId: wheatVersionId,
+    });
     expect(a.status, JSON.stringify(a.body)).toBe(201);
-    expect(a.body.slide).toMatchObject({ position: 1, title: 'Wheat on North Quarter', source: { kind: 'version', layoutVersionId: wheatVersionId } });
+    expect(a.body.slide).toMatchObject({
+      position: 1,
+      title: 'Wheat on North Quarter',
+      source: { kind: 'version', layoutVersionId: wheatVersionId },
+    });
     expect(a.body.slide.layout.crop).toBe('wheat');
     expect(a.body.slide.notesHtml).toContain('<strong>Fine</strong>');
 
-    const b = await tomas.post(`/api/decks/${deck.id}/slides`, { title: 'Corn start on the split cage', starter: { familyId: 'sedge-s6', crop: 'corn' } });
+    const b = await tomas.post(`/api/decks/${deck.id}/slides`, {
+      title: 'Corn start on the split cage',
+      starter: { familyId: 'sedge-s6', crop: 'corn' },
+    });
     expect(b.status, JSON.stringify(b.body)).toBe(201);
     expect(b.body.slide).toMatchObject({ position: 2, source: { kind: 'sample' } });
     expect(b.body.slide.layout).toEqual(starterLayout(sedgeS6, 'corn', demoCatalog));
@@ -98,7 +119,10 @@ describe('building a deck', () => {
       [ids[1], 3],
     ]);
 
-    const edited = await priya.patch(`/api/decks/${deck.id}/slides/${ids[1]}`, { title: 'Corn on the split cage', notes: '- husks hide kernels' });
+    const edited = await priya.patch(`/api/decks/${deck.id}/slides/${ids[1]}`, {
+      title: 'Corn on the split cage',
+      notes: '- husks hide kernels',
+    });
     expect(edited.status).toBe(200);
     expect(edited.body.slide).toMatchObject({ title: 'Corn on the split cage', notes: '- husks hide kernels', position: 3 });
     expect(edited.body.slide.notesHtml).toMatch(/<li>husks hide kernels<\/li>/);
@@ -141,7 +165,8 @@ describe('building a deck', () => {
 describe('who may', () => {
   it('refuses the signed-out (401) and other roles (403) on every deck route', async () => {
     const deck = await newDeck(priya);
-    const slide = (await priya.post(`/api/decks/${deck.id}/slides`, { title: 'S', starter: { familyId: 'tamarack-m4', crop: 'wheat' } })).body.slide;
+    const slide = (await priya.post(`/api/decks/${deck.id}/slides`, { title: 'S', starter: { familyId: 'tamarack-m4', crop: 'wheat' } }))
+      .body.slide;
     const routes: [string, string, unknown?][] = [
       ['GET', '/api/decks'],
       ['POST', '/api/decks', { title: 'x' }],
@@ -200,7 +225,10 @@ describe('bad input', () => {
       [{ title: 'Bad crop', starter: { familyId: 'tamarack-m4', crop: 'quinoa' } }, 'starter.crop'],
       [{ title: 'No family', starter: { familyId: 'no-such-family', crop: 'wheat' } }, 'starter.familyId'],
       [{ title: 'Unknown part', sampleLayout: unknownPart }, 'sampleLayout.elements.2.partNumber'],
-      [{ title: 'Foreign family', sampleLayout: { ...starterLayout(tamarackM4, 'wheat', demoCatalog), familyId: 'larch-x9' } }, 'sampleLayout.familyId'],
+      [
+        { title: 'Foreign family', sampleLayout: { ...starterLayout(tamarackM4, 'wheat', demoCatalog), familyId: 'larch-x9' } },
+        'sampleLayout.familyId',
+      ],
       [{ title: 'Not a layout', sampleLayout: { format: 'x' } }, 'sampleLayout.format'],
       [{ title: 'Long notes', notes: 'n'.repeat(10_001), starter: { familyId: 'tamarack-m4', crop: 'wheat' } }, 'notes'],
     ];
@@ -209,9 +237,17 @@ describe('bad input', () => {
       expect(res.status, JSON.stringify(body).slice(0, 200)).toBe(400);
       expect(res.body.error.field, JSON.stringify(body).slice(0, 200)).toBe(field);
     }
-    const wrongType = await priya.fetch(`/api/decks/${deck.id}/slides`, { method: 'POST', headers: { 'content-type': 'text/plain' }, body: 'x' });
+    const wrongType = await priya.fetch(`/api/decks/${deck.id}/slides`, {
+      method: 'POST',
+      headers: { 'content-type': 'text/plain' },
+      body: 'x',
+    });
     expect(wrongType.status).toBe(415);
-    const broken = await priya.fetch(`/api/decks/${deck.id}/slides`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: '{' });
+    const broken = await priya.fetch(`/api/decks/${deck.id}/slides`, {
+      method: 'POST',
+      headers: { 'content-type': 'application/json' },
+      body: '{',
+    });
     expect(broken.status).toBe(400);
     expect((await priya.post('/api/decks', { title: '   ' })).body.error.field).toBe('title');
     expect((await priya.patch(`/api/decks/${deck.id}`, { title: '' })).status).toBe(400);
@@ -221,7 +257,8 @@ describe('bad input', () => {
   it('refuses a reorder that does not name every slide exactly once', async () => {
     const deck = await newDeck(priya);
     const add = async (title: string) =>
-      (await priya.post(`/api/decks/${deck.id}/slides`, { title, starter: { familyId: 'tamarack-m4', crop: 'wheat' } })).body.slide.id as string;
+      (await priya.post(`/api/decks/${deck.id}/slides`, { title, starter: { familyId: 'tamarack-m4', crop: 'wheat' } })).body.slide
+        .id as string;
     const [x, y] = [await add('X'), await add('Y')];
     for (const [order, field] of [
       [[x], 'order'],
@@ -246,7 +283,9 @@ describe('bad input', () => {
     expect((await priya.delete(`/api/decks/${deck.id}/share?link=${NO_UUID}`)).status).toBe(404);
     // A slide of another deck is not found through this one.
     const other = await newDeck(priya);
-    const s = (await priya.post(`/api/decks/${other.id}/slides`, { title: 'Elsewhere', starter: { familyId: 'tamarack-m4', crop: 'oats' } })).body.slide;
+    const s = (
+      await priya.post(`/api/decks/${other.id}/slides`, { title: 'Elsewhere', starter: { familyId: 'tamarack-m4', crop: 'oats' } })
+    ).body.slide;
     expect((await priya.patch(`/api/decks/${deck.id}/slides/${s.id}`, { title: 'Stolen' })).status).toBe(404);
     expect((await slidesOf(priya, other.id))[0]!.title).toBe('Elsewhere');
   });
@@ -263,13 +302,23 @@ describe('talking points', () => {
 
   it('are rendered without any way to run script, in the API and on every page that shows them', async () => {
     const deck = await newDeck(priya, 'Hostile notes');
-    const res = await priya.post(`/api/decks/${deck.id}/slides`, { title: 'Sneaky', notes: hostile, starter: { familyId: 'tamarack-m4', crop: 'wheat' } });
+    const res = await priya.post(`/api/decks/${deck.id}/slides`, {
+      title: 'Sneaky',
+      notes: hostile,
+      starter: { familyId: 'tamarack-m4', crop: 'wheat' },
+    });
     expect(res.status).toBe(201);
     const html: string = res.body.slide.notesHtml;
     expect(res.body.slide.notes).toBe(hostile); // the source is kept as written
     const tags = html.match(/<[a-z][^>]*>/gi) ?? [];
-    expect(tags.every((t) => /^<(p|strong|em|a|ul|ol|li|code|br)\b/i.test(t)), tags.join(' ')).toBe(true);
-    expect(tags.some((t) => /\son\w+=|javascript:/i.test(t)), tags.join(' ')).toBe(false);
+    expect(
+      tags.every((t) => /^<(p|strong|em|a|ul|ol|li|code|br)\b/i.test(t)),
+      tags.join(' '),
+    ).toBe(true);
+    expect(
+      tags.some((t) => /\son\w+=|javascript:/i.test(t)),
+      tags.join(' '),
+    ).toBe(false);
     expect(html).toContain('&lt;script&gt;');
     expect(html).toContain('Click here or');
 
@@ -290,9 +339,16 @@ describe('talking points', () => {
 describe('sharing a deck', () => {
   it('opens read-only without sign-in, lists the link without its token, and closes when revoked', async () => {
     const deck = await newDeck(priya, 'Shared class');
-    await priya.post(`/api/decks/${deck.id}/slides`, { title: 'Wheat on North Quarter', notes: 'Look at **position 1**', layoutVersionId: wheatVersionId });
+    await priya.post(`/api/decks/${deck.id}/slides`, {
+      title: 'Wheat on North Quarter',
+      notes: 'Look at **position 1**',
+      layoutVersionId: wheatVersionId,
+    });
     await priya.post(`/api/decks/${deck.id}/slides`, { title: 'Lentils, split cage', starter: { familyId: 'sedge-s6', crop: 'lentils' } });
-    const made = await priya.post(`/api/decks/${deck.id}/share`, { label: 'Spring class', expiresAt: new Date(Date.now() + 7 * 86_400_000).toISOString() });
+    const made = await priya.post(`/api/decks/${deck.id}/share`, {
+      label: 'Spring class',
+      expiresAt: new Date(Date.now() + 7 * 86_400_000).toISOString(),
+    });
     expect(made.status, JSON.stringify(made.body)).toBe(201);
     expect(made.body.token).toMatch(/^[A-Za-z0-9_-]{43}$/); // 256 random bits
     expect(made.body.path).toBe(`/share/deck/${made.body.token}`);
@@ -310,7 +366,10 @@ describe('sharing a deck', () => {
     expect(html).toContain('<strong>position 1</strong>');
     expect(html).toContain('data-testid="cage-diagram"');
     expect(html).not.toContain('<astro-island'); // rendered on the server, no script to load
-    expect((await anon.fetch(made.body.path, { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: 'x=1' })).status).toBe(405);
+    expect(
+      (await anon.fetch(made.body.path, { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: 'x=1' }))
+        .status,
+    ).toBe(405);
     // A deck link is not a layout link.
     expect((await anon.fetch(`/share/${made.body.token}`)).status).toBe(404);
 
@@ -371,7 +430,10 @@ describe('comparing layouts in class', () => {
     expect(html).toContain('Rotor speed (rpm)');
     expect(html).toContain('Position 1, left');
     expect(html.match(/Δ CHANGED/g)?.length ?? 0).toBeGreaterThanOrEqual(8); // 4 elements × 2 diagrams at least
-    const slides = await slidesOf(priya, (await priya.get('/api/decks')).body.decks.find((d: any) => d.title === 'Small grains vs pulses').id);
+    const slides = await slidesOf(
+      priya,
+      (await priya.get('/api/decks')).body.decks.find((d: any) => d.title === 'Small grains vs pulses').id,
+    );
     const bySlide = await priya.fetch(`/classroom/compare?a=slide:${slides[1]!.id}&b=slide:${slides[2]!.id}`);
     expect(bySlide.status).toBe(200);
     expect(await bySlide.text()).toContain('What goes wrong: the wheat cage left in for peas');
@@ -385,7 +447,14 @@ describe('comparing layouts in class', () => {
 // server's database for that data directory) before its server opens it.
 describe('another dealer’s rows', () => {
   let server: RunningServer | null = null;
-  let ids: { otherVersionId: string; otherDeckId: string; otherTrainer: string; expiredToken: string; revokedToken: string; liveToken: string };
+  let ids: {
+    otherVersionId: string;
+    otherDeckId: string;
+    otherTrainer: string;
+    expiredToken: string;
+    revokedToken: string;
+    liveToken: string;
+  };
   let ourTrainer: Client;
   let theirTrainer: Client;
 
@@ -433,7 +502,10 @@ describe('another dealer’s rows', () => {
     expect((await ourTrainer.fetch(`/classroom/${ids.otherDeckId}/present`)).status).toBe(404);
     const demo = ours.body.decks.find((d: any) => d.title === 'Small grains vs pulses');
     const wheatOnNorthQuarter = (await ourTrainer.get(`/api/decks/${demo.id}`)).body.slides[0].source.layoutVersionId;
-    const back = await theirTrainer.post(`/api/decks/${ids.otherDeckId}/slides`, { title: 'Borrowed', layoutVersionId: wheatOnNorthQuarter });
+    const back = await theirTrainer.post(`/api/decks/${ids.otherDeckId}/slides`, {
+      title: 'Borrowed',
+      layoutVersionId: wheatOnNorthQuarter,
+    });
     expect(back.status).toBe(404);
     expect((await theirTrainer.get(`/api/decks/${ids.otherDeckId}`)).body.deck.title).toBe('Barley basics');
   });

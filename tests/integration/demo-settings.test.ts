@@ -6,14 +6,20 @@
  */
 import { describe, expect, it } from 'vitest';
 import { signedIn } from './client';
-import { cropPrograms, demoFamilies, drumFor, rpmWindow, startRpm, vaneSettingsFor, type Finding, type Layout } from '../../src/lib/domain';
+import { cropPrograms, demoFamilies, drumFor, rpmWindow, startRpm, vaneSettingsFor, type Finding, type Layout } from '~/lib/domain';
 
 const serious = (fs: Finding[]) => fs.filter((f) => f.severity !== 'advice').map((f) => f.code);
 
 describe('demo layouts under the settings rules', () => {
   it('every seeded machine: starter settings on its own drum and vanes, no blocks-fit or hurts-crop finding', async () => {
     const admin = await signedIn('dealerAdmin');
-    const machines = (await admin.get('/api/machines')).body.items as { id: string; nickname: string; familyId: string; drum: 'full' | 'slim'; vaneControl: 'fixed' | 'manual' | 'powered' }[];
+    const machines = (await admin.get('/api/machines')).body.items as {
+      id: string;
+      nickname: string;
+      familyId: string;
+      drum: 'full' | 'slim';
+      vaneControl: 'fixed' | 'manual' | 'powered';
+    }[];
     expect(machines.map((m) => m.nickname).sort()).toEqual(expect.arrayContaining(['Bean Runner', 'Creekside', 'North Quarter']));
     expect(machines.some((m) => m.drum === 'slim')).toBe(true);
     for (const m of machines.filter((x) => ['Bean Runner', 'Creekside', 'North Quarter'].includes(x.nickname))) {

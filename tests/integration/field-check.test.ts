@@ -26,7 +26,13 @@ async function as(email: string) {
 }
 
 beforeAll(async () => {
-  [olive, dev, tomas, priya, ada] = await Promise.all([signedIn('operator'), signedIn('operator2'), signedIn('technician'), signedIn('trainer'), signedIn('dealerAdmin')]);
+  [olive, dev, tomas, priya, ada] = await Promise.all([
+    signedIn('operator'),
+    signedIn('operator2'),
+    signedIn('technician'),
+    signedIn('trainer'),
+    signedIn('dealerAdmin'),
+  ]);
   [stranger, strangerAdmin] = await Promise.all([as(OTHER.operator), as(OTHER.dealer_admin)]);
   const list = await olive.get('/api/machines?pageSize=100');
   machineId = (list.body.items ?? list.body.machines).find((m: { nickname: string }) => m.nickname === 'North Quarter').id;
@@ -39,13 +45,16 @@ describe('recording a loss check', () => {
     const installed = (await olive.get(`/api/machines/${machineId}/installed`)).body.installed.layout;
     // Wheat on the published 20 kernels/ft² (smallgrains.org, 2003): standing 2, behind the header 10,
     // behind the machine 10 + 3 × 12 with a 30 ft cut spread over 10 ft (concentration 3).
-    const res = await olive.post(`/api/machines/${machineId}/loss-checks`, body({
-      fieldName: 'Integration quarter',
-      counts: { preHarvest: [2, 2], header: [9, 11], behindMachine: [46] },
-      price: { value: 7, per: 'bu', currency: '$' },
-      moisturePct: 13.5,
-      checkedAt: '2026-08-20T15:00:00Z',
-    }));
+    const res = await olive.post(
+      `/api/machines/${machineId}/loss-checks`,
+      body({
+        fieldName: 'Integration quarter',
+        counts: { preHarvest: [2, 2], header: [9, 11], behindMachine: [46] },
+        price: { value: 7, per: 'bu', currency: '$' },
+        moisturePct: 13.5,
+        checkedAt: '2026-08-20T15:00:00Z',
+      }),
+    );
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     const r = res.body.result;
     expect(r.basis).toMatchObject({ kind: 'published', kernelsPerFt2PerBuAc: 20 });
@@ -84,7 +93,10 @@ describe('recording a loss check', () => {
   });
 
   it('takes the settings typed in the cab over what is installed', async () => {
-    const res = await tomas.post(`/api/machines/${machineId}/loss-checks`, body({ settings: { rotorRpm: 801, clearanceMm: 9.5, vaneSetting: 'slow', fanRpm: null } }));
+    const res = await tomas.post(
+      `/api/machines/${machineId}/loss-checks`,
+      body({ settings: { rotorRpm: 801, clearanceMm: 9.5, vaneSetting: 'slow', fanRpm: null } }),
+    );
     expect(res.status, JSON.stringify(res.body)).toBe(201);
     expect(res.body).toMatchObject({ rotorRpm: 801, clearanceMm: 9.5, vaneSetting: 'slow', fanRpm: null });
   });
@@ -161,7 +173,10 @@ describe('roles and organisations', () => {
 
 describe('season log CSV', () => {
   it('downloads the season with cells that could run as formulas neutralised', async () => {
-    await olive.post(`/api/machines/${machineId}/loss-checks`, body({ fieldName: '=HYPERLINK("http://x")', checkedAt: '2026-08-21T10:00:00Z' }));
+    await olive.post(
+      `/api/machines/${machineId}/loss-checks`,
+      body({ fieldName: '=HYPERLINK("http://x")', checkedAt: '2026-08-21T10:00:00Z' }),
+    );
     const res = await priya.fetch(`/api/machines/${machineId}/loss-checks?season=2026&format=csv`);
     expect(res.status).toBe(200);
     expect(res.headers.get('content-type')).toMatch(/text\/csv/);
@@ -185,11 +200,21 @@ describe('season log CSV', () => {
 describe('dealer starting values and the settings card', () => {
   let familyId: string;
   beforeAll(async () => {
-    familyId = (await olive.get(`/api/machines/${machineId}`)).body.familyId ?? (await olive.get(`/api/machines/${machineId}`)).body.machine.familyId;
+    familyId =
+      (await olive.get(`/api/machines/${machineId}`)).body.familyId ??
+      (await olive.get(`/api/machines/${machineId}`)).body.machine.familyId;
   });
 
   it('the dealer’s administrator sets values; the farm sees them; the other dealer’s admin changes only their own', async () => {
-    const put = await ada.put('/api/starting-values', { familyId, crop: 'barley', fanRpm: 990, upperSieveMm: 15, lowerSieveMm: 7, feederNote: 'Drum low', headerNote: '' });
+    const put = await ada.put('/api/starting-values', {
+      familyId,
+      crop: 'barley',
+      fanRpm: 990,
+      upperSieveMm: 15,
+      lowerSieveMm: 7,
+      feederNote: 'Drum low',
+      headerNote: '',
+    });
     expect(put.status, JSON.stringify(put.body)).toBe(200);
     expect(put.body).toMatchObject({ fanRpm: 990, invented: false });
     const seen = await olive.get(`/api/starting-values?familyId=${familyId}&crop=barley`);
@@ -204,7 +229,12 @@ describe('dealer starting values and the settings card', () => {
 
   it('bad values are named and nothing is written; technicians may not set them', async () => {
     const before = await counts();
-    for (const [over, field] of [[{ fanRpm: -5 }, 'fanRpm'], [{ upperSieveMm: 'wide' }, 'upperSieveMm'], [{ crop: 'rye-grass' }, 'crop'], [{ familyId: 'no-such-family' }, 'familyId']] as const) {
+    for (const [over, field] of [
+      [{ fanRpm: -5 }, 'fanRpm'],
+      [{ upperSieveMm: 'wide' }, 'upperSieveMm'],
+      [{ crop: 'rye-grass' }, 'crop'],
+      [{ familyId: 'no-such-family' }, 'familyId'],
+    ] as const) {
       const res = await ada.put('/api/starting-values', { familyId, crop: 'wheat', ...over });
       expect(res.status).toBe(400);
       expect(res.body.error.field).toBe(field);
@@ -215,14 +245,26 @@ describe('dealer starting values and the settings card', () => {
 
   it('the starting-values page takes the same values from a plain form, naming bad ones', async () => {
     const post = (c: Client, fields: Record<string, string>) =>
-      c.fetch('/admin/starting-values', { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: new URLSearchParams(fields).toString() });
+      c.fetch('/admin/starting-values', {
+        method: 'POST',
+        headers: { 'content-type': 'application/x-www-form-urlencoded' },
+        body: new URLSearchParams(fields).toString(),
+      });
     const before = await counts();
     const bad = await post(ada, { familyId, crop: 'oats', fanRpm: '-40', upperSieve: '12', lowerSieve: '' });
     expect(bad.status).toBe(400);
     expect(await bad.text()).toContain('fanRpm: the fan speed is too low');
     expect((await post(tomas, { familyId, crop: 'oats', fanRpm: '900' })).status).toBe(403);
     expect(await counts()).toEqual(before);
-    const good = await post(ada, { familyId, crop: 'oats', fanRpm: '900', upperSieve: '14.5', lowerSieve: '6', feederNote: 'Drum low', headerNote: '' });
+    const good = await post(ada, {
+      familyId,
+      crop: 'oats',
+      fanRpm: '900',
+      upperSieve: '14.5',
+      lowerSieve: '6',
+      feederNote: 'Drum low',
+      headerNote: '',
+    });
     expect(good.status).toBe(303);
     const seen = await olive.get(`/api/starting-values?familyId=${familyId}&crop=oats`);
     expect(seen.body.items[0]).toMatchObject({ fanRpm: 900, upperSieveMm: 14.5, lowerSieveMm: 6, feederNote: 'Drum low', invented: false });

@@ -163,7 +163,13 @@ describe('machines: create, read, update, delete', () => {
   });
 
   it('creates an operator’s machine on their own farm by default', async () => {
-    const res = await olive.post('/api/machines', { familyId: 'sedge-s6', drum: 'full', vaneControl: 'manual', serial: uniq('LK'), nickname: 'Hilltop' });
+    const res = await olive.post('/api/machines', {
+      familyId: 'sedge-s6',
+      drum: 'full',
+      vaneControl: 'manual',
+      serial: uniq('LK'),
+      nickname: 'Hilltop',
+    });
     expect(res.status).toBe(201);
     expect(res.body.machine.orgId).toBe(northQuarter.orgId);
   });
@@ -207,7 +213,11 @@ describe('machines: create, read, update, delete', () => {
   });
 
   it('hides another organisation’s machine as not found', async () => {
-    for (const path of [`/api/machines/${creekside.id}`, `/api/machines/${creekside.id}/installed`, `/api/machines/${creekside.id}/layouts`]) {
+    for (const path of [
+      `/api/machines/${creekside.id}`,
+      `/api/machines/${creekside.id}/installed`,
+      `/api/machines/${creekside.id}/layouts`,
+    ]) {
       const res = await olive.get(path);
       expect(res.status, path).toBe(404);
     }
@@ -218,7 +228,13 @@ describe('machines: create, read, update, delete', () => {
   });
 
   it('updates a machine, keeping its family, and refuses the wrong role', async () => {
-    const created = await dev.post('/api/machines', { familyId: 'tamarack-m4', drum: 'full', vaneControl: 'fixed', serial: uniq('HB'), nickname: 'Old Blue' });
+    const created = await dev.post('/api/machines', {
+      familyId: 'tamarack-m4',
+      drum: 'full',
+      vaneControl: 'fixed',
+      serial: uniq('HB'),
+      nickname: 'Old Blue',
+    });
     const id = created.body.machine.id;
     expect((await new Client().put(`/api/machines/${id}`, { nickname: 'x' })).status).toBe(401);
     expect((await priya.put(`/api/machines/${id}`, { nickname: 'x' })).status).toBe(403);
@@ -241,7 +257,13 @@ describe('machines: create, read, update, delete', () => {
   });
 
   it('deletes a machine with its layouts; a trainer may not', async () => {
-    const created = await dev.post('/api/machines', { familyId: 'tamarack-m4', drum: 'full', vaneControl: 'fixed', serial: uniq('HB'), nickname: 'Scrap' });
+    const created = await dev.post('/api/machines', {
+      familyId: 'tamarack-m4',
+      drum: 'full',
+      vaneControl: 'fixed',
+      serial: uniq('HB'),
+      nickname: 'Scrap',
+    });
     const id = created.body.machine.id;
     const { layout } = await newLayout(dev, id, 'to go');
     expect((await priya.delete(`/api/machines/${id}`)).status).toBe(403);
@@ -262,7 +284,9 @@ describe('what is installed', () => {
     expect(Array.isArray(got.body.findings)).toBe(true);
 
     const { layout } = await newLayout(olive, northQuarter.id, uniq('canola plan'), 'canola');
-    expect((await priya.put(`/api/machines/${northQuarter.id}/installed`, { fromLayout: { layoutId: layout.id, version: 1 } })).status).toBe(403);
+    expect(
+      (await priya.put(`/api/machines/${northQuarter.id}/installed`, { fromLayout: { layoutId: layout.id, version: 1 } })).status,
+    ).toBe(403);
     const put = await olive.put(`/api/machines/${northQuarter.id}/installed`, { fromLayout: { layoutId: layout.id, version: 1 } });
     expect(put.status, JSON.stringify(put.body)).toBe(200);
     expect(put.body.installed.layout.crop).toBe('canola');
@@ -372,8 +396,21 @@ describe('layouts: start, history, restore, compare, copy', () => {
     expect(res.body.a.version).toBe(1);
     expect(res.body.b.version).toBe(2);
     expect(res.body.diff.differences).toEqual([
-      { kind: 'setting', place: { kind: 'setting', field: 'rotorRpm' }, field: 'rotorRpm', change: 'changed', before: res.body.a.body.rotorRpm, after: 690 },
-      { kind: 'element', place: { kind: 'element', position: 2, side: 'left' }, change: 'changed', before: 'CW-FW-L-04', after: 'CW-WW-L-04' },
+      {
+        kind: 'setting',
+        place: { kind: 'setting', field: 'rotorRpm' },
+        field: 'rotorRpm',
+        change: 'changed',
+        before: res.body.a.body.rotorRpm,
+        after: 690,
+      },
+      {
+        kind: 'element',
+        place: { kind: 'element', position: 2, side: 'left' },
+        change: 'changed',
+        before: 'CW-FW-L-04',
+        after: 'CW-WW-L-04',
+      },
     ]);
     expect(Array.isArray(res.body.a.findings)).toBe(true);
     expect((await priya.get(`/api/layouts/${layout.id}/compare?a=1&b=2`)).status).toBe(200);
@@ -389,9 +426,14 @@ describe('layouts: start, history, restore, compare, copy', () => {
 
   it('copies a layout to a machine of the same family, re-checked, adapted to that machine', async () => {
     const { layout } = await newLayout(olive, northQuarter.id, uniq('to share'), 'wheat');
-    await saveChanged(olive, layout.id, (b) => {
-      b.elements = b.elements.filter((e: any) => !(e.position === 4 && e.side === 'right'));
-    }, 'missing one');
+    await saveChanged(
+      olive,
+      layout.id,
+      (b) => {
+        b.elements = b.elements.filter((e: any) => !(e.position === 4 && e.side === 'right'));
+      },
+      'missing one',
+    );
     const copy = await tomas.post(`/api/layouts/${layout.id}/copy`, { machineId: beanRunner.id, version: 2 });
     expect(copy.status, JSON.stringify(copy.body)).toBe(201);
     // North Quarter: slim drum, powered vanes; Bean Runner: full drum, fixed vanes.
@@ -462,10 +504,36 @@ describe('bad input on every write route (generated bodies)', () => {
       [ada, 'PUT', '/api/catalog/parts/CW-FW-L-04'],
     ];
     // Arbitrary JSON, and objects whose keys are the routes' real field names with wrong values.
-    const keys = fc.constantFrom('name', 'nickname', 'serial', 'familyId', 'drum', 'vaneControl', 'orgId', 'layout', 'body', 'baseVersion', 'version', 'machineId', 'layoutId', 'label', 'expiresAt', 'part', 'crop', 'positions', 'id');
+    const keys = fc.constantFrom(
+      'name',
+      'nickname',
+      'serial',
+      'familyId',
+      'drum',
+      'vaneControl',
+      'orgId',
+      'layout',
+      'body',
+      'baseVersion',
+      'version',
+      'machineId',
+      'layoutId',
+      'label',
+      'expiresAt',
+      'part',
+      'crop',
+      'positions',
+      'id',
+    );
     // Field values are never strings: a random string can be a valid name, and then the body is
     // simply valid (that is not bad input).
-    const notString = fc.oneof(fc.integer(), fc.double(), fc.boolean(), fc.array(fc.jsonValue({ maxDepth: 1 }), { maxLength: 3 }), fc.dictionary(fc.string(), fc.jsonValue({ maxDepth: 1 }), { maxKeys: 3 }));
+    const notString = fc.oneof(
+      fc.integer(),
+      fc.double(),
+      fc.boolean(),
+      fc.array(fc.jsonValue({ maxDepth: 1 }), { maxLength: 3 }),
+      fc.dictionary(fc.string(), fc.jsonValue({ maxDepth: 1 }), { maxKeys: 3 }),
+    );
     const body = fc.oneof(fc.jsonValue({ maxDepth: 3 }), fc.dictionary(keys, notString, { minKeys: 1, maxKeys: 5 }));
     for (const [client, method, path] of routes) {
       await fc.assert(
@@ -474,7 +542,8 @@ describe('bad input on every write route (generated bodies)', () => {
           expect(res.status, `${method} ${path} ${JSON.stringify(b).slice(0, 200)}`).toBeGreaterThanOrEqual(400);
           expect(res.status, `${method} ${path} ${JSON.stringify(b).slice(0, 200)}`).toBeLessThan(500);
           expect(typeof res.body.error.message).toBe('string');
-          if (res.status === 400 && b !== null && typeof b === 'object' && !Array.isArray(b)) expect(res.body.error.field, `${path} ${JSON.stringify(b).slice(0, 200)}`).toBeTruthy();
+          if (res.status === 400 && b !== null && typeof b === 'object' && !Array.isArray(b))
+            expect(res.body.error.field, `${path} ${JSON.stringify(b).slice(0, 200)}`).toBeTruthy();
         }),
         { numRuns: 15 },
       );

@@ -5,7 +5,11 @@ import { Client, signedIn } from './client';
 import { fill, pageRoutes } from './routes';
 import { outDir, removeDir, startServer, type RunningServer } from './server';
 
-const directive = (csp: string, name: string) => csp.split(';').map((d) => d.trim()).find((d) => d.startsWith(`${name} `)) ?? '';
+const directive = (csp: string, name: string) =>
+  csp
+    .split(';')
+    .map((d) => d.trim())
+    .find((d) => d.startsWith(`${name} `)) ?? '';
 
 function expectSecurityHeaders(res: Response, where: string) {
   const csp = res.headers.get('content-security-policy') ?? '';

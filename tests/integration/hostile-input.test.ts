@@ -48,7 +48,10 @@ const junk: fc.Arbitrary<unknown> = fc.oneof(
   fc.constantFrom(-1, 0, 0.5, 1e21, -1e21, Number.MAX_SAFE_INTEGER + 2),
   fc.array(fc.oneof(fc.integer(), fc.string({ maxLength: 5 })), { maxLength: 5 }),
   fc.object({ maxDepth: 3, maxKeys: 4 }),
-  fc.constantFrom(nested(300, (v) => [v]), nested(300, (v) => ({ a: v }))),
+  fc.constantFrom(
+    nested(300, (v) => [v]),
+    nested(300, (v) => ({ a: v })),
+  ),
   fc.dictionary(fc.constantFrom('__proto__', 'constructor', 'prototype'), fc.integer()),
 );
 
@@ -71,7 +74,17 @@ function hostileJson(schema: ZodType, valid: unknown): fc.Arbitrary<Hostile> {
   };
   const validRaw = JSON.stringify(valid);
   const notJson = fc
-    .oneof(fc.constantFrom('{', '{"a":', "{'a':1}", '[1,]', '', 'undefined', validRaw.slice(0, -1)), fc.string().filter((s) => { try { JSON.parse(s); return false; } catch { return true; } }))
+    .oneof(
+      fc.constantFrom('{', '{"a":', "{'a':1}", '[1,]', '', 'undefined', validRaw.slice(0, -1)),
+      fc.string().filter((s) => {
+        try {
+          JSON.parse(s);
+          return false;
+        } catch {
+          return true;
+        }
+      }),
+    )
     .map((raw) => ({ raw, type: 'application/json', why: 'not JSON', expect: { status: 400, field: 'body' } }));
   const badUtf8 = fc
     .uint8Array({ minLength: 1, maxLength: 8 })
@@ -79,7 +92,12 @@ function hostileJson(schema: ZodType, valid: unknown): fc.Arbitrary<Hostile> {
     .map((raw) => ({ raw, type: 'application/json', why: 'bad UTF-8', expect: { status: 400, field: 'body' } }));
   const wrongType = fc
     .constantFrom('text/plain', 'application/x-www-form-urlencoded', 'multipart/form-data; boundary=x', 'application/xml', null)
-    .map((type) => ({ raw: validRaw, type, why: `valid body as ${type ?? 'no content type'}`, expect: { status: 415, field: 'content-type' } }));
+    .map((type) => ({
+      raw: validRaw,
+      type,
+      why: `valid body as ${type ?? 'no content type'}`,
+      expect: { status: 415, field: 'content-type' },
+    }));
   const root = junk.filter((v) => !schema.safeParse(v).success).map((v) => asJson(v, 'wrong shape'));
   // Only nodes the schema constrains: a node that takes any value (a layout checked later) is left alone.
   const PROBES: unknown[] = [null, 0, -1, 0.5, '', 'x', true, [], {}, HUGE, [[[]]], { a: { b: 1 } }];
@@ -92,7 +110,9 @@ function hostileJson(schema: ZodType, valid: unknown): fc.Arbitrary<Hostile> {
         .map(({ body, why }) => asJson(body, why))
     : root;
   // Dropping a node the schema needs (at any depth): listed from the schema itself.
-  const drops = spreadOut(nodePaths(valid), 60).map((p) => ({ body: deleteAt(valid, p), why: `${p.join('.')} missing` })).filter(({ body }) => refusal(JSON.stringify(body)) !== null);
+  const drops = spreadOut(nodePaths(valid), 60)
+    .map((p) => ({ body: deleteAt(valid, p), why: `${p.join('.')} missing` }))
+    .filter(({ body }) => refusal(JSON.stringify(body)) !== null);
   const dropped = drops.length ? fc.constantFrom(...drops).map(({ body, why }) => asJson(body, why)) : root;
   const withExtras = fc
     .tuple(fc.oneof(replaced, dropped), extras)
@@ -107,7 +127,14 @@ function hostileJson(schema: ZodType, valid: unknown): fc.Arbitrary<Hostile> {
 
 /** Bodies sent to a route that takes none. */
 const anyBody: fc.Arbitrary<Hostile> = fc
-  .tuple(fc.oneof(junk.map((v) => JSON.stringify(v) ?? 'null'), fc.string({ minLength: 1 }), fc.constant('{}')), fc.constantFrom('application/json', 'text/plain', 'application/x-www-form-urlencoded', null))
+  .tuple(
+    fc.oneof(
+      junk.map((v) => JSON.stringify(v) ?? 'null'),
+      fc.string({ minLength: 1 }),
+      fc.constant('{}'),
+    ),
+    fc.constantFrom('application/json', 'text/plain', 'application/x-www-form-urlencoded', null),
+  )
   .map(([raw, type]) => ({ raw, type, why: `a body (${type ?? 'no content type'})`, expect: { status: 400, field: 'body' } }));
 
 /** Path values no id, slug or part number takes. */
@@ -184,7 +211,11 @@ describe('hostile input on every write route, judged by each route’s own schem
       const query = row!.query?.(f) ?? '';
       const path = fill(w.route, params) + query;
       const before = await digests();
-      const check = (h: Pick<Hostile, 'why' | 'raw'>, r: { status: number; body: any; text: string }, want: { status: number | number[]; field: string }) => {
+      const check = (
+        h: Pick<Hostile, 'why' | 'raw'>,
+        r: { status: number; body: any; text: string },
+        want: { status: number | number[]; field: string },
+      ) => {
         const ctx = `${h.why}: ${String(typeof h.raw === 'string' ? h.raw : '<bytes>').slice(0, 160)} → ${r.status} ${r.text.slice(0, 240)}`;
         if (Array.isArray(want.status)) expect(want.status, ctx).toContain(r.status);
         else expect(r.status, ctx).toBe(want.status);
@@ -230,7 +261,10 @@ describe('hostile input on every write route, judged by each route’s own schem
           fc
             .tuple(fc.array(textField, { maxLength: 3 }), fc.subarray(required), fc.string({ maxLength: 30 }))
             .map(([junkFields, asText, text]) => {
-              const fields: [string, string | Blob][] = [...junkFields.filter(([k]) => !required.includes(k)), ...asText.map((k): [string, string] => [k, text])];
+              const fields: [string, string | Blob][] = [
+                ...junkFields.filter(([k]) => !required.includes(k)),
+                ...asText.map((k): [string, string] => [k, text]),
+              ];
               return { fields, why: `fields ${JSON.stringify(fields.map(([k]) => k))}` };
             }),
           // An empty file.
@@ -245,10 +279,18 @@ describe('hostile input on every write route, judged by each route’s own schem
           { numRuns: RUNS },
         );
         // A file that is no picture at all: refused by its content, naming the field.
-        for (const bytes of [new Uint8Array([1, 2, 3]), new TextEncoder().encode('<svg xmlns="http://www.w3.org/2000/svg"/>'), new Uint8Array([0xff, 0xd8, 0xff, 0xe0, 0, 0])]) {
+        for (const bytes of [
+          new Uint8Array([1, 2, 3]),
+          new TextEncoder().encode('<svg xmlns="http://www.w3.org/2000/svg"/>'),
+          new Uint8Array([0xff, 0xd8, 0xff, 0xe0, 0, 0]),
+        ]) {
           const res = await c.fetch(path, { method: w.method, body: form([[required[0]!, new Blob([bytes], { type: 'image/jpeg' })]]) });
           const text = await res.text();
-          check({ why: 'not a picture', raw: '' }, { status: res.status, body: JSON.parse(text), text }, { status: 415, field: required[0]! });
+          check(
+            { why: 'not a picture', raw: '' },
+            { status: res.status, body: JSON.parse(text), text },
+            { status: 415, field: required[0]! },
+          );
         }
         // The wrong content type, and a multipart body that does not parse.
         for (const [type, raw, want] of [
@@ -261,7 +303,10 @@ describe('hostile input on every write route, judged by each route’s own schem
         }
       } else {
         // The path alone: any body is refused.
-        await fc.assert(fc.asyncProperty(anyBody, async (h) => check(h, await send(c, w.method, path, h), h.expect)), { numRuns: RUNS });
+        await fc.assert(
+          fc.asyncProperty(anyBody, async (h) => check(h, await send(c, w.method, path, h), h.expect)),
+          { numRuns: RUNS },
+        );
       }
 
       if (input!.query) {
@@ -270,11 +315,20 @@ describe('hostile input on every write route, judged by each route’s own schem
         const keys = Object.keys(objectShape(schema) ?? {});
         expect(keys.length).toBeGreaterThan(0);
         const badQuery = fc
-          .tuple(fc.constantFrom(...keys), fc.oneof(fc.string({ minLength: 1, maxLength: 40 }), fc.constantFrom('-1', '0', '1e9', '%', 'null', "' OR 1=1 --", f.machineId.slice(0, -1))))
+          .tuple(
+            fc.constantFrom(...keys),
+            fc.oneof(
+              fc.string({ minLength: 1, maxLength: 40 }),
+              fc.constantFrom('-1', '0', '1e9', '%', 'null', "' OR 1=1 --", f.machineId.slice(0, -1)),
+            ),
+          )
           .filter(([k, v]) => !schema.safeParse({ [k]: v }).success);
         await fc.assert(
           fc.asyncProperty(badQuery, async ([k, v]) => {
-            const r = await send(clientFor(w.key), w.method, `${base}?${new URLSearchParams({ [k]: v })}`, { raw: undefined as never, type: null });
+            const r = await send(clientFor(w.key), w.method, `${base}?${new URLSearchParams({ [k]: v })}`, {
+              raw: undefined as never,
+              type: null,
+            });
             check({ why: `?${k}`, raw: v }, r, { status: [400, 404], field: firstIssueField(schema, { [k]: v })! });
           }),
           { numRuns: RUNS },
@@ -285,7 +339,9 @@ describe('hostile input on every write route, judged by each route’s own schem
       for (const param of (w.route.match(/\[([^\]]+)\]/g) ?? []).map((p) => p.slice(1, -1))) {
         for (const bad of MALFORMED_IDS) {
           const target = fill(w.route, { ...params, [param]: bad }) + query;
-          const h = input!.body ? { raw: JSON.stringify(row!.body!(f)), type: 'application/json' } : { raw: undefined as never, type: null };
+          const h = input!.body
+            ? { raw: JSON.stringify(row!.body!(f)), type: 'application/json' }
+            : { raw: undefined as never, type: null };
           check({ why: `path ${param}=${bad}`, raw: '' }, await send(c, w.method, target, h), { status: 404, field: param });
         }
       }
@@ -315,7 +371,8 @@ function setAt(v: unknown, path: (string | number)[], value: unknown): unknown {
 }
 
 /** At most `n` items spread over the list (first and last included), so long layouts stay quick. */
-const spread = <T>(items: T[], n: number) => (items.length <= n ? items : Array.from({ length: n }, (_, i) => items[Math.round((i * (items.length - 1)) / (n - 1))]!));
+const spread = <T>(items: T[], n: number) =>
+  items.length <= n ? items : Array.from({ length: n }, (_, i) => items[Math.round((i * (items.length - 1)) / (n - 1))]!);
 
 const NUL = 'a\u0000b';
 const LONE_HIGH = 'a\ud800b';
@@ -323,13 +380,34 @@ const LONE_LOW = '\udc00';
 const OVERSIZED = 'x'.repeat(100_000);
 
 /** Query parameter names the routes and pages read (and a few they do not: the rule holds for any name). */
-const QUERY_NAMES = ['q', 'page', 'pageSize', 'sort', 'orgId', 'familyId', 'machineId', 'status', 'format', 'limit', 'a', 'b', 'link', 'thumb', 'units', 'machine', 'next', 'unknown'];
+const QUERY_NAMES = [
+  'q',
+  'page',
+  'pageSize',
+  'sort',
+  'orgId',
+  'familyId',
+  'machineId',
+  'status',
+  'format',
+  'limit',
+  'a',
+  'b',
+  'link',
+  'thumb',
+  'units',
+  'machine',
+  'next',
+  'unknown',
+];
 
 describe('NUL, lone surrogates and oversized strings: 400 naming the field, nothing written', () => {
   let clients: Awaited<ReturnType<typeof clientsByRole>>;
   let f: Fixtures;
   const all = apiRoutes().flatMap((r) => r.methods.map((m) => ({ method: m as Method, route: r.route, key: `${m} ${r.route}` })));
-  const writes = all.filter((r) => r.method !== 'GET' && r.method !== 'DELETE').filter((r) => MATRIX[r.key]?.body && !MATRIX[r.key]?.multipart);
+  const writes = all
+    .filter((r) => r.method !== 'GET' && r.method !== 'DELETE')
+    .filter((r) => MATRIX[r.key]?.body && !MATRIX[r.key]?.multipart);
 
   beforeAll(async () => {
     clients = await clientsByRole();
@@ -353,7 +431,8 @@ describe('NUL, lone surrogates and oversized strings: 400 naming the field, noth
       const valid = row.body!(f);
       const fields = spread(stringPaths(valid), 25);
       const before = await counts();
-      const send = (body: unknown) => c.fetch(path, { method: w.method, headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
+      const send = (body: unknown) =>
+        c.fetch(path, { method: w.method, headers: { 'content-type': 'application/json' }, body: JSON.stringify(body) });
       for (const p of fields) {
         const name = p.join('.');
         for (const bad of [NUL, LONE_HIGH, LONE_LOW]) {
@@ -368,10 +447,15 @@ describe('NUL, lone surrogates and oversized strings: 400 naming the field, noth
         const err = JSON.parse(text).error;
         expect(typeof err.field, `${name} oversized`).toBe('string');
         // The field named is the oversized one (or, for a tag that picks the body's shape, the body itself).
-        if (res.status === 400) expect([name, 'body', p.slice(0, -1).join('.') || 'body'], `${name} oversized → ${err.field}`).toContain(err.field);
+        if (res.status === 400)
+          expect([name, 'body', p.slice(0, -1).join('.') || 'body'], `${name} oversized → ${err.field}`).toContain(err.field);
       }
       // A key the store cannot keep is named too.
-      const res = await c.fetch(path, { method: w.method, headers: { 'content-type': 'application/json' }, body: JSON.stringify({ ...(valid as object), 'k\u0000': 1 }) });
+      const res = await c.fetch(path, {
+        method: w.method,
+        headers: { 'content-type': 'application/json' },
+        body: JSON.stringify({ ...(valid as object), 'k\u0000': 1 }),
+      });
       expect(res.status).toBe(400);
       expect((await res.json()).error.field).toBe('k\\0');
       expect(await counts()).toEqual(before);
@@ -385,7 +469,10 @@ describe('NUL, lone surrogates and oversized strings: 400 naming the field, noth
       const c = clientFor(r.key);
       const base = pathFor(r.key, r.route);
       for (const name of QUERY_NAMES) {
-        for (const [value, why] of [[encodeURIComponent(NUL), 'NUL'], ['x'.repeat(3000), 'oversized']] as const) {
+        for (const [value, why] of [
+          [encodeURIComponent(NUL), 'NUL'],
+          ['x'.repeat(3000), 'oversized'],
+        ] as const) {
           const res = await c.fetch(`${base}?${name}=${value}`, { method: r.method });
           const text = await res.text();
           const ctx = `${r.key} ?${name} ${why} → ${res.status} ${text.slice(0, 160)}`;
@@ -412,7 +499,10 @@ describe('NUL, lone surrogates and oversized strings: 400 naming the field, noth
     const c = clients.own.dealer_admin;
     for (const route of pageRoutes()) {
       const path = fill(route, { token: 'not-a-real-token' });
-      for (const [value, why] of [[encodeURIComponent(NUL), 'NUL'], ['x'.repeat(3000), 'oversized']] as const) {
+      for (const [value, why] of [
+        [encodeURIComponent(NUL), 'NUL'],
+        ['x'.repeat(3000), 'oversized'],
+      ] as const) {
         const res = await c.fetch(`${path}?q=${value}`);
         const text = await res.text();
         expect(res.status, `${path} ${why}`).toBe(400);
@@ -427,10 +517,18 @@ describe('NUL, lone surrogates and oversized strings: 400 naming the field, noth
   it('a form posted to a page with NUL in a field is refused naming the field, nothing written', async () => {
     const c = clients.own.dealer_admin;
     const before = await counts();
-    const res = await c.fetch('/orgs', { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: 'name=Nul%00Farm' });
+    const res = await c.fetch('/orgs', {
+      method: 'POST',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      body: 'name=Nul%00Farm',
+    });
     expect(res.status).toBe(400);
     expect(await res.text()).toContain('data-field="name"');
-    const machine = await c.fetch('/machines/new', { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: `familyId=${f.familyId}&drum=full&vaneControl=fixed&serial=S-1&nickname=a%00b` });
+    const machine = await c.fetch('/machines/new', {
+      method: 'POST',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      body: `familyId=${f.familyId}&drum=full&vaneControl=fixed&serial=S-1&nickname=a%00b`,
+    });
     expect(machine.status).toBe(400);
     expect(await machine.text()).toContain('data-field="nickname"');
     expect(await counts()).toEqual(before);
@@ -455,7 +553,12 @@ function streamBody(c: Client, path: string, contentType: string, total: number,
         port: url.port,
         path: url.pathname,
         method: 'POST',
-        headers: { origin: c.baseUrl, cookie: (c as unknown as { cookieHeader(): string }).cookieHeader(), 'content-type': contentType, ...headers },
+        headers: {
+          origin: c.baseUrl,
+          cookie: (c as unknown as { cookieHeader(): string }).cookieHeader(),
+          'content-type': contentType,
+          ...headers,
+        },
       },
       (res) => {
         answered = true;
@@ -474,7 +577,11 @@ function streamBody(c: Client, path: string, contentType: string, total: number,
     void (async () => {
       while (sent < total && !answered && !req.destroyed) {
         sent += chunk.length;
-        if (!req.write(chunk)) await new Promise((r) => { req.once('drain', r); setTimeout(r, 1000); });
+        if (!req.write(chunk))
+          await new Promise((r) => {
+            req.once('drain', r);
+            setTimeout(r, 1000);
+          });
       }
       if (!answered && !req.destroyed) req.end(contentType.includes('json') ? '"}' : '');
     })();
@@ -522,7 +629,11 @@ describe('a body over the limit is refused while it streams', () => {
 describe('"nothing written" is judged by table contents', () => {
   it('a digest sees an update that keeps every row count', async () => {
     const { own } = await clientsByRole();
-    const stats = async () => (await own.instance_admin.get('/api/admin/stats?digest=1')).body as { counts: Record<string, number>; digests: Record<string, string> };
+    const stats = async () =>
+      (await own.instance_admin.get('/api/admin/stats?digest=1')).body as {
+        counts: Record<string, number>;
+        digests: Record<string, string>;
+      };
     const me = (await own.operator.get('/api/me')).body.unitSystem as string;
     const before = await stats();
     expect((await own.operator.put('/api/me', { unitSystem: me === 'metric' ? 'imperial' : 'metric' })).status).toBe(200);

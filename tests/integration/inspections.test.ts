@@ -19,9 +19,12 @@ async function smallPng(): Promise<Uint8Array> {
   const w = 64;
   const h = 48;
   const raw = Buffer.alloc(w * h * 3);
-  for (let y = 0; y < h; y++)
-    for (let x = 0; x < w; x++) raw.set([x * 4, y * 5, (x + y) * 2], (y * w + x) * 3);
-  return new Uint8Array(await sharp(raw, { raw: { width: w, height: h, channels: 3 } }).png().toBuffer());
+  for (let y = 0; y < h; y++) for (let x = 0; x < w; x++) raw.set([x * 4, y * 5, (x + y) * 2], (y * w + x) * 3);
+  return new Uint8Array(
+    await sharp(raw, { raw: { width: w, height: h, channels: 3 } })
+      .png()
+      .toBuffer(),
+  );
 }
 
 /** The decoded pixels of an image (RGB), to compare what was stored with what was sent. */
@@ -30,7 +33,11 @@ async function pixels(bytes: Uint8Array | Buffer): Promise<Buffer> {
 }
 
 async function smallJpeg(width = 900, height = 600): Promise<Uint8Array> {
-  return new Uint8Array(await sharp({ create: { width, height, channels: 3, background: '#6b7b8d' } }).jpeg({ quality: 70 }).toBuffer());
+  return new Uint8Array(
+    await sharp({ create: { width, height, channels: 3, background: '#6b7b8d' } })
+      .jpeg({ quality: 70 })
+      .toBuffer(),
+  );
 }
 
 function form(bytes: Uint8Array | string, name: string, type: string): FormData {
@@ -116,10 +123,18 @@ describe('inspections with photos in an S3-compatible bucket', () => {
   beforeAll(async () => {
     s3Dir = mkdtempSync(join(tmpdir(), 'cagewright-s3-'));
     s3 = await startFakeS3({ dataDir: s3Dir, setEnv: false });
-    const env = { S3_ENDPOINT: s3.endpoint, S3_BUCKET: s3.bucket, S3_ACCESS_KEY_ID: 'S3RVER', S3_SECRET_ACCESS_KEY: 'S3RVER', S3_REGION: 'us-east-1' };
+    const env = {
+      S3_ENDPOINT: s3.endpoint,
+      S3_BUCKET: s3.bucket,
+      S3_ACCESS_KEY_ID: 'S3RVER',
+      S3_SECRET_ACCESS_KEY: 'S3RVER',
+      S3_REGION: 'us-east-1',
+    };
     server = await startServer({ env });
     bucket = new S3Client({
-      endpoint: s3.endpoint, region: 'us-east-1', forcePathStyle: true,
+      endpoint: s3.endpoint,
+      region: 'us-east-1',
+      forcePathStyle: true,
       credentials: { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' },
     });
     tech = new Client(server.baseUrl);
@@ -163,7 +178,12 @@ describe('inspections with photos in an S3-compatible bucket', () => {
     const res = await tech.post(`/api/machines/${haldaneMachine}/inspections`, { title: 'Before soybeans' });
     expect(res.status).toBe(201);
     const insp = res.body;
-    expect(insp).toMatchObject({ status: 'open', title: 'Before soybeans', startedByName: 'Tomas Reyes', machine: { id: haldaneMachine, nickname: 'Bean Runner' } });
+    expect(insp).toMatchObject({
+      status: 'open',
+      title: 'Before soybeans',
+      startedByName: 'Tomas Reyes',
+      machine: { id: haldaneMachine, nickname: 'Bean Runner' },
+    });
     const kinds = insp.items.map((i: any) => i.kind);
     expect(kinds.filter((k: string) => k === 'element')).toHaveLength(8); // four positions, both sides
     expect(kinds.at(-1)).toBe('survey');
@@ -219,7 +239,10 @@ describe('inspections with photos in an S3-compatible bucket', () => {
     // 90 × 60 pixels, stored turned (orientation 6: shown a quarter turn clockwise), with GPS.
     const phone = await sharp({ create: { width: 90, height: 60, channels: 3, background: '#6b7b8d' } })
       .jpeg()
-      .withExif({ IFD0: { Make: 'InventedCam', Model: 'Field 1' }, IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '52/1 30/1 0/1', GPSLongitudeRef: 'W', GPSLongitude: '106/1 40/1 0/1' } })
+      .withExif({
+        IFD0: { Make: 'InventedCam', Model: 'Field 1' },
+        IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '52/1 30/1 0/1', GPSLongitudeRef: 'W', GPSLongitude: '106/1 40/1 0/1' },
+      })
       .withMetadata({ orientation: 6 })
       .toBuffer();
     expect((await sharp(phone).metadata()).exif).toBeDefined();
@@ -333,7 +356,13 @@ describe('inspections with photos in an S3-compatible bucket', () => {
     });
     expect(ok.status).toBe(200);
     const saved = ok.body.items.find((i: any) => i.id === el.id);
-    expect(saved).toMatchObject({ conditions: ['wires-missing', 'edge-wear'], measurements: { wearMm: 7.2 }, note: 'Front wires gone', severity: 'ok', suggested: 'replace' });
+    expect(saved).toMatchObject({
+      conditions: ['wires-missing', 'edge-wear'],
+      measurements: { wearMm: 7.2 },
+      note: 'Front wires gone',
+      severity: 'ok',
+      suggested: 'replace',
+    });
     expect(ok.body.survey.uneven).toBe(true);
     expect(ok.body.survey.findings[0]).toMatchObject({ kind: 'side-to-side', position: 1, where: 'front' });
 
@@ -371,18 +400,33 @@ describe('inspections with photos in an S3-compatible bucket', () => {
   it('answers random bodies with a 4xx naming what is wrong, never a 5xx, and changes nothing when it refuses', async () => {
     const insp = (await tech.post(`/api/machines/${haldaneMachine}/inspections`, {})).body;
     const ids = insp.items.map((i: any) => i.id) as string[];
-    const state = async () => JSON.stringify((await tech.get(`/api/inspections/${insp.id}`)).body.items.map((i: any) => [i.conditions, i.severity, i.measurements, i.note]));
+    const state = async () =>
+      JSON.stringify(
+        (await tech.get(`/api/inspections/${insp.id}`)).body.items.map((i: any) => [i.conditions, i.severity, i.measurements, i.note]),
+      );
     const item = fc.record(
       {
         id: fc.oneof(fc.constantFrom(...ids), fc.uuid(), fc.string()),
         conditions: fc.oneof(fc.array(fc.constantFrom('bent-bars', 'wires-missing', 'plate-warped', 'rust', '')), fc.anything()),
         severity: fc.oneof(fc.constantFrom('ok', 'watch', 'replace', 'scrap'), fc.anything()),
-        measurements: fc.oneof(fc.dictionary(fc.constantFrom('wearMm', 'clearance:1:left:front', 'clearance:9:left:front', 'x'), fc.oneof(fc.double(), fc.constant(null), fc.string())), fc.anything()),
+        measurements: fc.oneof(
+          fc.dictionary(
+            fc.constantFrom('wearMm', 'clearance:1:left:front', 'clearance:9:left:front', 'x'),
+            fc.oneof(fc.double(), fc.constant(null), fc.string()),
+          ),
+          fc.anything(),
+        ),
         note: fc.oneof(fc.string({ maxLength: 20 }), fc.anything()),
       },
       { requiredKeys: ['id'] },
     );
-    const body = fc.oneof(fc.anything(), fc.record({ items: fc.array(item, { maxLength: 3 }), title: fc.oneof(fc.string({ maxLength: 10 }), fc.anything()) }, { requiredKeys: [] }));
+    const body = fc.oneof(
+      fc.anything(),
+      fc.record(
+        { items: fc.array(item, { maxLength: 3 }), title: fc.oneof(fc.string({ maxLength: 10 }), fc.anything()) },
+        { requiredKeys: [] },
+      ),
+    );
     await fc.assert(
       fc.asyncProperty(body, async (b) => {
         const before = await state();
@@ -488,12 +532,20 @@ describe('inspections with photos in an S3-compatible bucket', () => {
     // An uneven survey marked "watch" needs no extra choice.
     const again = (await tech.post(`/api/machines/${haldaneMachine}/inspections`, {})).body;
     const s2 = again.items.find((i: any) => i.kind === 'survey');
-    await tech.patch(`/api/inspections/${again.id}`, { items: [{ id: s2.id, severity: 'watch', measurements: { 'clearance:1:left:front': 20, 'clearance:1:right:front': 26 } }] });
+    await tech.patch(`/api/inspections/${again.id}`, {
+      items: [{ id: s2.id, severity: 'watch', measurements: { 'clearance:1:left:front': 20, 'clearance:1:right:front': 26 } }],
+    });
     expect((await tech.post(`/api/inspections/${again.id}`, { action: 'finish' })).status).toBe(200);
   });
 
   it('will not start a checklist for a machine with nothing recorded as installed (409)', async () => {
-    const created = await dev.post('/api/machines', { familyId: 'tamarack-m4', drum: 'full', vaneControl: 'fixed', serial: 'HB-0001-T', nickname: 'Spare' });
+    const created = await dev.post('/api/machines', {
+      familyId: 'tamarack-m4',
+      drum: 'full',
+      vaneControl: 'fixed',
+      serial: 'HB-0001-T',
+      nickname: 'Spare',
+    });
     expect(created.status).toBe(201);
     const res = await dev.post(`/api/machines/${created.body.machine.id}/inspections`, {});
     expect(res.status).toBe(409);

@@ -111,7 +111,11 @@ describe('reading a layout', () => {
     const stale = await c.put(`/api/layouts/${id}`, { baseVersion: 1, body, note: 'stale' });
     expect(stale.status).toBe(409);
     expect(stale.body.error.currentVersion).toBe(2);
-    const activity = (await c.get(`/api/machines/${machineId}`)).body.activity as { action: string; entityId: string; detail: Record<string, unknown> }[];
+    const activity = (await c.get(`/api/machines/${machineId}`)).body.activity as {
+      action: string;
+      entityId: string;
+      detail: Record<string, unknown>;
+    }[];
     const saves = activity.filter((a) => a.entityId === id && a.action === 'save');
     expect(saves).toHaveLength(1);
     expect(saves[0]!.detail).toEqual({ version: 2, from: 1 });

@@ -127,9 +127,32 @@ export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures>
     lossCheckId = made.body.id as string;
   }
 
-  const people = (await own.dealer_admin.get('/api/admin/users')).body.users as { id: string; email: string; orgId: string; role: string }[];
+  const people = (await own.dealer_admin.get('/api/admin/users')).body.users as {
+    id: string;
+    email: string;
+    orgId: string;
+    role: string;
+  }[];
   const trainer = people.find((p) => p.email === DEMO.trainer)!;
   const member = { userId: trainer.id, orgId: trainer.orgId, role: trainer.role };
 
-  return { member, lossCheckId, machineId, familyId, family: family.family?.spec ?? family.family ?? family, part: part.part?.spec ?? part.part ?? part, layoutId, layoutBody, partNumber, shareLinkId, deckId, slideId, inspectionId, itemId, photoId, partsRequestId, png: PNG_1PX };
+  return {
+    member,
+    lossCheckId,
+    machineId,
+    familyId,
+    family: family.family?.spec ?? family.family ?? family,
+    part: part.part?.spec ?? part.part ?? part,
+    layoutId,
+    layoutBody,
+    partNumber,
+    shareLinkId,
+    deckId,
+    slideId,
+    inspectionId,
+    itemId,
+    photoId,
+    partsRequestId,
+    png: PNG_1PX,
+  };
 }

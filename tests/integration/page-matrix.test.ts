@@ -89,8 +89,14 @@ describe('page role matrix', () => {
   }, 60_000);
 
   it('has a row for every page in src/pages, and no stale rows', () => {
-    expect(pages.filter((p) => !(p in PAGES)), 'pages without a row').toEqual([]);
-    expect(Object.keys(PAGES).filter((p) => !pages.includes(p)), 'rows for pages that no longer exist').toEqual([]);
+    expect(
+      pages.filter((p) => !(p in PAGES)),
+      'pages without a row',
+    ).toEqual([]);
+    expect(
+      Object.keys(PAGES).filter((p) => !pages.includes(p)),
+      'rows for pages that no longer exist',
+    ).toEqual([]);
   });
 
   it('sends the signed-out to sign in, refuses wrong roles with 403, shows allowed roles the page', async () => {
@@ -149,7 +155,10 @@ describe('page role matrix', () => {
       if (!row) continue;
       const path = fill(page, row.params?.(f));
       for (const role of ROLES) {
-        for (const [type, body] of [['application/json', '{"action":"save"}'], ['text/plain', 'action=save']] as const) {
+        for (const [type, body] of [
+          ['application/json', '{"action":"save"}'],
+          ['text/plain', 'action=save'],
+        ] as const) {
           const res = await clients.own[role].fetch(path, { method: 'POST', headers: { 'content-type': type }, body });
           if (res.status >= 500) problems.push(`${path} as ${role}, ${type}: ${res.status}`);
         }

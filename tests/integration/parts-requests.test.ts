@@ -11,7 +11,12 @@ let machineId: string;
 let devMachineId: string;
 
 beforeAll(async () => {
-  [olive, dev, tomas, admin] = await Promise.all([signedIn('operator'), signedIn('operator2'), signedIn('technician'), signedIn('dealerAdmin')]);
+  [olive, dev, tomas, admin] = await Promise.all([
+    signedIn('operator'),
+    signedIn('operator2'),
+    signedIn('technician'),
+    signedIn('dealerAdmin'),
+  ]);
   ({ machineId } = await ownMachine(olive, 'Parts test machine'));
   ({ machineId: devMachineId } = await ownMachine(dev, 'Haldane parts test machine'));
 });
@@ -32,7 +37,12 @@ describe('a parts request from a plan, sent to the parts desk', () => {
     id = req.id;
     number = req.number;
     expect(number).toMatch(/^PR-[0-9A-F]{8}$/);
-    expect(req).toMatchObject({ status: 'draft', source: 'plan', org: { name: 'Larkspur Farms' }, dealer: { name: 'Kestrel Valley Implement' } });
+    expect(req).toMatchObject({
+      status: 'draft',
+      source: 'plan',
+      org: { name: 'Larkspur Farms' },
+      dealer: { name: 'Kestrel Valley Implement' },
+    });
     expect(req.lines).toEqual(
       plan.purchases.map((p: any) => ({
         partNumber: p.partNumber,
@@ -43,7 +53,14 @@ describe('a parts request from a plan, sent to the parts desk', () => {
         lineTotalCents: p.lineTotalCents,
       })),
     );
-    expect(req.lines[0]).toMatchObject({ partNumber: 'CW-RB-L-04', description: 'Round-bar element, left hand, Tamarack M4', hand: 'left', quantity: 2, unitPriceCents: 131_000, lineTotalCents: 262_000 });
+    expect(req.lines[0]).toMatchObject({
+      partNumber: 'CW-RB-L-04',
+      description: 'Round-bar element, left hand, Tamarack M4',
+      hand: 'left',
+      quantity: 2,
+      unitPriceCents: 131_000,
+      lineTotalCents: 262_000,
+    });
     expect(req.totalCents).toBe(524_000);
     expect(req.can).toEqual({ edit: true, submit: true, delete: true, advance: false });
   });
@@ -77,7 +94,12 @@ describe('a parts request from a plan, sent to the parts desk', () => {
     const fraction = await olive.put(`/api/parts-requests/${id}`, { lines: [{ partNumber: 'CW-RB-L-04', quantity: 1.5 }] });
     expect(fraction.status).toBe(400);
     expect(fraction.body.error.field).toBe('lines.0.quantity');
-    const unknown = await olive.put(`/api/parts-requests/${id}`, { lines: [{ partNumber: 'CW-RB-L-04', quantity: 1 }, { partNumber: 'CW-ZZ-L-99', quantity: 1 }] });
+    const unknown = await olive.put(`/api/parts-requests/${id}`, {
+      lines: [
+        { partNumber: 'CW-RB-L-04', quantity: 1 },
+        { partNumber: 'CW-ZZ-L-99', quantity: 1 },
+      ],
+    });
     expect(unknown.status).toBe(400);
     expect(unknown.body.error.field).toBe('lines.1.partNumber');
     expect(unknown.body.error.message).toMatch(/CW-ZZ-L-99 is not a part of the Tamarack M4 catalog/);
@@ -191,7 +213,18 @@ describe('bad input writes nothing and sends nothing', () => {
     const cases: [unknown, number, string][] = [
       [{ from: 'manual', machineId, lines: [{ partNumber: 'CW-RB-L-04', quantity: -1 }] }, 400, 'lines.0.quantity'],
       [{ from: 'manual', machineId, lines: [{ partNumber: 'CW-RB-L-04', quantity: 0 }] }, 400, 'lines.0.quantity'],
-      [{ from: 'manual', machineId, lines: [{ partNumber: 'CW-RB-L-04', quantity: 2 }, { partNumber: 'CW-NO-SUCH-1', quantity: 1 }] }, 400, 'lines.1.partNumber'],
+      [
+        {
+          from: 'manual',
+          machineId,
+          lines: [
+            { partNumber: 'CW-RB-L-04', quantity: 2 },
+            { partNumber: 'CW-NO-SUCH-1', quantity: 1 },
+          ],
+        },
+        400,
+        'lines.1.partNumber',
+      ],
       [{ from: 'manual', machineId, lines: [{ partNumber: 'not a part', quantity: 1 }] }, 400, 'lines.0.partNumber'],
       [{ from: 'manual', machineId, lines: [] }, 400, 'lines'],
       [{ from: 'manual', machineId: devMachineId, lines: [{ partNumber: 'CW-RB-L-04', quantity: 1 }] }, 404, 'machineId'],

@@ -56,11 +56,16 @@ describe('photo uploads: pixel limit, parallel cap, metadata', () => {
     return { inspectionId: insp.id as string, itemId: insp.items[0].id as string };
   };
   const upload = async (line: { inspectionId: string; itemId: string }, bytes: Uint8Array, name = 'p.png') => {
-    const res = await tech.fetch(`/api/inspections/${line.inspectionId}/items/${line.itemId}/photos`, { method: 'POST', body: form(bytes, name) });
+    const res = await tech.fetch(`/api/inspections/${line.inspectionId}/items/${line.itemId}/photos`, {
+      method: 'POST',
+      body: form(bytes, name),
+    });
     return { status: res.status, body: await res.json() };
   };
   const photosOn = async (line: { inspectionId: string; itemId: string }) =>
-    ((await tech.get(`/api/inspections/${line.inspectionId}`)).body.items as { id: string; photos?: unknown[] }[]).find((i) => i.id === line.itemId)!.photos?.length ?? 0;
+    ((await tech.get(`/api/inspections/${line.inspectionId}`)).body.items as { id: string; photos?: unknown[] }[]).find(
+      (i) => i.id === line.itemId,
+    )!.photos?.length ?? 0;
 
   it('refuses a 31 KB PNG that declares 16000 × 16000 pixels at once (413 naming the photo), storing nothing', async () => {
     const line = await newLine();
@@ -92,7 +97,11 @@ describe('photo uploads: pixel limit, parallel cap, metadata', () => {
   it(`30 uploads in parallel to one line store exactly ${PER_LINE}; the rest get 409 and leave no file`, async () => {
     const line = await newLine();
     const files = filesUnder(uploads).length;
-    const png = new Uint8Array(await sharp({ create: { width: 40, height: 30, channels: 3, background: '#4a6a5a' } }).png().toBuffer());
+    const png = new Uint8Array(
+      await sharp({ create: { width: 40, height: 30, channels: 3, background: '#4a6a5a' } })
+        .png()
+        .toBuffer(),
+    );
     const results = await Promise.all(Array.from({ length: 30 }, () => upload(line, png)));
     const statuses = results.map((r) => r.status);
     expect(statuses.filter((s) => s === 201).length, statuses.join(',')).toBe(PER_LINE);
@@ -105,7 +114,9 @@ describe('photo uploads: pixel limit, parallel cap, metadata', () => {
 
   it('drops a PNG tEXt chunk and a JPEG comment: the stored bytes carry neither', async () => {
     const line = await newLine();
-    const base = await sharp({ create: { width: 48, height: 32, channels: 3, background: '#7a6a5a' } }).png().toBuffer();
+    const base = await sharp({ create: { width: 48, height: 32, channels: 3, background: '#7a6a5a' } })
+      .png()
+      .toBuffer();
     const png = withPngText(base, 'Comment', 'farm-secret-png-note');
     expect(Buffer.from(png).includes('farm-secret-png-note')).toBe(true);
     expect((await sharp(png).metadata()).comments).toEqual([{ keyword: 'Comment', text: 'farm-secret-png-note' }]);
@@ -118,7 +129,12 @@ describe('photo uploads: pixel limit, parallel cap, metadata', () => {
     // Same picture: PNG is lossless.
     expect((await sharp(stored).raw().toBuffer()).equals(await sharp(base).raw().toBuffer())).toBe(true);
 
-    const jpeg = withJpegComment(await sharp({ create: { width: 48, height: 32, channels: 3, background: '#5a6a7a' } }).jpeg().toBuffer(), 'farm-secret-jpeg-note');
+    const jpeg = withJpegComment(
+      await sharp({ create: { width: 48, height: 32, channels: 3, background: '#5a6a7a' } })
+        .jpeg()
+        .toBuffer(),
+      'farm-secret-jpeg-note',
+    );
     expect(Buffer.from(jpeg).includes('farm-secret-jpeg-note')).toBe(true);
     const up2 = await upload(line, jpeg, 'noted.jpg');
     expect(up2.status, JSON.stringify(up2.body)).toBe(201);

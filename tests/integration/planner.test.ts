@@ -100,7 +100,12 @@ describe('POST /api/plans', () => {
 describe('POST /api/plans/accept', () => {
   it('saves the proposal as a new layout, then as a new version of it', async () => {
     const proposal = (await olive.post('/api/plans', { machineId, crop: 'field-peas' })).body.plan;
-    const res = await olive.post('/api/plans/accept', { machineId, crop: 'field-peas', fingerprint: proposal.fingerprint, name: 'Peas next week' });
+    const res = await olive.post('/api/plans/accept', {
+      machineId,
+      crop: 'field-peas',
+      fingerprint: proposal.fingerprint,
+      name: 'Peas next week',
+    });
     expect(res.status).toBe(201);
     expect(res.body).toMatchObject({ machineId, version: 1, created: true, fingerprint: proposal.fingerprint });
     expect(res.body.editorUrl).toBe(`/machines/${machineId}/layouts/${res.body.layoutId}`);
@@ -125,10 +130,19 @@ describe('POST /api/plans/accept', () => {
     expect(res.status).toBe(409);
     expect(res.body.error.field).toBe('fingerprint');
     expect(res.body.error.plan.ok).toBe(true);
-    const badLayout = await olive.post('/api/plans/accept', { machineId, crop: 'field-peas', layoutId: '00000000-0000-4000-8000-000000000000', baseVersion: 1 });
+    const badLayout = await olive.post('/api/plans/accept', {
+      machineId,
+      crop: 'field-peas',
+      layoutId: '00000000-0000-4000-8000-000000000000',
+      baseVersion: 1,
+    });
     expect(badLayout.status).toBe(404);
     expect(badLayout.body.error.field).toBe('layoutId');
-    const noBase = await olive.post('/api/plans/accept', { machineId, crop: 'field-peas', layoutId: '00000000-0000-4000-8000-000000000000' });
+    const noBase = await olive.post('/api/plans/accept', {
+      machineId,
+      crop: 'field-peas',
+      layoutId: '00000000-0000-4000-8000-000000000000',
+    });
     expect(noBase.status).toBe(400);
     expect(noBase.body.error.field).toBe('baseVersion');
     const after = await tableCounts(admin);

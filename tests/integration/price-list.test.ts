@@ -27,7 +27,14 @@ async function as(email: string) {
 }
 
 const priceOf = async (c: Client, pn: string) =>
-  ((await c.get('/api/price-list')).body.items as { partNumber: string; priceCents: number; dealerPriceCents: number | null; listPriceCents: number }[]).find((i) => i.partNumber === pn)!;
+  (
+    (await c.get('/api/price-list')).body.items as {
+      partNumber: string;
+      priceCents: number;
+      dealerPriceCents: number | null;
+      listPriceCents: number;
+    }[]
+  ).find((i) => i.partNumber === pn)!;
 
 async function requestPrice(c: Client, machine: string, pn: string): Promise<number> {
   const res = await c.post('/api/parts-requests', { from: 'manual', machineId: machine, lines: [{ partNumber: pn, quantity: 1 }] });
@@ -38,7 +45,12 @@ async function requestPrice(c: Client, machine: string, pn: string): Promise<num
 }
 
 beforeAll(async () => {
-  [olive, tomas, ada, noor] = await Promise.all([signedIn('operator'), signedIn('technician'), signedIn('dealerAdmin'), signedIn('instanceAdmin')]);
+  [olive, tomas, ada, noor] = await Promise.all([
+    signedIn('operator'),
+    signedIn('technician'),
+    signedIn('dealerAdmin'),
+    signedIn('instanceAdmin'),
+  ]);
   [ivo, june] = await Promise.all([as('admin@brackenridge.example'), as('op@fenwick.example')]);
   ({ machineId } = await ownMachine(olive, 'Price list machine'));
   fenwickMachineId = (await june.get('/api/machines?pageSize=100')).body.items[0].id;
@@ -179,12 +191,20 @@ describe('the dealer price list', () => {
 
     // The table form: one price set, a bad one named, nothing saved until all are good.
     const table = new URLSearchParams({ form: 'prices', [`p:${PART}`]: '1000.00', [`p:${OTHER_PART}`]: 'lots' });
-    const refused = await ada.fetch('/admin/prices', { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: table });
+    const refused = await ada.fetch('/admin/prices', {
+      method: 'POST',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      body: table,
+    });
     expect(refused.status).toBe(400);
     expect(await refused.text()).toContain(`${OTHER_PART}: “lots” is not an amount`);
     expect((await priceOf(ada, PART)).dealerPriceCents).toBeNull();
     table.set(`p:${OTHER_PART}`, '');
-    const saved = await ada.fetch('/admin/prices', { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: table });
+    const saved = await ada.fetch('/admin/prices', {
+      method: 'POST',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      body: table,
+    });
     expect(saved.status).toBe(303);
     expect((await priceOf(ada, PART)).dealerPriceCents).toBe(100_000);
     expect((await ada.delete(`/api/price-list/${PART}`)).status).toBe(200);
@@ -192,7 +212,11 @@ describe('the dealer price list', () => {
     const read = await tomas.fetch('/admin/prices');
     expect(read.status).toBe(200);
     expect(await read.text()).not.toContain(`name="p:${PART}"`);
-    const post = await tomas.fetch('/admin/prices', { method: 'POST', headers: { 'content-type': 'application/x-www-form-urlencoded' }, body: table });
+    const post = await tomas.fetch('/admin/prices', {
+      method: 'POST',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      body: table,
+    });
     expect(post.status).toBe(403);
     expect((await priceOf(ada, PART)).dealerPriceCents).toBeNull();
     expect((await olive.fetch('/admin/prices')).status).toBe(403);

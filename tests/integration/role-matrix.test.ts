@@ -56,7 +56,13 @@ describe('role matrix', () => {
       if (!row) continue;
       const [method, route] = key.split(' ') as [Method, string];
       const path = fill(route, row.params?.(f)) + (row.query?.(f) ?? '');
-      const probe = fill(route, Object.fromEntries(Object.keys(row.params?.(f) ?? {}).map((k) => [k, k === 'version' ? '999' : k === 'partNumber' ? 'CW-NONE-X-00' : UNKNOWN_ID]))) + (row.query?.(f) ?? '');
+      const probe =
+        fill(
+          route,
+          Object.fromEntries(
+            Object.keys(row.params?.(f) ?? {}).map((k) => [k, k === 'version' ? '999' : k === 'partNumber' ? 'CW-NONE-X-00' : UNKNOWN_ID]),
+          ),
+        ) + (row.query?.(f) ?? '');
       if (row.allowed === 'public') continue;
       const anon = await send(clients.signedOut, method, path, row.body?.(f), row.multipart, f.png);
       if (anon.status !== 401) problems.push(`${key} signed out: ${anon.status}, expected 401`);
@@ -74,9 +80,17 @@ describe('role matrix', () => {
           if (res.status !== expected) problems.push(`${key} as ${role}: ${res.status}, expected ${expected}`);
         } else {
           // Junk body to an unknown id: gets past the role check, changes nothing.
-          const res = await send(c, method, probe, row.multipart ? undefined : { matrixProbe: [1, 'x'] }, row.multipart, new Uint8Array([1, 2, 3]));
+          const res = await send(
+            c,
+            method,
+            probe,
+            row.multipart ? undefined : { matrixProbe: [1, 'x'] },
+            row.multipart,
+            new Uint8Array([1, 2, 3]),
+          );
           // 501: a backup in server mode is pg_dump's job, and the route says so.
-          if ([401, 403].includes(res.status) || (res.status >= 500 && res.status !== 501)) problems.push(`${key} as ${role} (probe ${probe}): ${res.status}`);
+          if ([401, 403].includes(res.status) || (res.status >= 500 && res.status !== 501))
+            problems.push(`${key} as ${role} (probe ${probe}): ${res.status}`);
         }
       }
     }
@@ -114,7 +128,11 @@ describe('role matrix', () => {
     beforeAll(async () => {
       // A message that concerns the demo dealer: a parts request sent to its desk.
       const olive = clients.own.operator;
-      const pr = await olive.post('/api/parts-requests', { from: 'manual', machineId: f.machineId, lines: [{ partNumber: f.partNumber, quantity: 2 }] });
+      const pr = await olive.post('/api/parts-requests', {
+        from: 'manual',
+        machineId: f.machineId,
+        lines: [{ partNumber: f.partNumber, quantity: 2 }],
+      });
       expect(pr.status, JSON.stringify(pr.body)).toBe(201);
       const sent = await olive.post(`/api/parts-requests/${pr.body.id}/submit`);
       expect(sent.status, JSON.stringify(sent.body)).toBe(200);
@@ -134,7 +152,8 @@ describe('role matrix', () => {
         const res = await send(stranger, method, path, row.body?.(f));
         const text = await res.text();
         const allowed = row.allowed === 'public' || row.allowed.includes('dealer_admin');
-        if (!allowed && res.status !== 403 && !(row.allowed === 'public' && res.status === 405)) problems.push(`${key}: ${res.status}, expected 403`);
+        if (!allowed && res.status !== 403 && !(row.allowed === 'public' && res.status === 405))
+          problems.push(`${key}: ${res.status}, expected 403`);
         if (res.status >= 500) problems.push(`${key}: ${res.status}`);
         for (const id of ourIds) if (text.includes(id)) problems.push(`${key} shows ${id}`);
         if (OUR_ADDRESSES.test(text)) problems.push(`${key} shows an address of the demo dealer or its farms`);
@@ -142,7 +161,9 @@ describe('role matrix', () => {
       }
       expect(problems).toEqual([]);
       // The price the stranger just set (PUT above) is theirs: the demo dealer's list is unchanged.
-      const ours = (await clients.own.dealer_admin.get('/api/price-list')).body.items.find((i: { partNumber: string }) => i.partNumber === f.partNumber);
+      const ours = (await clients.own.dealer_admin.get('/api/price-list')).body.items.find(
+        (i: { partNumber: string }) => i.partNumber === f.partNumber,
+      );
       expect(ours.priceCents).not.toBe(100);
       const theirs = (await stranger.get('/api/price-list')).body;
       expect(theirs.dealer.name).toBe('Brackenridge Ag Supply');
@@ -155,7 +176,10 @@ describe('role matrix', () => {
       expect((await clients.own.technician.post('/api/admin/backup')).status).toBe(403);
       expect((await clients.signedOut.post('/api/admin/backup')).status).toBe(401);
       // A token sent without sign-in opens nothing either (the real one never leaves the host).
-      const forged = await clients.signedOut.fetch('/api/admin/backup', { method: 'POST', headers: { 'x-cagewright-backup-token': 'x'.repeat(43) } });
+      const forged = await clients.signedOut.fetch('/api/admin/backup', {
+        method: 'POST',
+        headers: { 'x-cagewright-backup-token': 'x'.repeat(43) },
+      });
       expect(forged.status).toBe(401);
     });
 
@@ -168,7 +192,11 @@ describe('role matrix', () => {
         expect(JSON.stringify(res.body)).not.toMatch(PATHS);
         return res.body as Box;
       };
-      const [instance, ours, theirs] = await Promise.all([get(clients.own.instance_admin), get(clients.own.dealer_admin), get(clients.other.dealer_admin)]);
+      const [instance, ours, theirs] = await Promise.all([
+        get(clients.own.instance_admin),
+        get(clients.own.dealer_admin),
+        get(clients.other.dealer_admin),
+      ]);
       expect(instance.scope).toBe('instance');
       expect(ours.scope).toBe('dealer');
       const concerning = (b: Box) => b.messages.filter((m) => m.subject.includes(requestNumber));
@@ -191,7 +219,11 @@ describe('role matrix', () => {
         expect(res.status).toBe(200);
         return res.body as { scope: string; counts: Record<string, number> };
       };
-      const [instance, ours, theirs] = await Promise.all([counts(clients.own.instance_admin), counts(clients.own.dealer_admin), counts(clients.other.dealer_admin)]);
+      const [instance, ours, theirs] = await Promise.all([
+        counts(clients.own.instance_admin),
+        counts(clients.own.dealer_admin),
+        counts(clients.other.dealer_admin),
+      ]);
       expect([instance.scope, ours.scope, theirs.scope]).toEqual(['instance', 'dealer', 'dealer']);
       const machinesOf = async (c: Client) => (await c.get('/api/machines?pageSize=100')).body.total as number;
       expect(theirs.counts.machines).toBe(await machinesOf(clients.other.dealer_admin));

@@ -1,8 +1,8 @@
 import { readFileSync } from 'node:fs';
 import type { ZodType } from 'zod';
-import type { RouteInput, RouteInputs, WriteMethod } from '../../src/lib/server/http';
-import { findUnstorable } from '../../src/lib/domain/text';
-import { MAX_JSON_BYTES } from '../../src/lib/server/http';
+import type { RouteInput, RouteInputs, WriteMethod } from '~/lib/server/http';
+import { findUnstorable } from '~/lib/domain/text';
+import { MAX_JSON_BYTES } from '~/lib/server/http';
 import { apiRoutes } from './routes';
 
 /**
@@ -23,7 +23,9 @@ export interface WriteRoute {
 /** Every write method of every API route file, listed from src/pages/api. */
 export function writeRoutes(): WriteRoute[] {
   return apiRoutes().flatMap((r) =>
-    r.methods.filter((m): m is WriteMethod => (WRITE_METHODS as string[]).includes(m)).map((method) => ({ route: r.route, file: r.file, method, key: `${method} ${r.route}` })),
+    r.methods
+      .filter((m): m is WriteMethod => (WRITE_METHODS as string[]).includes(m))
+      .map((method) => ({ route: r.route, file: r.file, method, key: `${method} ${r.route}` })),
   );
 }
 
@@ -36,16 +38,28 @@ export async function inputsOf(w: WriteRoute): Promise<{ input?: RouteInput; pro
   // The handler validates with the declared schema itself, not a copy.
   const src = readFileSync(w.file, 'utf8');
   for (const part of ['body', 'query', 'multipart'] as const) {
-    if (input[part] && !src.includes(`inputs.${w.method}.${part}`)) return { problem: `${w.key} declares a ${part} schema its handler does not read (inputs.${w.method}.${part})` };
+    if (input[part] && !src.includes(`inputs.${w.method}.${part}`))
+      return { problem: `${w.key} declares a ${part} schema its handler does not read (inputs.${w.method}.${part})` };
   }
-  if (!input.body && !input.multipart && !src.includes('refuseBody(ctx.request)')) return { problem: `${w.key} takes no body but does not refuse one (refuseBody)` };
+  if (!input.body && !input.multipart && !src.includes('refuseBody(ctx.request)'))
+    return { problem: `${w.key} takes no body but does not refuse one (refuseBody)` };
   return { input };
 }
 
 // ---------------------------------------------------------------------------------------------
 // Reading a zod schema (zod 4): the object shape behind wrappers, pipes and unions
 
-type Def = { type: string; shape?: Record<string, ZodType>; innerType?: ZodType; in?: ZodType; out?: ZodType; options?: ZodType[]; getter?: () => ZodType; left?: ZodType; right?: ZodType };
+type Def = {
+  type: string;
+  shape?: Record<string, ZodType>;
+  innerType?: ZodType;
+  in?: ZodType;
+  out?: ZodType;
+  options?: ZodType[];
+  getter?: () => ZodType;
+  left?: ZodType;
+  right?: ZodType;
+};
 const defOf = (s: ZodType): Def => (s as unknown as { _zod: { def: Def } })._zod.def;
 
 /** The fields of the object a schema reads, for the variant `sample` takes (a union picks the option that accepts it). */
@@ -160,4 +174,5 @@ export function deleteAt(v: unknown, path: Path): unknown {
 }
 
 /** At most `n` items spread over the list (first and last included), so long layouts stay quick. */
-export const spread = <T>(items: T[], n: number) => (items.length <= n ? items : Array.from({ length: n }, (_, i) => items[Math.round((i * (items.length - 1)) / (n - 1))]!));
+export const spread = <T>(items: T[], n: number) =>
+  items.length <= n ? items : Array.from({ length: n }, (_, i) => items[Math.round((i * (items.length - 1)) / (n - 1))]!);

@@ -11,7 +11,9 @@ function walk(dir: string): string[] {
 
 /** '/api/machines/[id]' style route of a file under src/pages. */
 export function routeOf(file: string): string {
-  const rel = relative('src/pages', file).replace(/\\/g, '/').replace(/\.(ts|astro)$/, '');
+  const rel = relative('src/pages', file)
+    .replace(/\\/g, '/')
+    .replace(/\.(ts|astro)$/, '');
   const path = '/' + rel.replace(/(^|\/)index$/, '');
   return path === '/' ? '/' : path.replace(/\/$/, '');
 }

@@ -94,10 +94,13 @@ export async function startServer(opts: { dataDir?: string; env?: Record<string,
   const exited = new Promise<number | null>((resolve) => child.on('exit', (code) => resolve(code)));
   await new Promise<void>((resolve, reject) => {
     // A loaded shared machine can take longer than 30 s to migrate and seed; never leave the child behind.
-    const timer = setTimeout(() => {
-      child.kill('SIGKILL');
-      reject(new Error(`server did not start:\n${output}`));
-    }, Number(process.env.CAGEWRIGHT_START_TIMEOUT_MS ?? 120_000));
+    const timer = setTimeout(
+      () => {
+        child.kill('SIGKILL');
+        reject(new Error(`server did not start:\n${output}`));
+      },
+      Number(process.env.CAGEWRIGHT_START_TIMEOUT_MS ?? 120_000),
+    );
     const onData = (b: Buffer) => {
       output += b.toString();
       if (output.includes('cagewright: ready')) {

@@ -124,18 +124,28 @@ describe('password page', () => {
     const wrong = await post(c, { currentPassword: 'nope', newPassword: 'june-fenwick-new-2026', repeatPassword: 'june-fenwick-new-2026' });
     expect(wrong.status).toBe(400);
     expect(await wrong.text()).toMatch(/Current password: that is not your current password/);
-    const mismatch = await post(c, { currentPassword: DEMO_PASSWORD, newPassword: 'june-fenwick-new-2026', repeatPassword: 'something-else-2026' });
+    const mismatch = await post(c, {
+      currentPassword: DEMO_PASSWORD,
+      newPassword: 'june-fenwick-new-2026',
+      repeatPassword: 'something-else-2026',
+    });
     expect(mismatch.status).toBe(400);
     expect(await mismatch.text()).toMatch(/New password again: type the same new password twice/);
     expect((await elsewhere.get('/api/me')).status).toBe(200);
 
-    const ok = await post(c, { currentPassword: DEMO_PASSWORD, newPassword: 'june-fenwick-new-2026', repeatPassword: 'june-fenwick-new-2026' });
+    const ok = await post(c, {
+      currentPassword: DEMO_PASSWORD,
+      newPassword: 'june-fenwick-new-2026',
+      repeatPassword: 'june-fenwick-new-2026',
+    });
     expect(ok.status).toBe(303);
     expect(ok.headers.get('location')).toBe('/signin?notice=password-changed');
     expect(c.hasSession()).toBe(false);
     expect(await (await c.fetch('/signin?notice=password-changed')).text()).toMatch(/signed out everywhere/);
     await expectRefused(elsewhere);
     const fresh = await as(email, 'june-fenwick-new-2026');
-    expect((await fresh.post('/api/me/password', { currentPassword: 'june-fenwick-new-2026', newPassword: DEMO_PASSWORD })).status).toBe(200);
+    expect((await fresh.post('/api/me/password', { currentPassword: 'june-fenwick-new-2026', newPassword: DEMO_PASSWORD })).status).toBe(
+      200,
+    );
   });
 });

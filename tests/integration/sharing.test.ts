@@ -11,7 +11,12 @@ let northQuarter: MachineItem;
 let layoutId: string;
 
 beforeAll(async () => {
-  [olive, dev, tomas, priya] = await Promise.all([signedIn('operator'), signedIn('operator2'), signedIn('technician'), signedIn('trainer')]);
+  [olive, dev, tomas, priya] = await Promise.all([
+    signedIn('operator'),
+    signedIn('operator2'),
+    signedIn('technician'),
+    signedIn('trainer'),
+  ]);
   northQuarter = await machineByNickname(olive, 'North Quarter');
   const { layout } = await newLayout(olive, northQuarter.id, uniq('Canola, shared'), 'canola');
   layoutId = layout.id;
@@ -172,7 +177,9 @@ describe('the shared page', () => {
     expect(listed.status).toBe('revoked');
     // Revoking twice is harmless.
     expect((await olive.delete(`/api/share-links/${body.link.id}`)).status).toBe(200);
-    expect((await olive.get(`/api/share-links?layoutId=${layoutId}&status=active`)).body.links.map((l: any) => l.id)).not.toContain(body.link.id);
+    expect((await olive.get(`/api/share-links?layoutId=${layoutId}&status=active`)).body.links.map((l: any) => l.id)).not.toContain(
+      body.link.id,
+    );
   });
 
   it('answers 410 once expired', async () => {

@@ -15,7 +15,9 @@ const ADDRESS_LIMIT = 20;
 let server: RunningServer;
 
 beforeAll(async () => {
-  server = await startServer({ env: { CAGEWRIGHT_SIGNIN_DELAY_S: String(DELAY_S), CAGEWRIGHT_TRUSTED_PROXIES: '127.0.0.1', CAGEWRIGHT_SIGNIN_ADDRESS_FREE: '20' } });
+  server = await startServer({
+    env: { CAGEWRIGHT_SIGNIN_DELAY_S: String(DELAY_S), CAGEWRIGHT_TRUSTED_PROXIES: '127.0.0.1', CAGEWRIGHT_SIGNIN_ADDRESS_FREE: '20' },
+  });
 }, 180_000);
 
 afterAll(async () => {
@@ -36,7 +38,16 @@ const stats = async (admin: Client) => (await admin.get('/api/admin/stats')).bod
 
 describe('sign-in throttle', () => {
   it('parallel correct sign-ins from one address all succeed (a free attempt is never refused for another one’s moment)', async () => {
-    const people = [DEMO.operator, DEMO.operator2, DEMO.technician, DEMO.dealerAdmin, DEMO.operator, DEMO.technician, DEMO.operator2, DEMO.dealerAdmin];
+    const people = [
+      DEMO.operator,
+      DEMO.operator2,
+      DEMO.technician,
+      DEMO.dealerAdmin,
+      DEMO.operator,
+      DEMO.technician,
+      DEMO.operator2,
+      DEMO.dealerAdmin,
+    ];
     const results = await Promise.all(people.map((email) => attempt(email, 'cage-demo-2026', from(7000))));
     expect(results.map((r) => r.code ?? 'signed in')).toEqual(people.map(() => 'signed in'));
     expect(results.every((r) => r.signedIn)).toBe(true);
@@ -62,7 +73,9 @@ describe('sign-in throttle', () => {
     expect(after.auditLog - before.auditLog).toBe(100); // each failed or throttled attempt audited
 
     // A burst of 40 with the right password among them, inside the wait: none signs in.
-    const burst = await Promise.all(Array.from({ length: 40 }, (_, i) => attempt(DEMO.trainer, i === 20 ? 'cage-demo-2026' : `again-${i}`, from(200 + i))));
+    const burst = await Promise.all(
+      Array.from({ length: 40 }, (_, i) => attempt(DEMO.trainer, i === 20 ? 'cage-demo-2026' : `again-${i}`, from(200 + i))),
+    );
     expect(burst.some((r) => r.signedIn)).toBe(false);
     expect(burst.every((r) => r.code?.startsWith('throttled-'))).toBe(true);
 
@@ -98,4 +111,3 @@ describe('sign-in throttle', () => {
     for (let i = 0; i < ADDRESS_LIMIT + 5; i++) expect((await attempt(DEMO.operator, 'cage-demo-2026', address)).signedIn).toBe(true);
   }, 60_000);
 });
-

@@ -78,7 +78,11 @@ async function switchableRelay(targetPort: number) {
 }
 
 async function jpeg(): Promise<Uint8Array> {
-  return new Uint8Array(await sharp({ create: { width: 120, height: 80, channels: 3, background: '#5d6f83' } }).jpeg({ quality: 70 }).toBuffer());
+  return new Uint8Array(
+    await sharp({ create: { width: 120, height: 80, channels: 3, background: '#5d6f83' } })
+      .jpeg({ quality: 70 })
+      .toBuffer(),
+  );
 }
 
 function photoForm(bytes: Uint8Array): FormData {
@@ -127,7 +131,12 @@ describe('a slow or hanging service never freezes the store', () => {
     smtp = await startFakeSmtp({ dataDir: join(dir, 'fake-smtp'), setEnv: false });
     s3Relay = await switchableRelay(Number(new URL(s3.endpoint).port));
     smtpRelay = await switchableRelay(smtp.port);
-    bucket = new S3Client({ endpoint: s3.endpoint, region: 'us-east-1', forcePathStyle: true, credentials: { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' } });
+    bucket = new S3Client({
+      endpoint: s3.endpoint,
+      region: 'us-east-1',
+      forcePathStyle: true,
+      credentials: { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' },
+    });
     env = {
       S3_ENDPOINT: `http://127.0.0.1:${s3Relay.port}`,
       S3_BUCKET: s3.bucket,
@@ -165,7 +174,9 @@ describe('a slow or hanging service never freezes the store', () => {
 
     s3Relay.hang();
     let settledAt = 0;
-    const upload = timed(() => tech.fetch(`/api/inspections/${insp.id}/items/${item.id}/photos`, { method: 'POST', body: photoForm(photo) as BodyInit })).then((r) => {
+    const upload = timed(() =>
+      tech.fetch(`/api/inspections/${insp.id}/items/${item.id}/photos`, { method: 'POST', body: photoForm(photo) as BodyInit }),
+    ).then((r) => {
       settledAt = Date.now();
       return r;
     });
@@ -205,7 +216,10 @@ describe('a slow or hanging service never freezes the store', () => {
     expect((await objectKeys()).sort()).toEqual(keysBefore.sort());
 
     // The store is back: the same upload goes through, row after objects.
-    const again = await tech.fetch(`/api/inspections/${insp.id}/items/${item.id}/photos`, { method: 'POST', body: photoForm(photo) as BodyInit });
+    const again = await tech.fetch(`/api/inspections/${insp.id}/items/${item.id}/photos`, {
+      method: 'POST',
+      body: photoForm(photo) as BodyInit,
+    });
     expect(again.status).toBe(201);
     expect((await objectKeys()).length).toBe(keysBefore.length + 2);
   }, 120_000);
@@ -239,7 +253,11 @@ describe('a slow or hanging service never freezes the store', () => {
 
     beforeAll(async () => {
       ({ machineId } = await ownMachine(olive, 'Outbox test machine'));
-      const made = await olive.post('/api/parts-requests', { from: 'manual', machineId, lines: [{ partNumber: 'CW-RB-L-04', quantity: 2 }] });
+      const made = await olive.post('/api/parts-requests', {
+        from: 'manual',
+        machineId,
+        lines: [{ partNumber: 'CW-RB-L-04', quantity: 2 }],
+      });
       expect(made.status, JSON.stringify(made.body)).toBe(201);
       id = made.body.id;
     }, 120_000);
@@ -310,7 +328,11 @@ describe('a slow or hanging service never freezes the store', () => {
     }, 60_000);
 
     it('a request left "sending" by a server that died is a draft again at the next start; a photo object no row names is removed, others kept', async () => {
-      const made = await olive.post('/api/parts-requests', { from: 'manual', machineId, lines: [{ partNumber: 'CW-RB-R-04', quantity: 1 }] });
+      const made = await olive.post('/api/parts-requests', {
+        from: 'manual',
+        machineId,
+        lines: [{ partNumber: 'CW-RB-R-04', quantity: 1 }],
+      });
       const stuckId = made.body.id as string;
       smtpRelay.hang();
       void olive.post(`/api/parts-requests/${stuckId}/submit`).catch(() => {});
@@ -327,7 +349,8 @@ describe('a slow or hanging service never freezes the store', () => {
       const insp = (await tech.get('/api/inspections')).body.items[0] as { id: string };
       const orphan = `inspections/${insp.id}/00000000-0000-4000-8000-00000000abcd.jpg`;
       const foreign = `inspections/11111111-1111-4111-8111-111111111111/22222222-2222-4222-8222-222222222222.jpg`;
-      for (const Key of [orphan, foreign]) await bucket.send(new PutObjectCommand({ Bucket: s3.bucket, Key, Body: await jpeg(), ContentType: 'image/jpeg' }));
+      for (const Key of [orphan, foreign])
+        await bucket.send(new PutObjectCommand({ Bucket: s3.bucket, Key, Body: await jpeg(), ContentType: 'image/jpeg' }));
       const kept = (await objectKeys()).filter((k) => k !== orphan);
 
       expect(await server.stop('SIGKILL')).toBe(null);

@@ -76,15 +76,17 @@ describe.skipIf(!PG)('two server processes on one PostgreSQL database (skipped w
     expect(checked.length).toBeGreaterThan(0);
     expect(checked.length).toBeLessThanOrEqual(5);
     // The audit trail agrees: one row per checked password, one per refused reservation.
-    const { rows } = await db.query(
-      `select action, count(*)::int as n from audit_log where detail->>'email' = $1 group by action`, [email]);
+    const { rows } = await db.query(`select action, count(*)::int as n from audit_log where detail->>'email' = $1 group by action`, [
+      email,
+    ]);
     const n = Object.fromEntries(rows.map((r) => [r.action, r.n]));
     expect(n['signin-failed']).toBe(checked.length);
     expect(n['signin-throttled']).toBe(100 - checked.length);
 
     // The right password in a parallel burst over both, during the wait: refused everywhere.
-    const burst = await Promise.all(Array.from({ length: 40 }, (_, i) =>
-      signIn(i % 2 ? b : a, email, i % 10 === 3 ? DEMO_PASSWORD : `again-${i}`, from(120 + i))));
+    const burst = await Promise.all(
+      Array.from({ length: 40 }, (_, i) => signIn(i % 2 ? b : a, email, i % 10 === 3 ? DEMO_PASSWORD : `again-${i}`, from(120 + i))),
+    );
     expect(burst.some((r) => r.signedIn)).toBe(false);
     expect(burst.every((r) => r.code?.startsWith('throttled-'))).toBe(true);
 
@@ -139,8 +141,16 @@ describe.skipIf(!PG)('two server processes on one PostgreSQL database (skipped w
     const id = made.body.layout.id;
     const base = (await olive.get(`/api/layouts/${id}`)).body.current;
     const [ra, rb] = await Promise.all([
-      olive.put(`/api/layouts/${id}`, { baseVersion: base.version, body: { ...base.body, rotorRpm: base.body.rotorRpm + 10 }, note: 'on A' }),
-      tomas.put(`/api/layouts/${id}`, { baseVersion: base.version, body: { ...base.body, rotorRpm: base.body.rotorRpm + 20 }, note: 'on B' }),
+      olive.put(`/api/layouts/${id}`, {
+        baseVersion: base.version,
+        body: { ...base.body, rotorRpm: base.body.rotorRpm + 10 },
+        note: 'on A',
+      }),
+      tomas.put(`/api/layouts/${id}`, {
+        baseVersion: base.version,
+        body: { ...base.body, rotorRpm: base.body.rotorRpm + 20 },
+        note: 'on B',
+      }),
     ]);
     expect([ra.status, rb.status].sort()).toEqual([201, 409]);
     const loser = ra.status === 409 ? ra : rb;

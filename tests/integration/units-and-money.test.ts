@@ -18,14 +18,23 @@ const form = (fields: Record<string, string>) => ({
   headers: { 'content-type': 'application/x-www-form-urlencoded' },
   body: new URLSearchParams(fields).toString(),
 });
-const text = (html: string) => html.replace(/<[^>]+>/g, ' ').replace(/&amp;/g, '&').replace(/\s+/g, ' ');
+const text = (html: string) =>
+  html
+    .replace(/<[^>]+>/g, ' ')
+    .replace(/&amp;/g, '&')
+    .replace(/\s+/g, ' ');
 const testId = (html: string, id: string) => {
   const m = new RegExp(`data-testid="${id}"[^>]*>([\\s\\S]*?)</(?:p|ul|td|strong)>`).exec(html);
   return m ? text(m[1]!) : null;
 };
 
 beforeAll(async () => {
-  [olive, dev, admin, tomas] = await Promise.all([signedIn('operator'), signedIn('operator2'), signedIn('dealerAdmin'), signedIn('technician')]);
+  [olive, dev, admin, tomas] = await Promise.all([
+    signedIn('operator'),
+    signedIn('operator2'),
+    signedIn('dealerAdmin'),
+    signedIn('technician'),
+  ]);
   expect((await olive.put('/api/me', { unitSystem: 'imperial' })).status).toBe(200);
 });
 afterAll(async () => {

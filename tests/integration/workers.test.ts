@@ -48,7 +48,9 @@ describe('the embedded store stays one process', () => {
 
   it('refuses a count that is not a whole number of 1 or more, naming the variable', async () => {
     for (const bad of ['abc', '0', '-2', '1.5']) {
-      await expect(startServer({ env: { DATABASE_URL: '', CAGEWRIGHT_WORKERS: bad } }), bad).rejects.toThrow(/CAGEWRIGHT_WORKERS must be a whole number/);
+      await expect(startServer({ env: { DATABASE_URL: '', CAGEWRIGHT_WORKERS: bad } }), bad).rejects.toThrow(
+        /CAGEWRIGHT_WORKERS must be a whole number/,
+      );
     }
   }, 60_000);
 });

@@ -1,10 +1,10 @@
 /** One rotor bar place: the bar drawn by kind, the in-line mark, findings. */
 import { memo } from 'react';
-import type { BarKind } from '../../lib/domain/schemas';
+import type { BarKind } from '~/lib/domain/schemas';
 import { INK, INK_MUTED, SEVERITY_STYLE, STEEL } from './palette';
 import type { SlotInfo } from './slot-types';
 import { CORNER_BADGE, SlotMarks } from './SlotMarks';
-import { barKindLabel } from '../../lib/domain/vocabulary';
+import { barKindLabel } from '~/lib/domain/vocabulary';
 import { fitLabel } from './fit-text';
 
 /** The severity icon's size on a bar, and the room it takes at the slot's right end. */
@@ -22,10 +22,19 @@ function BarShape({ kind, x, y, w }: { kind: BarKind; x: number; y: number; w: n
       return (
         <g>
           {kind === 'spike-rasp' &&
-            ridges.filter((_, i) => i % 2 === 0).map((rx) => (
-              <path key={rx} d={`M${rx - 3},${y - 4}L${rx},${y - 10}L${rx + 3},${y - 4}Z`} fill={STEEL[700]} />
-            ))}
-          <rect x={x} y={y - 5} width={w} height={10} rx={3} fill={kind === 'smooth-rasp' ? STEEL[400] : STEEL[500]} stroke={STEEL[800]} strokeWidth={0.75} />
+            ridges
+              .filter((_, i) => i % 2 === 0)
+              .map((rx) => <path key={rx} d={`M${rx - 3},${y - 4}L${rx},${y - 10}L${rx + 3},${y - 4}Z`} fill={STEEL[700]} />)}
+          <rect
+            x={x}
+            y={y - 5}
+            width={w}
+            height={10}
+            rx={3}
+            fill={kind === 'smooth-rasp' ? STEEL[400] : STEEL[500]}
+            stroke={STEEL[800]}
+            strokeWidth={0.75}
+          />
           {kind === 'smooth-rasp' ? (
             <line x1={x + 4} x2={x + w - 4} y1={y - 1.5} y2={y - 1.5} stroke={STEEL[200]} strokeWidth={1.4} strokeLinecap="round" />
           ) : (
@@ -69,15 +78,29 @@ function BarSlotView({ info, inLine, compact, span }: { info: SlotInfo; inLine: 
   const barW = span ? w - 22 : w - 44;
   const sev = info.severity ? SEVERITY_STYLE[info.severity] : undefined;
   const fontSize = compact ? 9 : 10;
-  const name = bar ? barKindLabel(bar.barKind) : info.partNumber ? 'Unknown part' : span?.end === 'rear' ? `Straight, from pos. ${span.front}` : 'no bar';
+  const name = bar
+    ? barKindLabel(bar.barKind)
+    : info.partNumber
+      ? 'Unknown part'
+      : span?.end === 'rear'
+        ? `Straight, from pos. ${span.front}`
+        : 'no bar';
   const where =
-    span?.end === 'front' && bar?.barKind === 'straight' ? `${name} · 2 mounts` : inLine && span?.end !== 'rear' ? `${name} · in line` : name;
+    span?.end === 'front' && bar?.barKind === 'straight'
+      ? `${name} · 2 mounts`
+      : inLine && span?.end !== 'rear'
+        ? `${name} · in line`
+        : name;
   // The label never runs past its slot; with a finding it keeps clear of the icon's column too
   // (on both sides, as it is centred) where the icon reaches down into the label's lane.
   const iconInLane = compact;
   // A compare view's corner badge takes the lane's right end (and, the label being centred, as much on the left).
   const room = w - 8 - Math.max(sev && iconInLane ? 2 * ICON_ROOM : 0, info.changed ? 2 * (CORNER_BADGE + 4) : 0);
-  const label = fitLabel(sev && !compact ? [`${where} · ${sev.words}`, `${name} · ${sev.words}`, where, name] : [where, name], room, fontSize);
+  const label = fitLabel(
+    sev && !compact ? [`${where} · ${sev.words}`, `${name} · ${sev.words}`, where, name] : [where, name],
+    room,
+    fontSize,
+  );
   const withSev = sev && !compact && label.endsWith(` · ${sev.words}`);
   const words = withSev ? label.slice(0, -` · ${sev!.words}`.length) : label;
   return (
@@ -97,7 +120,14 @@ function BarSlotView({ info, inLine, compact, span }: { info: SlotInfo; inLine: 
       ) : (
         <rect x={barX} y={midY - 5} width={barW} height={10} rx={3} fill="none" stroke={STEEL[400]} strokeDasharray="4 3" />
       )}
-      <text x={x + w / 2} y={y + h - (compact ? 5 : 6)} textAnchor="middle" fontSize={fontSize} fill={bar ? INK : INK_MUTED} data-bar-label="">
+      <text
+        x={x + w / 2}
+        y={y + h - (compact ? 5 : 6)}
+        textAnchor="middle"
+        fontSize={fontSize}
+        fill={bar ? INK : INK_MUTED}
+        data-bar-label=""
+      >
         {words}
         {withSev && <tspan fill={sev!.colour} fontWeight={700}>{`\u00a0· ${sev!.words}`}</tspan>}
       </text>

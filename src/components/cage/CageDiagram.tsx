@@ -37,11 +37,11 @@
  * 'bar:1:4') and an aria-label naming the place, what is in it and its findings.
  */
 import { memo, useId, useMemo, useRef, type ReactNode, type SVGProps } from 'react';
-import { asCatalogIndex, type CatalogIndex } from '../../lib/domain/catalog';
-import { allPlaces, placeKey } from '../../lib/domain/places';
-import { rotorModel } from '../../lib/domain/rotor';
-import type { CatalogPart, Finding, Layout, MachineFamily, Place, Side } from '../../lib/domain/schemas';
-import type { UnitSystem } from '../../lib/domain/units';
+import { asCatalogIndex, type CatalogIndex } from '~/lib/domain/catalog';
+import { allPlaces, placeKey } from '~/lib/domain/places';
+import { rotorModel } from '~/lib/domain/rotor';
+import type { CatalogPart, Finding, Layout, MachineFamily, Place, Side } from '~/lib/domain/schemas';
+import type { UnitSystem } from '~/lib/domain/units';
 import { BarSlot } from './BarSlot';
 import { CoverSlot } from './CoverSlot';
 import { ElementSlot } from './ElementSlot';
@@ -51,7 +51,7 @@ import { diagramGeometry, slotBox, VANE_LEAN_DEG, type DiagramGeometry } from '.
 import { CHANGED_COLOUR, INK, INK_MUTED, INK_SOFT, SEVERITY_STYLE, STEEL } from './palette';
 import { PatternDefs } from './patterns';
 import type { SlotAttrs, SlotInfo } from './slot-types';
-import { partNameWithHand, placeLabel, severityWords } from '../../lib/domain/vocabulary';
+import { partNameWithHand, placeLabel, severityWords } from '~/lib/domain/vocabulary';
 
 export type { SlotInfo, SlotAttrs } from './slot-types';
 
@@ -90,11 +90,21 @@ interface DrawnSlot {
 }
 
 /** The findings at a place as far as the slot shows them (its marks and accessible name). */
-const findingsSignature = (fs: readonly Finding[]) => (fs.length === 0 ? '' : fs.map((f) => `${f.severity}\u0001${f.code}\u0001${f.title}`).join('\u0002'));
+const findingsSignature = (fs: readonly Finding[]) =>
+  fs.length === 0 ? '' : fs.map((f) => `${f.severity}\u0001${f.code}\u0001${f.title}`).join('\u0002');
 
-function slotLabel(place: Place, part: CatalogPart | undefined, partNumber: string | undefined, seat: boolean, findings: readonly Finding[], changed: boolean, span?: { end: 'front' | 'rear'; front: number }): string {
+function slotLabel(
+  place: Place,
+  part: CatalogPart | undefined,
+  partNumber: string | undefined,
+  seat: boolean,
+  findings: readonly Finding[],
+  changed: boolean,
+  span?: { end: 'front' | 'rear'; front: number },
+): string {
   let content: string;
-  if (part) content = `${partNameWithHand(part)}, ${part.partNumber}${span?.end === 'front' ? ', across this mount and the one behind it' : ''}`;
+  if (part)
+    content = `${partNameWithHand(part)}, ${part.partNumber}${span?.end === 'front' ? ', across this mount and the one behind it' : ''}`;
   else if (partNumber) content = `unknown part ${partNumber}`;
   else if (span?.end === 'rear') content = `taken by the straight bar from position ${span.front}`;
   else if (place.kind === 'cover' && !seat) content = 'no plate seat';
@@ -266,7 +276,15 @@ export function CageDiagram(props: CageDiagramProps) {
     const spanHere = spanOf.get(key);
     const span = spanHere ? `${spanHere.end}:${spanHere.front}` : '';
     const before = cache.get(key);
-    if (before && before.partNumber === partNumber && before.span === span && before.findings === fsig && before.selected === selected && before.highlighted === highlighted && before.changed === changed) {
+    if (
+      before &&
+      before.partNumber === partNumber &&
+      before.span === span &&
+      before.findings === fsig &&
+      before.selected === selected &&
+      before.highlighted === highlighted &&
+      before.changed === changed
+    ) {
       slots.push(before.node);
       continue;
     }
@@ -276,21 +294,36 @@ export function CageDiagram(props: CageDiagramProps) {
     if (place.kind === 'element') {
       const info = infoFor(place, box, true);
       node = (
-        <Slot key={info.key} info={info} slotProps={slotProps} renderSlot={renderSlot}
-          drawing={<ElementSlot info={info} side={place.side} prefix={prefix} units={units} compact={compact} />} />
+        <Slot
+          key={info.key}
+          info={info}
+          slotProps={slotProps}
+          renderSlot={renderSlot}
+          drawing={<ElementSlot info={info} side={place.side} prefix={prefix} units={units} compact={compact} />}
+        />
       );
     } else if (place.kind === 'cover') {
       const section = family.cageTopSections.find((s) => s.index === place.section)!;
       const info = infoFor(place, box, section.coverPlateSides.includes(place.side));
       node = (
-        <Slot key={info.key} info={info} slotProps={slotProps} renderSlot={renderSlot}
-          drawing={<CoverSlot info={info} prefix={prefix} compact={compact} />} />
+        <Slot
+          key={info.key}
+          info={info}
+          slotProps={slotProps}
+          renderSlot={renderSlot}
+          drawing={<CoverSlot info={info} prefix={prefix} compact={compact} />}
+        />
       );
     } else if (place.kind === 'bar') {
       const info = infoFor(place, box, true, spanHere);
       node = (
-        <Slot key={info.key} info={info} slotProps={slotProps} renderSlot={renderSlot}
-          drawing={<BarSlot info={info} inLine={inLine.has(info.key)} compact={compact} span={spanHere} />} />
+        <Slot
+          key={info.key}
+          info={info}
+          slotProps={slotProps}
+          renderSlot={renderSlot}
+          drawing={<BarSlot info={info} inLine={inLine.has(info.key)} compact={compact} span={spanHere} />}
+        />
       );
     }
     if (!node) continue;
@@ -313,7 +346,15 @@ export function CageDiagram(props: CageDiagramProps) {
       style={{ display: 'block', maxWidth: '100%', height: 'auto' }}
     >
       <PatternDefs prefix={prefix} />
-      <Frame family={family} vaneSetting={layout.vaneSetting} vaneControl={layout.vaneControl} geo={geo} compact={compact} drum={drum} changed={changedSettings} />
+      <Frame
+        family={family}
+        vaneSetting={layout.vaneSetting}
+        vaneControl={layout.vaneControl}
+        geo={geo}
+        compact={compact}
+        drum={drum}
+        changed={changedSettings}
+      />
       {slots}
       <SettingMarks geo={geo} changed={changedSettings} />
       {geo.endView && (
@@ -361,7 +402,13 @@ const Frame = memo(function Frame({
   const rowLabel = (lines: string[], y: number, h: number) => (
     <text x={labelW - 10} y={y + h / 2 - (lines.length - 1) * (fs * 0.6) + fs * 0.35} textAnchor="end" fontSize={fs} fill={INK_SOFT}>
       {lines.map((l, i) => (
-        <tspan key={i} x={labelW - 10} dy={i === 0 ? 0 : fs * 1.2} fontWeight={i === 0 || l.startsWith('Δ') ? 700 : 400} fill={l.startsWith('Δ') ? CHANGED_COLOUR : i === 0 ? INK : INK_MUTED}>
+        <tspan
+          key={i}
+          x={labelW - 10}
+          dy={i === 0 ? 0 : fs * 1.2}
+          fontWeight={i === 0 || l.startsWith('Δ') ? 700 : 400}
+          fill={l.startsWith('Δ') ? CHANGED_COLOUR : i === 0 ? INK : INK_MUTED}
+        >
           {l}
         </tspan>
       ))}
@@ -374,7 +421,14 @@ const Frame = memo(function Frame({
       <text x={labelW} y={geo.title.y + 15} fontSize={fs} fontWeight={700} fill={INK}>
         Front · crop in
       </text>
-      <line x1={labelW + (compact ? 92 : 104)} x2={drawingRight - (compact ? 118 : 134)} y1={geo.title.y + 11} y2={geo.title.y + 11} stroke={STEEL[500]} strokeWidth={1.5} />
+      <line
+        x1={labelW + (compact ? 92 : 104)}
+        x2={drawingRight - (compact ? 118 : 134)}
+        y1={geo.title.y + 11}
+        y2={geo.title.y + 11}
+        stroke={STEEL[500]}
+        strokeWidth={1.5}
+      />
       <path d={`M${drawingRight - (compact ? 124 : 140)},${geo.title.y + 6}l7,5l-7,5`} fill="none" stroke={STEEL[500]} strokeWidth={1.5} />
       <text x={drawingRight} y={geo.title.y + 15} textAnchor="end" fontSize={fs} fontWeight={700} fill={INK}>
         Rear · discharge
@@ -385,8 +439,23 @@ const Frame = memo(function Frame({
         const span = geo.spanX(z.positions);
         return (
           <g key={z.zone + i}>
-            <rect x={span.x + 2} y={geo.zones.y} width={span.w - 4} height={geo.zones.h} rx={4} fill={z.zone === 'threshing' ? STEEL[700] : STEEL[200]} />
-            <text x={span.x + span.w / 2} y={geo.zones.y + geo.zones.h / 2 + 4.5} textAnchor="middle" fontSize={fs + 0.5} fontWeight={700} letterSpacing={0.6} fill={z.zone === 'threshing' ? '#fff' : INK}>
+            <rect
+              x={span.x + 2}
+              y={geo.zones.y}
+              width={span.w - 4}
+              height={geo.zones.h}
+              rx={4}
+              fill={z.zone === 'threshing' ? STEEL[700] : STEEL[200]}
+            />
+            <text
+              x={span.x + span.w / 2}
+              y={geo.zones.y + geo.zones.h / 2 + 4.5}
+              textAnchor="middle"
+              fontSize={fs + 0.5}
+              fontWeight={700}
+              letterSpacing={0.6}
+              fill={z.zone === 'threshing' ? '#fff' : INK}
+            >
               {z.zone === 'threshing' ? 'THRESHING ZONE' : 'SEPARATING ZONE'}
             </text>
           </g>
@@ -400,7 +469,9 @@ const Frame = memo(function Frame({
           <g key={p.index}>
             <text x={x + colW / 2} y={geo.headers.y + 14} textAnchor="middle" fontSize={fs} fontWeight={700} fill={INK}>
               {compact ? `P${p.index}` : `Position ${p.index}`}
-              <tspan fontWeight={400} fill={INK_MUTED}>{role}</tspan>
+              <tspan fontWeight={400} fill={INK_MUTED}>
+                {role}
+              </tspan>
             </text>
           </g>
         );
@@ -433,7 +504,18 @@ const Frame = memo(function Frame({
                 // the element ring (down), the right side away from it (up)
                 const top = side === 'left' ? vx - dx / 2 : vx + dx / 2;
                 const bottom = side === 'left' ? vx + dx / 2 : vx - dx / 2;
-                lines.push(<line key={vx} x1={top} y1={band.y + 3} x2={bottom} y2={band.y + band.h - 3} stroke={STEEL[500]} strokeWidth={2.2} strokeLinecap="round" />);
+                lines.push(
+                  <line
+                    key={vx}
+                    x1={top}
+                    y1={band.y + 3}
+                    x2={bottom}
+                    y2={band.y + band.h - 3}
+                    stroke={STEEL[500]}
+                    strokeWidth={2.2}
+                    strokeLinecap="round"
+                  />,
+                );
               }
               return (
                 <g key={s.index}>
@@ -452,7 +534,15 @@ const Frame = memo(function Frame({
               <g>
                 <line x1={labelW + 8} x2={drawingRight - 8} y1={band.y + 5} y2={band.y + 5} stroke={STEEL[800]} strokeWidth={3} />
                 {family.positions.map((p) => (
-                  <circle key={p.index} cx={geo.colX(p.index) + colW / 2} cy={band.y + 5} r={3.5} fill="#fff" stroke={STEEL[800]} strokeWidth={1.5} />
+                  <circle
+                    key={p.index}
+                    cx={geo.colX(p.index) + colW / 2}
+                    cy={band.y + 5}
+                    r={3.5}
+                    fill="#fff"
+                    stroke={STEEL[800]}
+                    strokeWidth={1.5}
+                  />
                 ))}
               </g>
             )}
@@ -474,7 +564,11 @@ const Frame = memo(function Frame({
         return (
           <g key={side}>
             <rect x={labelW} y={band.y - 2} width={drawingRight - labelW} height={band.h + 4} rx={4} fill={STEEL[50]} />
-            {rowLabel(compact ? [side === 'left' ? 'Left' : 'Right'] : [side === 'left' ? 'Left half' : 'Right half', 'element ring'], band.y, band.h)}
+            {rowLabel(
+              compact ? [side === 'left' ? 'Left' : 'Right'] : [side === 'left' ? 'Left half' : 'Right half', 'element ring'],
+              band.y,
+              band.h,
+            )}
           </g>
         );
       })}
@@ -487,7 +581,9 @@ const Frame = memo(function Frame({
         {drumChanged ? (
           <tspan fontWeight={700} fill={CHANGED_COLOUR} data-mark="drum-words">{`\u00a0· Δ ${drum.label.toLowerCase()}`}</tspan>
         ) : (
-          <tspan fontWeight={400} fill={INK_MUTED}>{compact ? '' : '\u00a0— rasp-bar rows; two short bars mark places where two rasp bars stand in line'}</tspan>
+          <tspan fontWeight={400} fill={INK_MUTED}>
+            {compact ? '' : '\u00a0— rasp-bar rows; two short bars mark places where two rasp bars stand in line'}
+          </tspan>
         )}
       </text>
       {family.rotorBarRows.map((r, i) => {
@@ -495,7 +591,13 @@ const Frame = memo(function Frame({
         return (
           <g key={r.index}>
             <rect x={labelW} y={band.y} width={drawingRight - labelW} height={band.h} fill={i % 2 ? STEEL[100] : STEEL[50]} />
-            <line x1={labelW} x2={drawingRight} y1={band.y + (compact ? 11 : 12) + 2} y2={band.y + (compact ? 11 : 12) + 2} stroke={STEEL[300]} />
+            <line
+              x1={labelW}
+              x2={drawingRight}
+              y1={band.y + (compact ? 11 : 12) + 2}
+              y2={band.y + (compact ? 11 : 12) + 2}
+              stroke={STEEL[300]}
+            />
             {rowLabel([compact ? `Row ${r.index}` : `Row ${r.index} · ${r.angleDeg}°`], band.y, band.h)}
           </g>
         );

@@ -7,8 +7,8 @@ import { STEEL } from './palette';
 import { ElementSwatch } from './patterns';
 import { SeverityBadge } from './SeverityIcon';
 import { SEVERITY_STYLE } from './palette';
-import type { Severity } from '../../lib/domain/schemas';
-import { ELEMENT_TYPES, elementTypeLabel } from '../../lib/domain/vocabulary';
+import type { Severity } from '~/lib/domain/schemas';
+import { ELEMENT_TYPES, elementTypeLabel } from '~/lib/domain/vocabulary';
 
 const SEVERITIES: Severity[] = ['blocks-fit', 'hurts-crop', 'advice'];
 const OUTLINE_WORDS: Record<Severity, string> = {
@@ -34,7 +34,17 @@ export function CageLegend({ className }: { className?: string }) {
         {SEVERITIES.map((s) => (
           <li key={s} className="flex items-center gap-1.5">
             <svg width={26} height={18} aria-hidden="true" focusable="false">
-              <rect x={2} y={2} width={22} height={14} rx={3} fill="none" stroke={SEVERITY_STYLE[s].colour} strokeWidth={2.5} strokeDasharray={SEVERITY_STYLE[s].dash} />
+              <rect
+                x={2}
+                y={2}
+                width={22}
+                height={14}
+                rx={3}
+                fill="none"
+                stroke={SEVERITY_STYLE[s].colour}
+                strokeWidth={2.5}
+                strokeDasharray={SEVERITY_STYLE[s].dash}
+              />
             </svg>
             <SeverityBadge severity={s} />
             <span>

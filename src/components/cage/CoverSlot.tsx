@@ -20,16 +20,52 @@ function CoverSlotView({ info, prefix, compact }: { info: SlotInfo; prefix: stri
   return (
     <>
       {filled ? (
-        <rect x={x} y={y} width={w} height={h} rx={4} fill={`url(#${patternId(prefix, 'cover')})`} fillOpacity={0.9} stroke={STEEL[800]} strokeWidth={1.25} />
+        <rect
+          x={x}
+          y={y}
+          width={w}
+          height={h}
+          rx={4}
+          fill={`url(#${patternId(prefix, 'cover')})`}
+          fillOpacity={0.9}
+          stroke={STEEL[800]}
+          strokeWidth={1.25}
+        />
       ) : info.seat ? (
-        <rect x={x} y={y} width={w} height={h} rx={4} fill="#ffffff" fillOpacity={0.35} stroke={STEEL[600]} strokeWidth={1.25} strokeDasharray="6 4" />
+        <rect
+          x={x}
+          y={y}
+          width={w}
+          height={h}
+          rx={4}
+          fill="#ffffff"
+          fillOpacity={0.35}
+          stroke={STEEL[600]}
+          strokeWidth={1.25}
+          strokeDasharray="6 4"
+        />
       ) : (
         <rect x={x} y={y} width={w} height={h} rx={4} fill="none" stroke="none" />
       )}
       {(filled || info.seat || !compact) && (
         <>
-          <rect x={cx - textW / 2} y={y + h / 2 - fs * 0.8} width={textW} height={fs * 1.6} rx={fs * 0.8} fill="#fff" fillOpacity={filled || info.seat ? 0.95 : 0.75} />
-          <text x={cx} y={y + h / 2 + fs * 0.36} textAnchor="middle" fontSize={fs} fontWeight={filled ? 700 : 400} fill={filled ? INK : INK_MUTED}>
+          <rect
+            x={cx - textW / 2}
+            y={y + h / 2 - fs * 0.8}
+            width={textW}
+            height={fs * 1.6}
+            rx={fs * 0.8}
+            fill="#fff"
+            fillOpacity={filled || info.seat ? 0.95 : 0.75}
+          />
+          <text
+            x={cx}
+            y={y + h / 2 + fs * 0.36}
+            textAnchor="middle"
+            fontSize={fs}
+            fontWeight={filled ? 700 : 400}
+            fill={filled ? INK : INK_MUTED}
+          >
             {text}
           </text>
         </>

@@ -1,13 +1,13 @@
 /** One half-position of the element ring: the element's pattern, its label, its hand, findings. */
 import { memo } from 'react';
-import type { Side } from '../../lib/domain/schemas';
-import type { UnitSystem } from '../../lib/domain/units';
-import { formatLength, mm } from '../../lib/domain/units';
+import type { Side } from '~/lib/domain/schemas';
+import type { UnitSystem } from '~/lib/domain/units';
+import { formatLength, mm } from '~/lib/domain/units';
 import { INK, INK_MUTED, STEEL } from './palette';
 import { patternId } from './patterns';
 import type { SlotInfo } from './slot-types';
 import { SlotMarks } from './SlotMarks';
-import { elementTypeLabel } from '../../lib/domain/vocabulary';
+import { elementTypeLabel } from '~/lib/domain/vocabulary';
 import { fitLabel } from './fit-text';
 
 interface Props {
@@ -35,11 +35,29 @@ function ElementSlotView({ info, side, prefix, units, compact }: Props) {
     <>
       <rect x={x} y={y} width={w} height={h} rx={5} fill="#fff" stroke={STEEL[300]} strokeWidth={1} />
       {part ? (
-        <rect x={x + 4} y={y + 4} width={w - 8} height={faceH - 4} rx={3} fill={`url(#${patternId(prefix, part.elementType)})`} stroke={STEEL[600]} strokeWidth={1} />
+        <rect
+          x={x + 4}
+          y={y + 4}
+          width={w - 8}
+          height={faceH - 4}
+          rx={3}
+          fill={`url(#${patternId(prefix, part.elementType)})`}
+          stroke={STEEL[600]}
+          strokeWidth={1}
+        />
       ) : info.partNumber ? (
         <rect x={x + 4} y={y + 4} width={w - 8} height={faceH - 4} rx={3} fill={STEEL[200]} stroke={STEEL[600]} strokeDasharray="4 3" />
       ) : (
-        <rect x={x + 4} y={y + 4} width={w - 8} height={faceH - 4} rx={3} fill={`url(#${patternId(prefix, 'empty')})`} stroke={STEEL[400]} strokeDasharray="5 4" />
+        <rect
+          x={x + 4}
+          y={y + 4}
+          width={w - 8}
+          height={faceH - 4}
+          rx={3}
+          fill={`url(#${patternId(prefix, 'empty')})`}
+          stroke={STEEL[400]}
+          strokeDasharray="5 4"
+        />
       )}
       {/* the slot's hand, written in it */}
       <rect x={x + 8} y={y + 8} width={handTab.length * 7 + 10} height={15} rx={3} fill={STEEL[800]} />

@@ -3,9 +3,9 @@
  * unrolls — the cage top above, the left and right halves of the element ring below, the rotor
  * with its rasp-bar rows, and the clearance between rotor and ring (drawn enlarged, labelled).
  */
-import type { MachineFamily } from '../../lib/domain/schemas';
-import type { UnitSystem } from '../../lib/domain/units';
-import { formatLength, mm } from '../../lib/domain/units';
+import type { MachineFamily } from '~/lib/domain/schemas';
+import type { UnitSystem } from '~/lib/domain/units';
+import { formatLength, mm } from '~/lib/domain/units';
 import { INK, INK_MUTED, STEEL } from './palette';
 
 interface Props {
@@ -47,9 +47,15 @@ export function EndView({ family, cx, cy, r, clearanceMm, diameterMm, units }: P
       <path d={arc(cx, cy, r, 90, 180)} stroke={STEEL[600]} strokeWidth={ringW} fill="none" strokeDasharray="2 2" />
       <path d={arc(cx, cy, r + ringW / 2 + 1, 180, 270)} stroke={STEEL[800]} strokeWidth={1.2} fill="none" />
       <path d={arc(cx, cy, r + ringW / 2 + 1, 90, 180)} stroke={STEEL[800]} strokeWidth={1.2} fill="none" />
-      <text x={cx - r * 0.74 - 12} y={cy + r * 0.74 + 16} textAnchor="end" fontSize={11} fill={INK}>left half</text>
-      <text x={cx + r * 0.74 + 12} y={cy + r * 0.74 + 16} fontSize={11} fill={INK}>right half</text>
-      <text x={cx} y={cy - r - 11} textAnchor="middle" fontSize={10.5} fill={INK_MUTED}>cage top</text>
+      <text x={cx - r * 0.74 - 12} y={cy + r * 0.74 + 16} textAnchor="end" fontSize={11} fill={INK}>
+        left half
+      </text>
+      <text x={cx + r * 0.74 + 12} y={cy + r * 0.74 + 16} fontSize={11} fill={INK}>
+        right half
+      </text>
+      <text x={cx} y={cy - r - 11} textAnchor="middle" fontSize={10.5} fill={INK_MUTED}>
+        cage top
+      </text>
       {/* rotor */}
       <circle cx={cx} cy={cy} r={rotorR} fill={STEEL[200]} stroke={STEEL[600]} strokeWidth={1.2} />
       <circle cx={cx} cy={cy} r={rotorR * 0.22} fill={STEEL[400]} />
@@ -72,7 +78,11 @@ export function EndView({ family, cx, cy, r, clearanceMm, diameterMm, units }: P
       {/* clearance at the bottom */}
       <line x1={cx} y1={cy + rotorR} x2={cx} y2={cy + r - ringW / 2} stroke={INK} strokeWidth={1} />
       <path d={`M${cx - 4},${cy + rotorR + 5}L${cx},${cy + rotorR}L${cx + 4},${cy + rotorR + 5}`} fill="none" stroke={INK} />
-      <path d={`M${cx - 4},${cy + r - ringW / 2 - 5}L${cx},${cy + r - ringW / 2}L${cx + 4},${cy + r - ringW / 2 - 5}`} fill="none" stroke={INK} />
+      <path
+        d={`M${cx - 4},${cy + r - ringW / 2 - 5}L${cx},${cy + r - ringW / 2}L${cx + 4},${cy + r - ringW / 2 - 5}`}
+        fill="none"
+        stroke={INK}
+      />
       <text x={cx} y={cy + r + 30} textAnchor="middle" fontSize={11.5} fill={INK}>
         clearance {formatLength(mm(clearanceMm), units)} (drawn enlarged)
       </text>
@@ -84,13 +94,33 @@ export function EndView({ family, cx, cy, r, clearanceMm, diameterMm, units }: P
 }
 
 /** The end view on its own (beside the clearance setting, or on a page without the full drawing). */
-export function CageEndView({ family, clearanceMm, drum, units, className }: { family: MachineFamily; clearanceMm: number; drum: string; units: UnitSystem; className?: string }) {
+export function CageEndView({
+  family,
+  clearanceMm,
+  drum,
+  units,
+  className,
+}: {
+  family: MachineFamily;
+  clearanceMm: number;
+  drum: string;
+  units: UnitSystem;
+  className?: string;
+}) {
   const r = 88;
   const d = family.drumOptions.find((o) => o.id === drum) ?? family.drumOptions[0]!;
   const w = 2 * r + 170;
   const h = 2 * r + 110;
   return (
-    <svg viewBox={`0 0 ${w} ${h}`} width="100%" className={className} role="img" aria-label={`End view from the front: rotor ⌀ ${formatLength(mm(d.diameterMm), units)}, clearance ${formatLength(mm(clearanceMm), units)}`} fontFamily='"Source Sans 3", system-ui, sans-serif' style={{ display: 'block', height: 'auto' }}>
+    <svg
+      viewBox={`0 0 ${w} ${h}`}
+      width="100%"
+      className={className}
+      role="img"
+      aria-label={`End view from the front: rotor ⌀ ${formatLength(mm(d.diameterMm), units)}, clearance ${formatLength(mm(clearanceMm), units)}`}
+      fontFamily='"Source Sans 3", system-ui, sans-serif'
+      style={{ display: 'block', height: 'auto' }}
+    >
       <EndView family={family} cx={w / 2} cy={r + 44} r={r} clearanceMm={clearanceMm} diameterMm={d.diameterMm} units={units} />
     </svg>
   );

@@ -4,7 +4,7 @@
  * difference outlines the rotor strip. The words ("Δ vanes fast", "Δ slim drum") are
  * the frame's own labels, marked in the same colour (CageDiagram's Frame).
  */
-import type { SettingField } from '../../lib/domain/schemas';
+import type { SettingField } from '~/lib/domain/schemas';
 import type { DiagramGeometry } from './geometry';
 import { CHANGED_COLOUR } from './palette';
 
@@ -26,10 +26,29 @@ export function SettingMarks({ geo, changed }: Props) {
       {vanes &&
         (['left', 'right'] as const).map((side) => {
           const band = geo.coverTop[side];
-          return <rect key={side} data-mark="vanes" x={labelW - 3} y={band.y - 3} width={drawingRight - labelW + 6} height={band.h + 6} rx={6} {...outline} />;
+          return (
+            <rect
+              key={side}
+              data-mark="vanes"
+              x={labelW - 3}
+              y={band.y - 3}
+              width={drawingRight - labelW + 6}
+              height={band.h + 6}
+              rx={6}
+              {...outline}
+            />
+          );
         })}
       {drum && geo.rotorRows > 0 && (
-        <rect data-mark="drum" x={labelW - 3} y={firstRow.y - 3} width={drawingRight - labelW + 6} height={lastRow.y + lastRow.h - firstRow.y + 6} rx={6} {...outline} />
+        <rect
+          data-mark="drum"
+          x={labelW - 3}
+          y={firstRow.y - 3}
+          width={drawingRight - labelW + 6}
+          height={lastRow.y + lastRow.h - firstRow.y + 6}
+          rx={6}
+          {...outline}
+        />
       )}
     </g>
   );

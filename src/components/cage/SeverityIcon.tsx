@@ -5,7 +5,7 @@
  * standalone <svg> (see SeverityBadge).
  */
 import { memo } from 'react';
-import type { Severity } from '../../lib/domain/schemas';
+import type { Severity } from '~/lib/domain/schemas';
 import { SEVERITY_STYLE } from './palette';
 
 export function SeverityIcon({ severity, x, y, size = 18 }: { severity: Severity; x: number; y: number; size?: number }) {
@@ -14,13 +14,27 @@ export function SeverityIcon({ severity, x, y, size = 18 }: { severity: Severity
   if (severity === 'blocks-fit') {
     const k = s * 0.414; // octagon: side offset for a regular octagon of half-width s
     const pts = [
-      [-k, -s], [k, -s], [s, -k], [s, k], [k, s], [-k, s], [-s, k], [-s, -k],
-    ].map(([a, b]) => `${x + a!},${y + b!}`).join(' ');
+      [-k, -s],
+      [k, -s],
+      [s, -k],
+      [s, k],
+      [k, s],
+      [-k, s],
+      [-s, k],
+      [-s, -k],
+    ]
+      .map(([a, b]) => `${x + a!},${y + b!}`)
+      .join(' ');
     const c = s * 0.42;
     return (
       <g aria-hidden="true">
         <polygon points={pts} fill={colour} stroke="#fff" strokeWidth={1.25} />
-        <path d={`M${x - c},${y - c}L${x + c},${y + c}M${x + c},${y - c}L${x - c},${y + c}`} stroke="#fff" strokeWidth={size / 8} strokeLinecap="round" />
+        <path
+          d={`M${x - c},${y - c}L${x + c},${y + c}M${x + c},${y - c}L${x - c},${y + c}`}
+          stroke="#fff"
+          strokeWidth={size / 8}
+          strokeLinecap="round"
+        />
       </g>
     );
   }
@@ -44,7 +58,15 @@ export function SeverityIcon({ severity, x, y, size = 18 }: { severity: Severity
 }
 
 /** A small inline icon for HTML lists (findings list, legends). */
-export const SeverityBadge = memo(function SeverityBadge({ severity, size = 16, className }: { severity: Severity; size?: number; className?: string }) {
+export const SeverityBadge = memo(function SeverityBadge({
+  severity,
+  size = 16,
+  className,
+}: {
+  severity: Severity;
+  size?: number;
+  className?: string;
+}) {
   return (
     <svg width={size} height={size} viewBox={`0 0 ${size} ${size}`} className={className} aria-hidden="true" focusable="false">
       <SeverityIcon severity={severity} x={size / 2} y={size / 2} size={size - 1.5} />

@@ -40,17 +40,46 @@ export function SlotMarks({
   return (
     <g aria-hidden="true" pointerEvents="none">
       {info.highlighted && (
-        <rect x={x - 5} y={y - 5} width={w + 10} height={h + 10} rx={8} fill="none" stroke={IRIS[500]} strokeWidth={3} strokeDasharray="10 4" />
+        <rect
+          x={x - 5}
+          y={y - 5}
+          width={w + 10}
+          height={h + 10}
+          rx={8}
+          fill="none"
+          stroke={IRIS[500]}
+          strokeWidth={3}
+          strokeDasharray="10 4"
+        />
       )}
       {info.selected && (
         <rect x={x - 2.5} y={y - 2.5} width={w + 5} height={h + 5} rx={7} fill="none" stroke={IRIS[700]} strokeWidth={3.5} />
       )}
       {sev && (
         <>
-          <rect x={x + 1.5} y={y + 1.5} width={w - 3} height={h - 3} rx={4} fill="none" stroke={sev.colour} strokeWidth={sev.strokeWidth} strokeDasharray={sev.dash} />
+          <rect
+            x={x + 1.5}
+            y={y + 1.5}
+            width={w - 3}
+            height={h - 3}
+            rx={4}
+            fill="none"
+            stroke={sev.colour}
+            strokeWidth={sev.strokeWidth}
+            strokeDasharray={sev.dash}
+          />
           {showWords ? (
             <g>
-              <rect x={x + w - tagW - 5} y={y + tagY} width={tagW} height={19} rx={9.5} fill="#fff" stroke={sev.colour} strokeWidth={1.25} />
+              <rect
+                x={x + w - tagW - 5}
+                y={y + tagY}
+                width={tagW}
+                height={19}
+                rx={9.5}
+                fill="#fff"
+                stroke={sev.colour}
+                strokeWidth={1.25}
+              />
               <SeverityIcon severity={info.severity!} x={x + w - tagW + 6} y={y + tagY + 9.5} size={14} />
               <text x={x + w - tagW + 16} y={y + tagY + 13.5} fontSize={10.5} fontWeight={700} fill={sev.colour}>
                 {sev.words}
@@ -58,14 +87,28 @@ export function SlotMarks({
             </g>
           ) : (
             <g data-mark="severity">
-              <SeverityIcon severity={info.severity!} x={x + w - 11} y={y + (iconY ?? Math.min(11, h / 2))} size={iconSize ?? (compact ? 14 : 16)} />
+              <SeverityIcon
+                severity={info.severity!}
+                x={x + w - 11}
+                y={y + (iconY ?? Math.min(11, h / 2))}
+                size={iconSize ?? (compact ? 14 : 16)}
+              />
             </g>
           )}
         </>
       )}
       {info.changed && changedAt === 'corner' && (
         <g data-mark="changed">
-          <rect x={x + w - CORNER_BADGE - 2} y={y + h - 15} width={CORNER_BADGE} height={13} rx={3} fill={CHANGED_COLOUR} stroke="#fff" strokeWidth={1} />
+          <rect
+            x={x + w - CORNER_BADGE - 2}
+            y={y + h - 15}
+            width={CORNER_BADGE}
+            height={13}
+            rx={3}
+            fill={CHANGED_COLOUR}
+            stroke="#fff"
+            strokeWidth={1}
+          />
           <text x={x + w - 2 - CORNER_BADGE / 2} y={y + h - 5} textAnchor="middle" fontSize={9} fontWeight={700} fill="#fff">
             Δ
           </text>

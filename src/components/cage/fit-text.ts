@@ -17,7 +17,12 @@ export function textWidth(text: string, fontSize: number, weight: keyof typeof A
  * The first wording that fits `maxWidth`; if none does, the last one cut short with an ellipsis
  * (the slot's accessible name keeps the full words).
  */
-export function fitLabel(candidates: readonly string[], maxWidth: number, fontSize: number, weight: keyof typeof ADVANCE = 'regular'): string {
+export function fitLabel(
+  candidates: readonly string[],
+  maxWidth: number,
+  fontSize: number,
+  weight: keyof typeof ADVANCE = 'regular',
+): string {
   const words = candidates.filter((c) => c.length > 0);
   for (const c of words) if (textWidth(c, fontSize, weight) <= maxWidth) return c;
   const last = words[words.length - 1] ?? '';

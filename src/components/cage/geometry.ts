@@ -6,7 +6,7 @@
  *   y: zone bands, position headers, cage top left, left half, right half, cage top right,
  *      then the rotor strip (one row per rasp-bar row).
  */
-import type { MachineFamily, Place, Side } from '../../lib/domain/schemas';
+import type { MachineFamily, Place, Side } from '~/lib/domain/schemas';
 
 export interface Band {
   y: number;

@@ -5,8 +5,8 @@
  * utility classes being present. Colour never carries meaning alone: every severity also has an
  * outline style, an icon shape and words.
  */
-import type { Severity } from '../../lib/domain/schemas';
-import { severityWords } from '../../lib/domain/vocabulary';
+import type { Severity } from '~/lib/domain/schemas';
+import { severityWords } from '~/lib/domain/vocabulary';
 
 export const INK = '#1c2430';
 export const INK_SOFT = '#3d4a5c';

@@ -7,7 +7,7 @@
  */
 import { memo } from 'react';
 import type React from 'react';
-import type { ElementType } from '../../lib/domain/schemas';
+import type { ElementType } from '~/lib/domain/schemas';
 import { STEEL } from './palette';
 
 export const patternId = (prefix: string, name: ElementType | 'cover' | 'no-seat' | 'empty') => `${prefix}-pat-${name}`;
@@ -86,7 +86,17 @@ export const PatternDefs = memo(function PatternDefs({ prefix, only }: { prefix:
 });
 
 /** A swatch of one element pattern, for legends and the palette (its own tiny SVG). */
-export function ElementSwatch({ type, prefix, width = 44, height = 26 }: { type: ElementType; prefix: string; width?: number; height?: number }) {
+export function ElementSwatch({
+  type,
+  prefix,
+  width = 44,
+  height = 26,
+}: {
+  type: ElementType;
+  prefix: string;
+  width?: number;
+  height?: number;
+}) {
   return (
     <svg width={width} height={height} viewBox={`0 0 ${width} ${height}`} aria-hidden="true" focusable="false">
       <PatternDefs prefix={prefix} only={[type]} />

@@ -1,6 +1,6 @@
 /** What the diagram knows about one slot, handed to `renderSlot` / `slotProps` hooks. */
 import type { SVGProps } from 'react';
-import type { CatalogPart, Finding, Place, Severity } from '../../lib/domain/schemas';
+import type { CatalogPart, Finding, Place, Severity } from '~/lib/domain/schemas';
 
 export interface SlotInfo {
   place: Place;

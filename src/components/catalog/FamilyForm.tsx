@@ -7,8 +7,8 @@
  */
 import { useState } from 'react';
 import { useFieldArray, useForm, type FieldErrors, type Resolver } from 'react-hook-form';
-import { machineFamilySchema, type MachineFamily } from '../../lib/domain/schemas';
-import { ApiError, sendJson } from '../shared/api';
+import { machineFamilySchema, type MachineFamily } from '~/lib/domain/schemas';
+import { ApiError, sendJson } from '~/components/shared/api';
 
 type BarCell = 'none' | 'place' | 'inline';
 
@@ -141,14 +141,27 @@ function errorAt(errors: FieldErrors, path: string): string | undefined {
 
 function Err({ errors, path }: { errors: FieldErrors; path: string }) {
   const m = errorAt(errors, path);
-  return m ? <p className="field-error">{path}: {m}</p> : null;
+  return m ? (
+    <p className="field-error">
+      {path}: {m}
+    </p>
+  ) : null;
 }
 
 const BAR_WORDS: Record<string, string> = { none: '—', place: 'bar', inline: 'in line' };
 
 export default function FamilyForm({ existing, readOnly = false }: FamilyFormProps) {
   const editing = !!existing;
-  const { register, control, handleSubmit, watch, setError, getValues, setValue, formState: { errors, isSubmitting } } = useForm<FormValues>({
+  const {
+    register,
+    control,
+    handleSubmit,
+    watch,
+    setError,
+    getValues,
+    setValue,
+    formState: { errors, isSubmitting },
+  } = useForm<FormValues>({
     resolver,
     defaultValues: existing ? toForm(existing) : BLANK,
     mode: 'onSubmit',
@@ -168,7 +181,8 @@ export default function FamilyForm({ existing, readOnly = false }: FamilyFormPro
       else await sendJson('POST', '/api/catalog/families', spec);
       window.location.assign(`/admin/catalog?savedFamily=${encodeURIComponent(spec.id)}`);
     } catch (e) {
-      if (e instanceof ApiError && e.field) setError(formPath(e.field.split('.')) as never, { message: e.message.replace(`${e.field}: `, '') });
+      if (e instanceof ApiError && e.field)
+        setError(formPath(e.field.split('.')) as never, { message: e.message.replace(`${e.field}: `, '') });
       setServerError(e instanceof Error ? e.message : 'The family was not saved.');
     }
   };
@@ -201,8 +215,12 @@ export default function FamilyForm({ existing, readOnly = false }: FamilyFormPro
           </label>
           <fieldset>
             <legend className="field-label">Cage kind</legend>
-            <label className="mr-4 inline-flex items-center gap-1"><input type="radio" value="modular" {...register('cageKind')} /> Modular (any element anywhere)</label>
-            <label className="inline-flex items-center gap-1"><input type="radio" value="split" {...register('cageKind')} /> Split (concaves front, grates rear)</label>
+            <label className="mr-4 inline-flex items-center gap-1">
+              <input type="radio" value="modular" {...register('cageKind')} /> Modular (any element anywhere)
+            </label>
+            <label className="inline-flex items-center gap-1">
+              <input type="radio" value="split" {...register('cageKind')} /> Split (concaves front, grates rear)
+            </label>
           </fieldset>
         </div>
 
@@ -211,7 +229,8 @@ export default function FamilyForm({ existing, readOnly = false }: FamilyFormPro
           <ol className="flex flex-wrap gap-3">
             {positions.fields.map((f, i) => (
               <li key={f.id} className="rounded border border-steel-200 p-2">
-                <label className="text-sm font-semibold">Position {i + 1}
+                <label className="text-sm font-semibold">
+                  Position {i + 1}
                   <select className="field-input py-1" {...register(`positions.${i}.zone`)}>
                     <option value="threshing">Threshing</option>
                     <option value="separating">Separating</option>
@@ -223,8 +242,12 @@ export default function FamilyForm({ existing, readOnly = false }: FamilyFormPro
           </ol>
           <Err errors={errors} path="positions" />
           <div className="mt-2 flex gap-2">
-            <button type="button" className="btn" onClick={() => positions.append({ zone: 'separating' })} disabled={positionCount >= 16}>Add a position</button>
-            <button type="button" className="btn" onClick={() => positions.remove(positionCount - 1)} disabled={positionCount <= 1}>Remove the last</button>
+            <button type="button" className="btn" onClick={() => positions.append({ zone: 'separating' })} disabled={positionCount >= 16}>
+              Add a position
+            </button>
+            <button type="button" className="btn" onClick={() => positions.remove(positionCount - 1)} disabled={positionCount <= 1}>
+              Remove the last
+            </button>
           </div>
         </fieldset>
 
@@ -233,24 +256,54 @@ export default function FamilyForm({ existing, readOnly = false }: FamilyFormPro
             <legend className="px-1 font-semibold">Rotor drums</legend>
             {drums.fields.map((f, i) => (
               <div key={f.id} className="mb-2 grid grid-cols-[7rem_1fr_7rem_auto] items-end gap-2">
-                <label className="text-sm">Kind
+                <label className="text-sm">
+                  Kind
                   <select className="field-input py-1" {...register(`drumOptions.${i}.id`)}>
                     <option value="full">Full</option>
                     <option value="slim">Slim</option>
-                  </select></label>
-                <label className="text-sm">Label<input className="field-input py-1" {...register(`drumOptions.${i}.label`)} /></label>
-                <label className="text-sm">Ø mm<input className="field-input py-1" type="number" {...register(`drumOptions.${i}.diameterMm`, { valueAsNumber: true })} /></label>
-                <button type="button" className="btn" onClick={() => drums.remove(i)} disabled={drums.fields.length <= 1} aria-label={`Remove drum option ${i + 1}`}>✕</button>
-                <div className="col-span-4"><Err errors={errors} path={`drumOptions.${i}.id`} /><Err errors={errors} path={`drumOptions.${i}.label`} /><Err errors={errors} path={`drumOptions.${i}.diameterMm`} /></div>
+                  </select>
+                </label>
+                <label className="text-sm">
+                  Label
+                  <input className="field-input py-1" {...register(`drumOptions.${i}.label`)} />
+                </label>
+                <label className="text-sm">
+                  Ø mm
+                  <input className="field-input py-1" type="number" {...register(`drumOptions.${i}.diameterMm`, { valueAsNumber: true })} />
+                </label>
+                <button
+                  type="button"
+                  className="btn"
+                  onClick={() => drums.remove(i)}
+                  disabled={drums.fields.length <= 1}
+                  aria-label={`Remove drum option ${i + 1}`}
+                >
+                  ✕
+                </button>
+                <div className="col-span-4">
+                  <Err errors={errors} path={`drumOptions.${i}.id`} />
+                  <Err errors={errors} path={`drumOptions.${i}.label`} />
+                  <Err errors={errors} path={`drumOptions.${i}.diameterMm`} />
+                </div>
               </div>
             ))}
             <Err errors={errors} path="drumOptions" />
-            <button type="button" className="btn" onClick={() => drums.append({ id: 'slim', label: 'Slim drum', diameterMm: 762 })} disabled={drums.fields.length >= 2}>Add a drum option</button>
+            <button
+              type="button"
+              className="btn"
+              onClick={() => drums.append({ id: 'slim', label: 'Slim drum', diameterMm: 762 })}
+              disabled={drums.fields.length >= 2}
+            >
+              Add a drum option
+            </button>
           </fieldset>
           <fieldset className="rounded-md border border-steel-200 p-3">
             <legend className="px-1 font-semibold">Vane controls this family comes with</legend>
             {(['fixed', 'manual', 'powered'] as const).map((c) => (
-              <label key={c} className="mr-4 inline-flex items-center gap-1"><input type="checkbox" value={c} {...register('vaneControls')} /> {c === 'fixed' ? 'Fixed' : c === 'manual' ? 'Manually adjusted' : 'Powered'}</label>
+              <label key={c} className="mr-4 inline-flex items-center gap-1">
+                <input type="checkbox" value={c} {...register('vaneControls')} />{' '}
+                {c === 'fixed' ? 'Fixed' : c === 'manual' ? 'Manually adjusted' : 'Powered'}
+              </label>
             ))}
             <Err errors={errors} path="vaneControls" />
           </fieldset>
@@ -261,64 +314,132 @@ export default function FamilyForm({ existing, readOnly = false }: FamilyFormPro
           {sections.fields.map((f, i) => (
             <div key={f.id} className="mb-2 flex flex-wrap items-end gap-3">
               <span className="w-20 text-sm font-semibold">Section {i + 1}</span>
-              <label className="text-sm">Over positions<input className="field-input py-1" {...register(`cageTopSections.${i}.positions`)} placeholder="2, 3" /></label>
+              <label className="text-sm">
+                Over positions
+                <input className="field-input py-1" {...register(`cageTopSections.${i}.positions`)} placeholder="2, 3" />
+              </label>
               <span className="text-sm">Cover-plate seat:</span>
-              <label className="inline-flex items-center gap-1 text-sm"><input type="checkbox" {...register(`cageTopSections.${i}.coverLeft`)} /> left</label>
-              <label className="inline-flex items-center gap-1 text-sm"><input type="checkbox" {...register(`cageTopSections.${i}.coverRight`)} /> right</label>
-              <button type="button" className="btn" onClick={() => sections.remove(i)} aria-label={`Remove section ${i + 1}`}>✕</button>
-              <div className="w-full"><Err errors={errors} path={`cageTopSections.${i}.positions`} /><Err errors={errors} path={`cageTopSections.${i}.coverLeft`} /></div>
+              <label className="inline-flex items-center gap-1 text-sm">
+                <input type="checkbox" {...register(`cageTopSections.${i}.coverLeft`)} /> left
+              </label>
+              <label className="inline-flex items-center gap-1 text-sm">
+                <input type="checkbox" {...register(`cageTopSections.${i}.coverRight`)} /> right
+              </label>
+              <button type="button" className="btn" onClick={() => sections.remove(i)} aria-label={`Remove section ${i + 1}`}>
+                ✕
+              </button>
+              <div className="w-full">
+                <Err errors={errors} path={`cageTopSections.${i}.positions`} />
+                <Err errors={errors} path={`cageTopSections.${i}.coverLeft`} />
+              </div>
             </div>
           ))}
-          <button type="button" className="btn" onClick={() => sections.append({ positions: '', coverLeft: false, coverRight: false })}>Add a section</button>
+          <button type="button" className="btn" onClick={() => sections.append({ positions: '', coverLeft: false, coverRight: false })}>
+            Add a section
+          </button>
         </fieldset>
 
         <fieldset className="rounded-md border border-steel-200 p-3">
           <legend className="px-1 font-semibold">Rotor bar rows and places</legend>
-          <p className="text-xs text-ink-muted">For each row and position: no place, a bar place, or a place where two rasp bars stand in line (a straight bar can bolt across).</p>
+          <p className="text-xs text-ink-muted">
+            For each row and position: no place, a bar place, or a place where two rasp bars stand in line (a straight bar can bolt across).
+          </p>
           {/* Read only, the grid is words in a table that fits a phone; editable, it scrolls in its own box. */}
           <div className={readOnly ? 'mt-2' : 'mt-2 overflow-x-auto'} tabIndex={readOnly ? undefined : 0}>
             <table className={readOnly ? 'w-full table-fixed text-sm' : 'text-sm'}>
               <thead>
                 <tr>
-                  <th scope="col" className="pr-2 text-left">Row</th>
-                  <th scope="col" className="pr-2 text-left">Angle °</th>
-                  {Array.from({ length: positionCount }, (_, p) => <th key={p} scope="col" className="px-1">P{p + 1}</th>)}
+                  <th scope="col" className="pr-2 text-left">
+                    Row
+                  </th>
+                  <th scope="col" className="pr-2 text-left">
+                    Angle °
+                  </th>
+                  {Array.from({ length: positionCount }, (_, p) => (
+                    <th key={p} scope="col" className="px-1">
+                      P{p + 1}
+                    </th>
+                  ))}
                   <th />
                 </tr>
               </thead>
               <tbody>
                 {rows.fields.map((f, ri) => (
                   <tr key={f.id}>
-                    <th scope="row" className="pr-2 text-left">{ri + 1}</th>
-                    <td className="pr-2">{readOnly ? <span>{getValues(`rotorBarRows.${ri}.angleDeg`)}</span> : <><input className="field-input w-20 py-1" type="number" aria-label={`Row ${ri + 1} angle in degrees`} {...register(`rotorBarRows.${ri}.angleDeg`, { valueAsNumber: true })} />
-                      <Err errors={errors} path={`rotorBarRows.${ri}.angleDeg`} /></>}</td>
+                    <th scope="row" className="pr-2 text-left">
+                      {ri + 1}
+                    </th>
+                    <td className="pr-2">
+                      {readOnly ? (
+                        <span>{getValues(`rotorBarRows.${ri}.angleDeg`)}</span>
+                      ) : (
+                        <>
+                          <input
+                            className="field-input w-20 py-1"
+                            type="number"
+                            aria-label={`Row ${ri + 1} angle in degrees`}
+                            {...register(`rotorBarRows.${ri}.angleDeg`, { valueAsNumber: true })}
+                          />
+                          <Err errors={errors} path={`rotorBarRows.${ri}.angleDeg`} />
+                        </>
+                      )}
+                    </td>
                     {Array.from({ length: positionCount }, (_, p) => (
                       <td key={p} className="px-1">
-                        {readOnly ? <span className="text-xs">{BAR_WORDS[String(getValues(`bars.${ri}.${p}` as const) ?? 'place')] ?? '—'}</span> : <select className="rounded border-steel-300 py-0.5 text-xs" aria-label={`Row ${ri + 1}, position ${p + 1}`} {...register(`bars.${ri}.${p}` as const)} defaultValue="place">
-                          <option value="none">—</option>
-                          <option value="place">bar</option>
-                          <option value="inline">in line</option>
-                        </select>}
+                        {readOnly ? (
+                          <span className="text-xs">{BAR_WORDS[String(getValues(`bars.${ri}.${p}` as const) ?? 'place')] ?? '—'}</span>
+                        ) : (
+                          <select
+                            className="rounded border-steel-300 py-0.5 text-xs"
+                            aria-label={`Row ${ri + 1}, position ${p + 1}`}
+                            {...register(`bars.${ri}.${p}` as const)}
+                            defaultValue="place"
+                          >
+                            <option value="none">—</option>
+                            <option value="place">bar</option>
+                            <option value="inline">in line</option>
+                          </select>
+                        )}
                       </td>
                     ))}
-                    <td>{!readOnly && <button type="button" className="btn py-0.5" onClick={() => {
-                      const grid = getValues('bars') ?? [];
-                      rows.remove(ri);
-                      setValue('bars', grid.filter((_, i) => i !== ri));
-                    }} aria-label={`Remove row ${ri + 1}`}>✕</button>}</td>
+                    <td>
+                      {!readOnly && (
+                        <button
+                          type="button"
+                          className="btn py-0.5"
+                          onClick={() => {
+                            const grid = getValues('bars') ?? [];
+                            rows.remove(ri);
+                            setValue(
+                              'bars',
+                              grid.filter((_, i) => i !== ri),
+                            );
+                          }}
+                          aria-label={`Remove row ${ri + 1}`}
+                        >
+                          ✕
+                        </button>
+                      )}
+                    </td>
                   </tr>
                 ))}
               </tbody>
             </table>
           </div>
           <Err errors={errors} path="bars" />
-          <button type="button" className="btn mt-2" onClick={() => rows.append({ angleDeg: 0 })} disabled={rows.fields.length >= 16}>Add a row</button>
+          <button type="button" className="btn mt-2" onClick={() => rows.append({ angleDeg: 0 })} disabled={rows.fields.length >= 16}>
+            Add a row
+          </button>
         </fieldset>
       </fieldset>
       {!readOnly && (
         <div className="flex gap-2">
-          <button className="btn-primary" type="submit" disabled={isSubmitting}>{editing ? 'Save family' : 'Add family'}</button>
-          <a className="btn" href="/admin/catalog">Cancel</a>
+          <button className="btn-primary" type="submit" disabled={isSubmitting}>
+            {editing ? 'Save family' : 'Add family'}
+          </button>
+          <a className="btn" href="/admin/catalog">
+            Cancel
+          </a>
         </div>
       )}
     </form>

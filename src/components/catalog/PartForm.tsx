@@ -7,18 +7,11 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm, type FieldErrors, type FieldValues, type Resolver } from 'react-hook-form';
 import { z } from 'zod';
-import {
-  barKindSchema,
-  catalogPartSchema,
-  elementRoleSchema,
-  elementTypeSchema,
-  slugSchema,
-  type CatalogPart,
-} from '../../lib/domain/schemas';
-import { ApiError, sendJson } from '../shared/api';
-import { barKindName, elementTypeLabel } from '../../lib/domain/vocabulary';
-import { capitalise } from '../../lib/domain/words';
-import { DEFAULT_CURRENCY, formatMoney } from '../../lib/domain/format';
+import { barKindSchema, catalogPartSchema, elementRoleSchema, elementTypeSchema, slugSchema, type CatalogPart } from '~/lib/domain/schemas';
+import { ApiError, sendJson } from '~/components/shared/api';
+import { barKindName, elementTypeLabel } from '~/lib/domain/vocabulary';
+import { capitalise } from '~/lib/domain/words';
+import { DEFAULT_CURRENCY, formatMoney } from '~/lib/domain/format';
 
 export interface FamilyOption {
   id: string;
@@ -46,7 +39,11 @@ const partFormSchema = z.preprocess(
   z.object({ familyId: slugSchema, active: z.boolean(), part: catalogPartSchema }),
 );
 
-const ROLE_WORDS: Record<string, string> = { concave: 'Concave (front, split cage)', grate: 'Grate (rear, split cage)', either: 'Either (modular cage)' };
+const ROLE_WORDS: Record<string, string> = {
+  concave: 'Concave (front, split cage)',
+  grate: 'Grate (rear, split cage)',
+  either: 'Either (modular cage)',
+};
 
 const KINDS = [
   ['element', 'Cage element (concave or grate)'],
@@ -61,7 +58,19 @@ function errorAt(errors: FieldErrors, path: string): string | undefined {
   return typeof message === 'string' ? message : undefined;
 }
 
-function Field({ label, path, errors, children, hint }: { label: string; path: string; errors: FieldErrors; children: React.ReactNode; hint?: string }) {
+function Field({
+  label,
+  path,
+  errors,
+  children,
+  hint,
+}: {
+  label: string;
+  path: string;
+  errors: FieldErrors;
+  children: React.ReactNode;
+  hint?: string;
+}) {
   const msg = errorAt(errors, path);
   const id = `f-${path.replace(/\./g, '-')}`;
   return (
@@ -109,7 +118,12 @@ export default function PartForm({ families, existing, readOnly = false }: PartF
     setValue,
     setError,
     formState: { errors, isSubmitting },
-  } = useForm<FieldValues>({ resolver: zodResolver(partFormSchema as never) as unknown as Resolver<FieldValues>, defaultValues: defaults, shouldUnregister: true, mode: 'onTouched' });
+  } = useForm<FieldValues>({
+    resolver: zodResolver(partFormSchema as never) as unknown as Resolver<FieldValues>,
+    defaultValues: defaults,
+    shouldUnregister: true,
+    mode: 'onTouched',
+  });
   const [serverError, setServerError] = useState<string | null>(null);
   const kind = watch('part.kind');
   const noOpening = watch('noOpening');
@@ -132,7 +146,13 @@ export default function PartForm({ families, existing, readOnly = false }: PartF
 
   const errorCount = Object.keys(errors).length;
   return (
-    <form onSubmit={handleSubmit(onSubmit)} noValidate className="space-y-4" data-testid="part-form" aria-describedby={serverError ? 'part-server-error' : undefined}>
+    <form
+      onSubmit={handleSubmit(onSubmit)}
+      noValidate
+      className="space-y-4"
+      data-testid="part-form"
+      aria-describedby={serverError ? 'part-server-error' : undefined}
+    >
       {(serverError || errorCount > 0) && (
         <p role="alert" id="part-server-error" className="rounded-md border border-fit-line bg-fit-soft p-2 text-sm font-semibold text-fit">
           {serverError ?? 'The part was not saved: check the marked fields.'}
@@ -157,7 +177,12 @@ export default function PartForm({ families, existing, readOnly = false }: PartF
             ))}
           </select>
         </Field>
-        <Field label="Fit group" path="part.fitGroup" errors={errors} hint="Follows the family; parts fit machines whose family has this group.">
+        <Field
+          label="Fit group"
+          path="part.fitGroup"
+          errors={errors}
+          hint="Follows the family; parts fit machines whose family has this group."
+        >
           <input id="f-part-fitGroup" className="field-input bg-steel-50" readOnly {...register('part.fitGroup')} />
         </Field>
         <Field label="Kind" path="part.kind" errors={errors}>
@@ -234,11 +259,33 @@ export default function PartForm({ families, existing, readOnly = false }: PartF
             </div>
             {!noOpening && (
               <>
-                <Field label="Opening width, mm" path="part.openingMm.width" errors={errors} hint="The narrow way across: between wires or bars, or a hole’s diameter.">
-                  <input id="f-part-openingMm-width" className="field-input" type="number" step="0.1" {...register('part.openingMm.width', num)} />
+                <Field
+                  label="Opening width, mm"
+                  path="part.openingMm.width"
+                  errors={errors}
+                  hint="The narrow way across: between wires or bars, or a hole’s diameter."
+                >
+                  <input
+                    id="f-part-openingMm-width"
+                    className="field-input"
+                    type="number"
+                    step="0.1"
+                    {...register('part.openingMm.width', num)}
+                  />
                 </Field>
-                <Field label="Opening length, mm" path="part.openingMm.length" errors={errors} hint="Along the wires; the width again for a round hole.">
-                  <input id="f-part-openingMm-length" className="field-input" type="number" step="0.1" {...register('part.openingMm.length', num)} />
+                <Field
+                  label="Opening length, mm"
+                  path="part.openingMm.length"
+                  errors={errors}
+                  hint="Along the wires; the width again for a round hole."
+                >
+                  <input
+                    id="f-part-openingMm-length"
+                    className="field-input"
+                    type="number"
+                    step="0.1"
+                    {...register('part.openingMm.length', num)}
+                  />
                 </Field>
               </>
             )}

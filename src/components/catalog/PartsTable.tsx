@@ -3,7 +3,7 @@
  * sorted, filtered and paged in the browser with TanStack Table (a catalog is a few hundred
  * rows at most).
  */
-import { DEFAULT_CURRENCY, formatMoney } from '../parts/money';
+import { DEFAULT_CURRENCY, formatMoney } from '~/components/parts/money';
 import { useQuery } from '@tanstack/react-query';
 import {
   createColumnHelper,
@@ -17,12 +17,11 @@ import {
   type SortingState,
 } from '@tanstack/react-table';
 import { useMemo, useState } from 'react';
-import type { CatalogPart } from '../../lib/domain/schemas';
-import { getJson } from '../shared/api';
-import { PagerButtons } from '../shared/PagerButtons';
-import { QueryIsland } from '../shared/QueryIsland';
-import { SortableHead } from '../shared/SortableHead';
-
+import type { CatalogPart } from '~/lib/domain/schemas';
+import { getJson } from '~/components/shared/api';
+import { PagerButtons } from '~/components/shared/PagerButtons';
+import { QueryIsland } from '~/components/shared/QueryIsland';
+import { SortableHead } from '~/components/shared/SortableHead';
 
 interface PartRow {
   partNumber: string;
@@ -117,7 +116,13 @@ function Table({ families, canEdit }: PartsTableProps) {
       <div className="flex flex-wrap items-end gap-3" role="search" aria-label="Filter parts">
         <label className="min-w-[12rem] flex-1">
           <span className="field-label">Search</span>
-          <input className="field-input" type="search" value={search} onChange={(e) => setSearch(e.target.value)} placeholder="Part number or name" />
+          <input
+            className="field-input"
+            type="search"
+            value={search}
+            onChange={(e) => setSearch(e.target.value)}
+            placeholder="Part number or name"
+          />
         </label>
         <label>
           <span className="field-label">Family</span>
@@ -181,7 +186,8 @@ function Table({ families, canEdit }: PartsTableProps) {
       </div>
       <nav className="mt-3 flex flex-wrap items-center justify-between gap-3 text-sm" aria-label="Pages of parts">
         <p aria-live="polite" data-testid="parts-count">
-          {shown === 1 ? '1 part' : `${shown} parts`} · page {table.getState().pagination.pageIndex + 1} of {Math.max(1, table.getPageCount())}
+          {shown === 1 ? '1 part' : `${shown} parts`} · page {table.getState().pagination.pageIndex + 1} of{' '}
+          {Math.max(1, table.getPageCount())}
           {canEdit ? '' : ' · read only'}
         </p>
         <div className="flex gap-2">

@@ -11,11 +11,11 @@
  * static and the step control walks the crop position by position; Play stays available.
  */
 import { useCallback, useEffect, useId, useMemo, useRef, useState } from 'react';
-import { cropPathModel, kernelFate, seeded, TURNS_PER_SECOND, type CropPathModel, type KernelFate } from '../../lib/classroom/crop-path';
-import type { CatalogPart, Layout, MachineFamily, VaneSetting } from '../../lib/domain/schemas';
-import { INK, INK_MUTED, INK_SOFT, STEEL } from '../cage/palette';
-import { PatternDefs, patternId } from '../cage/patterns';
-import { elementTypeLabel } from '../../lib/domain/vocabulary';
+import { cropPathModel, kernelFate, seeded, TURNS_PER_SECOND, type CropPathModel, type KernelFate } from '~/lib/classroom/crop-path';
+import type { CatalogPart, Layout, MachineFamily, VaneSetting } from '~/lib/domain/schemas';
+import { INK, INK_MUTED, INK_SOFT, STEEL } from '~/components/cage/palette';
+import { PatternDefs, patternId } from '~/components/cage/patterns';
+import { elementTypeLabel } from '~/lib/domain/vocabulary';
 
 const VANE_WORDS: Record<VaneSetting, string> = { 'very-slow': 'very slow', slow: 'slow', medium: 'medium', fast: 'fast' };
 const GRAIN = '#a35200';
@@ -116,7 +116,8 @@ function fallTurn(g: Geometry, model: CropPathModel, fate: Extract<KernelFate, {
 function newParticle(g: Geometry, model: CropPathModel, random: () => number, at: number): Particle {
   const fate = kernelFate(model, random);
   const phase = random();
-  const threshTau = fate.kind === 'unthreshed' ? Infinity : g.cum[fate.threshedAt]! + fate.threshFrac * model.positions[fate.threshedAt]!.turns;
+  const threshTau =
+    fate.kind === 'unthreshed' ? Infinity : g.cum[fate.threshedAt]! + fate.threshFrac * model.positions[fate.threshedAt]!.turns;
   const fallTau = fate.kind === 'falls' ? fallTurn(g, model, fate, phase) : Infinity;
   return { fate, phase, enteredAt: at, threshTau, fallTau };
 }
@@ -265,9 +266,9 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
         </p>
       </div>
       <p id={descId} className={stage ? 'sr-only' : 'mt-1 text-sm text-ink-muted'}>
-        The crop spirals rearward round the rotor; slower vanes mean more turns over each position. Rings are unthreshed
-        heads, dots are loose kernels; kernels drop through each element in proportion to its open area, and a cover
-        plate holds the crop back under its section.
+        The crop spirals rearward round the rotor; slower vanes mean more turns over each position. Rings are unthreshed heads, dots are
+        loose kernels; kernels drop through each element in proportion to its open area, and a cover plate holds the crop back under its
+        section.
       </p>
 
       <div className={`mt-2 flex flex-wrap items-center gap-3 ${stage ? 'text-[20px]' : 'text-sm'}`}>
@@ -276,7 +277,11 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
         </button>
         <label className="inline-flex items-center gap-2">
           <span className="font-semibold">Vanes</span>
-          <select className="rounded-md border-steel-300 py-1 text-base" value={vane} onChange={(e) => setVane(e.target.value as VaneSetting)}>
+          <select
+            className="rounded-md border-steel-300 py-1 text-base"
+            value={vane}
+            onChange={(e) => setVane(e.target.value as VaneSetting)}
+          >
             {(Object.keys(VANE_WORDS) as VaneSetting[]).map((v) => (
               <option key={v} value={v}>
                 {VANE_WORDS[v]}
@@ -285,9 +290,7 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
             ))}
           </select>
         </label>
-        <span className="text-ink-muted">
-          Front to rear in about {model.transitSeconds.toFixed(0)} s at the illustration’s pace
-        </span>
+        <span className="text-ink-muted">Front to rear in about {model.transitSeconds.toFixed(0)} s at the illustration’s pace</span>
       </div>
 
       <svg
@@ -308,8 +311,22 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
         {/* zones and positions */}
         {zoneRuns.map((z) => (
           <g key={z.from}>
-            <rect x={g.colX(z.from) + 2} y={8} width={(z.to - z.from + 1) * g.colW - 4} height={30} rx={4} fill={z.zone === 'threshing' ? STEEL[700] : STEEL[200]} />
-            <text x={g.colX(z.from) + ((z.to - z.from + 1) * g.colW) / 2} y={29} textAnchor="middle" fontSize={fs} fontWeight={700} fill={z.zone === 'threshing' ? '#fff' : INK}>
+            <rect
+              x={g.colX(z.from) + 2}
+              y={8}
+              width={(z.to - z.from + 1) * g.colW - 4}
+              height={30}
+              rx={4}
+              fill={z.zone === 'threshing' ? STEEL[700] : STEEL[200]}
+            />
+            <text
+              x={g.colX(z.from) + ((z.to - z.from + 1) * g.colW) / 2}
+              y={29}
+              textAnchor="middle"
+              fontSize={fs}
+              fontWeight={700}
+              fill={z.zone === 'threshing' ? '#fff' : INK}
+            >
               {z.zone === 'threshing' ? 'Threshing zone' : 'Separating zone'}
             </text>
           </g>
@@ -324,7 +341,15 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
         ))}
         {/* band labels */}
         {(['Cage top, left', 'Left half', 'Right half', 'Cage top, right'] as const).map((l, i) => (
-          <text key={l} x={LABEL_W - 10} y={TOP + i * BAND + BAND / 2 + 6} textAnchor="end" fontSize={small} fontWeight={700} fill={INK_SOFT}>
+          <text
+            key={l}
+            x={LABEL_W - 10}
+            y={TOP + i * BAND + BAND / 2 + 6}
+            textAnchor="end"
+            fontSize={small}
+            fontWeight={700}
+            fill={INK_SOFT}
+          >
             {l}
           </text>
         ))}
@@ -353,7 +378,16 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
             const w = g.colW - 8;
             return (
               <g key={`${p.index}${side}`}>
-                <rect x={x} y={y} width={w} height={BAND - 6} rx={4} fill={h.elementType ? `url(#${patternId(prefix, h.elementType)})` : STEEL[50]} stroke={STEEL[500]} opacity={0.55} />
+                <rect
+                  x={x}
+                  y={y}
+                  width={w}
+                  height={BAND - 6}
+                  rx={4}
+                  fill={h.elementType ? `url(#${patternId(prefix, h.elementType)})` : STEEL[50]}
+                  stroke={STEEL[500]}
+                  opacity={0.55}
+                />
                 <rect x={x + 4} y={y + 4} width={Math.min(w - 8, 132)} height={46} rx={3} fill="#fff" opacity={0.92} />
                 <text x={x + 9} y={y + 23} fontSize={small} fontWeight={700} fill={INK}>
                   {h.elementType ? elementTypeLabel(h.elementType) : 'empty'}
@@ -372,15 +406,39 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
           }),
         )}
         {/* the step's position */}
-        <rect x={g.colX(step) + 1} y={TOP - 4} width={g.colW - 2} height={CAGE_H + 8 + 18 + PAN_H} rx={6} fill="none" stroke={PATH} strokeWidth={3} strokeDasharray="8 5" />
+        <rect
+          x={g.colX(step) + 1}
+          y={TOP - 4}
+          width={g.colW - 2}
+          height={CAGE_H + 8 + 18 + PAN_H}
+          rx={6}
+          fill="none"
+          stroke={PATH}
+          strokeWidth={3}
+          strokeDasharray="8 5"
+        />
         {/* the spiral */}
         {spiral.map((pts, i) => (
-          <polyline key={i} points={pts} fill="none" stroke={PATH} strokeWidth={2.5} strokeOpacity={0.55} markerEnd={`url(#${prefix}-arrow)`} />
+          <polyline
+            key={i}
+            points={pts}
+            fill="none"
+            stroke={PATH}
+            strokeWidth={2.5}
+            strokeOpacity={0.55}
+            markerEnd={`url(#${prefix}-arrow)`}
+          />
         ))}
         {/* kernels and heads */}
         <g aria-hidden="true">
           {Array.from({ length: PARTICLES }, (_, i) => (
-            <g key={i} ref={(el) => { dots.current[i] = el; }} opacity={0}>
+            <g
+              key={i}
+              ref={(el) => {
+                dots.current[i] = el;
+              }}
+              opacity={0}
+            >
               <circle r={8} fill="none" stroke={GRAIN} strokeWidth={3} />
               <circle r={5} fill={GRAIN} display="none" />
             </g>
@@ -441,16 +499,28 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
         {/* legend */}
         <g transform={`translate(${LABEL_W}, ${H - 18})`} fontSize={small} fill={INK_SOFT}>
           <circle cx={8} cy={-5} r={7} fill="none" stroke={GRAIN} strokeWidth={3} />
-          <text x={22} y={0}>unthreshed head</text>
+          <text x={22} y={0}>
+            unthreshed head
+          </text>
           <circle cx={190} cy={-5} r={5} fill={GRAIN} />
-          <text x={202} y={0}>loose kernel</text>
+          <text x={202} y={0}>
+            loose kernel
+          </text>
           <line x1={330} x2={370} y1={-5} y2={-12} stroke={PATH} strokeWidth={2.5} />
-          <text x={378} y={0}>the crop’s spiral (vanes {VANE_WORDS[vane]})</text>
+          <text x={378} y={0}>
+            the crop’s spiral (vanes {VANE_WORDS[vane]})
+          </text>
         </g>
       </svg>
 
       <div className={`mt-2 flex flex-wrap items-center gap-3 ${stage ? 'text-[20px]' : 'text-sm'}`}>
-        <button type="button" className="btn" onClick={() => setStep((s) => Math.max(0, s - 1))} disabled={step === 0} aria-label="Previous position">
+        <button
+          type="button"
+          className="btn"
+          onClick={() => setStep((s) => Math.max(0, s - 1))}
+          disabled={step === 0}
+          aria-label="Previous position"
+        >
           ◀
         </button>
         <label className="inline-flex items-center gap-2">
@@ -476,9 +546,9 @@ export function CropPath({ family, catalog, layout, stage = false, title }: Crop
         </button>
         <p aria-live="polite" className="min-w-0 flex-1" data-testid="crop-path-caption">
           <strong>Position {here.index}</strong> ({here.zone} zone, {here.turns.toFixed(1)} turns
-          {here.plates ? ', held back by a cover plate' : ''}): whole heads {pct(here.headsIn)} → {pct(here.headsOut)}; through
-          the left half {pct(here.halves.left.fallShare)}, the right half {pct(here.halves.right.fallShare)}; {pct(here.fallenSoFar)}{' '}
-          through the cage so far.
+          {here.plates ? ', held back by a cover plate' : ''}): whole heads {pct(here.headsIn)} → {pct(here.headsOut)}; through the left
+          half {pct(here.halves.left.fallShare)}, the right half {pct(here.halves.right.fallShare)}; {pct(here.fallenSoFar)} through the
+          cage so far.
         </p>
       </div>
     </figure>

@@ -4,9 +4,9 @@
  * choosing two slides to compare, and the read-only share links.
  */
 import { useId, useState } from 'react';
-import { sendJson } from '../shared/api';
+import { sendJson } from '~/components/shared/api';
 import type { DeckEditorProps } from './editor-types';
-import type { SlideRecord } from '../../lib/responses';
+import type { SlideRecord } from '~/lib/responses';
 import { SharePanel } from './SharePanel';
 import { SlideCard } from './SlideCard';
 import { draftToSource, initialDraft, SourcePicker, type SourceDraft } from './SourcePicker';
@@ -47,7 +47,11 @@ export function DeckEditor(props: DeckEditorProps) {
 
   const add = () =>
     act(async () => {
-      const r = await sendJson<{ slide: SlideRecord }>('POST', `/api/decks/${deck.id}/slides`, { title: newTitle, notes: newNotes, ...draftToSource(draft) });
+      const r = await sendJson<{ slide: SlideRecord }>('POST', `/api/decks/${deck.id}/slides`, {
+        title: newTitle,
+        notes: newNotes,
+        ...draftToSource(draft),
+      });
       const next = [...slides, r.slide];
       setSlides(next);
       setNewTitle('');
@@ -99,7 +103,13 @@ export function DeckEditor(props: DeckEditorProps) {
           <label htmlFor={`${id}-title`} className="field-label">
             Deck title
           </label>
-          <input id={`${id}-title`} className="field-input text-xl font-semibold" value={title} maxLength={120} onChange={(e) => setTitle(e.target.value)} />
+          <input
+            id={`${id}-title`}
+            className="field-input text-xl font-semibold"
+            value={title}
+            maxLength={120}
+            onChange={(e) => setTitle(e.target.value)}
+          />
         </div>
         <button type="button" className="btn" disabled={busy || title === savedTitle || !title.trim()} onClick={saveTitle}>
           Save title
@@ -158,14 +168,27 @@ export function DeckEditor(props: DeckEditorProps) {
           <label htmlFor={`${id}-new-title`} className="field-label">
             Slide title
           </label>
-          <input id={`${id}-new-title`} className="field-input" value={newTitle} maxLength={160} onChange={(e) => setNewTitle(e.target.value)} />
+          <input
+            id={`${id}-new-title`}
+            className="field-input"
+            value={newTitle}
+            maxLength={160}
+            onChange={(e) => setNewTitle(e.target.value)}
+          />
         </div>
         <SourcePicker draft={draft} onChange={setDraft} choices={layoutChoices} families={families} crops={crops} />
         <div>
           <label htmlFor={`${id}-new-notes`} className="field-label">
             Talking points <span className="font-normal text-ink-muted">(markdown)</span>
           </label>
-          <textarea id={`${id}-new-notes`} className="field-input font-mono text-sm" rows={4} value={newNotes} maxLength={10000} onChange={(e) => setNewNotes(e.target.value)} />
+          <textarea
+            id={`${id}-new-notes`}
+            className="field-input font-mono text-sm"
+            rows={4}
+            value={newNotes}
+            maxLength={10000}
+            onChange={(e) => setNewNotes(e.target.value)}
+          />
         </div>
         <button type="button" className="btn-primary" disabled={busy || !newTitle.trim()} onClick={add}>
           Add slide

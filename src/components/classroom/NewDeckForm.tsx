@@ -1,6 +1,6 @@
 /** Creates a deck and opens it for editing. */
 import { useState, type FormEvent } from 'react';
-import { sendJson } from '../shared/api';
+import { sendJson } from '~/components/shared/api';
 
 export function NewDeckForm() {
   const [title, setTitle] = useState('');

@@ -5,7 +5,7 @@
  * timer. The two windows stay on the same slide through a BroadcastChannel (deck-sync.ts).
  */
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { CageDiagram } from '../cage/CageDiagram';
+import { CageDiagram } from '~/components/cage/CageDiagram';
 import { joinDeck, type DeckSync, type StageState } from './deck-sync';
 import { commandForKey, KEY_HELP, keyBelongsToControl, type StageCommand } from './keys';
 import { StageSlide } from './StageSlide';
@@ -78,7 +78,8 @@ export function Presenter(props: Props) {
   }, []);
 
   const openPresenter = useCallback(() => {
-    if (presenterHref) window.open(`${presenterHref}#${latest.current.index + 1}`, `cagewright-presenter-${deckId}`, 'popup,width=1280,height=800');
+    if (presenterHref)
+      window.open(`${presenterHref}#${latest.current.index + 1}`, `cagewright-presenter-${deckId}`, 'popup,width=1280,height=800');
   }, [presenterHref, deckId]);
 
   const run = useCallback(
@@ -192,7 +193,13 @@ export function Presenter(props: Props) {
   );
 
   return (
-    <div ref={stage} tabIndex={-1} className="flex h-screen flex-col bg-steel-50 outline-none" data-testid={`stage-${mode}`} data-index={state.index}>
+    <div
+      ref={stage}
+      tabIndex={-1}
+      className="flex h-screen flex-col bg-steel-50 outline-none"
+      data-testid={`stage-${mode}`}
+      data-index={state.index}
+    >
       {bar}
       <div className="relative min-h-0 flex-1">
         {/* Over the slide's corner, so opening it never pushes the drawing down. */}
@@ -230,7 +237,12 @@ export function Presenter(props: Props) {
 
 function KeyHelp() {
   return (
-    <div className="absolute right-4 top-4 z-30 max-w-2xl rounded-lg border border-steel-300 bg-white px-6 py-3 text-lg shadow-xl" role="note" aria-label="Keys" data-testid="key-help">
+    <div
+      className="absolute right-4 top-4 z-30 max-w-2xl rounded-lg border border-steel-300 bg-white px-6 py-3 text-lg shadow-xl"
+      role="note"
+      aria-label="Keys"
+      data-testid="key-help"
+    >
       <ul className="grid grid-cols-1 gap-x-10 gap-y-1 sm:grid-cols-2">
         {KEY_HELP.map(([k, what]) => (
           <li key={k}>
@@ -246,7 +258,12 @@ function Overview({ slides, families, catalogs, units, index, onPick }: Props & 
   const current = useRef<HTMLButtonElement>(null);
   useEffect(() => current.current?.focus(), []);
   return (
-    <section className="absolute inset-0 z-10 overflow-auto bg-steel-50 p-8" aria-label="Slide overview" data-testid="overview" tabIndex={0}>
+    <section
+      className="absolute inset-0 z-10 overflow-auto bg-steel-50 p-8"
+      aria-label="Slide overview"
+      data-testid="overview"
+      tabIndex={0}
+    >
       <h2 className="text-[36px] font-bold">All slides</h2>
       <ol className="mt-4 grid grid-cols-2 gap-6 lg:grid-cols-3 wall:grid-cols-4">
         {slides.map((s, i) => {
@@ -278,7 +295,15 @@ function Overview({ slides, families, catalogs, units, index, onPick }: Props & 
   );
 }
 
-function PresenterPanel({ slides, families, catalogs, units, index, cropPath, next }: Props & { index: number; cropPath: boolean; next: Props['slides'][number] | undefined }) {
+function PresenterPanel({
+  slides,
+  families,
+  catalogs,
+  units,
+  index,
+  cropPath,
+  next,
+}: Props & { index: number; cropPath: boolean; next: Props['slides'][number] | undefined }) {
   const slide = slides[index]!;
   const family = slide.familyId ? families[slide.familyId] : undefined;
   const catalog = slide.familyId ? catalogs[slide.familyId] : undefined;
@@ -294,9 +319,7 @@ function PresenterPanel({ slides, families, catalogs, units, index, cropPath, ne
   return (
     <main id="main" className="grid h-full grid-cols-[3fr_2fr] gap-8 overflow-hidden px-8 py-6">
       <section className="min-h-0 overflow-auto" aria-label="Talking points" tabIndex={0}>
-        <p className="text-xl text-ink-muted">
-          Now showing{cropPath ? ' the crop path of' : ''}:
-        </p>
+        <p className="text-xl text-ink-muted">Now showing{cropPath ? ' the crop path of' : ''}:</p>
         <h2 className="text-[40px] font-bold leading-tight" data-testid="presenter-title">
           {index + 1}. {slide.title}
         </h2>

@@ -1,8 +1,8 @@
 /** Read-only links to the deck: create one (shown once, with its address), list and revoke. */
 import { useId, useState } from 'react';
-import { sendJson } from '../shared/api';
+import { sendJson } from '~/components/shared/api';
 import type { ShareLinkRow } from './editor-types';
-import { formatDate } from '../../lib/domain/format';
+import { formatDate } from '~/lib/domain/format';
 
 const STATUS_WORDS = { active: 'Active', revoked: 'Revoked', expired: 'Expired' } as const;
 
@@ -60,13 +60,22 @@ export function SharePanel({ deckId, initial, locale }: { deckId: string; initia
   return (
     <section aria-labelledby={`${id}-h`} className="card space-y-3" data-testid="share-panel">
       <h2 id={`${id}-h`}>Share read-only</h2>
-      <p className="text-sm text-ink-muted">Anyone with the link can view the deck without signing in, but cannot change it. Revoke a link to close it.</p>
+      <p className="text-sm text-ink-muted">
+        Anyone with the link can view the deck without signing in, but cannot change it. Revoke a link to close it.
+      </p>
       <div className="grid gap-2 sm:grid-cols-[1fr_auto_auto] sm:items-end">
         <div>
           <label htmlFor={`${id}-label`} className="field-label">
             Label (for you)
           </label>
-          <input id={`${id}-label`} className="field-input" value={label} maxLength={120} onChange={(e) => setLabel(e.target.value)} placeholder="e.g. Spring class" />
+          <input
+            id={`${id}-label`}
+            className="field-input"
+            value={label}
+            maxLength={120}
+            onChange={(e) => setLabel(e.target.value)}
+            placeholder="e.g. Spring class"
+          />
         </div>
         <div>
           <label htmlFor={`${id}-until`} className="field-label">

@@ -1,13 +1,13 @@
 /** One slide in the deck editor: title, talking points (markdown), its layout, order and removal. */
 import { useId, useMemo, useState } from 'react';
-import { CageDiagram } from '../cage/CageDiagram';
-import { checkLayout } from '../../lib/domain/rules';
-import { sendJson } from '../shared/api';
+import { CageDiagram } from '~/components/cage/CageDiagram';
+import { checkLayout } from '~/lib/domain/rules';
+import { sendJson } from '~/components/shared/api';
 import type { DeckEditorProps } from './editor-types';
-import type { SlideRecord } from '../../lib/responses';
+import type { SlideRecord } from '~/lib/responses';
 import { draftToSource, initialDraft, SourcePicker, type SourceDraft } from './SourcePicker';
 import { sourceWords } from './types';
-import { countOf } from '../../lib/domain/words';
+import { countOf } from '~/lib/domain/words';
 
 interface Props extends Pick<DeckEditorProps, 'families' | 'catalogs' | 'units' | 'layoutChoices' | 'crops'> {
   deckId: string;
@@ -33,7 +33,10 @@ export function SlideCard(props: Props) {
   const familyId = slide.layout?.familyId;
   const family = familyId ? families[familyId] : undefined;
   const catalog = familyId ? catalogs[familyId] : undefined;
-  const findings = useMemo(() => (family && catalog && slide.layout ? checkLayout(family, catalog, slide.layout) : []), [family, catalog, slide.layout]);
+  const findings = useMemo(
+    () => (family && catalog && slide.layout ? checkLayout(family, catalog, slide.layout) : []),
+    [family, catalog, slide.layout],
+  );
 
   const patch = async (body: Record<string, unknown>, what: string) => {
     setSaving(true);
@@ -61,12 +64,22 @@ export function SlideCard(props: Props) {
           </h3>
           {family && catalog && slide.layout ? (
             <div className="mt-2 rounded border border-steel-200 bg-white p-1">
-              <CageDiagram family={family} layout={slide.layout} catalog={catalog} findings={findings} units={units} compact title={`Cage diagram of slide ${index + 1}`} />
+              <CageDiagram
+                family={family}
+                layout={slide.layout}
+                catalog={catalog}
+                findings={findings}
+                units={units}
+                compact
+                title={`Cage diagram of slide ${index + 1}`}
+              />
             </div>
           ) : (
             <p className="mt-2 rounded bg-steel-100 p-3 text-sm">No layout to show.</p>
           )}
-          <p className="mt-1 text-sm text-ink-muted">{sourceWords({ ...slide, familyId: familyId ?? null, findings: [], settings: null }, families)}</p>
+          <p className="mt-1 text-sm text-ink-muted">
+            {sourceWords({ ...slide, familyId: familyId ?? null, findings: [], settings: null }, families)}
+          </p>
           <p className="text-sm text-ink-muted">{findings.length === 0 ? 'No findings' : countOf(findings.length, 'finding')}</p>
         </div>
 
@@ -81,16 +94,40 @@ export function SlideCard(props: Props) {
             <label htmlFor={`${id}-notes`} className="field-label">
               Talking points <span className="font-normal text-ink-muted">(markdown: **bold**, *italic*, - lists, [links](https://…))</span>
             </label>
-            <textarea id={`${id}-notes`} className="field-input font-mono text-sm" rows={6} value={notes} maxLength={10000} onChange={(e) => setNotes(e.target.value)} />
+            <textarea
+              id={`${id}-notes`}
+              className="field-input font-mono text-sm"
+              rows={6}
+              value={notes}
+              maxLength={10000}
+              onChange={(e) => setNotes(e.target.value)}
+            />
           </div>
           <div className="flex flex-wrap items-center gap-2">
-            <button type="button" className="btn-primary" disabled={!dirty || saving || !title.trim()} onClick={() => patch({ title, notes }, 'Saved.')}>
+            <button
+              type="button"
+              className="btn-primary"
+              disabled={!dirty || saving || !title.trim()}
+              onClick={() => patch({ title, notes }, 'Saved.')}
+            >
               Save slide
             </button>
-            <button type="button" className="btn" disabled={index === 0 || busy} onClick={() => onMove(-1)} aria-label={`Move slide ${index + 1} up`}>
+            <button
+              type="button"
+              className="btn"
+              disabled={index === 0 || busy}
+              onClick={() => onMove(-1)}
+              aria-label={`Move slide ${index + 1} up`}
+            >
               ↑ Up
             </button>
-            <button type="button" className="btn" disabled={index === count - 1 || busy} onClick={() => onMove(1)} aria-label={`Move slide ${index + 1} down`}>
+            <button
+              type="button"
+              className="btn"
+              disabled={index === count - 1 || busy}
+              onClick={() => onMove(1)}
+              aria-label={`Move slide ${index + 1} down`}
+            >
               ↓ Down
             </button>
             <button type="button" className="btn-danger" disabled={busy} onClick={onDelete} aria-label={`Delete slide ${index + 1}`}>
@@ -102,8 +139,14 @@ export function SlideCard(props: Props) {
           </div>
           {slide.notesHtml && (
             <details>
-              <summary className="cursor-pointer text-sm font-semibold text-ink-soft">Talking points as the class and the presenter see them</summary>
-              <div className="notes mt-2 rounded border border-steel-200 bg-steel-50 p-3" data-testid="notes-preview" dangerouslySetInnerHTML={{ __html: slide.notesHtml }} />
+              <summary className="cursor-pointer text-sm font-semibold text-ink-soft">
+                Talking points as the class and the presenter see them
+              </summary>
+              <div
+                className="notes mt-2 rounded border border-steel-200 bg-steel-50 p-3"
+                data-testid="notes-preview"
+                dangerouslySetInnerHTML={{ __html: slide.notesHtml }}
+              />
             </details>
           )}
           <details>

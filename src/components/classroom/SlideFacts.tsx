@@ -5,13 +5,13 @@
  * Renders on the server (share page, compare page) and in islands (presentation) alike.
  * `stage` sizes everything to be read from the back of a room.
  */
-import { cropPrograms } from '../../lib/domain/crops';
-import { rpmWindowWords } from '../../lib/domain/speed';
-import type { Settings } from '../../lib/domain/compute';
-import type { Finding, Layout, MachineFamily } from '../../lib/domain/schemas';
-import { formatLength, formatSpeed, mm, type UnitSystem } from '../../lib/domain/units';
-import { SeverityBadge } from '../cage/SeverityIcon';
-import { severityWords } from '../../lib/domain/vocabulary';
+import { cropPrograms } from '~/lib/domain/crops';
+import { rpmWindowWords } from '~/lib/domain/speed';
+import type { Settings } from '~/lib/domain/compute';
+import type { Finding, Layout, MachineFamily } from '~/lib/domain/schemas';
+import { formatLength, formatSpeed, mm, type UnitSystem } from '~/lib/domain/units';
+import { SeverityBadge } from '~/components/cage/SeverityIcon';
+import { severityWords } from '~/lib/domain/vocabulary';
 
 const VANE_WORDS = { 'very-slow': 'very slow', slow: 'slow', medium: 'medium', fast: 'fast' } as const;
 const pct = (x: number) => `${Math.round(x * 100)} %`;
@@ -61,7 +61,9 @@ export function SlideFacts({ layout, family, settings, findings, units, stage = 
             <dd className={`font-semibold ${warn ? 'text-crop' : ''}`}>
               {v}
               {k === 'Crop window' && (
-                <span className="ml-2 font-normal">{settings.rpmInWindow ? '· the rotor speed is inside this window' : '· ▲ the rotor speed is outside this window'}</span>
+                <span className="ml-2 font-normal">
+                  {settings.rpmInWindow ? '· the rotor speed is inside this window' : '· ▲ the rotor speed is outside this window'}
+                </span>
               )}
             </dd>
           </div>
@@ -71,7 +73,10 @@ export function SlideFacts({ layout, family, settings, findings, units, stage = 
         <h3 className={stage ? 'text-[32px] font-bold' : 'text-base font-semibold'}>What the rules say</h3>
         {findings.length === 0 ? (
           <p className={`mt-1 flex items-center gap-2 ${text}`} data-testid="no-findings">
-            <span aria-hidden="true" className="font-bold text-ok">✓</span> Fits this machine and suits the crop: no findings.
+            <span aria-hidden="true" className="font-bold text-ok">
+              ✓
+            </span>{' '}
+            Fits this machine and suits the crop: no findings.
           </p>
         ) : (
           <ul className={`mt-1 ${stage ? 'space-y-2' : 'space-y-1'}`} data-testid="findings">
@@ -86,9 +91,7 @@ export function SlideFacts({ layout, family, settings, findings, units, stage = 
                 </span>
               </li>
             ))}
-            {groups.length > shown.length && (
-              <li className={`${text} text-ink-muted`}>and {groups.length - shown.length} more</li>
-            )}
+            {groups.length > shown.length && <li className={`${text} text-ink-muted`}>and {groups.length - shown.length} more</li>}
           </ul>
         )}
       </section>

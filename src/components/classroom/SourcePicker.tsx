@@ -3,7 +3,7 @@
  * suggested start for a crop on a machine family (a sample made for teaching).
  */
 import { useId } from 'react';
-import type { CropId, MachineFamily } from '../../lib/domain/schemas';
+import type { CropId, MachineFamily } from '~/lib/domain/schemas';
 import type { LayoutChoice, SourceChoice } from './editor-types';
 
 export interface SourceDraft {
@@ -44,11 +44,22 @@ export function SourcePicker({ draft, onChange, choices, families, crops }: Prop
       <legend className="field-label">The layout on the slide</legend>
       <div className="flex flex-wrap gap-4">
         <label className="inline-flex items-center gap-2">
-          <input type="radio" name={`${id}-kind`} checked={draft.kind === 'version'} onChange={() => onChange({ ...draft, kind: 'version' })} disabled={!choices.length} />
+          <input
+            type="radio"
+            name={`${id}-kind`}
+            checked={draft.kind === 'version'}
+            onChange={() => onChange({ ...draft, kind: 'version' })}
+            disabled={!choices.length}
+          />
           A layout on a machine
         </label>
         <label className="inline-flex items-center gap-2">
-          <input type="radio" name={`${id}-kind`} checked={draft.kind === 'starter'} onChange={() => onChange({ ...draft, kind: 'starter' })} />
+          <input
+            type="radio"
+            name={`${id}-kind`}
+            checked={draft.kind === 'starter'}
+            onChange={() => onChange({ ...draft, kind: 'starter' })}
+          />
           A suggested start for a crop (sample)
         </label>
       </div>
@@ -57,7 +68,13 @@ export function SourcePicker({ draft, onChange, choices, families, crops }: Prop
           <label htmlFor={`${id}-version`} className="sr-only">
             Layout
           </label>
-          <select id={`${id}-version`} className="field-input" value={draft.layoutVersionId} onChange={(e) => onChange({ ...draft, layoutVersionId: e.target.value })} data-testid="source-version">
+          <select
+            id={`${id}-version`}
+            className="field-input"
+            value={draft.layoutVersionId}
+            onChange={(e) => onChange({ ...draft, layoutVersionId: e.target.value })}
+            data-testid="source-version"
+          >
             {[...byOrg].map(([org, list]) => (
               <optgroup key={org} label={org}>
                 {list.map((c) => (
@@ -75,7 +92,13 @@ export function SourcePicker({ draft, onChange, choices, families, crops }: Prop
             <label htmlFor={`${id}-family`} className="field-label">
               Machine family
             </label>
-            <select id={`${id}-family`} className="field-input" value={draft.familyId} onChange={(e) => onChange({ ...draft, familyId: e.target.value })} data-testid="source-family">
+            <select
+              id={`${id}-family`}
+              className="field-input"
+              value={draft.familyId}
+              onChange={(e) => onChange({ ...draft, familyId: e.target.value })}
+              data-testid="source-family"
+            >
               {Object.values(families).map((f) => (
                 <option key={f.id} value={f.id}>
                   {f.name} ({f.cageKind} cage, {f.positions.length} positions)
@@ -87,7 +110,13 @@ export function SourcePicker({ draft, onChange, choices, families, crops }: Prop
             <label htmlFor={`${id}-crop`} className="field-label">
               Crop
             </label>
-            <select id={`${id}-crop`} className="field-input" value={draft.crop} onChange={(e) => onChange({ ...draft, crop: e.target.value as CropId })} data-testid="source-crop">
+            <select
+              id={`${id}-crop`}
+              className="field-input"
+              value={draft.crop}
+              onChange={(e) => onChange({ ...draft, crop: e.target.value as CropId })}
+              data-testid="source-crop"
+            >
               {crops.map((c) => (
                 <option key={c.id} value={c.id}>
                   {c.name}

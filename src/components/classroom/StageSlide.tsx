@@ -3,8 +3,8 @@
  * as the screen allows (with the findings pinned on it), and the figures and findings beside it
  * in type meant for the back of a room — or, on request, the crop-path illustration.
  */
-import { CageDiagram } from '../cage/CageDiagram';
-import { diagramGeometry } from '../cage/geometry';
+import { CageDiagram } from '~/components/cage/CageDiagram';
+import { diagramGeometry } from '~/components/cage/geometry';
 import { CropPath } from './CropPath';
 import { SeverityLegend, SlideFacts } from './SlideFacts';
 import { sourceWords, type ShowProps, type ShowSlide } from './types';
@@ -43,7 +43,11 @@ export function StageSlide({ slide, families, catalogs, units, cropPath, reserve
   }
   if (cropPath) {
     return (
-      <article className="flex h-full min-h-0 flex-col" aria-roledescription="slide" aria-label={`Slide ${slide.position}: ${slide.title}, crop path`}>
+      <article
+        className="flex h-full min-h-0 flex-col"
+        aria-roledescription="slide"
+        aria-label={`Slide ${slide.position}: ${slide.title}, crop path`}
+      >
         {header}
         <div className="mt-3 min-h-0 flex-1">
           <CropPath family={family} catalog={catalog} layout={slide.layout!} stage />
@@ -64,7 +68,15 @@ export function StageSlide({ slide, families, catalogs, units, cropPath, reserve
       </div>
       <div className="min-w-0 flex-1 space-y-6 overflow-auto" tabIndex={0}>
         {header}
-        <SlideFacts layout={slide.layout!} family={family} settings={slide.settings!} findings={slide.findings} units={units} stage maxFindings={5} />
+        <SlideFacts
+          layout={slide.layout!}
+          family={family}
+          settings={slide.settings!}
+          findings={slide.findings}
+          units={units}
+          stage
+          maxFindings={5}
+        />
       </div>
     </article>
   );

@@ -1,7 +1,7 @@
-import type { CatalogPart, CropId, Layout, MachineFamily } from '../../lib/domain/schemas';
-import type { UnitSystem } from '../../lib/domain/units';
-import type { Json, SlideRecord } from '../../lib/responses';
-import type { listDeckShares } from '../../lib/server/services/decks';
+import type { CatalogPart, CropId, MachineFamily } from '~/lib/domain/schemas';
+import type { UnitSystem } from '~/lib/domain/units';
+import type { Json, SlideRecord } from '~/lib/responses';
+import type { listDeckShares } from '~/lib/server/services/decks';
 
 export interface LayoutChoice {
   layoutVersionId: string;

@@ -2,17 +2,7 @@
  * The presentation's keys. Presentation clickers send PageDown/PageUp (some send arrows, and
  * a "blank" button sends "b" or "."), so those are handled alongside the keyboard's own keys.
  */
-export type StageCommand =
-  | 'next'
-  | 'prev'
-  | 'first'
-  | 'last'
-  | 'overview'
-  | 'close'
-  | 'crop-path'
-  | 'blank'
-  | 'fullscreen'
-  | 'presenter';
+export type StageCommand = 'next' | 'prev' | 'first' | 'last' | 'overview' | 'close' | 'crop-path' | 'blank' | 'fullscreen' | 'presenter';
 
 export interface KeyLike {
   key: string;

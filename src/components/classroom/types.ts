@@ -1,8 +1,8 @@
 /** What the classroom islands receive from their pages (plain JSON). */
-import type { Settings } from '../../lib/domain/compute';
-import type { CatalogPart, Finding, Layout, MachineFamily } from '../../lib/domain/schemas';
-import type { UnitSystem } from '../../lib/domain/units';
-import type { SlideSource } from '../../lib/responses';
+import type { Settings } from '~/lib/domain/compute';
+import type { CatalogPart, Finding, Layout, MachineFamily } from '~/lib/domain/schemas';
+import type { UnitSystem } from '~/lib/domain/units';
+import type { SlideSource } from '~/lib/responses';
 
 export type { SlideSource };
 

@@ -4,12 +4,12 @@
  * as a new layout on the same machine.
  */
 import { useEffect, useRef, useState } from 'react';
-import { checkLayout } from '../../lib/domain/rules';
-import { CageDiagram } from '../cage/CageDiagram';
+import { checkLayout } from '~/lib/domain/rules';
+import { CageDiagram } from '~/components/cage/CageDiagram';
 import { useEditor, useEditorStoreApi } from './store/context';
-import { countOf } from '../../lib/domain/words';
-import { cropNoun } from '../../lib/domain/vocabulary';
-import { formatDateTime } from '../../lib/domain/format';
+import { countOf } from '~/lib/domain/words';
+import { cropNoun } from '~/lib/domain/vocabulary';
+import { formatDateTime } from '~/lib/domain/format';
 
 export function ConflictDialog() {
   const store = useEditorStoreApi();
@@ -55,10 +55,21 @@ export function ConflictDialog() {
         </h2>
         <p className="mt-1 text-sm text-ink-soft">
           Version {v.version} was saved{v.createdByName ? ` by ${v.createdByName}` : ''} on {formatDateTime(when)}
-          {v.note ? <> with the note “{v.note}”</> : null} while you were editing. Your edits are not saved yet, and nothing is lost whichever you choose.
+          {v.note ? <> with the note “{v.note}”</> : null} while you were editing. Your edits are not saved yet, and nothing is lost
+          whichever you choose.
         </p>
         <figure className="mt-3 rounded-md border border-steel-200 p-2">
-          <CageDiagram family={family} layout={v.body} catalog={catalog} findings={theirs} units={units} compact endView={false} title={`Version ${v.version}, as saved`} className="max-h-[38vh]" />
+          <CageDiagram
+            family={family}
+            layout={v.body}
+            catalog={catalog}
+            findings={theirs}
+            units={units}
+            compact
+            endView={false}
+            title={`Version ${v.version}, as saved`}
+            className="max-h-[38vh]"
+          />
           <figcaption className="mt-1 text-xs text-ink-muted">
             Version {v.version}: {cropNoun(v.body.crop)}, {v.body.rotorRpm} rpm, {countOf(theirs.length, 'finding')}.
           </figcaption>
@@ -66,7 +77,9 @@ export function ConflictDialog() {
         <div className="mt-4 grid gap-4 md:grid-cols-2">
           <div className="rounded-md border border-steel-200 p-3">
             <h3 className="font-semibold">Load version {v.version}</h3>
-            <p className="mt-1 text-sm text-ink-soft">Continue from their version. Your edits stay in the undo history: Undo brings them back.</p>
+            <p className="mt-1 text-sm text-ink-soft">
+              Continue from their version. Your edits stay in the undo history: Undo brings them back.
+            </p>
             <button type="button" className="btn mt-2" onClick={() => store.getState().reloadNewer()} disabled={saving}>
               Load version {v.version}
             </button>
@@ -82,7 +95,13 @@ export function ConflictDialog() {
             <h3 className="font-semibold">Save mine as a copy</h3>
             <label className="mt-1 block text-sm">
               <span className="text-ink-soft">Name of the new layout</span>
-              <input className="field-input py-1.5 text-sm" value={name} maxLength={120} onChange={(e) => setName(e.target.value)} required />
+              <input
+                className="field-input py-1.5 text-sm"
+                value={name}
+                maxLength={120}
+                onChange={(e) => setName(e.target.value)}
+                required
+              />
             </label>
             <button type="submit" className="btn-primary mt-2" disabled={saving}>
               Save as a new layout

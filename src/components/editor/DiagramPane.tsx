@@ -4,16 +4,16 @@
  * to pick a placed part up (pointer, or Space / Enter), and the drop highlights on top.
  */
 import { memo, useCallback, useEffect, useMemo, useRef, type KeyboardEvent, type ReactNode } from 'react';
-import { allPlaces, placeKey } from '../../lib/domain/places';
-import type { MachineFamily, Place } from '../../lib/domain/schemas';
-import { CageDiagram, type SlotAttrs, type SlotInfo } from '../cage/CageDiagram';
-import { diagramGeometry, slotBox } from '../cage/geometry';
-import { IRIS } from '../cage/palette';
+import { allPlaces, placeKey } from '~/lib/domain/places';
+import type { MachineFamily, Place } from '~/lib/domain/schemas';
+import { CageDiagram, type SlotAttrs, type SlotInfo } from '~/components/cage/CageDiagram';
+import { diagramGeometry, slotBox } from '~/components/cage/geometry';
+import { IRIS } from '~/components/cage/palette';
 import { beforeNextPaint } from './after-paint';
 import { isPickUpKey, keepKeyForSensor, useCarry, useCarryUi } from './carry';
-import { accepts } from '../../lib/domain/layout-edits';
+import { accepts } from '~/lib/domain/layout-edits';
 import { partTitle } from './part-visuals';
-import { partName } from '../../lib/domain/vocabulary';
+import { partName } from '~/lib/domain/vocabulary';
 import { SlotDetails } from './SlotDetails';
 import { ARROW_DIRECTION, slotsFor, stepPlace } from './keyboard';
 import { useEditor, useEditorStoreApi } from './store/context';
@@ -38,7 +38,10 @@ function ChosenPart() {
   }, [armed, carry]);
   if (!armed) return null;
   return (
-    <div className="mb-2 flex flex-wrap items-center justify-between gap-2 rounded-md border border-iris-400 bg-iris-50 px-2 py-1.5 text-sm text-iris-800" data-testid="chosen-part">
+    <div
+      className="mb-2 flex flex-wrap items-center justify-between gap-2 rounded-md border border-iris-400 bg-iris-50 px-2 py-1.5 text-sm text-iris-800"
+      data-testid="chosen-part"
+    >
       <span>
         <span className="font-semibold">{partTitle(armed)}</span>
         {armed.kind === 'element' ? ` · ${armed.hand}` : ''}: tap a dashed slot to put it there.
@@ -88,7 +91,11 @@ const EditorSlot = memo(function EditorSlot({ info, attrs, canEdit, children }: 
     if (info.part) carry.begin(e, info.part, info.place, e.currentTarget);
     else {
       e.preventDefault();
-      store.getState().announce(`${info.label}. To fill it, pick a part up in the palette with Space, move here with the arrow keys, and drop it with Space.`);
+      store
+        .getState()
+        .announce(
+          `${info.label}. To fill it, pick a part up in the palette with Space, move here with the arrow keys, and drop it with Space.`,
+        );
     }
   };
 
@@ -235,26 +242,32 @@ export function DiagramPane() {
         if (e.target !== e.currentTarget) return;
         box.current?.querySelector<SVGGElement>('[data-place][tabindex="0"]')?.focus();
       }}
-      className="cage-pane outline-none rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-2 shadow-sm sm:p-3" data-testid="diagram-pane">
+      className="cage-pane outline-none rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-2 shadow-sm sm:p-3"
+      data-testid="diagram-pane"
+    >
       <ChosenPart />
       <p className="mb-1 text-sm text-ink-soft md:hidden" data-testid="drawing-scroll-hint">
         The drawing is wider than the screen: swipe it sideways to see the rear positions.
       </p>
-      <div className="cage-scroll -mx-2 overflow-x-auto px-2 sm:-mx-3 sm:px-3" style={{ ['--cage-min-w' as string]: `${Math.ceil(minWidth)}px` }} data-testid="drawing-scroll">
-      <CageDiagram
-        family={family}
-        layout={layout}
-        catalog={catalog}
-        findings={findings}
-        units={units}
-        selectedPlace={selected}
-        highlightPlaces={highlight}
-        renderSlot={renderSlot}
-        overlay={overlay}
-        compact={GEOMETRY_OPTIONS.compact}
-        endView={GEOMETRY_OPTIONS.endView}
-        title={`Cage diagram, ${family.name}: the cage unrolled, front on the left`}
-      />
+      <div
+        className="cage-scroll -mx-2 overflow-x-auto px-2 sm:-mx-3 sm:px-3"
+        style={{ ['--cage-min-w' as string]: `${Math.ceil(minWidth)}px` }}
+        data-testid="drawing-scroll"
+      >
+        <CageDiagram
+          family={family}
+          layout={layout}
+          catalog={catalog}
+          findings={findings}
+          units={units}
+          selectedPlace={selected}
+          highlightPlaces={highlight}
+          renderSlot={renderSlot}
+          overlay={overlay}
+          compact={GEOMETRY_OPTIONS.compact}
+          endView={GEOMETRY_OPTIONS.endView}
+          title={`Cage diagram, ${family.name}: the cage unrolled, front on the left`}
+        />
       </div>
       <div className="mt-2 border-t border-steel-100 px-1 pt-2">
         <SlotDetails />

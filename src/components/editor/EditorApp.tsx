@@ -19,9 +19,9 @@ import {
   type DragStartEvent,
 } from '@dnd-kit/core';
 import { memo, useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { parsePlaceKey, placeKey } from '../../lib/domain/places';
-import type { Place } from '../../lib/domain/schemas';
-import { partName, partNameWithHand, placeLabel, placeWords } from '../../lib/domain/vocabulary';
+import { parsePlaceKey, placeKey } from '~/lib/domain/places';
+import type { Place } from '~/lib/domain/schemas';
+import { partName, partNameWithHand, placeLabel, placeWords } from '~/lib/domain/vocabulary';
 import { afterPaint } from './after-paint';
 import { CarryHandle, CarryProvider, createCarry, type CarryData } from './carry';
 import { ConflictDialog } from './ConflictDialog';
@@ -34,11 +34,10 @@ import { Palette } from './Palette';
 import { PartSwatch, partTitle } from './part-visuals';
 import { SettingsPanel } from './SettingsPanel';
 import { useEditor, useEditorStoreApi } from './store/context';
-import { accepts, partNumberAt } from '../../lib/domain/layout-edits';
+import { accepts, partNumberAt } from '~/lib/domain/layout-edits';
 import { Toolbar } from './Toolbar';
 import { useShortcuts } from './use-shortcuts';
 import { useUnsavedGuard } from './use-unsaved-guard';
-
 
 /** No dnd-kit drop targets: slots and the palette are found by position (see ./carry.tsx). */
 const collision: CollisionDetection = () => [];
@@ -47,7 +46,10 @@ const collision: CollisionDetection = () => [];
 const CarryOverlay = memo(function CarryOverlay() {
   const { active, activatorEvent } = useDndContext();
   // Only the pointer needs a part under it; carried with the keys, the slot it is over lights up.
-  const carrying = typeof KeyboardEvent !== "undefined" && activatorEvent instanceof KeyboardEvent ? undefined : (active?.data.current as CarryData | undefined);
+  const carrying =
+    typeof KeyboardEvent !== 'undefined' && activatorEvent instanceof KeyboardEvent
+      ? undefined
+      : (active?.data.current as CarryData | undefined);
   // A wrapper that is always there, so the overlay coming and going never changes the
   // structure of the editor's children (sibling selectors would restyle the whole editor).
   // The overlay itself is there only while the pointer carries a part (it has no drop
@@ -92,7 +94,9 @@ export function EditorApp() {
     return () => window.removeEventListener('pointermove', track, { capture: true });
   }, [carry]);
 
-  useShortcuts(useCallback(() => carry.starting || carry.ui.getState().carrying !== null || store.getState().conflict !== null, [carry, store]));
+  useShortcuts(
+    useCallback(() => carry.starting || carry.ui.getState().carrying !== null || store.getState().conflict !== null, [carry, store]),
+  );
 
   const setHover = useCallback(
     (place: Place | null) => {
@@ -102,7 +106,10 @@ export function EditorApp() {
     [carry],
   );
 
-  const slotElement = useCallback((place: Place) => root.current?.querySelector(`[data-testid="diagram-pane"] [data-place="${placeKey(place)}"]`) ?? null, []);
+  const slotElement = useCallback(
+    (place: Place) => root.current?.querySelector(`[data-testid="diagram-pane"] [data-place="${placeKey(place)}"]`) ?? null,
+    [],
+  );
 
   const coordinateGetter = useMemo(
     () =>
@@ -191,7 +198,12 @@ export function EditorApp() {
   /** Nothing was placed: say so, and say where the part goes. */
   const dropMissed = (c: CarryData, under: Place | null) => {
     const what = partNameWithHand(c.part);
-    const goes = c.part.kind === 'element' ? 'a half-position of the element ring' : c.part.kind === 'cover-plate' ? 'a cage-top slot' : 'a place on the rotor strip';
+    const goes =
+      c.part.kind === 'element'
+        ? 'a half-position of the element ring'
+        : c.part.kind === 'cover-plate'
+          ? 'a cage-top slot'
+          : 'a place on the rotor strip';
     const where = under ? `${placeLabel(under)} does not take a ${what}` : `Not over a slot that takes the ${what}`;
     const stays = c.from ? ` It stays at ${placeWords(c.from)}.` : '';
     store.getState().announce(`Nothing placed. ${where}; it goes in ${goes}, shown dashed while you carry it.${stays}`);
@@ -266,7 +278,8 @@ export function EditorApp() {
             carry.end();
             // Put back with the keys: focus stays where the part was picked up.
             const n = carry.node;
-            if (activatorEvent instanceof KeyboardEvent && (n instanceof HTMLElement || n instanceof SVGElement)) n.focus({ preventScroll: true });
+            if (activatorEvent instanceof KeyboardEvent && (n instanceof HTMLElement || n instanceof SVGElement))
+              n.focus({ preventScroll: true });
           }}
           // Focus is ours to place after a drop (the slot the part went to), not dnd-kit's.
           accessibility={{ announcements, restoreFocus: false, screenReaderInstructions: { draggable: INSTRUCTIONS } }}

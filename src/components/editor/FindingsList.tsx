@@ -3,12 +3,12 @@
  * places in the drawing and moves focus to the first of them.
  */
 import { memo } from 'react';
-import { placeKey } from '../../lib/domain/places';
-import { countBySeverity } from '../../lib/domain/rules';
-import type { Finding, Severity } from '../../lib/domain/schemas';
-import { SeverityBadge } from '../cage/SeverityIcon';
-import { SEVERITY_STYLE } from '../cage/palette';
-import { placeWords } from '../../lib/domain/vocabulary';
+import { placeKey } from '~/lib/domain/places';
+import { countBySeverity } from '~/lib/domain/rules';
+import type { Finding, Severity } from '~/lib/domain/schemas';
+import { SeverityBadge } from '~/components/cage/SeverityIcon';
+import { SEVERITY_STYLE } from '~/components/cage/palette';
+import { placeWords } from '~/lib/domain/vocabulary';
 import { useEditor, useEditorStoreApi } from './store/context';
 
 const ORDER: Severity[] = ['blocks-fit', 'hurts-crop', 'advice'];
@@ -94,7 +94,11 @@ export function FindingsList() {
   const keys = findingKeys(findings);
 
   return (
-    <section aria-labelledby="findings-h" className="rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-3 shadow-sm" data-testid="findings">
+    <section
+      aria-labelledby="findings-h"
+      className="rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-3 shadow-sm"
+      data-testid="findings"
+    >
       <h2 id="findings-h" className="text-base font-semibold">
         Findings <span className="font-normal text-ink-muted">({findings.length})</span>
       </h2>

@@ -6,16 +6,15 @@
 import { isPickUpKey, keepKeyForSensor, useCarry, useCarryUi } from './carry';
 import { INSTRUCTIONS_ID } from './instructions';
 import { memo, useDeferredValue, useEffect, useMemo, useRef, useState } from 'react';
-import type { CatalogPart, ElementType, Side, Zone } from '../../lib/domain/schemas';
-import { formatLength, mm, type UnitSystem } from '../../lib/domain/units';
-import { ELEMENT_TYPES, elementTypeLabel, partName, partNameWithHand, placeWords } from '../../lib/domain/vocabulary';
+import type { CatalogPart, ElementType, Side, Zone } from '~/lib/domain/schemas';
+import { formatLength, mm, type UnitSystem } from '~/lib/domain/units';
+import { ELEMENT_TYPES, elementTypeLabel, partName, partNameWithHand, placeWords } from '~/lib/domain/vocabulary';
 import { PartSwatch, partDetail, partTitle } from './part-visuals';
 import { useEditor, useEditorStoreApi } from './store/context';
-import { accepts } from '../../lib/domain/layout-edits';
+import { accepts } from '~/lib/domain/layout-edits';
 import type { StockCount } from './store/types';
 
 type TypeFilter = 'all' | ElementType | 'cover-plate' | 'rotor-bar';
-
 
 /** "Fine-wire", "Fine-wire concave", "Right cover plate", "Rasp bar". */
 function shortName(p: CatalogPart): string {
@@ -32,8 +31,21 @@ function stockWords(s: StockCount | undefined): string {
 }
 
 /** What a palette entry shows; memoised so drags (which re-render every draggable) skip it. */
-const PaletteItemBody = memo(function PaletteItemBody({ part, units, stock }: { part: CatalogPart; units: UnitSystem; stock: StockCount | undefined }) {
-  const detail = part.kind === 'element' ? (part.openingMm ? formatLength(mm(part.openingMm.width), units) + ' gap' : 'no opening') : partDetail(part, units);
+const PaletteItemBody = memo(function PaletteItemBody({
+  part,
+  units,
+  stock,
+}: {
+  part: CatalogPart;
+  units: UnitSystem;
+  stock: StockCount | undefined;
+}) {
+  const detail =
+    part.kind === 'element'
+      ? part.openingMm
+        ? formatLength(mm(part.openingMm.width), units) + ' gap'
+        : 'no opening'
+      : partDetail(part, units);
   const inStock = !!stock && stock.own + stock.dealer > 0;
   return (
     <>
@@ -48,14 +60,29 @@ const PaletteItemBody = memo(function PaletteItemBody({ part, units, stock }: { 
           {detail && ` · ${detail}`}
         </span>
       </span>
-      <span className={`max-w-[7.5rem] shrink-0 rounded px-1.5 py-0.5 text-right text-xs font-semibold leading-tight ${inStock ? 'bg-ok-soft text-ok' : 'bg-steel-100 text-ink-muted'}`} data-testid="stock-badge">
+      <span
+        className={`max-w-[7.5rem] shrink-0 rounded px-1.5 py-0.5 text-right text-xs font-semibold leading-tight ${inStock ? 'bg-ok-soft text-ok' : 'bg-steel-100 text-ink-muted'}`}
+        data-testid="stock-badge"
+      >
         {inStock ? stockWords(stock) : 'to order'}
       </span>
     </>
   );
 });
 
-const PaletteItem = memo(function PaletteItem({ part, units, stock, canEdit, tabStop }: { part: CatalogPart; units: UnitSystem; stock: StockCount | undefined; canEdit: boolean; tabStop: boolean }) {
+const PaletteItem = memo(function PaletteItem({
+  part,
+  units,
+  stock,
+  canEdit,
+  tabStop,
+}: {
+  part: CatalogPart;
+  units: UnitSystem;
+  stock: StockCount | undefined;
+  canEdit: boolean;
+  tabStop: boolean;
+}) {
   const store = useEditorStoreApi();
   const carry = useCarry();
   return (
@@ -139,7 +166,8 @@ const PaletteContents = memo(function PaletteContents() {
       if (zone !== 'any' && p.kind !== 'element') return false;
       if (hand !== 'any' && ((p.kind === 'element' && p.hand !== hand) || (p.kind === 'cover-plate' && p.side !== hand))) return false;
       if (q) {
-        const hay = `${p.name} ${p.partNumber} ${partTitle(p)} ${p.kind === 'element' ? `${p.hand} ${elementTypeLabel(p.elementType)}` : ''}`.toLowerCase();
+        const hay =
+          `${p.name} ${p.partNumber} ${partTitle(p)} ${p.kind === 'element' ? `${p.hand} ${elementTypeLabel(p.elementType)}` : ''}`.toLowerCase();
         if (!q.split(/\s+/).every((w) => hay.includes(w))) return false;
       }
       return true;
@@ -159,14 +187,25 @@ const PaletteContents = memo(function PaletteContents() {
       <div className="mt-3 flex flex-col gap-2">
         <label className="block">
           <span className="field-label">Search parts</span>
-          <input type="search" className="field-input py-1.5 text-sm" value={query} onChange={(e) => setQuery(e.target.value)} placeholder="Name or part number" />
+          <input
+            type="search"
+            className="field-input py-1.5 text-sm"
+            value={query}
+            onChange={(e) => setQuery(e.target.value)}
+            placeholder="Name or part number"
+          />
         </label>
         <div className="grid grid-cols-3 gap-2">
           <div>
             <label htmlFor="palette-zone" className="field-label">
               Zone
             </label>
-            <select id="palette-zone" className="field-input py-1.5 text-sm" value={zone} onChange={(e) => setZone(e.target.value as typeof zone)}>
+            <select
+              id="palette-zone"
+              className="field-input py-1.5 text-sm"
+              value={zone}
+              onChange={(e) => setZone(e.target.value as typeof zone)}
+            >
               <option value="any">Any</option>
               <option value="threshing">Threshing</option>
               <option value="separating">Separating</option>
@@ -176,7 +215,12 @@ const PaletteContents = memo(function PaletteContents() {
             <label htmlFor="palette-type" className="field-label">
               Type
             </label>
-            <select id="palette-type" className="field-input py-1.5 text-sm" value={type} onChange={(e) => setType(e.target.value as TypeFilter)}>
+            <select
+              id="palette-type"
+              className="field-input py-1.5 text-sm"
+              value={type}
+              onChange={(e) => setType(e.target.value as TypeFilter)}
+            >
               <option value="all">All</option>
               {ELEMENT_TYPES.map((t) => (
                 <option key={t} value={t}>
@@ -191,7 +235,12 @@ const PaletteContents = memo(function PaletteContents() {
             <label htmlFor="palette-hand" className="field-label">
               Hand
             </label>
-            <select id="palette-hand" className="field-input py-1.5 text-sm" value={hand} onChange={(e) => setHand(e.target.value as typeof hand)}>
+            <select
+              id="palette-hand"
+              className="field-input py-1.5 text-sm"
+              value={hand}
+              onChange={(e) => setHand(e.target.value as typeof hand)}
+            >
               <option value="any">Any</option>
               <option value="left">Left</option>
               <option value="right">Right</option>
@@ -239,7 +288,14 @@ const PaletteContents = memo(function PaletteContents() {
             </div>
             <div className="mt-1 flex flex-col gap-1">
               {g.parts.map((p) => (
-                <PaletteItem key={p.partNumber} part={p} units={units} stock={stock[p.partNumber]} canEdit={canEdit} tabStop={p.partNumber === stop} />
+                <PaletteItem
+                  key={p.partNumber}
+                  part={p}
+                  units={units}
+                  stock={stock[p.partNumber]}
+                  canEdit={canEdit}
+                  tabStop={p.partNumber === stop}
+                />
               ))}
             </div>
           </div>
@@ -270,7 +326,9 @@ function TakeOffHint() {
   const over = useCarryUi((s) => s.overPalette);
   if (!fromSlot) return null;
   return (
-    <div className={`mt-2 rounded border border-dashed p-2 text-center text-sm ${over ? 'border-iris-600 bg-iris-100 font-semibold text-iris-800' : 'border-iris-400 bg-iris-50 text-iris-700'}`}>
+    <div
+      className={`mt-2 rounded border border-dashed p-2 text-center text-sm ${over ? 'border-iris-600 bg-iris-100 font-semibold text-iris-800' : 'border-iris-400 bg-iris-50 text-iris-700'}`}
+    >
       Drop here to take the part off
     </div>
   );
@@ -325,18 +383,18 @@ export function Palette() {
         data-testid="palette"
         data-open={open || undefined}
       >
-      <div className="flex items-baseline justify-between gap-2">
-        <h2 id="palette-h" className="text-base font-semibold">
-          Parts
-        </h2>
-        <button type="button" className="btn md:hidden" data-sheet-close onClick={close}>
-          Close
-        </button>
-      </div>
-      <PaletteHint />
-      <TakeOffHint />
-      <PaletteContents />
-    </section>
+        <div className="flex items-baseline justify-between gap-2">
+          <h2 id="palette-h" className="text-base font-semibold">
+            Parts
+          </h2>
+          <button type="button" className="btn md:hidden" data-sheet-close onClick={close}>
+            Close
+          </button>
+        </div>
+        <PaletteHint />
+        <TakeOffHint />
+        <PaletteContents />
+      </section>
     </>
   );
 }

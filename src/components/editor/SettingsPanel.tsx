@@ -6,19 +6,19 @@
  */
 import { memo, useMemo } from 'react';
 import { useAfterPaint } from './after-paint';
-import { computeSettings, drumFor } from '../../lib/domain/compute';
-import { cropIds, cropPrograms } from '../../lib/domain/crops';
-import { CLEARANCE_MAX_MM, CLEARANCE_MIN_MM, RPM_MAX, RPM_MIN, type SettingField } from '../../lib/domain/schemas';
-import { inRpmWindow, rpmWindow, rpmWindowWhole, rpmWindowWords, startRpm, tipSpeed } from '../../lib/domain/speed';
-import { VANE_CONTROL_HOW, vaneSettingsFor } from '../../lib/domain/vanes';
-import { formatLength, formatMass, formatSpeed, kg, mm, MM_PER_INCH, rpm } from '../../lib/domain/units';
-import { CageEndView } from '../cage/EndView';
-import { SeverityBadge } from '../cage/SeverityIcon';
-import { SEVERITY_STYLE } from '../cage/palette';
+import { computeSettings, drumFor } from '~/lib/domain/compute';
+import { cropIds, cropPrograms } from '~/lib/domain/crops';
+import { CLEARANCE_MAX_MM, CLEARANCE_MIN_MM, RPM_MAX, RPM_MIN, type SettingField } from '~/lib/domain/schemas';
+import { inRpmWindow, rpmWindow, rpmWindowWhole, rpmWindowWords, startRpm, tipSpeed } from '~/lib/domain/speed';
+import { VANE_CONTROL_HOW, vaneSettingsFor } from '~/lib/domain/vanes';
+import { formatLength, formatMass, formatSpeed, kg, mm, MM_PER_INCH, rpm } from '~/lib/domain/units';
+import { CageEndView } from '~/components/cage/EndView';
+import { SeverityBadge } from '~/components/cage/SeverityIcon';
+import { SEVERITY_STYLE } from '~/components/cage/palette';
 import { useEditor, useEditorStoreApi } from './store/context';
 import { NumberField } from './NumberField';
 import type { EditorState } from './store/types';
-import { CAPACITY_MODEL_WORDS } from '../../lib/domain/cage-metrics';
+import { CAPACITY_MODEL_WORDS } from '~/lib/domain/cage-metrics';
 
 const VANE_SETTINGS = ['very-slow', 'slow', 'medium', 'fast'] as const;
 const VANE_WORDS = { 'very-slow': 'Very slow', slow: 'Slow', medium: 'Medium', fast: 'Fast' } as const;
@@ -74,7 +74,14 @@ function UnitsSwitch() {
           key={u}
           className={`cursor-pointer rounded-md border px-2 py-0.5 font-semibold focus-within:outline focus-within:outline-2 focus-within:outline-offset-2 focus-within:outline-iris-500 ${units === u ? 'border-iris-700 bg-iris-700 text-white' : 'border-steel-300 bg-white text-ink-soft'}`}
         >
-          <input type="radio" name="units" value={u} checked={units === u} onChange={() => store.getState().setUnits(u)} className="sr-only" />
+          <input
+            type="radio"
+            name="units"
+            value={u}
+            checked={units === u}
+            onChange={() => store.getState().setUnits(u)}
+            className="sr-only"
+          />
           {u === 'metric' ? 'mm' : 'in'}
           <span className="sr-only">{u === 'metric' ? ' (metric)' : ' (imperial)'}</span>
         </label>
@@ -112,7 +119,13 @@ function SettingsFields() {
         <label htmlFor="setting-crop" className="field-label">
           Crop
         </label>
-        <select id="setting-crop" className="field-input py-1.5" value={crop} disabled={!canEdit} onChange={(e) => set('crop', e.target.value as typeof crop)}>
+        <select
+          id="setting-crop"
+          className="field-input py-1.5"
+          value={crop}
+          disabled={!canEdit}
+          onChange={(e) => set('crop', e.target.value as typeof crop)}
+        >
           {cropIds.map((c) => (
             <option key={c} value={c}>
               {cropPrograms[c].name}
@@ -126,7 +139,13 @@ function SettingsFields() {
         <label htmlFor="setting-drum" className="field-label">
           Rotor drum
         </label>
-        <select id="setting-drum" className="field-input py-1.5" value={drum} disabled={!canEdit} onChange={(e) => set('drum', e.target.value as typeof drum)}>
+        <select
+          id="setting-drum"
+          className="field-input py-1.5"
+          value={drum}
+          disabled={!canEdit}
+          onChange={(e) => set('drum', e.target.value as typeof drum)}
+        >
           {family.drumOptions.map((o) => (
             <option key={o.id} value={o.id}>
               {o.label} · ⌀ {formatLength(mm(o.diameterMm), units)}
@@ -155,15 +174,18 @@ function SettingsFields() {
             Tip speed <strong data-testid="tip-speed">{formatSpeed(v, units)}</strong>
           </p>
           <p>
-            {program.name} window on the {d.label.toLowerCase()}:{' '}
-            <strong>
-              {rpmWindowWords(w)}
-            </strong>
+            {program.name} window on the {d.label.toLowerCase()}: <strong>{rpmWindowWords(w)}</strong>
             {w.shiftRpm ? <span className="text-ink-muted"> (+{w.shiftRpm} rpm for the slim drum)</span> : null}
           </p>
           <p className={inside ? 'font-semibold text-ok' : 'font-semibold text-crop'}>
             <span aria-hidden="true">{inside ? '✓ ' : '▲ '}</span>
-            {inside ? 'Inside the window' : rotorRpm < whole.lo ? 'Below the window' : rotorRpm > whole.hi ? 'Above the window' : 'Between the cited ranges'}
+            {inside
+              ? 'Inside the window'
+              : rotorRpm < whole.lo
+                ? 'Below the window'
+                : rotorRpm > whole.hi
+                  ? 'Above the window'
+                  : 'Between the cited ranges'}
           </p>
           <p className="text-ink-muted" data-testid="rpm-start">
             Start at {startRpm(w)} rpm, the slow end{w.start ? ' of the usual starting band' : ''}; go faster only as losses call for it.
@@ -186,7 +208,10 @@ function SettingsFields() {
           onCommit={(n) => set('clearanceMm', Math.round((imperial ? n * MM_PER_INCH : n) * 100) / 100)}
         />
         <p className="mt-1 text-sm" data-testid="clearance-window">
-          {program.name} window: <strong>{formatLength(mm(program.clearanceMm.minMm), units)}–{formatLength(mm(program.clearanceMm.maxMm), units)}</strong>
+          {program.name} window:{' '}
+          <strong>
+            {formatLength(mm(program.clearanceMm.minMm), units)}–{formatLength(mm(program.clearanceMm.maxMm), units)}
+          </strong>
           <span className="text-ink-muted"> · start at the wide end</span>
         </p>
         <p className="mt-1 text-xs text-ink-muted">{program.clearanceAdvice.split('(')[0]!.trim()}</p>
@@ -202,7 +227,13 @@ function SettingsFields() {
           <label htmlFor="setting-vaneControl" className="field-label">
             Vane control
           </label>
-          <select id="setting-vaneControl" className="field-input py-1.5" value={vaneControl} disabled={!canEdit} onChange={(e) => set('vaneControl', e.target.value as typeof vaneControl)}>
+          <select
+            id="setting-vaneControl"
+            className="field-input py-1.5"
+            value={vaneControl}
+            disabled={!canEdit}
+            onChange={(e) => set('vaneControl', e.target.value as typeof vaneControl)}
+          >
             {family.vaneControls.map((c) => (
               <option key={c} value={c}>
                 {CONTROL_WORDS[c]}
@@ -214,7 +245,13 @@ function SettingsFields() {
           <label htmlFor="setting-vaneSetting" className="field-label">
             Vane setting
           </label>
-          <select id="setting-vaneSetting" className="field-input py-1.5" value={vaneSetting} disabled={!canEdit} onChange={(e) => set('vaneSetting', e.target.value as typeof vaneSetting)}>
+          <select
+            id="setting-vaneSetting"
+            className="field-input py-1.5"
+            value={vaneSetting}
+            disabled={!canEdit}
+            onChange={(e) => set('vaneSetting', e.target.value as typeof vaneSetting)}
+          >
             {VANE_SETTINGS.map((x) => (
               <option key={x} value={x} disabled={!canTake.includes(x) && x !== vaneSetting}>
                 {VANE_WORDS[x]}
@@ -252,7 +289,10 @@ function ComputedFacts() {
       <dt className="text-ink-muted">Open area, separating</dt>
       <dd className="text-right font-semibold">{pct(c.openArea.separating.after)}</dd>
       <dt className="text-ink-muted">Aggressiveness index</dt>
-      <dd className="text-right font-semibold" title="Cagewright's own scale for comparing layouts; fine-wire front, 25 m/s, 15 mm, medium vanes = 80">
+      <dd
+        className="text-right font-semibold"
+        title="Cagewright's own scale for comparing layouts; fine-wire front, 25 m/s, 15 mm, medium vanes = 80"
+      >
         {Math.round(c.aggressivenessIndex)}
       </dd>
       <dt className="text-ink-muted">Capacity factor</dt>
@@ -270,7 +310,11 @@ function ComputedFacts() {
 
 export function SettingsPanel() {
   return (
-    <section aria-labelledby="settings-h" className="rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-3 shadow-sm" data-testid="settings">
+    <section
+      aria-labelledby="settings-h"
+      className="rounded-lg [contain:layout_paint] border border-steel-200 bg-white p-3 shadow-sm"
+      data-testid="settings"
+    >
       <div className="flex items-center justify-between gap-2">
         <h2 id="settings-h" className="text-base font-semibold">
           Settings

@@ -2,16 +2,16 @@
  * What the slot under the pointer (or the selected one) holds: part, part number, opening sizes
  * and open area, and how the opening compares with the crop's kernel. Shown under the drawing.
  */
-import { kernelPassage } from '../../lib/domain/cage-metrics';
-import { capitalise } from '../../lib/domain/words';
-import { cropPrograms } from '../../lib/domain/crops';
-import { placeKey } from '../../lib/domain/places';
-import { formatLength, mm, type UnitSystem } from '../../lib/domain/units';
-import type { CatalogPart, CropId, Place } from '../../lib/domain/schemas';
-import { kernelsOf, openingWords, partNameWithHand, placeWords } from '../../lib/domain/vocabulary';
+import { kernelPassage } from '~/lib/domain/cage-metrics';
+import { capitalise } from '~/lib/domain/words';
+import { cropPrograms } from '~/lib/domain/crops';
+import { placeKey } from '~/lib/domain/places';
+import { formatLength, mm, type UnitSystem } from '~/lib/domain/units';
+import type { CatalogPart, CropId, Place } from '~/lib/domain/schemas';
+import { kernelsOf, openingWords, partNameWithHand, placeWords } from '~/lib/domain/vocabulary';
 import { useCarryUi } from './carry';
 import { useEditor, useEditorLazy } from './store/context';
-import { partNumberAt } from '../../lib/domain/layout-edits';
+import { partNumberAt } from '~/lib/domain/layout-edits';
 
 function kernelWords(part: CatalogPart, crop: CropId, units: UnitSystem): string | null {
   if (part.kind !== 'element') return null;
@@ -20,7 +20,10 @@ function kernelWords(part: CatalogPart, crop: CropId, units: UnitSystem): string
   const len = (x: number) => formatLength(mm(x), units);
   const kernels = capitalise(kernelsOf(crop));
   if (p.verdict === 'closed') return `No opening: ${kernelsOf(crop)} do not pass here.`;
-  const by = p.opening === 'hole' ? `through a round hole by their middle size (${len(p.meanSizeMm)})` : `by their smallest size (${len(p.meanSizeMm)})`;
+  const by =
+    p.opening === 'hole'
+      ? `through a round hole by their middle size (${len(p.meanSizeMm)})`
+      : `by their smallest size (${len(p.meanSizeMm)})`;
   if (p.verdict === 'blocked') return `${kernels} pass ${by}: they do not pass here, short by ${len(-p.meanMarginMm!)}.`;
   if (p.verdict === 'tight')
     return `${kernels} pass ${by}; the larger ones (about ${len(p.largerSizeMm)}) need ${len(p.requiredMarginMm)} to spare: tight here, short by ${len(-p.spareMm!)}.`;
@@ -39,7 +42,11 @@ export function SlotDetails() {
   const part = partNumber ? catalog.byPartNumber.get(partNumber) : undefined;
   const crop = layout.crop;
   if (!place) {
-    return <p className="text-sm text-ink-muted" data-testid="slot-details">Point at a slot, or select one, to see what it holds.</p>;
+    return (
+      <p className="text-sm text-ink-muted" data-testid="slot-details">
+        Point at a slot, or select one, to see what it holds.
+      </p>
+    );
   }
   const where = placeWords(place);
   return (

@@ -64,7 +64,11 @@ export function Toolbar() {
           : `Version ${baseVersion} · no changes`;
 
   return (
-    <div className="flex flex-wrap items-center gap-2 rounded-lg border border-steel-200 bg-white px-3 py-2 shadow-sm" role="toolbar" aria-label="Layout">
+    <div
+      className="flex flex-wrap items-center gap-2 rounded-lg border border-steel-200 bg-white px-3 py-2 shadow-sm"
+      role="toolbar"
+      aria-label="Layout"
+    >
       {canEdit && (
         <>
           <CommandButton id="undo" icon="↶" />

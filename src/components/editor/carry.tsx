@@ -10,7 +10,7 @@
 import { useDraggable } from '@dnd-kit/core';
 import { createContext, useContext, useLayoutEffect, type KeyboardEvent, type PointerEvent } from 'react';
 import { createStore, useStore, type StoreApi } from 'zustand';
-import type { CatalogPart, Place } from '../../lib/domain/schemas';
+import type { CatalogPart, Place } from '~/lib/domain/schemas';
 
 export const CARRY_ID = 'carry';
 
@@ -108,14 +108,21 @@ export function keepKeyForSensor(e: KeyboardEvent<Element>, carry: Carry) {
   const target = e.currentTarget;
   setTimeout(() => {
     if (native.defaultPrevented || !(carry.starting || carry.ui.getState().carrying)) return;
-    const again = new globalThis.KeyboardEvent('keydown', { key: native.key, code: native.code, shiftKey: native.shiftKey, bubbles: true, cancelable: true });
+    const again = new globalThis.KeyboardEvent('keydown', {
+      key: native.key,
+      code: native.code,
+      shiftKey: native.shiftKey,
+      bubbles: true,
+      cancelable: true,
+    });
     replayed.add(again);
     target.dispatchEvent(again);
   }, 0);
 }
 
 /** Whether a key starts carrying (the keyboard sensor's start keys). */
-export const isPickUpKey = (e: { code: string; key: string }) => e.code === 'Space' || e.code === 'Enter' || e.key === ' ' || e.key === 'Enter';
+export const isPickUpKey = (e: { code: string; key: string }) =>
+  e.code === 'Space' || e.code === 'Enter' || e.key === ' ' || e.key === 'Enter';
 
 /** The island's one draggable. Renders nothing; wires `carry.begin` to dnd-kit's activators. */
 export function CarryHandle({ carry, disabled }: { carry: Carry; disabled: boolean }) {

@@ -6,10 +6,10 @@
  * arrow-key navigation when nothing is.
  */
 import type { KeyboardCoordinateGetter } from '@dnd-kit/core';
-import { allPlaces, placeKey } from '../../lib/domain/places';
+import { allPlaces, placeKey } from '~/lib/domain/places';
 import type { CarryData } from './carry';
-import type { CatalogPart, MachineFamily, Place } from '../../lib/domain/schemas';
-import { accepts } from '../../lib/domain/layout-edits';
+import type { CatalogPart, MachineFamily, Place } from '~/lib/domain/schemas';
+import { accepts } from '~/lib/domain/layout-edits';
 
 export type Direction = 'left' | 'right' | 'up' | 'down';
 
@@ -28,7 +28,13 @@ function bandOf(family: MachineFamily, place: Place): number {
     case 'element':
       return place.side === 'left' ? 1 : 2;
     case 'bar':
-      return 4 + Math.max(0, family.rotorBarRows.findIndex((r) => r.index === place.row));
+      return (
+        4 +
+        Math.max(
+          0,
+          family.rotorBarRows.findIndex((r) => r.index === place.row),
+        )
+      );
     default:
       return -1;
   }

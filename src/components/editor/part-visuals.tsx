@@ -1,9 +1,9 @@
 /** Small pictures and words for a catalog part, shared by the palette and the drag overlay. */
-import type { CatalogPart } from '../../lib/domain/schemas';
-import type { UnitSystem } from '../../lib/domain/units';
-import { ElementSwatch } from '../cage/patterns';
-import { STEEL } from '../cage/palette';
-import { openingWords, partName } from '../../lib/domain/vocabulary';
+import type { CatalogPart } from '~/lib/domain/schemas';
+import type { UnitSystem } from '~/lib/domain/units';
+import { ElementSwatch } from '~/components/cage/patterns';
+import { STEEL } from '~/components/cage/palette';
+import { openingWords, partName } from '~/lib/domain/vocabulary';
 
 export function PartSwatch({ part, id }: { part: CatalogPart; id: string }) {
   if (part.kind === 'element') return <ElementSwatch type={part.elementType} prefix={id} width={40} height={28} />;

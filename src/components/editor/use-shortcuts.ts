@@ -1,6 +1,6 @@
 /** Keyboard shortcuts of the command registry, listened for on the window while the editor is open. */
 import { useEffect } from 'react';
-import { parsePlaceKey, placeKey } from '../../lib/domain/places';
+import { parsePlaceKey, placeKey } from '~/lib/domain/places';
 import { commandForKey, runCommand } from './commands';
 import { useEditorStoreApi } from './store/context';
 

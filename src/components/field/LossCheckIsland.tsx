@@ -4,13 +4,13 @@
  * the server runs) and saved to the season log with the settings of the moment.
  */
 import { useState } from 'react';
-import { computeLossCheck, LOSS_SIGN_LABEL, lossCheckInputSchema, type LossCheckResult, type LossSign } from '../../lib/domain/field-check';
-import { cropPrograms } from '../../lib/domain/crops';
-import type { CropId, VaneSetting } from '../../lib/domain/schemas';
-import type { UnitSystem } from '../../lib/domain/units';
-import { ApiError, sendJson } from '../shared/api';
+import { computeLossCheck, LOSS_SIGN_LABEL, lossCheckInputSchema, type LossCheckResult, type LossSign } from '~/lib/domain/field-check';
+import { cropPrograms } from '~/lib/domain/crops';
+import type { CropId, VaneSetting } from '~/lib/domain/schemas';
+import type { UnitSystem } from '~/lib/domain/units';
+import { ApiError, sendJson } from '~/components/shared/api';
 import { LossResult } from './LossResult';
-import { DEFAULT_CURRENCY } from '../../lib/domain/format';
+import { DEFAULT_CURRENCY } from '~/lib/domain/format';
 
 export interface StartValues {
   fanRpm: number | null;
@@ -40,7 +40,8 @@ const SIGNS: LossSign[] = ['unthreshed', 'in-straw', 'in-chaff'];
 
 const num = (s: string) => (s.trim() === '' ? NaN : Number(s.replace(',', '.')));
 const opt = (s: string) => (s.trim() === '' ? null : num(s));
-const lenIn = (units: UnitSystem, mm: number | null) => (mm === null ? '' : units === 'imperial' ? String(Math.round((mm / 25.4) * 100) / 100) : String(mm));
+const lenIn = (units: UnitSystem, mm: number | null) =>
+  mm === null ? '' : units === 'imperial' ? String(Math.round((mm / 25.4) * 100) / 100) : String(mm);
 const lenOut = (units: UnitSystem, s: string) => {
   const v = opt(s);
   return v === null ? null : units === 'imperial' ? Math.round(v * 25.4 * 100) / 100 : v;
@@ -171,7 +172,11 @@ export default function LossCheckIsland(props: LossCheckProps) {
   );
   const fieldErr = (key: string) => {
     const m = err(key);
-    return m ? <p className="field-error" id={`${key}-err`}>{m}</p> : null;
+    return m ? (
+      <p className="field-error" id={`${key}-err`}>
+        {m}
+      </p>
+    ) : null;
   };
   const aria = (key: string) => (err(key) ? { 'aria-invalid': true, 'aria-describedby': `${key}-err` } : {});
 
@@ -181,25 +186,50 @@ export default function LossCheckIsland(props: LossCheckProps) {
         <legend className="px-1 text-lg font-semibold">Field and crop</legend>
         <div>
           {label('lc-field', 'Field')}
-          <input id="lc-field" className={input} value={fieldName} onChange={(e) => setFieldName(e.target.value)} autoComplete="off" {...aria('fieldName')} />
+          <input
+            id="lc-field"
+            className={input}
+            value={fieldName}
+            onChange={(e) => setFieldName(e.target.value)}
+            autoComplete="off"
+            {...aria('fieldName')}
+          />
           {fieldErr('fieldName')}
         </div>
         <div className="grid grid-cols-2 gap-3">
           <div>
             {label('lc-crop', 'Crop')}
             <select id="lc-crop" className={input} value={crop} onChange={(e) => changeCrop(e.target.value as CropId)}>
-              {Object.values(cropPrograms).map((c) => <option key={c.id} value={c.id}>{c.name}</option>)}
+              {Object.values(cropPrograms).map((c) => (
+                <option key={c.id} value={c.id}>
+                  {c.name}
+                </option>
+              ))}
             </select>
           </div>
           <div>
             {label('lc-moisture', 'Moisture', '%, if known')}
-            <input id="lc-moisture" className={input} inputMode="decimal" value={moisture} onChange={(e) => setMoisture(e.target.value)} {...aria('moisturePct')} />
+            <input
+              id="lc-moisture"
+              className={input}
+              inputMode="decimal"
+              value={moisture}
+              onChange={(e) => setMoisture(e.target.value)}
+              {...aria('moisturePct')}
+            />
             {fieldErr('moisturePct')}
           </div>
         </div>
         <div>
           {label('lc-when', 'When')}
-          <input id="lc-when" type="datetime-local" className={input} value={when} onChange={(e) => setWhen(e.target.value)} {...aria('checkedAt')} />
+          <input
+            id="lc-when"
+            type="datetime-local"
+            className={input}
+            value={when}
+            onChange={(e) => setWhen(e.target.value)}
+            {...aria('checkedAt')}
+          />
           {fieldErr('checkedAt')}
         </div>
       </fieldset>
@@ -207,25 +237,60 @@ export default function LossCheckIsland(props: LossCheckProps) {
       <fieldset className="card space-y-3">
         <legend className="px-1 text-lg font-semibold">Frame</legend>
         <div className="flex gap-2" role="group" aria-label="Give the frame by">
-          <button type="button" className={`${big} ${frameBy === 'area' ? 'border-iris-700 bg-iris-50' : ''}`} aria-pressed={frameBy === 'area'} onClick={() => setFrameBy('area')}>By area</button>
-          <button type="button" className={`${big} ${frameBy === 'sides' ? 'border-iris-700 bg-iris-50' : ''}`} aria-pressed={frameBy === 'sides'} onClick={() => setFrameBy('sides')}>By its sides</button>
+          <button
+            type="button"
+            className={`${big} ${frameBy === 'area' ? 'border-iris-700 bg-iris-50' : ''}`}
+            aria-pressed={frameBy === 'area'}
+            onClick={() => setFrameBy('area')}
+          >
+            By area
+          </button>
+          <button
+            type="button"
+            className={`${big} ${frameBy === 'sides' ? 'border-iris-700 bg-iris-50' : ''}`}
+            aria-pressed={frameBy === 'sides'}
+            onClick={() => setFrameBy('sides')}
+          >
+            By its sides
+          </button>
         </div>
         {frameBy === 'area' ? (
           <div>
             {label('lc-frame-area', 'Frame area', imperial ? 'ft²' : 'm²')}
-            <input id="lc-frame-area" className={input} inputMode="decimal" value={frameArea} onChange={(e) => setFrameArea(e.target.value)} {...aria('frame.area')} />
+            <input
+              id="lc-frame-area"
+              className={input}
+              inputMode="decimal"
+              value={frameArea}
+              onChange={(e) => setFrameArea(e.target.value)}
+              {...aria('frame.area')}
+            />
             {fieldErr('frame.area')}
           </div>
         ) : (
           <div className="grid grid-cols-2 gap-3">
             <div>
               {label('lc-side1', 'Length', imperial ? 'in' : 'cm')}
-              <input id="lc-side1" className={input} inputMode="decimal" value={side1} onChange={(e) => setSide1(e.target.value)} {...aria('frame.length')} />
+              <input
+                id="lc-side1"
+                className={input}
+                inputMode="decimal"
+                value={side1}
+                onChange={(e) => setSide1(e.target.value)}
+                {...aria('frame.length')}
+              />
               {fieldErr('frame.length')}
             </div>
             <div>
               {label('lc-side2', 'Width', imperial ? 'in' : 'cm')}
-              <input id="lc-side2" className={input} inputMode="decimal" value={side2} onChange={(e) => setSide2(e.target.value)} {...aria('frame.width')} />
+              <input
+                id="lc-side2"
+                className={input}
+                inputMode="decimal"
+                value={side2}
+                onChange={(e) => setSide2(e.target.value)}
+                {...aria('frame.width')}
+              />
               {fieldErr('frame.width')}
             </div>
           </div>
@@ -239,7 +304,9 @@ export default function LossCheckIsland(props: LossCheckProps) {
           <div className="grid grid-cols-3 gap-2">
             {counts[p.key].map((c, i) => (
               <div key={i}>
-                <label htmlFor={`lc-${p.key}-${i}`} className="block text-sm font-semibold">Frame {i + 1}</label>
+                <label htmlFor={`lc-${p.key}-${i}`} className="block text-sm font-semibold">
+                  Frame {i + 1}
+                </label>
                 <input
                   id={`lc-${p.key}-${i}`}
                   className={input}
@@ -253,9 +320,18 @@ export default function LossCheckIsland(props: LossCheckProps) {
             ))}
           </div>
           <div className="flex gap-2">
-            <button type="button" className={big} onClick={() => setCounts({ ...counts, [p.key]: [...counts[p.key], ''] })} disabled={counts[p.key].length >= 30}>+ Frame</button>
+            <button
+              type="button"
+              className={big}
+              onClick={() => setCounts({ ...counts, [p.key]: [...counts[p.key], ''] })}
+              disabled={counts[p.key].length >= 30}
+            >
+              + Frame
+            </button>
             {counts[p.key].length > 1 && (
-              <button type="button" className={big} onClick={() => setCounts({ ...counts, [p.key]: counts[p.key].slice(0, -1) })}>− Last frame</button>
+              <button type="button" className={big} onClick={() => setCounts({ ...counts, [p.key]: counts[p.key].slice(0, -1) })}>
+                − Last frame
+              </button>
             )}
           </div>
           {fieldErr(`counts.${p.key}`)}
@@ -267,12 +343,26 @@ export default function LossCheckIsland(props: LossCheckProps) {
         <div className="grid grid-cols-2 gap-3">
           <div>
             {label('lc-cut', 'Cut width', imperial ? 'ft' : 'm')}
-            <input id="lc-cut" className={input} inputMode="decimal" value={cutWidth} onChange={(e) => setCutWidth(e.target.value)} {...aria('cutWidth')} />
+            <input
+              id="lc-cut"
+              className={input}
+              inputMode="decimal"
+              value={cutWidth}
+              onChange={(e) => setCutWidth(e.target.value)}
+              {...aria('cutWidth')}
+            />
             {fieldErr('cutWidth')}
           </div>
           <div>
             {label('lc-spread', 'Spread width', imperial ? 'ft' : 'm')}
-            <input id="lc-spread" className={input} inputMode="decimal" value={spreadWidth} onChange={(e) => setSpreadWidth(e.target.value)} {...aria('spreadWidth')} />
+            <input
+              id="lc-spread"
+              className={input}
+              inputMode="decimal"
+              value={spreadWidth}
+              onChange={(e) => setSpreadWidth(e.target.value)}
+              {...aria('spreadWidth')}
+            />
             {fieldErr('spreadWidth')}
           </div>
         </div>
@@ -282,11 +372,18 @@ export default function LossCheckIsland(props: LossCheckProps) {
       <fieldset className="card space-y-3">
         <legend className="px-1 text-lg font-semibold">Kernels for 1 bu/ac</legend>
         <div className="space-y-2">
-          {([
-            ['default', cropPrograms[crop].publishedLossCount ? `Published count for ${cropPrograms[crop].name.toLowerCase()}` : `The crop’s usual kernel weight (no published count for ${cropPrograms[crop].name.toLowerCase()})`],
-            ['own-weight', 'My thousand-kernel weight'],
-            ['typed', 'A count I type'],
-          ] as const).map(([k, text]) => (
+          {(
+            [
+              [
+                'default',
+                cropPrograms[crop].publishedLossCount
+                  ? `Published count for ${cropPrograms[crop].name.toLowerCase()}`
+                  : `The crop’s usual kernel weight (no published count for ${cropPrograms[crop].name.toLowerCase()})`,
+              ],
+              ['own-weight', 'My thousand-kernel weight'],
+              ['typed', 'A count I type'],
+            ] as const
+          ).map(([k, text]) => (
             <label key={k} className="flex min-h-[48px] items-center gap-3 text-base">
               <input type="radio" name="basis" className="h-6 w-6" checked={basis === k} onChange={() => setBasis(k)} />
               {text}
@@ -296,14 +393,28 @@ export default function LossCheckIsland(props: LossCheckProps) {
         {basis === 'own-weight' && (
           <div>
             {label('lc-tkw', 'Thousand-kernel weight', 'g')}
-            <input id="lc-tkw" className={input} inputMode="decimal" value={tkw} onChange={(e) => setTkw(e.target.value)} {...aria('basis.tkwG')} />
+            <input
+              id="lc-tkw"
+              className={input}
+              inputMode="decimal"
+              value={tkw}
+              onChange={(e) => setTkw(e.target.value)}
+              {...aria('basis.tkwG')}
+            />
             {fieldErr('basis.tkwG')}
           </div>
         )}
         {basis === 'typed' && (
           <div>
             {label('lc-typed', 'Kernels for 1 bu/ac', imperial ? 'per ft²' : 'per m²')}
-            <input id="lc-typed" className={input} inputMode="decimal" value={typed} onChange={(e) => setTyped(e.target.value)} {...aria('basis.kernels')} />
+            <input
+              id="lc-typed"
+              className={input}
+              inputMode="decimal"
+              value={typed}
+              onChange={(e) => setTyped(e.target.value)}
+              {...aria('basis.kernels')}
+            />
             {fieldErr('basis.kernels')}
           </div>
         )}
@@ -313,23 +424,51 @@ export default function LossCheckIsland(props: LossCheckProps) {
         <legend className="px-1 text-lg font-semibold">Yield, price and target</legend>
         <div>
           {label('lc-yield', 'Expected yield', imperial ? 'bu/ac' : 'kg/ha')}
-          <input id="lc-yield" className={input} inputMode="decimal" value={yieldValue} onChange={(e) => setYieldValue(e.target.value)} {...aria('expectedYield.value')} />
+          <input
+            id="lc-yield"
+            className={input}
+            inputMode="decimal"
+            value={yieldValue}
+            onChange={(e) => setYieldValue(e.target.value)}
+            {...aria('expectedYield.value')}
+          />
           {fieldErr('expectedYield.value')}
         </div>
         <div className="grid grid-cols-[1fr_5rem] gap-3">
           <div>
             {label('lc-price', 'Price, optional', imperial ? 'per bushel' : 'per tonne')}
-            <input id="lc-price" className={input} inputMode="decimal" value={price} onChange={(e) => setPrice(e.target.value)} {...aria('price.value')} />
+            <input
+              id="lc-price"
+              className={input}
+              inputMode="decimal"
+              value={price}
+              onChange={(e) => setPrice(e.target.value)}
+              {...aria('price.value')}
+            />
             {fieldErr('price.value')}
           </div>
           <div>
             {label('lc-currency', 'Money')}
-            <input id="lc-currency" className={input} value={currency} maxLength={8} onChange={(e) => setCurrency(e.target.value)} {...aria('price.currency')} />
+            <input
+              id="lc-currency"
+              className={input}
+              value={currency}
+              maxLength={8}
+              onChange={(e) => setCurrency(e.target.value)}
+              {...aria('price.currency')}
+            />
           </div>
         </div>
         <div>
           {label('lc-target', 'My target', '% of yield; empty for the default')}
-          <input id="lc-target" className={input} inputMode="decimal" value={target} onChange={(e) => setTarget(e.target.value)} {...aria('targetPct')} />
+          <input
+            id="lc-target"
+            className={input}
+            inputMode="decimal"
+            value={target}
+            onChange={(e) => setTarget(e.target.value)}
+            {...aria('targetPct')}
+          />
           {fieldErr('targetPct')}
         </div>
       </fieldset>
@@ -338,7 +477,12 @@ export default function LossCheckIsland(props: LossCheckProps) {
         <legend className="px-1 text-lg font-semibold">What you saw behind the machine</legend>
         {SIGNS.map((s) => (
           <label key={s} className="flex min-h-[48px] items-center gap-3 text-base">
-            <input type="checkbox" className="h-6 w-6" checked={signs.includes(s)} onChange={(e) => setSigns(e.target.checked ? [...signs, s] : signs.filter((x) => x !== s))} />
+            <input
+              type="checkbox"
+              className="h-6 w-6"
+              checked={signs.includes(s)}
+              onChange={(e) => setSigns(e.target.checked ? [...signs, s] : signs.filter((x) => x !== s))}
+            />
             {LOSS_SIGN_LABEL[s]}
           </label>
         ))}
@@ -346,70 +490,129 @@ export default function LossCheckIsland(props: LossCheckProps) {
 
       <fieldset className="card space-y-3">
         <legend className="px-1 text-lg font-semibold">Settings right now</legend>
-        <p className="text-sm text-ink-muted">Filled in from what is installed and the dealer’s starting values; change what differs in the cab.</p>
+        <p className="text-sm text-ink-muted">
+          Filled in from what is installed and the dealer’s starting values; change what differs in the cab.
+        </p>
         <div className="grid grid-cols-2 gap-3">
           <div>
             {label('lc-rpm', 'Rotor speed', 'rpm')}
-            <input id="lc-rpm" className={input} inputMode="numeric" value={rpm} onChange={(e) => setRpm(e.target.value)} {...aria('settings.rotorRpm')} />
+            <input
+              id="lc-rpm"
+              className={input}
+              inputMode="numeric"
+              value={rpm}
+              onChange={(e) => setRpm(e.target.value)}
+              {...aria('settings.rotorRpm')}
+            />
             {fieldErr('settings.rotorRpm')}
           </div>
           <div>
             {label('lc-clearance', 'Clearance', imperial ? 'in' : 'mm')}
-            <input id="lc-clearance" className={input} inputMode="decimal" value={clearance} onChange={(e) => setClearance(e.target.value)} {...aria('settings.clearanceMm')} />
+            <input
+              id="lc-clearance"
+              className={input}
+              inputMode="decimal"
+              value={clearance}
+              onChange={(e) => setClearance(e.target.value)}
+              {...aria('settings.clearanceMm')}
+            />
             {fieldErr('settings.clearanceMm')}
           </div>
           <div>
             {label('lc-vanes', 'Vanes')}
             <select id="lc-vanes" className={input} value={vanes} onChange={(e) => setVanes(e.target.value as VaneSetting)}>
               <option value="">—</option>
-              {VANES.map((v) => <option key={v} value={v}>{v.replace('-', ' ')}</option>)}
+              {VANES.map((v) => (
+                <option key={v} value={v}>
+                  {v.replace('-', ' ')}
+                </option>
+              ))}
             </select>
           </div>
           <div>
             {label('lc-fan', 'Cleaning fan', 'rpm')}
-            <input id="lc-fan" className={input} inputMode="numeric" value={fan} onChange={(e) => setFan(e.target.value)} {...aria('settings.fanRpm')} />
+            <input
+              id="lc-fan"
+              className={input}
+              inputMode="numeric"
+              value={fan}
+              onChange={(e) => setFan(e.target.value)}
+              {...aria('settings.fanRpm')}
+            />
             {fieldErr('settings.fanRpm')}
           </div>
           <div>
             {label('lc-upper', 'Upper sieve', imperial ? 'in' : 'mm')}
-            <input id="lc-upper" className={input} inputMode="decimal" value={upper} onChange={(e) => setUpper(e.target.value)} {...aria('settings.upperSieveMm')} />
+            <input
+              id="lc-upper"
+              className={input}
+              inputMode="decimal"
+              value={upper}
+              onChange={(e) => setUpper(e.target.value)}
+              {...aria('settings.upperSieveMm')}
+            />
             {fieldErr('settings.upperSieveMm')}
           </div>
           <div>
             {label('lc-lower', 'Lower sieve', imperial ? 'in' : 'mm')}
-            <input id="lc-lower" className={input} inputMode="decimal" value={lower} onChange={(e) => setLower(e.target.value)} {...aria('settings.lowerSieveMm')} />
+            <input
+              id="lc-lower"
+              className={input}
+              inputMode="decimal"
+              value={lower}
+              onChange={(e) => setLower(e.target.value)}
+              {...aria('settings.lowerSieveMm')}
+            />
             {fieldErr('settings.lowerSieveMm')}
           </div>
         </div>
       </fieldset>
 
       <section aria-labelledby="lc-result-h" aria-live="polite">
-        <h2 id="lc-result-h" className="text-xl font-semibold">{saved ? 'Saved to the season log' : 'Result'}</h2>
+        <h2 id="lc-result-h" className="text-xl font-semibold">
+          {saved ? 'Saved to the season log' : 'Result'}
+        </h2>
         {saved ? (
           <div className="mt-2 space-y-3">
             <LossResult result={saved.result} units={units} />
             <div className="flex flex-wrap gap-2">
-              <a className={`${big} no-underline`} href={`/machines/${props.machine.id}/season`} data-testid="open-season">Season log and charts</a>
-              <button type="button" className={big} onClick={() => setSaved(null)}>Another check</button>
+              <a className={`${big} no-underline`} href={`/machines/${props.machine.id}/season`} data-testid="open-season">
+                Season log and charts
+              </a>
+              <button type="button" className={big} onClick={() => setSaved(null)}>
+                Another check
+              </button>
             </div>
           </div>
         ) : preview ? (
-          <div className="mt-2"><LossResult result={preview} units={units} /></div>
+          <div className="mt-2">
+            <LossResult result={preview} units={units} />
+          </div>
         ) : (
           <p className="mt-2 text-ink-muted">Enter the counts, the widths and the expected yield to see the loss.</p>
         )}
       </section>
 
-      {serverError && <p role="alert" className="rounded-md border border-fit bg-fit-soft p-3 font-semibold text-fit" data-testid="loss-error">{serverError}</p>}
-      {!saved && (
-        props.canRecord ? (
-          <button type="submit" className="btn-primary min-h-[60px] w-full justify-center text-lg" disabled={saving} data-testid="save-check">
+      {serverError && (
+        <p role="alert" className="rounded-md border border-fit bg-fit-soft p-3 font-semibold text-fit" data-testid="loss-error">
+          {serverError}
+        </p>
+      )}
+      {!saved &&
+        (props.canRecord ? (
+          <button
+            type="submit"
+            className="btn-primary min-h-[60px] w-full justify-center text-lg"
+            disabled={saving}
+            data-testid="save-check"
+          >
             {saving ? 'Saving…' : 'Save to the season log'}
           </button>
         ) : (
-          <p className="text-sm text-ink-muted">Your role may work out a check here but not save it; the machine’s operator or a technician records checks.</p>
-        )
-      )}
+          <p className="text-sm text-ink-muted">
+            Your role may work out a check here but not save it; the machine’s operator or a technician records checks.
+          </p>
+        ))}
     </form>
   );
 }

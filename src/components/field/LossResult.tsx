@@ -1,7 +1,7 @@
 /** The outcome of a loss check: the verdict, each part of the loss, the basis and the advice. */
-import type { LossCheckResult, LossFigure } from '../../lib/domain/field-check';
-import type { UnitSystem } from '../../lib/domain/units';
-import { formatMoney, isCurrencyCode } from '../../lib/domain/format';
+import type { LossCheckResult, LossFigure } from '~/lib/domain/field-check';
+import type { UnitSystem } from '~/lib/domain/units';
+import { formatMoney, isCurrencyCode } from '~/lib/domain/format';
 
 const fixed = (n: number, d: number) => (Math.abs(n) < 10 ** -d / 2 ? 0 : n).toFixed(d);
 
@@ -34,7 +34,12 @@ function Figure({ f, units, currency, big }: { f: LossFigure; units: UnitSystem;
       <span className={big ? 'text-3xl font-bold' : 'text-2xl font-semibold'}>{primary}</span>
       <span className="block text-sm text-ink-soft">
         {secondary} · {fixed(f.pctOfYield, 1)} % of yield
-        {cash !== null && <> · {money(cash, currency)} per {units === 'imperial' ? 'acre' : 'hectare'}</>}
+        {cash !== null && (
+          <>
+            {' '}
+            · {money(cash, currency)} per {units === 'imperial' ? 'acre' : 'hectare'}
+          </>
+        )}
       </span>
     </div>
   );
@@ -56,9 +61,16 @@ export function LossResult({ result, units }: { result: LossCheckResult; units: 
       >
         <p className="flex items-center gap-2 text-xl font-bold">
           {over ? (
-            <svg aria-hidden="true" width="26" height="24" viewBox="0 0 18 16"><path d="M9 1 17 15H1z" fill="none" stroke="currentColor" strokeWidth="2" strokeLinejoin="round" /><path d="M9 6v4" stroke="currentColor" strokeWidth="2" strokeLinecap="round" /><circle cx="9" cy="12.5" r="1" fill="currentColor" /></svg>
+            <svg aria-hidden="true" width="26" height="24" viewBox="0 0 18 16">
+              <path d="M9 1 17 15H1z" fill="none" stroke="currentColor" strokeWidth="2" strokeLinejoin="round" />
+              <path d="M9 6v4" stroke="currentColor" strokeWidth="2" strokeLinecap="round" />
+              <circle cx="9" cy="12.5" r="1" fill="currentColor" />
+            </svg>
           ) : (
-            <svg aria-hidden="true" width="24" height="24" viewBox="0 0 16 16"><circle cx="8" cy="8" r="7" fill="none" stroke="currentColor" strokeWidth="2" /><path d="m4.5 8 2.5 2.5 4.5-5" fill="none" stroke="currentColor" strokeWidth="2" strokeLinecap="round" /></svg>
+            <svg aria-hidden="true" width="24" height="24" viewBox="0 0 16 16">
+              <circle cx="8" cy="8" r="7" fill="none" stroke="currentColor" strokeWidth="2" />
+              <path d="m4.5 8 2.5 2.5 4.5-5" fill="none" stroke="currentColor" strokeWidth="2" strokeLinecap="round" />
+            </svg>
           )}
           {over ? 'Over your target' : 'Within your target'}
         </p>
@@ -66,7 +78,9 @@ export function LossResult({ result, units }: { result: LossCheckResult; units: 
           Harvest loss (header and machine) is <strong>{fixed(result.harvest.pctOfYield, 1)} %</strong> of the expected yield; the target is{' '}
           {fixed(result.target.pct, 2).replace(/\.?0+$/, '')} %.
         </p>
-        <p className="mt-1 text-sm text-ink-soft">Target: {result.target.isDefault ? `default — ${result.target.source}` : result.target.source}.</p>
+        <p className="mt-1 text-sm text-ink-soft">
+          Target: {result.target.isDefault ? `default — ${result.target.source}` : result.target.source}.
+        </p>
       </div>
 
       <div className="card">
@@ -87,26 +101,31 @@ export function LossResult({ result, units }: { result: LossCheckResult; units: 
           </li>
         </ul>
         {result.notes.includes('header-below-standing') && (
-          <p className="mt-2 text-sm text-ink-soft">Fewer kernels behind the header than in the standing crop: header loss is shown as none. Count more frames if you can.</p>
+          <p className="mt-2 text-sm text-ink-soft">
+            Fewer kernels behind the header than in the standing crop: header loss is shown as none. Count more frames if you can.
+          </p>
         )}
         {result.notes.includes('machine-below-header') && (
-          <p className="mt-2 text-sm text-ink-soft">Fewer kernels behind the machine than behind the header: machine loss is shown as none. Count more frames if you can.</p>
+          <p className="mt-2 text-sm text-ink-soft">
+            Fewer kernels behind the machine than behind the header: machine loss is shown as none. Count more frames if you can.
+          </p>
         )}
       </div>
 
       <div className="card text-sm" data-testid="loss-basis">
         <h3 className="text-base font-semibold">How it was worked out</h3>
         <p className="mt-1">
-          <strong>{BASIS_WORDS[result.basis.kind]}:</strong> {fixed(perArea(result.basis.kernelsPerFt2PerBuAc), 1)} kernels per {area} ≈ 1 bu/ac
+          <strong>{BASIS_WORDS[result.basis.kind]}:</strong> {fixed(perArea(result.basis.kernelsPerFt2PerBuAc), 1)} kernels per {area} ≈ 1
+          bu/ac
           {result.basis.tkwG !== null && <> (thousand-kernel weight {fixed(result.basis.tkwG, 1)} g)</>}. Source: {result.basis.source}.
         </p>
         <p className="mt-1">
-          In your {frameIs} frame, {fixed(result.kernelsPerFrameFor1BuAc.outsideSpread, 1)} kernels make 1 bu/ac in standing crop or behind the header,
-          and {fixed(result.kernelsPerFrameFor1BuAc.inSpread, 1)} behind the machine.
+          In your {frameIs} frame, {fixed(result.kernelsPerFrameFor1BuAc.outsideSpread, 1)} kernels make 1 bu/ac in standing crop or behind
+          the header, and {fixed(result.kernelsPerFrameFor1BuAc.inSpread, 1)} behind the machine.
         </p>
         <p className="mt-1">
-          Spread correction: cut width ÷ spread width = {fixed(result.concentrationRatio, 2)}; the machine’s kernels behind it are divided by that
-          (smallgrains.org procedure). Bushel: {result.lbPerBu} lb.
+          Spread correction: cut width ÷ spread width = {fixed(result.concentrationRatio, 2)}; the machine’s kernels behind it are divided
+          by that (smallgrains.org procedure). Bushel: {result.lbPerBu} lb.
         </p>
       </div>
 
@@ -123,7 +142,9 @@ export function LossResult({ result, units }: { result: LossCheckResult; units: 
             </li>
           ))}
         </ul>
-        <p className="mt-3 text-xs text-ink-muted">Advice from common practice unless a source is named. The machine’s operator’s manual comes first.</p>
+        <p className="mt-3 text-xs text-ink-muted">
+          Advice from common practice unless a source is named. The machine’s operator’s manual comes first.
+        </p>
       </div>
     </div>
   );

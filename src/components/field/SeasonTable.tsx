@@ -3,13 +3,20 @@
  * the page, so the server renders the whole table and it reads without JavaScript; sorting needs
  * the script.
  */
-import { createColumnHelper, flexRender, getCoreRowModel, getSortedRowModel, useReactTable, type SortingState } from '@tanstack/react-table';
+import {
+  createColumnHelper,
+  flexRender,
+  getCoreRowModel,
+  getSortedRowModel,
+  useReactTable,
+  type SortingState,
+} from '@tanstack/react-table';
 import { useCallback, useMemo, useState } from 'react';
-import type { UnitSystem } from '../../lib/domain/units';
-import { SortableHead } from '../shared/SortableHead';
-import { formatDateTime } from '../../lib/domain/format';
-import { formatNumber } from '../../lib/domain/format';
-import { formatLength, mm } from '../../lib/domain/units';
+import type { UnitSystem } from '~/lib/domain/units';
+import { SortableHead } from '~/components/shared/SortableHead';
+import { formatDateTime } from '~/lib/domain/format';
+import { formatNumber } from '~/lib/domain/format';
+import { formatLength, mm } from '~/lib/domain/units';
 
 export interface SeasonRow {
   id: string;
@@ -41,7 +48,10 @@ export default function SeasonTable({ rows, units }: { rows: SeasonRow[]; units:
   const [sorting, setSorting] = useState<SortingState>([{ id: 'checkedAt', desc: false }]);
   const imperial = units === 'imperial';
   const len = useCallback((v: number | null) => (v === null ? '—' : formatLength(mm(v), units, imperial ? 2 : 1)), [units, imperial]);
-  const rate = useCallback((bu: number, kg: number) => (imperial ? `${formatNumber(bu, { digits: 2 })} bu/ac` : `${formatNumber(kg)} kg/ha`), [imperial]);
+  const rate = useCallback(
+    (bu: number, kg: number) => (imperial ? `${formatNumber(bu, { digits: 2 })} bu/ac` : `${formatNumber(kg)} kg/ha`),
+    [imperial],
+  );
   const columns = useMemo(
     () => [
       col.accessor('checkedAt', { header: 'When (UTC)', cell: (c) => when(c.getValue()) }),
@@ -59,13 +69,22 @@ export default function SeasonTable({ rows, units }: { rows: SeasonRow[]; units:
       col.accessor('machineBuPerAc', { header: 'Machine part', cell: (c) => rate(c.getValue(), c.row.original.machineKgPerHa) }),
       col.accessor('verdict', {
         header: 'Verdict',
-        cell: (c) => (c.getValue() === 'over' ? <span className="font-semibold text-crop">▲ over {c.row.original.targetPct} %</span> : <span className="text-ok">✓ within {c.row.original.targetPct} %</span>),
+        cell: (c) =>
+          c.getValue() === 'over' ? (
+            <span className="font-semibold text-crop">▲ over {c.row.original.targetPct} %</span>
+          ) : (
+            <span className="text-ok">✓ within {c.row.original.targetPct} %</span>
+          ),
       }),
       col.accessor('rotorRpm', { header: 'Rotor rpm' }),
       col.accessor('clearanceMm', { header: 'Clearance', cell: (c) => len(c.getValue()) }),
       col.accessor('vaneSetting', { header: 'Vanes', cell: (c) => c.getValue().replace('-', ' ') }),
       col.accessor('fanRpm', { header: 'Fan rpm', cell: (c) => c.getValue() ?? '—' }),
-      col.accessor((r) => `${len(r.upperSieveMm)} / ${len(r.lowerSieveMm)}`, { id: 'sieves', header: 'Sieves upper / lower', enableSorting: false }),
+      col.accessor((r) => `${len(r.upperSieveMm)} / ${len(r.lowerSieveMm)}`, {
+        id: 'sieves',
+        header: 'Sieves upper / lower',
+        enableSorting: false,
+      }),
       col.accessor('moisturePct', { header: 'Moisture', cell: (c) => (c.getValue() === null ? '—' : `${c.getValue()!.toFixed(1)} %`) }),
       col.accessor('layoutVersion', { header: 'Layout version', cell: (c) => (c.getValue() === null ? '—' : `v${c.getValue()}`) }),
       col.accessor('basis', { header: 'Basis', enableSorting: false }),

@@ -13,11 +13,11 @@ import {
   type SortingState,
 } from '@tanstack/react-table';
 import { useEffect, useMemo, useState } from 'react';
-import { getJson } from '../shared/api';
-import { PagerButtons } from '../shared/PagerButtons';
-import { QueryIsland } from '../shared/QueryIsland';
-import { SortableHead } from '../shared/SortableHead';
-import { formatDate } from '../../lib/domain/format';
+import { getJson } from '~/components/shared/api';
+import { PagerButtons } from '~/components/shared/PagerButtons';
+import { QueryIsland } from '~/components/shared/QueryIsland';
+import { SortableHead } from '~/components/shared/SortableHead';
+import { formatDate } from '~/lib/domain/format';
 
 export interface MachineListItem {
   id: string;

@@ -3,12 +3,18 @@
  * measurements, note and photos, saved as you go; finishing sends the lines marked "replace" to
  * a draft parts request.
  */
-import { formatMoney } from '../parts/money';
-import { formatDate } from '../../lib/domain/format';
+import { formatMoney } from '~/components/parts/money';
+import { formatDate } from '~/lib/domain/format';
 import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
-import { countSeverities, suggestSeverity, surveyFromMeasurements, type ChecklistKind, type ReplacementLine } from '../../lib/domain/inspection';
-import type { UnitSystem } from '../../lib/domain/units';
-import { ApiError, sendJson } from '../shared/api';
+import {
+  countSeverities,
+  suggestSeverity,
+  surveyFromMeasurements,
+  type ChecklistKind,
+  type ReplacementLine,
+} from '~/lib/domain/inspection';
+import type { UnitSystem } from '~/lib/domain/units';
+import { ApiError, sendJson } from '~/components/shared/api';
 import { LineCard, type LineChange } from './LineCard';
 import { SeverityMark } from './SeverityMark';
 import { SurveyReadings } from './SurveyReadings';
@@ -28,7 +34,6 @@ const SECTIONS: { kind: ChecklistKind; title: string }[] = [
   { kind: 'row', title: 'Rotor bars' },
   { kind: 'survey', title: 'Clearance survey' },
 ];
-
 
 export default function ChecklistIsland({ initial, units, canEdit }: Props) {
   const [insp, setInsp] = useState(initial);
@@ -71,7 +76,11 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
         setSaveState(pending.current.size ? 'saving' : 'saved');
       } catch (err) {
         setSaveState('error');
-        setSaveError(err instanceof ApiError ? err.message : 'Not saved: the connection dropped. Your entries stay on this page; change anything to try again.');
+        setSaveError(
+          err instanceof ApiError
+            ? err.message
+            : 'Not saved: the connection dropped. Your entries stay on this page; change anything to try again.',
+        );
         // Keep what failed so the next change sends it again.
         for (const it of items) if (!pending.current.has(it.id)) pending.current.set(it.id, it);
       }
@@ -98,11 +107,21 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
           if (v === null) delete measurements[k];
           else measurements[k] = v;
         }
-        return { ...l, ...(c.conditions ? { conditions: c.conditions } : {}), ...(c.severity ? { severity: c.severity } : {}), ...(c.note !== undefined ? { note: c.note } : {}), measurements };
+        return {
+          ...l,
+          ...(c.conditions ? { conditions: c.conditions } : {}),
+          ...(c.severity ? { severity: c.severity } : {}),
+          ...(c.note !== undefined ? { note: c.note } : {}),
+          measurements,
+        };
       }),
     }));
     const prev = pending.current.get(line.id) ?? { id: line.id };
-    pending.current.set(line.id, { ...prev, ...c, measurements: c.measurements || prev.measurements ? { ...prev.measurements, ...c.measurements } : undefined });
+    pending.current.set(line.id, {
+      ...prev,
+      ...c,
+      measurements: c.measurements || prev.measurements ? { ...prev.measurements, ...c.measurements } : undefined,
+    });
     if (timer.current) clearTimeout(timer.current);
     timer.current = setTimeout(() => void flush(), opts.typing ? 700 : 0);
   }
@@ -115,7 +134,9 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
   const photoCount = insp.items.reduce((n, l) => n + l.photos.length, 0);
   const toReplace = insp.items.filter((l) => l.severity === 'replace' && l.kind !== 'survey');
   const surveyLine = insp.items.find((l) => l.kind === 'survey');
-  const surveyDisagrees = serverSaysUneven || (!!surveyLine && surveyLine.severity === 'ok' && surveyFromMeasurements(insp.family, surveyLine.measurements).uneven);
+  const surveyDisagrees =
+    serverSaysUneven ||
+    (!!surveyLine && surveyLine.severity === 'ok' && surveyFromMeasurements(insp.family, surveyLine.measurements).uneven);
 
   async function finish() {
     setFinishing(true);
@@ -169,13 +190,16 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
           {insp.partsRequest ? (
             <>
               <p className="mt-1">
-                The replacements went on a <a href={`/parts-requests/${insp.partsRequest.id}`}>draft parts request</a> ({insp.partsRequest.status}):
+                The replacements went on a <a href={`/parts-requests/${insp.partsRequest.id}`}>draft parts request</a> (
+                {insp.partsRequest.status}):
               </p>
               <ul className="mt-2 space-y-1" data-testid="replacements">
                 {insp.partsRequest.added.map((l) => (
                   <li key={l.partNumber} className="text-sm">
-                    <span className="font-semibold">{l.quantity} × {l.partNumber}</span> — {l.description}
-                    {' '}· {money(l.unitPriceCents * l.quantity)}
+                    <span className="font-semibold">
+                      {l.quantity} × {l.partNumber}
+                    </span>{' '}
+                    — {l.description} · {money(l.unitPriceCents * l.quantity)}
                   </li>
                 ))}
               </ul>
@@ -184,7 +208,9 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
             <p className="mt-1">Nothing was marked for replacement, so no parts were requested.</p>
           )}
           <p className="mt-3">
-            <a className="btn-primary min-h-[48px] px-4 text-base no-underline" href={`/inspections/${insp.id}/report`}>Open the printable report</a>
+            <a className="btn-primary min-h-[48px] px-4 text-base no-underline" href={`/inspections/${insp.id}/report`}>
+              Open the printable report
+            </a>
           </p>
         </section>
       )}
@@ -210,7 +236,13 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
                   onPhotos={(list) => photos(line, list)}
                 >
                   {kind === 'survey' && (
-                    <SurveyReadings family={insp.family} measurements={line.measurements} units={units} editable={editable} onChange={(m) => change(line, { measurements: m }, { typing: true })} />
+                    <SurveyReadings
+                      family={insp.family}
+                      measurements={line.measurements}
+                      units={units}
+                      editable={editable}
+                      onChange={(m) => change(line, { measurements: m }, { typing: true })}
+                    />
                   )}
                 </LineCard>
               ))}
@@ -221,7 +253,9 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
 
       {editable && (
         <section aria-labelledby="finish-h" className="card mb-10">
-          <h2 id="finish-h" className="text-lg font-semibold">Finish the inspection</h2>
+          <h2 id="finish-h" className="text-lg font-semibold">
+            Finish the inspection
+          </h2>
           {!confirming ? (
             <>
               <p className="mt-1 text-sm text-ink-muted">
@@ -240,7 +274,10 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
                   <p>These parts go on a draft parts request for {insp.machine.nickname}:</p>
                   <ul className="mt-1 list-disc pl-5 text-sm">
                     {toReplace.map((l) => (
-                      <li key={l.id}>{l.label}{l.partNumber ? ` — ${l.partNumber}` : ''}</li>
+                      <li key={l.id}>
+                        {l.label}
+                        {l.partNumber ? ` — ${l.partNumber}` : ''}
+                      </li>
                     ))}
                   </ul>
                 </>
@@ -250,16 +287,29 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
               {surveyDisagrees && (
                 <div className="caution mt-3" data-testid="survey-disagrees">
                   <p className="font-semibold">The clearance survey finds an uneven clearance, but its verdict is “serviceable”.</p>
-                  <p className="mt-1">Mark the survey to watch or replace, or confirm that the machine goes out with the clearance as measured. The report shows both the readings and your verdict.</p>
+                  <p className="mt-1">
+                    Mark the survey to watch or replace, or confirm that the machine goes out with the clearance as measured. The report
+                    shows both the readings and your verdict.
+                  </p>
                   <label className="mt-2 flex items-start gap-2">
-                    <input type="checkbox" className="mt-1 h-5 w-5" checked={acceptUneven} onChange={(e) => setAcceptUneven(e.target.checked)} />
+                    <input
+                      type="checkbox"
+                      className="mt-1 h-5 w-5"
+                      checked={acceptUneven}
+                      onChange={(e) => setAcceptUneven(e.target.checked)}
+                    />
                     <span>Finish with the survey marked serviceable although the clearance is uneven</span>
                   </label>
                 </div>
               )}
               <p className="mt-2 text-sm">After finishing, the checklist and its photos can no longer be changed.</p>
               <div className="mt-3 flex flex-wrap gap-3">
-                <button type="button" className="btn-primary min-h-[52px] px-5 text-base" onClick={() => void finish()} disabled={finishing || (surveyDisagrees && !acceptUneven)}>
+                <button
+                  type="button"
+                  className="btn-primary min-h-[52px] px-5 text-base"
+                  onClick={() => void finish()}
+                  disabled={finishing || (surveyDisagrees && !acceptUneven)}
+                >
                   {finishing ? 'Finishing…' : toReplace.length ? 'Finish and request the parts' : 'Finish'}
                 </button>
                 <button type="button" className="btn min-h-[52px] px-5 text-base" onClick={() => setConfirming(false)} disabled={finishing}>

@@ -1,7 +1,15 @@
 /** One checklist line: its severity, what was found, bar wear, a note and photos. */
 import { useId, useState, type ReactNode } from 'react';
-import { assessWear, conditionsFor, SEVERITY_RANK, SEVERITY_TEXT, WEAR_REPLACE_MM, type ConditionId, type InspectionSeverity } from '../../lib/domain/inspection';
-import type { UnitSystem } from '../../lib/domain/units';
+import {
+  assessWear,
+  conditionsFor,
+  SEVERITY_RANK,
+  SEVERITY_TEXT,
+  WEAR_REPLACE_MM,
+  type ConditionId,
+  type InspectionSeverity,
+} from '~/lib/domain/inspection';
+import type { UnitSystem } from '~/lib/domain/units';
 import { PhotoStrip } from './PhotoStrip';
 import { SeverityIcon, SeverityMark, SEVERITY_COLOUR } from './SeverityMark';
 import type { LineView, PhotoView } from './types';
@@ -125,7 +133,9 @@ export function LineCard({ inspectionId, line, suggested, units, editable, onCha
                       type="checkbox"
                       checked={on}
                       onChange={(e) =>
-                        onChange({ conditions: e.currentTarget.checked ? [...line.conditions, c.id] : line.conditions.filter((x) => x !== c.id) })
+                        onChange({
+                          conditions: e.currentTarget.checked ? [...line.conditions, c.id] : line.conditions.filter((x) => x !== c.id),
+                        })
                       }
                       className="mt-1 h-5 w-5 rounded border-steel-400 text-iris-700 focus:ring-iris-500"
                     />
@@ -205,7 +215,14 @@ export function LineCard({ inspectionId, line, suggested, units, editable, onCha
         )}
       </div>
 
-      <PhotoStrip inspectionId={inspectionId} itemId={line.id} label={line.label} photos={line.photos} editable={editable} onChange={onPhotos} />
+      <PhotoStrip
+        inspectionId={inspectionId}
+        itemId={line.id}
+        label={line.label}
+        photos={line.photos}
+        editable={editable}
+        onChange={onPhotos}
+      />
     </section>
   );
 }

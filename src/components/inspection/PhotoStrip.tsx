@@ -1,6 +1,6 @@
 /** A line's photos as thumbnails, and the button that takes or picks a new one. */
 import { useId, useState } from 'react';
-import { ApiError, sendJson } from '../shared/api';
+import { ApiError, sendJson } from '~/components/shared/api';
 import { sendPhoto } from './api';
 import type { PhotoView } from './types';
 
@@ -58,7 +58,12 @@ export function PhotoStrip({ inspectionId, itemId, label, photos, editable, onCh
         <ul className="flex flex-wrap gap-2" aria-label={`Photos of ${label}`}>
           {photos.map((p, i) => (
             <li key={p.id} className="relative">
-              <a href={p.url} target="_blank" rel="noopener" className="block rounded-md border border-steel-300 focus-visible:outline-iris-500">
+              <a
+                href={p.url}
+                target="_blank"
+                rel="noopener"
+                className="block rounded-md border border-steel-300 focus-visible:outline-iris-500"
+              >
                 <img src={p.thumbUrl} alt={`Photo ${i + 1} of ${label}`} loading="lazy" className="h-24 w-32 rounded-md object-cover" />
               </a>
               {editable && (
@@ -81,7 +86,10 @@ export function PhotoStrip({ inspectionId, itemId, label, photos, editable, onCh
             htmlFor={inputId}
             className="inline-flex min-h-[48px] cursor-pointer items-center gap-2 rounded-md border border-steel-300 bg-white px-4 text-base font-semibold text-ink shadow-sm hover:bg-steel-100 focus-within:outline focus-within:outline-[3px] focus-within:outline-offset-2 focus-within:outline-iris-500"
           >
-            <svg width="22" height="20" viewBox="0 0 22 20" aria-hidden="true"><path d="M2 6h4l2-3h6l2 3h4v12H2z" fill="none" stroke="currentColor" strokeWidth="1.8" strokeLinejoin="round"/><circle cx="11" cy="11.5" r="3.8" fill="none" stroke="currentColor" strokeWidth="1.8"/></svg>
+            <svg width="22" height="20" viewBox="0 0 22 20" aria-hidden="true">
+              <path d="M2 6h4l2-3h6l2 3h4v12H2z" fill="none" stroke="currentColor" strokeWidth="1.8" strokeLinejoin="round" />
+              <circle cx="11" cy="11.5" r="3.8" fill="none" stroke="currentColor" strokeWidth="1.8" />
+            </svg>
             {photos.length ? 'Add another photo' : 'Take or add a photo'}
             <input
               id={inputId}
@@ -100,7 +108,9 @@ export function PhotoStrip({ inspectionId, itemId, label, photos, editable, onCh
               }}
             />
           </label>
-          <p className="mt-1 text-sm text-ink-muted" aria-live="polite">{busy ?? ''}</p>
+          <p className="mt-1 text-sm text-ink-muted" aria-live="polite">
+            {busy ?? ''}
+          </p>
         </div>
       )}
       {error && (

@@ -3,7 +3,7 @@
  * a circle with a tick (serviceable), an eye (keep an eye on), a square with two arrows turning
  * round each other (replace). Shapes differ from the layout findings' marks on purpose.
  */
-import { SEVERITY_TEXT, type InspectionSeverity } from '../../lib/domain/inspection';
+import { SEVERITY_TEXT, type InspectionSeverity } from '~/lib/domain/inspection';
 
 export const SEVERITY_COLOUR: Record<InspectionSeverity, string> = {
   ok: '#2f6f4f',
@@ -31,7 +31,14 @@ export function SeverityIcon({ severity, size = 18 }: { severity: InspectionSeve
       {severity === 'replace' && (
         <>
           <rect x="1" y="1" width="18" height="18" rx="3" fill={c} />
-          <path d="M5 8h9l-2.5-2.5M15 12H6l2.5 2.5" stroke="#fff" strokeWidth="2" fill="none" strokeLinecap="round" strokeLinejoin="round" />
+          <path
+            d="M5 8h9l-2.5-2.5M15 12H6l2.5 2.5"
+            stroke="#fff"
+            strokeWidth="2"
+            fill="none"
+            strokeLinecap="round"
+            strokeLinejoin="round"
+          />
         </>
       )}
     </svg>

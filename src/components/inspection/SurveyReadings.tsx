@@ -3,9 +3,9 @@
  * sides, the set clearance and tolerance, and what the comparison finds.
  */
 import { useState } from 'react';
-import { clearanceReadingKey, surveyFromMeasurements, type ClearanceEnd } from '../../lib/domain/inspection';
-import type { MachineFamily, Side } from '../../lib/domain/schemas';
-import type { UnitSystem } from '../../lib/domain/units';
+import { clearanceReadingKey, surveyFromMeasurements, type ClearanceEnd } from '~/lib/domain/inspection';
+import type { MachineFamily, Side } from '~/lib/domain/schemas';
+import type { UnitSystem } from '~/lib/domain/units';
 import { describeSurveyFinding, fromInput, showLength, toInput, unitLabel } from './units';
 
 interface Props {
@@ -69,25 +69,57 @@ export function SurveyReadings({ family, measurements, units, editable, onChange
     const key = clearanceReadingKey(p, side, end);
     const mm = measurements[key];
     const label = `${side === 'left' ? 'Left' : 'Right'} ${end}`;
-    if (!editable) return <div className="text-sm"><span className="text-xs text-ink-muted">{label}</span><br />{mm === undefined ? '—' : showLength(mm, units)}</div>;
-    return <LengthInput compact id={`survey-${p}-${side}-${end}`} label={`${label} (${u})`} mm={mm} units={units} max={100} onCommit={(v) => onChange({ [key]: v })} />;
+    if (!editable)
+      return (
+        <div className="text-sm">
+          <span className="text-xs text-ink-muted">{label}</span>
+          <br />
+          {mm === undefined ? '—' : showLength(mm, units)}
+        </div>
+      );
+    return (
+      <LengthInput
+        compact
+        id={`survey-${p}-${side}-${end}`}
+        label={`${label} (${u})`}
+        mm={mm}
+        units={units}
+        max={100}
+        onCommit={(v) => onChange({ [key]: v })}
+      />
+    );
   };
   return (
     <div className="mt-3">
       <p className="text-sm text-ink-muted">
-        Measure the gap between the rotor and each element at the front and the rear of every position, on both sides.
-        Readings further apart than the tolerance are flagged: a few millimetres lets small-grain heads through unthreshed,
-        while a wide corn setting hardly notices.
+        Measure the gap between the rotor and each element at the front and the rear of every position, on both sides. Readings further
+        apart than the tolerance are flagged: a few millimetres lets small-grain heads through unthreshed, while a wide corn setting hardly
+        notices.
       </p>
       <div className="mt-3 grid grid-cols-2 gap-3 sm:max-w-md">
         {editable ? (
           <>
-            <LengthInput id="survey-set" label={`Set clearance (${u})`} mm={measurements.setClearanceMm} units={units} max={100} onCommit={(v) => onChange({ setClearanceMm: v })} />
-            <LengthInput id="survey-tolerance" label={`Tolerance (${u})`} mm={measurements.toleranceMm} units={units} max={20} onCommit={(v) => onChange({ toleranceMm: v === 0 ? null : v })} />
+            <LengthInput
+              id="survey-set"
+              label={`Set clearance (${u})`}
+              mm={measurements.setClearanceMm}
+              units={units}
+              max={100}
+              onCommit={(v) => onChange({ setClearanceMm: v })}
+            />
+            <LengthInput
+              id="survey-tolerance"
+              label={`Tolerance (${u})`}
+              mm={measurements.toleranceMm}
+              units={units}
+              max={20}
+              onCommit={(v) => onChange({ toleranceMm: v === 0 ? null : v })}
+            />
           </>
         ) : (
           <p className="col-span-2 text-sm">
-            Set clearance {measurements.setClearanceMm === undefined ? '—' : showLength(measurements.setClearanceMm, units)} · tolerance {showLength(survey.toleranceMm, units)}
+            Set clearance {measurements.setClearanceMm === undefined ? '—' : showLength(measurements.setClearanceMm, units)} · tolerance{' '}
+            {showLength(survey.toleranceMm, units)}
           </p>
         )}
       </div>
@@ -97,7 +129,8 @@ export function SurveyReadings({ family, measurements, units, editable, onChange
           return (
             <fieldset key={p.index} className={`rounded-md border p-3 ${ps?.uneven ? 'border-crop bg-crop-soft' : 'border-steel-200'}`}>
               <legend className="px-1 text-sm font-semibold">
-                Position {p.index} <span className="font-normal text-ink-muted">({p.zone === 'threshing' ? 'threshing' : 'separating'})</span>
+                Position {p.index}{' '}
+                <span className="font-normal text-ink-muted">({p.zone === 'threshing' ? 'threshing' : 'separating'})</span>
                 {ps?.uneven && <span className="ml-1 text-crop">· uneven</span>}
               </legend>
               <div className="grid grid-cols-2 gap-2">
@@ -117,7 +150,9 @@ export function SurveyReadings({ family, measurements, units, editable, onChange
         {survey.readingCount === 0 ? (
           <p className="text-sm text-ink-muted">No readings yet.</p>
         ) : survey.findings.length === 0 ? (
-          <p className="text-sm font-semibold text-ok">Even within {showLength(survey.toleranceMm, units)} across {survey.readingCount} readings.</p>
+          <p className="text-sm font-semibold text-ok">
+            Even within {showLength(survey.toleranceMm, units)} across {survey.readingCount} readings.
+          </p>
         ) : (
           <>
             <p className="text-sm font-semibold text-crop">Uneven beyond {showLength(survey.toleranceMm, units)}:</p>

@@ -1,5 +1,5 @@
 /** The checklist island's photo upload (the rest goes through ../shared/api). */
-import { sendForm } from '../shared/api';
+import { sendForm } from '~/components/shared/api';
 
 export async function sendPhoto<T>(path: string, file: File): Promise<T> {
   const form = new FormData();

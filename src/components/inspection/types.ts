@@ -1,6 +1,6 @@
 /** The inspection as the checklist island receives it (dates as ISO strings). */
-import type { ChecklistKind, ClearanceSurvey, ConditionId, InspectionSeverity, ReplacementLine } from '../../lib/domain/inspection';
-import type { MachineFamily } from '../../lib/domain/schemas';
+import type { ChecklistKind, ClearanceSurvey, ConditionId, InspectionSeverity, ReplacementLine } from '~/lib/domain/inspection';
+import type { MachineFamily } from '~/lib/domain/schemas';
 
 export interface PhotoView {
   id: string;

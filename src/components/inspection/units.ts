@@ -1,5 +1,5 @@
 /** Lengths in the person's own units for the checklist's inputs; stored in millimetres. */
-import { formatLength, mm, MM_PER_INCH, type UnitSystem } from '../../lib/domain/units';
+import { formatLength, mm, MM_PER_INCH, type UnitSystem } from '~/lib/domain/units';
 
 export const unitLabel = (u: UnitSystem) => (u === 'imperial' ? 'in' : 'mm');
 

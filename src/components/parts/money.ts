@@ -1,2 +1,2 @@
 /** Money on every screen: the one formatter (domain/format.ts), whole cents of an ISO 4217 currency, shown with it. */
-export { formatMoney, DEFAULT_CURRENCY } from '../../lib/domain/format';
+export { formatMoney, DEFAULT_CURRENCY } from '~/lib/domain/format';

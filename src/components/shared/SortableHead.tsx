@@ -12,9 +12,18 @@ export function SortableHead<T>({ table }: { table: Table<T> }) {
           {hg.headers.map((h) => {
             const dir = h.column.getIsSorted();
             return (
-              <th key={h.id} scope="col" className="px-3 py-2 font-semibold" aria-sort={dir === 'asc' ? 'ascending' : dir === 'desc' ? 'descending' : undefined}>
+              <th
+                key={h.id}
+                scope="col"
+                className="px-3 py-2 font-semibold"
+                aria-sort={dir === 'asc' ? 'ascending' : dir === 'desc' ? 'descending' : undefined}
+              >
                 {h.column.getCanSort() ? (
-                  <button type="button" className="inline-flex items-center gap-1 font-semibold hover:underline" onClick={h.column.getToggleSortingHandler()}>
+                  <button
+                    type="button"
+                    className="inline-flex items-center gap-1 font-semibold hover:underline"
+                    onClick={h.column.getToggleSortingHandler()}
+                  >
                     {flexRender(h.column.columnDef.header, h.getContext())}
                     <span aria-hidden="true" className="text-xs text-ink-muted">
                       {dir === 'asc' ? '▲' : dir === 'desc' ? '▼' : '↕'}

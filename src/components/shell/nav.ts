@@ -1,5 +1,5 @@
-import type { Role } from '../../db/schema';
-import { can, type Action } from '../../lib/server/access';
+import type { Role } from '~/db/schema';
+import { can, type Action } from '~/lib/server/access';
 
 export interface NavItem {
   href: string;

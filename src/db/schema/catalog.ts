@@ -1,5 +1,5 @@
 import { pgTable, text, uuid, timestamp, integer, bigint, jsonb, boolean, primaryKey, index } from 'drizzle-orm/pg-core';
-import type { CatalogPart, MachineFamily } from '../../lib/domain/schemas';
+import type { CatalogPart, MachineFamily } from '~/lib/domain/schemas';
 import { organisations } from './orgs';
 
 /** A machine family; `spec` holds the domain's MachineFamily document. */
@@ -15,7 +15,9 @@ export const catalogParts = pgTable(
   'catalog_parts',
   {
     partNumber: text('part_number').primaryKey(),
-    familyId: text('family_id').notNull().references(() => families.id),
+    familyId: text('family_id')
+      .notNull()
+      .references(() => families.id),
     kind: text('kind', { enum: ['element', 'cover-plate', 'rotor-bar'] }).notNull(),
     spec: jsonb('spec').$type<CatalogPart>().notNull(),
     active: boolean('active').notNull().default(true),
@@ -28,8 +30,12 @@ export const catalogParts = pgTable(
 export const stock = pgTable(
   'stock',
   {
-    orgId: uuid('org_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
-    partNumber: text('part_number').notNull().references(() => catalogParts.partNumber),
+    orgId: uuid('org_id')
+      .notNull()
+      .references(() => organisations.id, { onDelete: 'cascade' }),
+    partNumber: text('part_number')
+      .notNull()
+      .references(() => catalogParts.partNumber),
     quantity: integer('quantity').notNull().default(0),
   },
   (t) => [primaryKey({ columns: [t.orgId, t.partNumber] })],
@@ -42,8 +48,12 @@ export const stock = pgTable(
 export const dealerPrices = pgTable(
   'dealer_prices',
   {
-    dealerId: uuid('dealer_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
-    partNumber: text('part_number').notNull().references(() => catalogParts.partNumber),
+    dealerId: uuid('dealer_id')
+      .notNull()
+      .references(() => organisations.id, { onDelete: 'cascade' }),
+    partNumber: text('part_number')
+      .notNull()
+      .references(() => catalogParts.partNumber),
     priceCents: integer('price_cents').notNull(),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
   },

@@ -1,5 +1,5 @@
 import { pgTable, text, uuid, timestamp, integer, jsonb, index } from 'drizzle-orm/pg-core';
-import type { Layout } from '../../lib/domain/schemas';
+import type { Layout } from '~/lib/domain/schemas';
 import { organisations, users } from './orgs';
 import { layoutVersions } from './fleet';
 
@@ -7,7 +7,9 @@ export const decks = pgTable(
   'decks',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    orgId: uuid('org_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+    orgId: uuid('org_id')
+      .notNull()
+      .references(() => organisations.id, { onDelete: 'cascade' }),
     title: text('title').notNull(),
     createdBy: uuid('created_by').references(() => users.id),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
@@ -21,7 +23,9 @@ export const deckSlides = pgTable(
   'deck_slides',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    deckId: uuid('deck_id').notNull().references(() => decks.id, { onDelete: 'cascade' }),
+    deckId: uuid('deck_id')
+      .notNull()
+      .references(() => decks.id, { onDelete: 'cascade' }),
     position: integer('position').notNull(),
     title: text('title').notNull(),
     notes: text('notes').notNull().default(''),

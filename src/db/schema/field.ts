@@ -1,5 +1,5 @@
 import { pgTable, text, uuid, timestamp, integer, jsonb, real, boolean, primaryKey, index } from 'drizzle-orm/pg-core';
-import type { LossCheckParsed, LossCheckResult } from '../../lib/domain/field-check';
+import type { LossCheckParsed, LossCheckResult } from '~/lib/domain/field-check';
 import { organisations, users } from './orgs';
 import { machines } from './fleet';
 import { families } from './catalog';
@@ -13,8 +13,12 @@ export const lossChecks = pgTable(
   'loss_checks',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    machineId: uuid('machine_id').notNull().references(() => machines.id, { onDelete: 'cascade' }),
-    orgId: uuid('org_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+    machineId: uuid('machine_id')
+      .notNull()
+      .references(() => machines.id, { onDelete: 'cascade' }),
+    orgId: uuid('org_id')
+      .notNull()
+      .references(() => organisations.id, { onDelete: 'cascade' }),
     fieldName: text('field_name').notNull(),
     checkedAt: timestamp('checked_at', { withTimezone: true }).notNull(),
     crop: text('crop').notNull(),
@@ -46,8 +50,12 @@ export const lossChecks = pgTable(
 export const startingValues = pgTable(
   'starting_values',
   {
-    dealerId: uuid('dealer_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
-    familyId: text('family_id').notNull().references(() => families.id),
+    dealerId: uuid('dealer_id')
+      .notNull()
+      .references(() => organisations.id, { onDelete: 'cascade' }),
+    familyId: text('family_id')
+      .notNull()
+      .references(() => families.id),
     crop: text('crop').notNull(),
     fanRpm: integer('fan_rpm'),
     upperSieveMm: real('upper_sieve_mm'),

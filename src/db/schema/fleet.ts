@@ -1,5 +1,5 @@
 import { pgTable, text, uuid, timestamp, integer, jsonb, index, uniqueIndex } from 'drizzle-orm/pg-core';
-import type { Layout } from '../../lib/domain/schemas';
+import type { Layout } from '~/lib/domain/schemas';
 import { organisations, users } from './orgs';
 import { families } from './catalog';
 
@@ -7,8 +7,12 @@ export const machines = pgTable(
   'machines',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    orgId: uuid('org_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
-    familyId: text('family_id').notNull().references(() => families.id),
+    orgId: uuid('org_id')
+      .notNull()
+      .references(() => organisations.id, { onDelete: 'cascade' }),
+    familyId: text('family_id')
+      .notNull()
+      .references(() => families.id),
     drum: text('drum', { enum: ['full', 'slim'] }).notNull(),
     vaneControl: text('vane_control', { enum: ['fixed', 'manual', 'powered'] }).notNull(),
     serial: text('serial').notNull(),
@@ -28,7 +32,9 @@ export const machines = pgTable(
 
 /** What is bolted in the machine today. */
 export const installed = pgTable('installed', {
-  machineId: uuid('machine_id').primaryKey().references(() => machines.id, { onDelete: 'cascade' }),
+  machineId: uuid('machine_id')
+    .primaryKey()
+    .references(() => machines.id, { onDelete: 'cascade' }),
   layout: jsonb('layout').$type<Layout>().notNull(),
   /** The saved layout version it was installed from, when it was (null for a layout given as it is). */
   sourceLayoutId: uuid('source_layout_id'),
@@ -42,8 +48,12 @@ export const layouts = pgTable(
   'layouts',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    machineId: uuid('machine_id').notNull().references(() => machines.id, { onDelete: 'cascade' }),
-    orgId: uuid('org_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+    machineId: uuid('machine_id')
+      .notNull()
+      .references(() => machines.id, { onDelete: 'cascade' }),
+    orgId: uuid('org_id')
+      .notNull()
+      .references(() => organisations.id, { onDelete: 'cascade' }),
     name: text('name').notNull(),
     currentVersion: integer('current_version').notNull().default(1),
     createdBy: uuid('created_by').references(() => users.id),
@@ -57,7 +67,9 @@ export const layoutVersions = pgTable(
   'layout_versions',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    layoutId: uuid('layout_id').notNull().references(() => layouts.id, { onDelete: 'cascade' }),
+    layoutId: uuid('layout_id')
+      .notNull()
+      .references(() => layouts.id, { onDelete: 'cascade' }),
     version: integer('version').notNull(),
     body: jsonb('body').$type<Layout>().notNull(),
     note: text('note').notNull().default(''),

@@ -24,7 +24,9 @@ export const users = pgTable('users', {
   email: text('email').notNull().unique(),
   name: text('name').notNull(),
   passwordHash: text('password_hash').notNull(),
-  unitSystem: text('unit_system', { enum: ['metric', 'imperial'] }).notNull().default('metric'),
+  unitSystem: text('unit_system', { enum: ['metric', 'imperial'] })
+    .notNull()
+    .default('metric'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
 });
 
@@ -40,8 +42,12 @@ export type Role = (typeof roles)[number];
 export const memberships = pgTable(
   'memberships',
   {
-    userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
-    orgId: uuid('org_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+    userId: uuid('user_id')
+      .notNull()
+      .references(() => users.id, { onDelete: 'cascade' }),
+    orgId: uuid('org_id')
+      .notNull()
+      .references(() => organisations.id, { onDelete: 'cascade' }),
     role: text('role', { enum: roles }).notNull(),
   },
   (t) => [primaryKey({ columns: [t.userId, t.orgId] }), index('memberships_org_idx').on(t.orgId)],

@@ -25,10 +25,14 @@ export const partsRequests = pgTable(
   'parts_requests',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    orgId: uuid('org_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+    orgId: uuid('org_id')
+      .notNull()
+      .references(() => organisations.id, { onDelete: 'cascade' }),
     dealerOrgId: uuid('dealer_org_id').references(() => organisations.id),
     machineId: uuid('machine_id').references(() => machines.id, { onDelete: 'set null' }),
-    source: text('source', { enum: ['plan', 'layout', 'inspection', 'manual'] }).notNull().default('manual'),
+    source: text('source', { enum: ['plan', 'layout', 'inspection', 'manual'] })
+      .notNull()
+      .default('manual'),
     status: text('status', { enum: partsRequestStatuses }).notNull().default('draft'),
     lines: jsonb('lines').$type<PartsRequestLine[]>().notNull().default([]),
     note: text('note').notNull().default(''),

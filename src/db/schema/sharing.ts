@@ -8,7 +8,9 @@ export const shareLinks = pgTable(
   'share_links',
   {
     id: uuid('id').primaryKey().defaultRandom(),
-    orgId: uuid('org_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+    orgId: uuid('org_id')
+      .notNull()
+      .references(() => organisations.id, { onDelete: 'cascade' }),
     tokenHash: text('token_hash').notNull().unique(),
     layoutVersionId: uuid('layout_version_id').references(() => layoutVersions.id, { onDelete: 'cascade' }),
     deckId: uuid('deck_id').references(() => decks.id, { onDelete: 'cascade' }),

@@ -4,14 +4,14 @@
  * has and the other does not, and the computed figures next to each other. Pure: built from
  * domain functions only, so the page, the island and the tests read the same thing.
  */
-import { computeSettings, type Settings } from '../domain/compute';
-import { cropPrograms } from '../domain/crops';
-import { rpmWindowWords } from '../domain/speed';
-import { describePlace, diffLayouts, type LayoutDiff, type LayoutDifference } from '../domain/diff';
-import { placeKey } from '../domain/places';
-import { checkLayout } from '../domain/rules';
-import type { CatalogPart, Finding, Layout, MachineFamily, Place, SettingField } from '../domain/schemas';
-import { formatLength, formatSpeed, mm, type UnitSystem } from '../domain/units';
+import { computeSettings, type Settings } from '~/lib/domain/compute';
+import { cropPrograms } from '~/lib/domain/crops';
+import { rpmWindowWords } from '~/lib/domain/speed';
+import { describePlace, diffLayouts, type LayoutDiff, type LayoutDifference } from '~/lib/domain/diff';
+import { placeKey } from '~/lib/domain/places';
+import { checkLayout } from '~/lib/domain/rules';
+import type { CatalogPart, Finding, Layout, MachineFamily, Place, SettingField } from '~/lib/domain/schemas';
+import { formatLength, formatSpeed, mm, type UnitSystem } from '~/lib/domain/units';
 
 export interface CompareInput {
   family: MachineFamily;
@@ -70,7 +70,12 @@ const findingKey = (f: Finding) => `${f.code}|${f.places.map(placeKey).sort().jo
 const VANE_WORDS: Record<string, string> = { 'very-slow': 'very slow', slow: 'slow', medium: 'medium', fast: 'fast' };
 
 /** A setting's value as people say it. */
-export function settingValueWords(field: SettingField, value: string | number, family: MachineFamily, units: UnitSystem = 'metric'): string {
+export function settingValueWords(
+  field: SettingField,
+  value: string | number,
+  family: MachineFamily,
+  units: UnitSystem = 'metric',
+): string {
   switch (field) {
     case 'crop':
       return cropPrograms[value as keyof typeof cropPrograms]?.name ?? String(value);
@@ -107,17 +112,23 @@ const pct = (x: number) => `${Math.round(x * 100)} %`;
 function metrics(a: ComparedSide, b: ComparedSide, units: UnitSystem): MetricRow[] {
   const rows: [string, (s: ComparedSide) => string][] = [
     ['Rotor tip speed', (s) => formatSpeed(s.settings.tipSpeedMs, units)],
-    ['Rotor speed for the crop', (s) => (s.settings.rpmInWindow ? 'inside the window' : 'outside the window') + ` (${rpmWindowWords(s.settings.rpmWindow)})`],
+    [
+      'Rotor speed for the crop',
+      (s) => (s.settings.rpmInWindow ? 'inside the window' : 'outside the window') + ` (${rpmWindowWords(s.settings.rpmWindow)})`,
+    ],
     ['Threshing aggressiveness index', (s) => String(Math.round(s.settings.aggressivenessIndex))],
     ['Open area, threshing zone (after cover plates)', (s) => pct(s.settings.openArea.threshing.after)],
     ['Open area, separating zone (after cover plates)', (s) => pct(s.settings.openArea.separating.after)],
     ['Capacity factor', (s) => s.settings.capacity.value.toFixed(2)],
     ['Elements the kernel cannot pass', (s) => String(s.settings.passage.filter((p) => p.passes === false).length)],
-    ['Findings (blocks fit · hurts the crop · advice)', (s) => {
-      const c = { 'blocks-fit': 0, 'hurts-crop': 0, advice: 0 };
-      for (const f of s.findings) c[f.severity]++;
-      return `${c['blocks-fit']} · ${c['hurts-crop']} · ${c.advice}`;
-    }],
+    [
+      'Findings (blocks fit · hurts the crop · advice)',
+      (s) => {
+        const c = { 'blocks-fit': 0, 'hurts-crop': 0, advice: 0 };
+        for (const f of s.findings) c[f.severity]++;
+        return `${c['blocks-fit']} · ${c['hurts-crop']} · ${c.advice}`;
+      },
+    ],
   ];
   return rows.map(([label, f]) => {
     const x = f(a);

@@ -14,10 +14,10 @@
  *  - what is still loose at the rear goes out over the rotor; heads still whole are whitecaps.
  * Pure: imports only the domain.
  */
-import { COVER_PLATE_CLOSED_SHARE, ELEMENT_AGGRESSIVENESS, passageMargin } from '../domain/cage-metrics';
-import { asCatalogIndex, type CatalogIndex } from '../domain/catalog';
-import { cropPrograms } from '../domain/crops';
-import type { CatalogPart, ElementType, Layout, MachineFamily, Side, VaneSetting, Zone } from '../domain/schemas';
+import { COVER_PLATE_CLOSED_SHARE, ELEMENT_AGGRESSIVENESS, passageMargin } from '~/lib/domain/cage-metrics';
+import { asCatalogIndex, type CatalogIndex } from '~/lib/domain/catalog';
+import { cropPrograms } from '~/lib/domain/crops';
+import type { CatalogPart, ElementType, Layout, MachineFamily, Side, VaneSetting, Zone } from '~/lib/domain/schemas';
 
 /** Turns the crop makes over one position at each vane setting (teaching scale). */
 export const TURNS_PER_POSITION: Readonly<Record<VaneSetting, number>> = {

@@ -35,8 +35,7 @@ export function passageMargin(opening: Opening | null, kernel: KernelSize): numb
  * size already is a published upper bound (canola) take factor 1.
  */
 export const LARGER_KERNEL_FACTOR = 1.13;
-export const LARGER_KERNEL_BASIS =
-  'taken 13 % above the mean, the spread of the published canola size range, Razavi et al. 2009';
+export const LARGER_KERNEL_BASIS = 'taken 13 % above the mean, the spread of the published canola size range, Razavi et al. 2009';
 
 /**
  * Room a moving kernel needs beyond its own size to drop through an opening: 10 % of that size
@@ -83,12 +82,30 @@ export function kernelPassage(opening: Opening | null, kernel: KernelSize): Kern
   const largerSizeMm = meanSizeMm * factor;
   const requiredMarginMm = Math.max(PASSAGE_MARGIN_MIN_MM, PASSAGE_MARGIN_SHARE * largerSizeMm);
   if (!opening)
-    return { verdict: 'closed', opening: null, meanSizeMm, largerSizeMm, requiredMarginMm, openingMm: null, meanMarginMm: null, spareMm: null };
+    return {
+      verdict: 'closed',
+      opening: null,
+      meanSizeMm,
+      largerSizeMm,
+      requiredMarginMm,
+      openingMm: null,
+      meanMarginMm: null,
+      spareMm: null,
+    };
   const meanMarginMm = passageMargin(opening, kernel)!;
   // The larger kernel must clear both ways (smallest size across, middle size along).
   const spareMm = Math.min(opening.width - d1 * factor, opening.length - d2 * factor) - requiredMarginMm;
   const verdict: PassageVerdict = meanMarginMm <= 0 ? 'blocked' : spareMm < 0 ? 'tight' : 'passes';
-  return { verdict, opening: round ? 'hole' : 'slot', meanSizeMm, largerSizeMm, requiredMarginMm, openingMm: opening.width, meanMarginMm, spareMm };
+  return {
+    verdict,
+    opening: round ? 'hole' : 'slot',
+    meanSizeMm,
+    largerSizeMm,
+    requiredMarginMm,
+    openingMm: opening.width,
+    meanMarginMm,
+    spareMm,
+  };
 }
 
 /** An opening whose width equals its length is a round hole (schemas.ts, `openingSchema`). */

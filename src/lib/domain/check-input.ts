@@ -15,8 +15,7 @@ export interface InputProblem {
 }
 
 export type CheckInputResult =
-  | { ok: true; layout: Layout; family: MachineFamily; findings: Finding[]; settings: Settings }
-  | { ok: false; problems: InputProblem[] };
+  { ok: true; layout: Layout; family: MachineFamily; findings: Finding[]; settings: Settings } | { ok: false; problems: InputProblem[] };
 
 export const formatPath = (path: readonly PropertyKey[]): string => path.map(String).join('.');
 
@@ -54,7 +53,9 @@ export function checkLayoutInput(
   if (!family) {
     return {
       ok: false,
-      problems: [{ path: 'familyId', message: `unknown machine family "${layout.familyId}" (known: ${families.map((f) => f.id).join(', ')})` }],
+      problems: [
+        { path: 'familyId', message: `unknown machine family "${layout.familyId}" (known: ${families.map((f) => f.id).join(', ')})` },
+      ],
     };
   }
   const cat = asCatalogIndex(catalog);

@@ -54,11 +54,7 @@ export interface Settings {
   parts: { totalMassKg: number; totalPriceCents: number; count: number };
 }
 
-export function computeSettings(
-  family: MachineFamily,
-  catalog: readonly CatalogPart[] | CatalogIndex,
-  layout: Layout,
-): Settings {
+export function computeSettings(family: MachineFamily, catalog: readonly CatalogPart[] | CatalogIndex, layout: Layout): Settings {
   const cat = asCatalogIndex(catalog);
   const fam = indexFamily(family);
   const crop = cropPrograms[layout.crop];

@@ -110,13 +110,17 @@ const SRC = {
   isu: 'Iowa State University Extension (Hanna, 2017)',
   ccc: 'Canola Council of Canada (2012) seeds/ft² table',
   manitoba: 'Manitoba Agriculture, field pea harvest guidance: 300–400 rpm on rotary machines (11.9–15.9 m/s on a 760 mm rotor)',
-  ndsuPeas: 'North Dakota State University Extension, Crop & Pest Report (30 July 2008), field pea harvest: 350–500 rpm, the lowest speed that threshes (on a 762 mm rotor)',
-  peasStart: 'where NDSU Crop & Pest Report (30 July 2008, 350–500 rpm) and Manitoba Agriculture (300–400 rpm) agree: 350–400 rpm, starting at the lowest speed that threshes',
+  ndsuPeas:
+    'North Dakota State University Extension, Crop & Pest Report (30 July 2008), field pea harvest: 350–500 rpm, the lowest speed that threshes (on a 762 mm rotor)',
+  peasStart:
+    'where NDSU Crop & Pest Report (30 July 2008, 350–500 rpm) and Manitoba Agriculture (300–400 rpm) agree: 350–400 rpm, starting at the lowest speed that threshes',
   agrophysics1994: 'International Agrophysics (1994), dry-bean threshing on a peg drum: 9.04–10.17 m/s optimum (laboratory)',
   stepon: 'Steponavičius et al. (2017), corn-ear threshing tests at 11.0, 14.1 and 17.3 m/s, Journal of Vibroengineering',
   steponStart: 'Steponavičius et al. (2017), Journal of Vibroengineering: the lower two of the tested speeds, 11.0 and 14.1 m/s',
-  harrisonTested: 'Harrison (1975), cylinder-speed tests in wheat, Canadian Agricultural Engineering 17(1):55–58: 533 mm cylinder at 700–1,100 rpm (19.5–30.7 m/s)',
-  harrisonBest: 'Harrison (1975), Canadian Agricultural Engineering 17(1):55–58: wheat at 10 % moisture threshed best below 800 rpm (22.3 m/s)',
+  harrisonTested:
+    'Harrison (1975), cylinder-speed tests in wheat, Canadian Agricultural Engineering 17(1):55–58: 533 mm cylinder at 700–1,100 rpm (19.5–30.7 m/s)',
+  harrisonBest:
+    'Harrison (1975), Canadian Agricultural Engineering 17(1):55–58: wheat at 10 % moisture threshed best below 800 rpm (22.3 m/s)',
   ndsuEb25: 'North Dakota State University Extension (2007), EB-25 "Sunflower Production": 220 rpm on a 30 in rotor (8.8 m/s)',
   memSunflower: '[mem] window around the 220 rpm of NDSU Extension EB-25 (2007), 7.5–10.5 m/s',
   memSmall: '[mem] small grains ≈ 25–35 m/s',
@@ -141,11 +145,13 @@ const rpmOn = (lo: number, hi: number, diameterMm: number, source: string): Spee
   source,
 });
 
-const WIDE_CLEARANCE = 'Start with the rotor at the slow end of its window and the concave at the wide end; tighten only as losses call for it (Iowa State University Extension, Hanna). Fix unthreshed loss with clearance before speed (University of Wisconsin, "Combine Adjustments").';
+const WIDE_CLEARANCE =
+  'Start with the rotor at the slow end of its window and the concave at the wide end; tighten only as losses call for it (Iowa State University Extension, Hanna). Fix unthreshed loss with clearance before speed (University of Wisconsin, "Combine Adjustments").';
 
 type Draft = Omit<CropProgram, 'passingSizeMm' | 'vanes'>;
 
-const VANE_SOURCE = 'common practice, no published source: slower vanes keep crop longer in the threshing zone for hard threshing; faster vanes move it on for capacity';
+const VANE_SOURCE =
+  'common practice, no published source: slower vanes keep crop longer in the threshing zone for hard threshing; faster vanes move it on for capacity';
 
 /** The vane settings that suit a crop and those that work against it (common practice). */
 function vanesFor(d: Draft): CropProgram['vanes'] {
@@ -166,13 +172,18 @@ const drafts: Draft[] = [
     heavyStraw: true,
     stringy: false,
     suggested: { threshing: 'fine-wire', separating: 'wide-wire' },
-    rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only; straight bars cost power and are not needed in small grains (common practice).' },
+    rotorBars: {
+      straight: 'not-needed',
+      discharge: 'not-needed',
+      advice: 'Rasp bars only; straight bars cost power and are not needed in small grains (common practice).',
+    },
     speed: { ranges: [ms(19.5, 30.7, SRC.harrisonTested)], start: ms(19.5, 22.3, SRC.harrisonBest) },
     bushel: { usLb: { value: 60, source: SRC.uw }, canadaPerTonne: canada(36.744) },
     publishedLossCount: { value: 20, source: `${SRC.smallgrains}, hard red spring wheat` },
     clearanceMm: { minMm: 6, maxMm: 18, source: SRC.cp },
     clearanceAdvice: WIDE_CLEARANCE,
-    notes: 'Harrison, Canadian Agricultural Engineering 17(1):55 (1975): wheat at 10 % moisture threshed best below 22.3 m/s on a 533 mm cylinder. Powered vanes moved through their range clean up hard-threshing wheat (common practice).',
+    notes:
+      'Harrison, Canadian Agricultural Engineering 17(1):55 (1975): wheat at 10 % moisture threshed best below 22.3 m/s on a 533 mm cylinder. Powered vanes moved through their range clean up hard-threshing wheat (common practice).',
   },
   {
     id: 'barley',
@@ -203,7 +214,10 @@ const drafts: Draft[] = [
     suggested: { threshing: 'fine-wire', separating: 'wide-wire' },
     rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only (common practice).' },
     speed: { ranges: [ms(25, 35, SRC.memSmall)], start: null },
-    bushel: { usLb: { value: 32, source: SRC.uw }, canadaPerTonne: { value: 64.842, source: `${SRC.alberta}; Canadian oats bushel is 34 lb` } },
+    bushel: {
+      usLb: { value: 32, source: SRC.uw },
+      canadaPerTonne: { value: 64.842, source: `${SRC.alberta}; Canadian oats bushel is 34 lb` },
+    },
     publishedLossCount: { value: 10, source: SRC.smallgrains },
     clearanceMm: { minMm: 6, maxMm: 20, source: SRC.cp },
     clearanceAdvice: WIDE_CLEARANCE,
@@ -218,7 +232,11 @@ const drafts: Draft[] = [
     heavyStraw: false,
     stringy: false,
     suggested: { threshing: 'fine-wire', separating: 'wide-wire' },
-    rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only; straight bars are not needed in canola (common practice).' },
+    rotorBars: {
+      straight: 'not-needed',
+      discharge: 'not-needed',
+      advice: 'Rasp bars only; straight bars are not needed in canola (common practice).',
+    },
     speed: { ranges: [ms(18, 28, SRC.mem)], start: null },
     bushel: {
       usLb: { value: 50, source: `derived from ${SRC.alberta}: 44.0920 bu/t is a 50 lb bushel` },
@@ -239,8 +257,15 @@ const drafts: Draft[] = [
     heavyStraw: false,
     stringy: false,
     suggested: { threshing: 'round-bar', separating: 'wide-wire' },
-    rotorBars: { straight: 'not-needed', discharge: 'not-needed', advice: 'Rasp bars only; pulses do not need straight bars (common practice).' },
-    speed: { ranges: [rpmOn(350, 500, ROTARY_MM, SRC.ndsuPeas), ms(11.9, 15.9, SRC.manitoba)], start: rpmOn(350, 400, ROTARY_MM, SRC.peasStart) },
+    rotorBars: {
+      straight: 'not-needed',
+      discharge: 'not-needed',
+      advice: 'Rasp bars only; pulses do not need straight bars (common practice).',
+    },
+    speed: {
+      ranges: [rpmOn(350, 500, ROTARY_MM, SRC.ndsuPeas), ms(11.9, 15.9, SRC.manitoba)],
+      start: rpmOn(350, 400, ROTARY_MM, SRC.peasStart),
+    },
     bushel: { usLb: { value: 60, source: `derived from ${SRC.alberta}: 36.7440 bu/t is a 60 lb bushel` }, canadaPerTonne: canada(36.744) },
     publishedLossCount: null,
     clearanceMm: { minMm: 12, maxMm: 35, source: SRC.cpPeas },
@@ -311,13 +336,15 @@ const drafts: Draft[] = [
     rotorBars: {
       straight: 'wanted',
       discharge: 'not-needed',
-      advice: 'Straight interrupter bars across the in-line rasp bars slow the crop so kernels hidden in husks come free (common practice); spike rasp bars take their place when they come off.',
+      advice:
+        'Straight interrupter bars across the in-line rasp bars slow the crop so kernels hidden in husks come free (common practice); spike rasp bars take their place when they come off.',
     },
     speed: { ranges: [ms(11, 17.3, SRC.stepon)], start: ms(11, 14.1, SRC.steponStart) },
     bushel: { usLb: { value: 56, source: SRC.uw }, canadaPerTonne: canada(39.368) },
     publishedLossCount: { value: 2, source: SRC.isu },
     clearanceMm: { minMm: 20, maxMm: 30, source: SRC.memCob },
-    clearanceAdvice: 'Clearance about the cob diameter (20–30 mm, a rule of thumb with no published source), starting wide; round-bar elements for high-moisture corn (common practice).',
+    clearanceAdvice:
+      'Clearance about the cob diameter (20–30 mm, a rule of thumb with no published source), starting wide; round-bar elements for high-moisture corn (common practice).',
   },
   {
     id: 'rice',
@@ -404,7 +431,8 @@ const drafts: Draft[] = [
     rotorBars: {
       straight: 'not-needed',
       discharge: 'wanted',
-      advice: 'Discharge bars at the rear move stringy crop that ropes; an extra pair one position ahead, 180° from the rear ones, cuts rotor loss (common practice).',
+      advice:
+        'Discharge bars at the rear move stringy crop that ropes; an extra pair one position ahead, 180° from the rear ones, cuts rotor loss (common practice).',
     },
     speed: { ranges: [ms(15, 25, SRC.mem)], start: null },
     bushel: { usLb: { value: 44, source: '[mem]' }, canadaPerTonne: null },
@@ -465,5 +493,8 @@ export function impliedBushelsPerTonne(crop: CropProgram): number {
  * can tell them apart); on screen that reads as a rule of thumb with no published source.
  */
 export function sourceInWords(source: string): string {
-  return source.replace(/\[mem\]\s*/g, 'rule of thumb, no published source: ').replace(/: $/, '').trim();
+  return source
+    .replace(/\[mem\]\s*/g, 'rule of thumb, no published source: ')
+    .replace(/: $/, '')
+    .trim();
 }

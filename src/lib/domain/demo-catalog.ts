@@ -19,8 +19,7 @@ const FOUR_ROWS = [
 
 function barPlaces(positions: number, inLine: (row: number, position: number) => boolean): RotorBarPlace[] {
   const out: RotorBarPlace[] = [];
-  for (const r of FOUR_ROWS)
-    for (let p = 1; p <= positions; p++) out.push({ row: r.index, position: p, inLine: inLine(r.index, p) });
+  for (const r of FOUR_ROWS) for (let p = 1; p <= positions; p++) out.push({ row: r.index, position: p, inLine: inLine(r.index, p) });
   return out;
 }
 
@@ -135,11 +134,7 @@ function element(
   };
 }
 
-function familyParts(
-  family: MachineFamily,
-  familyCode: string,
-  plateMassKg: number,
-): CatalogPart[] {
+function familyParts(family: MachineFamily, familyCode: string, plateMassKg: number): CatalogPart[] {
   const parts: CatalogPart[] = [];
   const g = family.fitGroup;
   for (const type of TYPES)
@@ -182,10 +177,7 @@ function familyParts(
   return parts;
 }
 
-export const demoCatalog: readonly CatalogPart[] = [
-  ...familyParts(tamarackM4, '04', 11.5),
-  ...familyParts(sedgeS6, '06', 9.8),
-];
+export const demoCatalog: readonly CatalogPart[] = [...familyParts(tamarackM4, '04', 11.5), ...familyParts(sedgeS6, '06', 9.8)];
 
 export function demoFamily(id: string): MachineFamily | undefined {
   return demoFamilies.find((f) => f.id === id);

@@ -22,7 +22,10 @@ export interface LossTarget {
   source: string;
 }
 
-const SMALL_GRAINS: LossTarget = { pct: 3, source: 'smallgrains.org, "How to Estimate Grain Harvest Losses" (2003): up to 3 % is acceptable' };
+const SMALL_GRAINS: LossTarget = {
+  pct: 3,
+  source: 'smallgrains.org, "How to Estimate Grain Harvest Losses" (2003): up to 3 % is acceptable',
+};
 const FALLBACK: LossTarget = { pct: 3, source: 'common practice, no published source' };
 
 /** The default target for a crop, with where it comes from. */
@@ -100,7 +103,11 @@ export function lossAdvice(input: {
     });
   }
   if (input.verdict === 'within') {
-    out.push({ area: 'general', text: 'Within the target: keep these settings and check again when the crop or the conditions change.', source: COMMON });
+    out.push({
+      area: 'general',
+      text: 'Within the target: keep these settings and check again when the crop or the conditions change.',
+      source: COMMON,
+    });
   }
   return out;
 }

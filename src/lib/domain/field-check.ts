@@ -38,7 +38,10 @@ export * from './field-check-advice';
 const kernelCount = z.int({ error: 'give a whole number of kernels' }).min(0, 'a count cannot be negative').max(100_000);
 
 const positive = (max: number, what: string) =>
-  z.number({ error: `give the ${what} as a number` }).positive(`the ${what} must be greater than zero`).max(max, `the ${what} is too large`);
+  z
+    .number({ error: `give the ${what} as a number` })
+    .positive(`the ${what} must be greater than zero`)
+    .max(max, `the ${what} is too large`);
 
 /** The frame laid on the ground: its area, or its two sides. */
 export const frameSchema = z.discriminatedUnion('by', [
@@ -87,12 +90,22 @@ export const lossCheckInputBaseSchema = z.object({
     .object({
       value: z.number({ error: 'give the price as a number' }).min(0, 'the price cannot be negative').max(1_000_000),
       per: z.enum(['bu', 't']),
-      currency: z.string().trim().max(8).regex(/^[^<>&"]*$/, 'use letters or a symbol').default(''),
+      currency: z
+        .string()
+        .trim()
+        .max(8)
+        .regex(/^[^<>&"]*$/, 'use letters or a symbol')
+        .default(''),
     })
     .nullable()
     .optional(),
   /** The user's own target, % of the expected yield lost by harvest (header + machine). */
-  targetPct: z.number({ error: 'give the target as a number' }).positive('the target must be greater than zero').max(50).nullable().optional(),
+  targetPct: z
+    .number({ error: 'give the target as a number' })
+    .positive('the target must be greater than zero')
+    .max(50)
+    .nullable()
+    .optional(),
   /** What the operator saw behind the machine. */
   signs: z.array(lossSignSchema).max(3).default([]),
 });
@@ -262,7 +275,13 @@ export function computeLossCheck(raw: LossCheckInput): LossCheckResult {
     target,
     verdict,
     headerShare,
-    advice: lossAdvice({ verdict, headerShare, machinePct: figure(parts.machine).pctOfYield, targetPct: target.pct, signs: input.signs as LossSign[] }),
+    advice: lossAdvice({
+      verdict,
+      headerShare,
+      machinePct: figure(parts.machine).pctOfYield,
+      targetPct: target.pct,
+      signs: input.signs as LossSign[],
+    }),
     notes,
   };
 }

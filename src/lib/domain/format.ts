@@ -112,10 +112,15 @@ export interface DateOptions {
 const asDate = (d: Date | string | number) => (d instanceof Date ? d : new Date(d));
 
 /** A calendar date for people, in the locale's own order: "2 Mar 2026", "Mar 2, 2026", "2. März 2026". */
-export function formatDate(d: Date | string | number, { locale = DEFAULT_LOCALE, timeZone, month = 'short', year = true }: DateOptions = {}): string {
+export function formatDate(
+  d: Date | string | number,
+  { locale = DEFAULT_LOCALE, timeZone, month = 'short', year = true }: DateOptions = {},
+): string {
   const date = asDate(d);
   if (Number.isNaN(date.getTime())) return '—';
-  return dateFormat(locale, { day: 'numeric', month, ...(year ? { year: 'numeric' } : {}), ...(timeZone ? { timeZone } : {}) }).format(date);
+  return dateFormat(locale, { day: 'numeric', month, ...(year ? { year: 'numeric' } : {}), ...(timeZone ? { timeZone } : {}) }).format(
+    date,
+  );
 }
 
 /** A date with the time of day: "2 Mar 2026, 14:05". `seconds` adds the seconds. */

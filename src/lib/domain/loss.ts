@@ -6,16 +6,7 @@
  * concentration ratio (cut width / discharge width) before conversion.
  */
 import type { CropProgram } from './crops';
-import {
-  FT2_PER_ACRE,
-  KG_PER_LB,
-  buPerAc,
-  buPerAcToKgPerHa,
-  perFt2ToPerM2,
-  perM2ToPerFt2,
-  type BuPerAc,
-  type KgPerHa,
-} from './units';
+import { FT2_PER_ACRE, KG_PER_LB, buPerAc, buPerAcToKgPerHa, perFt2ToPerM2, perM2ToPerFt2, type BuPerAc, type KgPerHa } from './units';
 
 /** Kernels per ft² on the ground equal to a loss of 1 bu/ac. */
 export function kernelsPerFt2PerBuAc(lbPerBu: number, tkwG: number): number {
@@ -66,7 +57,8 @@ export function estimateLoss(input: LossInput): LossEstimate {
   if (!(input.count >= 0)) throw new RangeError('count must not be negative');
   const perFt2 = input.per === 'ft2' ? input.count : perM2ToPerFt2(input.count);
   const spread = perFt2 / input.concentrationRatio;
-  if (input.kernelsPerFt2PerBuAc !== undefined && !(input.kernelsPerFt2PerBuAc > 0)) throw new RangeError('kernels per ft² for 1 bu/ac must be positive');
+  if (input.kernelsPerFt2PerBuAc !== undefined && !(input.kernelsPerFt2PerBuAc > 0))
+    throw new RangeError('kernels per ft² for 1 bu/ac must be positive');
   const rule = input.kernelsPerFt2PerBuAc ?? kernelsPerFt2PerBuAc(input.lbPerBu, input.tkwG);
   const loss = buPerAc(spread / rule);
   return {
@@ -98,13 +90,29 @@ export interface LossBasis {
 export function cropLossBasis(crop: CropProgram): LossBasis {
   if (crop.publishedLossCount) {
     const k = crop.publishedLossCount.value;
-    return { kind: 'published', kernelsPerFt2PerBuAc: k, kernelsPerM2PerBuAc: perFt2ToPerM2(k), tkwG: null, source: crop.publishedLossCount.source };
+    return {
+      kind: 'published',
+      kernelsPerFt2PerBuAc: k,
+      kernelsPerM2PerBuAc: perFt2ToPerM2(k),
+      tkwG: null,
+      source: crop.publishedLossCount.source,
+    };
   }
-  return weightBasis(crop, crop.tkwG.value, 'crop-weight', `weight rule with ${crop.bushel.usLb.value} lb/bu and TKW ${crop.tkwG.value} g (${crop.tkwG.source})`);
+  return weightBasis(
+    crop,
+    crop.tkwG.value,
+    'crop-weight',
+    `weight rule with ${crop.bushel.usLb.value} lb/bu and TKW ${crop.tkwG.value} g (${crop.tkwG.source})`,
+  );
 }
 
 /** The weight rule with a given thousand-kernel weight (the operator's own, or the crop's). */
-export function weightBasis(crop: CropProgram, tkwG: number, kind: 'crop-weight' | 'own-weight' = 'own-weight', source = `weight rule with ${crop.bushel.usLb.value} lb/bu and your TKW ${tkwG} g`): LossBasis {
+export function weightBasis(
+  crop: CropProgram,
+  tkwG: number,
+  kind: 'crop-weight' | 'own-weight' = 'own-weight',
+  source = `weight rule with ${crop.bushel.usLb.value} lb/bu and your TKW ${tkwG} g`,
+): LossBasis {
   if (!(tkwG > 0)) throw new RangeError('thousand-kernel weight must be positive');
   const k = kernelsPerFt2PerBuAc(crop.bushel.usLb.value, tkwG);
   return { kind, kernelsPerFt2PerBuAc: k, kernelsPerM2PerBuAc: perFt2ToPerM2(k), tkwG, source };

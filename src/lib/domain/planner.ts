@@ -141,22 +141,32 @@ function installedUnits(installed: Layout | null, catalog: CatalogIndex): { unit
 }
 
 /** Why a part now on the machine comes off in the proposal. */
-function removalWhy(unit: Unit, family: MachineFamily, crop: CropProgram, targets: Targets, finalAt: Map<string, CatalogPart | null>): string {
+function removalWhy(
+  unit: Unit,
+  family: MachineFamily,
+  crop: CropProgram,
+  targets: Targets,
+  finalAt: Map<string, CatalogPart | null>,
+): string {
   const { part, at, atKey } = unit;
   const cropWord = cropNoun(crop.id);
   if (part.fitGroup !== family.fitGroup) return `it belongs to another machine family (fit group "${part.fitGroup}")`;
   const off = targets.offReasons.get(atKey!);
   if (off && part.kind === 'cover-plate') return off;
   if (part.kind === 'rotor-bar') {
-    if (part.barKind === 'straight' && crop.rotorBars.straight === 'not-needed') return `straight bars are not needed in ${cropWord} and cost power`;
+    if (part.barKind === 'straight' && crop.rotorBars.straight === 'not-needed')
+      return `straight bars are not needed in ${cropWord} and cost power`;
     if (part.barKind === 'straight') return 'a straight bar bolts only across two rasp bars in line';
-    if (part.barKind === 'discharge' && crop.rotorBars.discharge === 'not-needed') return `discharge bars are for stringy crops; ${cropWord} ${cropVerb(crop.id, 'does', 'do')} not rope`;
+    if (part.barKind === 'discharge' && crop.rotorBars.discharge === 'not-needed')
+      return `discharge bars are for stringy crops; ${cropWord} ${cropVerb(crop.id, 'does', 'do')} not rope`;
   }
   if (part.kind === 'element' && at?.kind === 'element') {
     const zone = family.positions.find((p) => p.index === at.position)?.zone;
     if (!zone) return `the ${family.name} has no position ${at.position}`;
     if (!elementFits(family, part, zone, at.side))
-      return part.hand !== at.side ? `a ${part.hand}-hand element never fits the ${at.side} half` : `it does not belong in the ${zone} zone`;
+      return part.hand !== at.side
+        ? `a ${part.hand}-hand element never fits the ${at.side} half`
+        : `it does not belong in the ${zone} zone`;
     const trouble = elementTrouble(part, zone, crop);
     if (trouble) return trouble;
   }
@@ -198,7 +208,10 @@ function settingChanges(installed: Layout | null, layout: Layout, units: UnitSys
     const before = installed ? installed[field] : null;
     const after = layout[field];
     if (before === after) continue;
-    const now = before === null ? '' : ` (now ${field === 'rotorRpm' ? `${before} rpm` : field === 'clearanceMm' ? length(before) : String(before).replace('-', ' ')})`;
+    const now =
+      before === null
+        ? ''
+        : ` (now ${field === 'rotorRpm' ? `${before} rpm` : field === 'clearanceMm' ? length(before) : String(before).replace('-', ' ')})`;
     const text =
       field === 'drum' || field === 'vaneControl'
         ? `Record the machine's ${words[field](after)}${now}.`
@@ -303,7 +316,10 @@ export function planCropChange(input: PlanInput): Plan {
       crop: cropId,
       mode,
       cautions: WORK_CAUTIONS,
-      reasons: blocking.map((f) => ({ place: (f.places.find((p) => p.kind !== 'setting') as SlotPlace | undefined) ?? null, message: `${f.title}: ${f.explanation}` })),
+      reasons: blocking.map((f) => ({
+        place: (f.places.find((p) => p.kind !== 'setting') as SlotPlace | undefined) ?? null,
+        message: `${f.title}: ${f.explanation}`,
+      })),
     };
   }
 

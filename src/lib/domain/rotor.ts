@@ -76,7 +76,7 @@ export interface RotorModel {
 
 const cache = new WeakMap<MachineFamily, RotorModel>();
 
-const isOpposite = (a: number, b: number) => Math.abs((((a - b) % 360) + 360) % 360 - 180) < 1;
+const isOpposite = (a: number, b: number) => Math.abs(((((a - b) % 360) + 360) % 360) - 180) < 1;
 
 export function rotorModel(family: MachineFamily): RotorModel {
   const hit = cache.get(family);

@@ -23,15 +23,7 @@ export type Side = z.infer<typeof sideSchema>;
 export const cageKindSchema = z.enum(['modular', 'split']);
 export type CageKind = z.infer<typeof cageKindSchema>;
 
-export const elementTypeSchema = z.enum([
-  'fine-wire',
-  'wide-wire',
-  'skip-wire',
-  'round-bar',
-  'perforated',
-  'blank',
-  'close-bar',
-]);
+export const elementTypeSchema = z.enum(['fine-wire', 'wide-wire', 'skip-wire', 'round-bar', 'perforated', 'blank', 'close-bar']);
 export type ElementType = z.infer<typeof elementTypeSchema>;
 
 /** Split cages: a concave goes in front only, a grate at the rear only. Modular parts: 'either'. */
@@ -72,14 +64,7 @@ export type CropId = z.infer<typeof cropIdSchema>;
 export const severitySchema = z.enum(['blocks-fit', 'hurts-crop', 'advice']);
 export type Severity = z.infer<typeof severitySchema>;
 
-export const settingFieldSchema = z.enum([
-  'crop',
-  'drum',
-  'rotorRpm',
-  'clearanceMm',
-  'vaneControl',
-  'vaneSetting',
-]);
+export const settingFieldSchema = z.enum(['crop', 'drum', 'rotorRpm', 'clearanceMm', 'vaneControl', 'vaneSetting']);
 export type SettingField = z.infer<typeof settingFieldSchema>;
 
 // ---------------------------------------------------------------------------------------------
@@ -170,21 +155,18 @@ export const machineFamilyBaseSchema = z.object({
 
 export const machineFamilySchema = machineFamilyBaseSchema.superRefine((f, ctx) => {
   f.positions.forEach((p, i) => {
-    if (p.index !== i + 1)
-      ctx.addIssue({ code: 'custom', path: ['positions', i, 'index'], message: `expected position ${i + 1}` });
+    if (p.index !== i + 1) ctx.addIssue({ code: 'custom', path: ['positions', i, 'index'], message: `expected position ${i + 1}` });
     if (i > 0 && f.positions[i - 1]!.zone === 'separating' && p.zone === 'threshing')
       ctx.addIssue({ code: 'custom', path: ['positions', i, 'zone'], message: 'threshing positions come before separating ones' });
   });
-  if (f.rearPosition !== f.positions.length)
-    ctx.addIssue({ code: 'custom', path: ['rearPosition'], message: 'must be the last position' });
+  if (f.rearPosition !== f.positions.length) ctx.addIssue({ code: 'custom', path: ['rearPosition'], message: 'must be the last position' });
   const drums = new Set<string>();
   f.drumOptions.forEach((d, i) => {
     if (drums.has(d.id)) ctx.addIssue({ code: 'custom', path: ['drumOptions', i, 'id'], message: 'duplicate drum option' });
     drums.add(d.id);
   });
   f.cageTopSections.forEach((s, i) => {
-    if (s.index !== i + 1)
-      ctx.addIssue({ code: 'custom', path: ['cageTopSections', i, 'index'], message: `expected section ${i + 1}` });
+    if (s.index !== i + 1) ctx.addIssue({ code: 'custom', path: ['cageTopSections', i, 'index'], message: `expected section ${i + 1}` });
     s.positions.forEach((p, j) => {
       if (p > f.positions.length)
         ctx.addIssue({ code: 'custom', path: ['cageTopSections', i, 'positions', j], message: 'no such position' });
@@ -192,8 +174,7 @@ export const machineFamilySchema = machineFamilyBaseSchema.superRefine((f, ctx) 
   });
   const rows = new Set(f.rotorBarRows.map((r) => r.index));
   f.rotorBarRows.forEach((r, i) => {
-    if (r.index !== i + 1)
-      ctx.addIssue({ code: 'custom', path: ['rotorBarRows', i, 'index'], message: `expected row ${i + 1}` });
+    if (r.index !== i + 1) ctx.addIssue({ code: 'custom', path: ['rotorBarRows', i, 'index'], message: `expected row ${i + 1}` });
   });
   const seen = new Set<string>();
   f.rotorBarPlaces.forEach((p, i) => {
@@ -257,11 +238,7 @@ export const rotorBarPartSchema = z.object({
 });
 export type RotorBarPart = z.infer<typeof rotorBarPartSchema>;
 
-export const catalogPartSchema = z.discriminatedUnion('kind', [
-  elementPartSchema,
-  coverPlatePartSchema,
-  rotorBarPartSchema,
-]);
+export const catalogPartSchema = z.discriminatedUnion('kind', [elementPartSchema, coverPlatePartSchema, rotorBarPartSchema]);
 export type CatalogPart = z.infer<typeof catalogPartSchema>;
 export type CatalogPartKind = CatalogPart['kind'];
 

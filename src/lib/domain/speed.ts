@@ -130,7 +130,9 @@ export function rpmWindowSpans(w: RpmWindow): { lo: number; hi: number }[] {
 
 /** "727–977 rpm" (or "200–250 or 300–400 rpm" where the cited ranges leave a gap). */
 export function rpmWindowWords(w: RpmWindow): string {
-  return `${rpmWindowSpans(w).map((s) => `${s.lo}–${s.hi}`).join(' or ')} rpm`;
+  return `${rpmWindowSpans(w)
+    .map((s) => `${s.lo}–${s.hi}`)
+    .join(' or ')} rpm`;
 }
 
 /** Whether `speed` lies inside any cited range (whole-rpm ends, rounded outward). */

@@ -49,24 +49,15 @@ function vaneSettingFor(crop: CropId, control: VaneControl): VaneSetting {
  * Falls back to any element of the family that fits and passes the kernel when the suggested
  * type is missing from the catalog.
  */
-export function starterLayout(
-  family: MachineFamily,
-  crop: CropId,
-  catalog: readonly CatalogPart[],
-  options: StarterOptions = {},
-): Layout {
+export function starterLayout(family: MachineFamily, crop: CropId, catalog: readonly CatalogPart[], options: StarterOptions = {}): Layout {
   const c = cropPrograms[crop];
   const mine = catalog.filter((p) => p.fitGroup === family.fitGroup);
   const elements = mine.filter((p): p is ElementPart => p.kind === 'element');
-  const roleFor = (zone: Zone): ElementRole[] =>
-    family.cageKind === 'split' ? [zone === 'threshing' ? 'concave' : 'grate'] : ['either'];
+  const roleFor = (zone: Zone): ElementRole[] => (family.cageKind === 'split' ? [zone === 'threshing' ? 'concave' : 'grate'] : ['either']);
   const pick = (zone: Zone, hand: Side): ElementPart | undefined => {
     const fits = elements.filter((e) => e.hand === hand && e.zones.includes(zone) && roleFor(zone).includes(e.role));
     const want = zone === 'threshing' ? c.suggested.threshing : c.suggested.separating;
-    return (
-      fits.find((e) => e.elementType === want) ??
-      fits.find((e) => (passageMargin(e.openingMm, c.kernel) ?? 0) > 0)
-    );
+    return fits.find((e) => e.elementType === want) ?? fits.find((e) => (passageMargin(e.openingMm, c.kernel) ?? 0) > 0);
   };
 
   const layoutElements: Layout['elements'] = [];
@@ -94,8 +85,7 @@ export function starterLayout(
     if (partNumber) rotorBars.push({ row: place.row, position: place.position, partNumber });
   }
 
-  const drumId: DrumId =
-    options.drum ?? (family.drumOptions.some((d) => d.id === 'full') ? 'full' : family.drumOptions[0]!.id);
+  const drumId: DrumId = options.drum ?? (family.drumOptions.some((d) => d.id === 'full') ? 'full' : family.drumOptions[0]!.id);
   const drum = drumFor(family, drumId);
   const vaneControl = options.vaneControl ?? family.vaneControls[0]!;
 

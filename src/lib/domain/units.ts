@@ -59,11 +59,9 @@ export const perFt2ToPerM2 = (perFt2: number): number => perFt2 * FT2_PER_M2;
 export const perM2ToPerFt2 = (perM2: number): number => perM2 / FT2_PER_M2;
 
 /** Yield or loss: bushels per acre to kilograms per hectare, for a bushel of `lbPerBu` pounds. */
-export const buPerAcToKgPerHa = (x: BuPerAc, lbPerBu: number): KgPerHa =>
-  kgPerHa(x * lbPerBu * KGHA_PER_LB_BUAC);
+export const buPerAcToKgPerHa = (x: BuPerAc, lbPerBu: number): KgPerHa => kgPerHa(x * lbPerBu * KGHA_PER_LB_BUAC);
 /** Kilograms per hectare to bushels per acre, for a bushel of `lbPerBu` pounds. */
-export const kgPerHaToBuPerAc = (x: KgPerHa, lbPerBu: number): BuPerAc =>
-  buPerAc(x / (lbPerBu * KGHA_PER_LB_BUAC));
+export const kgPerHaToBuPerAc = (x: KgPerHa, lbPerBu: number): BuPerAc => buPerAc(x / (lbPerBu * KGHA_PER_LB_BUAC));
 
 /** Bushels in a metric tonne for a bushel of `lbPerBu` pounds (the Canadian way of quoting). */
 export const bushelsPerTonne = (lbPerBu: number): number => 1000 / (lbPerBu * KG_PER_LB);

@@ -198,7 +198,8 @@ export const cropAdjective = (id: CropId): string => CROP_WORDS[id].adj;
 /** The verb that agrees with the crop: cropVerb('edible-beans', 'wants', 'want') = "want". */
 export const cropVerb = (id: CropId, singular: string, pluralForm: string): string => (CROP_WORDS[id].plural ? pluralForm : singular);
 /** "Edible beans want", "Wheat wants": the crop and its verb at the start of a sentence. */
-export const cropSays = (id: CropId, singular: string, pluralForm: string): string => `${cropSubject(id)} ${cropVerb(id, singular, pluralForm)}`;
+export const cropSays = (id: CropId, singular: string, pluralForm: string): string =>
+  `${cropSubject(id)} ${cropVerb(id, singular, pluralForm)}`;
 /** "soybean kernel", "pea": one kernel of the crop, without article. */
 export const kernelOf = (id: CropId): string => CROP_WORDS[id].kernel;
 /** "a soybean kernel", "an oat kernel", "a pea". */

@@ -6,7 +6,7 @@
  * This module has type imports only, so islands and the navigation may read it in the browser;
  * loading an actor from the store lives in `actors.ts`.
  */
-import type { Role } from '../../db/schema';
+import type { Role } from '~/db/schema';
 
 /** The signed-in person as every route sees them: identity, role and what they may see. */
 export interface Actor {

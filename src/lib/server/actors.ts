@@ -1,7 +1,7 @@
 import { sql } from 'drizzle-orm';
 import type { Db, Store } from './db';
 import { rolesFor, type Actor } from './access';
-import type { Role } from '../../db/schema';
+import type { Role } from '~/db/schema';
 
 /**
  * One round trip: the user, their memberships and, for dealer staff, the dealer's farms, but
@@ -11,7 +11,10 @@ import type { Role } from '../../db/schema';
 export async function loadActor(db: Db, userId: string, sessionId: string): Promise<Actor | null> {
   const result = await db.execute(sql`
     select u.id, u.email, u.name, u.unit_system, m.org_id, m.role, o.kind as org_kind,
-      case when o.kind = 'dealer' and m.role in (${sql.join(rolesFor('customers.see').map((r) => sql`${r}`), sql`, `)})
+      case when o.kind = 'dealer' and m.role in (${sql.join(
+        rolesFor('customers.see').map((r) => sql`${r}`),
+        sql`, `,
+      )})
         then (select coalesce(array_agg(f.id::text), '{}') from organisations f where f.kind = 'farm' and f.dealer_id = o.id)
         else '{}'::text[] end as customer_ids
     from users u
@@ -21,8 +24,14 @@ export async function loadActor(db: Db, userId: string, sessionId: string): Prom
     where u.id = ${userId}
     order by o.kind, o.name`);
   const rows = result.rows as {
-    id: string; email: string; name: string; unit_system: 'metric' | 'imperial';
-    org_id: string; role: Role; org_kind: 'farm' | 'dealer' | 'instance'; customer_ids: string[];
+    id: string;
+    email: string;
+    name: string;
+    unit_system: 'metric' | 'imperial';
+    org_id: string;
+    role: Role;
+    org_kind: 'farm' | 'dealer' | 'instance';
+    customer_ids: string[];
   }[];
   // Dealer memberships sort first ('dealer' < 'farm'), so dealer staff act for the dealer.
   const home = rows[0];

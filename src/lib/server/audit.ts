@@ -1,5 +1,5 @@
 import type { Db } from './db';
-import { auditLog } from '../../db/schema';
+import { auditLog } from '~/db/schema';
 import type { Actor } from './access';
 
 /** Record a write. Call inside the same transaction as the write it describes. */

@@ -1,6 +1,6 @@
 import { eq } from 'drizzle-orm';
-import { catalogParts, catalogRevision, families } from '../../db/schema';
-import type { CatalogPart, MachineFamily } from '../domain/schemas';
+import { catalogParts, catalogRevision, families } from '~/db/schema';
+import type { CatalogPart, MachineFamily } from '~/lib/domain/schemas';
 import { getDb } from './db';
 
 /**

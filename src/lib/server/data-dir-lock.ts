@@ -116,7 +116,11 @@ export function judgeOwner(
     return { stale: false, why: 'the owner file cannot be read, so its owner may be alive', provablyRunning: false };
   if (holder.host !== me.host) return { stale: false, why: `it is held from another host (${holder.host})`, provablyRunning: false };
   if (holder.bootId && me.bootId && holder.bootId !== me.bootId)
-    return { stale: false, why: 'it is held from another boot of this machine, or another machine of the same name', provablyRunning: false };
+    return {
+      stale: false,
+      why: 'it is held from another boot of this machine, or another machine of the same name',
+      provablyRunning: false,
+    };
   if (holder.pidNamespace && me.pidNamespace && holder.pidNamespace !== me.pidNamespace)
     return { stale: false, why: 'it is held from another container or process namespace', provablyRunning: false };
   if (!isRunning(holder.pid)) return { stale: true, why: `process ${holder.pid} is no longer running` };
@@ -171,7 +175,8 @@ export interface LockOptions {
   isRunning?: (pid: number) => boolean;
 }
 
-export const forceUnlockRequested = (env: NodeJS.ProcessEnv = process.env) => env.CAGEWRIGHT_FORCE_UNLOCK === '1' || env.CAGEWRIGHT_FORCE_UNLOCK === 'true';
+export const forceUnlockRequested = (env: NodeJS.ProcessEnv = process.env) =>
+  env.CAGEWRIGHT_FORCE_UNLOCK === '1' || env.CAGEWRIGHT_FORCE_UNLOCK === 'true';
 
 /** Takes the directory or throws DataDirInUseError; returns the release function. */
 export function lockDataDir(dir: string, opts: LockOptions = {}): () => void {
@@ -196,7 +201,9 @@ export function lockDataDir(dir: string, opts: LockOptions = {}): () => void {
       throw new DataDirInUseError(
         `The data directory ${dir} is in use by ${describe(holder)}: ${verdict.why}. ` +
           'Stop that server first; two processes writing one directory would corrupt it.' +
-          (verdict.provablyRunning ? '' : ' If you are sure no server uses this directory, start once with --force-unlock (CAGEWRIGHT_FORCE_UNLOCK=1).'),
+          (verdict.provablyRunning
+            ? ''
+            : ' If you are sure no server uses this directory, start once with --force-unlock (CAGEWRIGHT_FORCE_UNLOCK=1).'),
         holder,
       );
     }

@@ -6,7 +6,7 @@ import { migrate as migratePg } from 'drizzle-orm/node-postgres/migrator';
 import { sql } from 'drizzle-orm';
 import pg from 'pg';
 import { resolve } from 'node:path';
-import * as schema from '../../db/schema';
+import * as schema from '~/db/schema';
 import { lockDataDir } from './data-dir-lock';
 import { seedDemo } from './seed';
 import { countWrites } from './store-writes';
@@ -96,7 +96,9 @@ export function store(): Promise<Store> {
       }
       // Sends a stopped server left half-done, and photo objects no row names (services/maintenance.ts).
       // A failure here is logged, never a reason to refuse to serve.
-      await (await import('./services/maintenance'))
+      await (
+        await import('./services/maintenance')
+      )
         .startMaintenance(s)
         .catch((err) => console.error('cagewright: start-up housekeeping failed:', err instanceof Error ? err.message : err));
       return s;

@@ -5,10 +5,10 @@
  */
 import { eq, inArray } from 'drizzle-orm';
 import type { Db } from './db';
-import * as t from '../../db/schema';
-import { demoCatalog, demoFamilies } from '../domain/demo-catalog';
-import { starterLayout } from '../domain/starter';
-import type { Layout } from '../domain/schemas';
+import * as t from '~/db/schema';
+import { demoCatalog, demoFamilies } from '~/lib/domain/demo-catalog';
+import { starterLayout } from '~/lib/domain/starter';
+import type { Layout } from '~/lib/domain/schemas';
 
 type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
@@ -26,7 +26,12 @@ export async function seedDemoDeck(db: Db | Tx, who: { orgId: string; trainerId:
         .from(t.layoutVersions)
         .innerJoin(t.layouts, eq(t.layouts.id, t.layoutVersions.layoutId))
         .innerJoin(t.machines, eq(t.machines.id, t.layouts.machineId))
-        .where(inArray(t.layouts.orgId, farms.map((f) => f.id)))
+        .where(
+          inArray(
+            t.layouts.orgId,
+            farms.map((f) => f.id),
+          ),
+        )
     : [];
   const wheat = versions.find((v) => v.body.crop === 'wheat' && v.body.familyId === modular.id);
 

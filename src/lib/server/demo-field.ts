@@ -1,7 +1,7 @@
 import { eq } from 'drizzle-orm';
 import type { Db } from './db';
-import * as t from '../../db/schema';
-import { computeLossCheck, type LossCheckInput } from '../domain/field-check';
+import * as t from '~/db/schema';
+import { computeLossCheck, type LossCheckInput } from '~/lib/domain/field-check';
 import { DEMO_STARTING_VALUES } from './services/starting-values';
 
 /** The demo machine whose harvest is logged, and who counted (all invented). */
@@ -9,12 +9,81 @@ const DEMO_SERIAL = 'LK-2291-A';
 const DEMO_OPERATOR = 'olive@larkspur.example';
 
 /** Invented checks of one wheat harvest: settings changed between checks as an operator would. */
-const CHECKS: { day: number; hour: number; field: string; rpm: number; clearanceMm: number; vanes: 'slow' | 'medium'; moisture: number; pre: number[]; header: number[]; behind: number[]; signs?: LossCheckInput['signs'] }[] = [
-  { day: 4, hour: 14, field: 'Home quarter', rpm: 860, clearanceMm: 10, vanes: 'medium', moisture: 14.1, pre: [2, 3, 1], header: [9, 12, 10], behind: [58, 64, 61], signs: ['unthreshed'] },
-  { day: 4, hour: 17, field: 'Home quarter', rpm: 860, clearanceMm: 8, vanes: 'medium', moisture: 13.6, pre: [2, 2, 1], header: [10, 9, 11], behind: [40, 44, 38] },
-  { day: 6, hour: 11, field: 'Coulee field', rpm: 830, clearanceMm: 8, vanes: 'slow', moisture: 13.2, pre: [3, 2, 2], header: [11, 8, 9], behind: [30, 26, 33] },
-  { day: 9, hour: 15, field: 'Coulee field', rpm: 800, clearanceMm: 8, vanes: 'slow', moisture: 12.8, pre: [2, 1, 2], header: [8, 9, 7], behind: [20, 22, 19] },
-  { day: 12, hour: 16, field: 'West slough', rpm: 800, clearanceMm: 7, vanes: 'slow', moisture: 12.4, pre: [1, 2, 2], header: [18, 21, 16], behind: [52, 58, 49], signs: ['in-chaff'] },
+const CHECKS: {
+  day: number;
+  hour: number;
+  field: string;
+  rpm: number;
+  clearanceMm: number;
+  vanes: 'slow' | 'medium';
+  moisture: number;
+  pre: number[];
+  header: number[];
+  behind: number[];
+  signs?: LossCheckInput['signs'];
+}[] = [
+  {
+    day: 4,
+    hour: 14,
+    field: 'Home quarter',
+    rpm: 860,
+    clearanceMm: 10,
+    vanes: 'medium',
+    moisture: 14.1,
+    pre: [2, 3, 1],
+    header: [9, 12, 10],
+    behind: [58, 64, 61],
+    signs: ['unthreshed'],
+  },
+  {
+    day: 4,
+    hour: 17,
+    field: 'Home quarter',
+    rpm: 860,
+    clearanceMm: 8,
+    vanes: 'medium',
+    moisture: 13.6,
+    pre: [2, 2, 1],
+    header: [10, 9, 11],
+    behind: [40, 44, 38],
+  },
+  {
+    day: 6,
+    hour: 11,
+    field: 'Coulee field',
+    rpm: 830,
+    clearanceMm: 8,
+    vanes: 'slow',
+    moisture: 13.2,
+    pre: [3, 2, 2],
+    header: [11, 8, 9],
+    behind: [30, 26, 33],
+  },
+  {
+    day: 9,
+    hour: 15,
+    field: 'Coulee field',
+    rpm: 800,
+    clearanceMm: 8,
+    vanes: 'slow',
+    moisture: 12.8,
+    pre: [2, 1, 2],
+    header: [8, 9, 7],
+    behind: [20, 22, 19],
+  },
+  {
+    day: 12,
+    hour: 16,
+    field: 'West slough',
+    rpm: 800,
+    clearanceMm: 7,
+    vanes: 'slow',
+    moisture: 12.4,
+    pre: [1, 2, 2],
+    header: [18, 21, 16],
+    behind: [52, 58, 49],
+    signs: ['in-chaff'],
+  },
 ];
 
 export async function seedDemoField(db: Db) {
@@ -23,7 +92,10 @@ export async function seedDemoField(db: Db) {
   if (!dealer) return;
   for (const f of families) {
     for (const v of DEMO_STARTING_VALUES) {
-      await db.insert(t.startingValues).values({ dealerId: dealer.id, familyId: f.id, ...v, invented: true }).onConflictDoNothing();
+      await db
+        .insert(t.startingValues)
+        .values({ dealerId: dealer.id, familyId: f.id, ...v, invented: true })
+        .onConflictDoNothing();
     }
   }
 
@@ -74,6 +146,13 @@ export async function seedDemoField(db: Db) {
         createdBy: operator.id,
       })
       .returning({ id: t.lossChecks.id });
-    await db.insert(t.auditLog).values({ userId: operator.id, orgId: machine.orgId, action: 'record', entity: 'loss-check', entityId: row!.id, detail: { demo: true } });
+    await db.insert(t.auditLog).values({
+      userId: operator.id,
+      orgId: machine.orgId,
+      action: 'record',
+      entity: 'loss-check',
+      entityId: row!.id,
+      detail: { demo: true },
+    });
   }
 }

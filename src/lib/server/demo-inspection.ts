@@ -1,9 +1,16 @@
 import { and, eq } from 'drizzle-orm';
 import sharp from 'sharp';
 import type { Db } from './db';
-import * as t from '../../db/schema';
-import { buildChecklist, clearanceReadingKey, countSeverities, replacementLines, type ConditionId, type InspectionSeverity } from '../domain/inspection';
-import type { CatalogPart } from '../domain/schemas';
+import * as t from '~/db/schema';
+import {
+  buildChecklist,
+  clearanceReadingKey,
+  countSeverities,
+  replacementLines,
+  type ConditionId,
+  type InspectionSeverity,
+} from '~/lib/domain/inspection';
+import type { CatalogPart } from '~/lib/domain/schemas';
 import { storage, type ObjectStorage } from './storage';
 import { ServiceUnavailableError } from './deadline';
 import { makeThumbnail, photoKeys } from './services/photos';
@@ -36,7 +43,11 @@ const FINDINGS: Record<string, Finding> = {
     note: 'Two bars pushed in, probably a stone last autumn. Not worth straightening.',
     photos: ['bent'],
   },
-  'element:3:left': { conditions: ['bolts-loose'], severity: 'watch', note: 'Rear bolt was finger-loose; tightened. Check after the first week.' },
+  'element:3:left': {
+    conditions: ['bolts-loose'],
+    severity: 'watch',
+    note: 'Rear bolt was finger-loose; tightened. Check after the first week.',
+  },
   'row:1': { conditions: ['edge-wear'], severity: 'watch', wearMm: 3.5, note: 'Leading edges rounding; fine for this season.' },
 };
 
@@ -77,7 +88,9 @@ export async function seedDemoInspection(db: Db, store: ObjectStorage = storage(
   const [inspector] = await db.select().from(t.users).where(eq(t.users.email, DEMO_INSPECTOR)).limit(1);
   const [org] = await db.select().from(t.organisations).where(eq(t.organisations.id, machine.orgId)).limit(1);
   if (!inst || !family || !inspector || !org) return;
-  const catalog: CatalogPart[] = (await db.select({ spec: t.catalogParts.spec }).from(t.catalogParts).where(eq(t.catalogParts.familyId, family.id))).map((r) => r.spec);
+  const catalog: CatalogPart[] = (
+    await db.select({ spec: t.catalogParts.spec }).from(t.catalogParts).where(eq(t.catalogParts.familyId, family.id))
+  ).map((r) => r.spec);
   const lines = buildChecklist(family.spec, inst.layout, catalog);
   const set = inst.layout.clearanceMm;
   const actor = { id: inspector.id, homeOrgId: org.dealerId ?? org.id };
@@ -117,7 +130,16 @@ export async function seedDemoInspection(db: Db, store: ObjectStorage = storage(
   await db.transaction(async (tx) => {
     const [insp] = await tx
       .insert(t.inspections)
-      .values({ id: inspectionId, machineId: machine.id, orgId: machine.orgId, status: 'finished', title: 'Pre-season inspection', startedBy: inspector.id, startedAt, finishedAt })
+      .values({
+        id: inspectionId,
+        machineId: machine.id,
+        orgId: machine.orgId,
+        status: 'finished',
+        title: 'Pre-season inspection',
+        startedBy: inspector.id,
+        startedAt,
+        finishedAt,
+      })
       .returning();
     const items: { id: string; placeKey: string; partNumber: string | null; severity: InspectionSeverity }[] = [];
     for (const [i, l] of lines.entries()) {
@@ -127,34 +149,74 @@ export async function seedDemoInspection(db: Db, store: ObjectStorage = storage(
       let note = f?.note ?? '';
       if (f?.wearMm !== undefined) measurements.wearMm = f.wearMm;
       if (l.kind === 'survey') {
-        measurements = { ...measurements, ...surveyReadings(family.spec.positions.map((p) => p.index), set) };
+        measurements = {
+          ...measurements,
+          ...surveyReadings(
+            family.spec.positions.map((p) => p.index),
+            set,
+          ),
+        };
         severity = 'watch';
         note = 'Position 2 sits wider on the right at the front; levelled the hanger and re-measured within tolerance.';
       }
       const [row] = await tx
         .insert(t.inspectionItems)
-        .values({ inspectionId: insp!.id, placeKey: l.placeKey, partNumber: l.partNumber, label: l.label, conditions: f?.conditions ?? [], severity, measurements, note, position: i })
+        .values({
+          inspectionId: insp!.id,
+          placeKey: l.placeKey,
+          partNumber: l.partNumber,
+          label: l.label,
+          conditions: f?.conditions ?? [],
+          severity,
+          measurements,
+          note,
+          position: i,
+        })
         .returning();
       items.push({ id: row!.id, placeKey: row!.placeKey, partNumber: row!.partNumber, severity });
     }
     for (const p of stored) {
       const item = items.find((x) => x.placeKey === p.itemKey)!;
       await tx.insert(t.photos).values({
-        id: p.photoId, itemId: item.id, orgId: machine.orgId, storageKey: p.keys.original, thumbKey: p.keys.thumb,
-        contentType: 'image/jpeg', bytes: p.bytes.byteLength, createdBy: inspector.id, createdAt: new Date(startedAt.getTime() + 30 * 60 * 1000),
+        id: p.photoId,
+        itemId: item.id,
+        orgId: machine.orgId,
+        storageKey: p.keys.original,
+        thumbKey: p.keys.thumb,
+        contentType: 'image/jpeg',
+        bytes: p.bytes.byteLength,
+        createdBy: inspector.id,
+        createdAt: new Date(startedAt.getTime() + 30 * 60 * 1000),
       });
     }
     const { lines: parts } = replacementLines(items, inst.layout, catalog, family.spec);
     const request = parts.length
       ? await demoDraftRequest(tx, actor, {
-          orgId: machine.orgId, dealerOrgId: org.dealerId, machineId: machine.id, source: 'inspection', lines: parts,
+          orgId: machine.orgId,
+          dealerOrgId: org.dealerId,
+          machineId: machine.id,
+          source: 'inspection',
+          lines: parts,
           note: `Replacements for ${machine.nickname} (serial ${machine.serial}) from the pre-season inspection.`,
         })
       : null;
     await tx.insert(t.auditLog).values([
-      { at: startedAt, userId: inspector.id, orgId: machine.orgId, action: 'start', entity: 'inspection', entityId: insp!.id, detail: { machineId: machine.id, demo: true } },
       {
-        at: finishedAt, userId: inspector.id, orgId: machine.orgId, action: 'finish', entity: 'inspection', entityId: insp!.id,
+        at: startedAt,
+        userId: inspector.id,
+        orgId: machine.orgId,
+        action: 'start',
+        entity: 'inspection',
+        entityId: insp!.id,
+        detail: { machineId: machine.id, demo: true },
+      },
+      {
+        at: finishedAt,
+        userId: inspector.id,
+        orgId: machine.orgId,
+        action: 'finish',
+        entity: 'inspection',
+        entityId: insp!.id,
         detail: { machineId: machine.id, counts: countSeverities(items), partsRequestId: request?.id ?? null, lines: parts, demo: true },
       },
     ]);
@@ -168,7 +230,8 @@ function surveyReadings(positions: number[], setMm: number): Record<string, numb
     for (const side of ['left', 'right'] as const)
       for (const end of ['front', 'rear'] as const) {
         const wobble = ((p * 3 + (side === 'left' ? 1 : 2) + (end === 'front' ? 0 : 1)) % 3) * 0.3;
-        out[clearanceReadingKey(p, side, end)] = Math.round((setMm + wobble + (p === 2 && side === 'right' && end === 'front' ? 3.5 : 0)) * 10) / 10;
+        out[clearanceReadingKey(p, side, end)] =
+          Math.round((setMm + wobble + (p === 2 && side === 'right' && end === 'front' ? 3.5 : 0)) * 10) / 10;
       }
   return out;
 }
@@ -186,7 +249,9 @@ async function demoDraftRequest(
   const [draft] = await tx
     .select()
     .from(t.partsRequests)
-    .where(and(eq(t.partsRequests.machineId, input.machineId), eq(t.partsRequests.status, 'draft'), eq(t.partsRequests.source, input.source)))
+    .where(
+      and(eq(t.partsRequests.machineId, input.machineId), eq(t.partsRequests.status, 'draft'), eq(t.partsRequests.source, input.source)),
+    )
     .limit(1);
   if (draft) {
     const lines = draft.lines.map((l) => ({ ...l }));
@@ -195,13 +260,32 @@ async function demoDraftRequest(
       if (same) same.quantity += l.quantity;
       else lines.push({ ...l });
     }
-    await tx.update(t.partsRequests).set({ lines, note: draft.note ? `${draft.note}\n${input.note}` : input.note }).where(eq(t.partsRequests.id, draft.id));
+    await tx
+      .update(t.partsRequests)
+      .set({ lines, note: draft.note ? `${draft.note}\n${input.note}` : input.note })
+      .where(eq(t.partsRequests.id, draft.id));
     return { id: draft.id };
   }
   const [row] = await tx
     .insert(t.partsRequests)
-    .values({ orgId: input.orgId, dealerOrgId: input.dealerOrgId, machineId: input.machineId, source: input.source, status: 'draft', lines: input.lines, note: input.note, createdBy: actor.id })
+    .values({
+      orgId: input.orgId,
+      dealerOrgId: input.dealerOrgId,
+      machineId: input.machineId,
+      source: input.source,
+      status: 'draft',
+      lines: input.lines,
+      note: input.note,
+      createdBy: actor.id,
+    })
     .returning({ id: t.partsRequests.id });
-  await tx.insert(t.auditLog).values({ userId: actor.id, orgId: input.orgId, action: 'create', entity: 'parts-request', entityId: row!.id, detail: { source: input.source, lines: input.lines, demo: true } });
+  await tx.insert(t.auditLog).values({
+    userId: actor.id,
+    orgId: input.orgId,
+    action: 'create',
+    entity: 'parts-request',
+    entityId: row!.id,
+    detail: { source: input.source, lines: input.lines, demo: true },
+  });
   return { id: row!.id };
 }

@@ -19,7 +19,8 @@ const MAX_FORM_BYTES = 100_000;
  */
 export async function readFormData(request: Request): Promise<FormData> {
   const type = request.headers.get('content-type') ?? '';
-  if (!/application\/x-www-form-urlencoded|multipart\/form-data/i.test(type)) throw new HttpError(415, 'Send the form as a form.', 'content-type');
+  if (!/application\/x-www-form-urlencoded|multipart\/form-data/i.test(type))
+    throw new HttpError(415, 'Send the form as a form.', 'content-type');
   let bytes: Uint8Array<ArrayBuffer>;
   try {
     bytes = await readCapped(request, MAX_FORM_BYTES);

@@ -1,7 +1,7 @@
 import type { APIContext } from 'astro';
 import { z, type ZodType } from 'zod';
 import { can, rolesFor, type Action, type Actor } from './access';
-import { findUnstorable, UNSTORABLE_MESSAGE } from '../domain/text';
+import { findUnstorable, UNSTORABLE_MESSAGE } from '~/lib/domain/text';
 import { BodyTooLarge, readCapped } from './body';
 
 /** An error a route maps to a status and a JSON body; `field` names the offending input. */

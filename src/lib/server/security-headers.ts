@@ -75,7 +75,8 @@ export interface HeaderContext {
 
 export function setSecurityHeaders(h: Headers, ctx: HeaderContext) {
   const astroPolicy = h.get('content-security-policy');
-  if (ctx.html && ctx.dev) h.set('content-security-policy', [...BASE_DIRECTIVES, "script-src 'self' 'unsafe-inline'", STYLE_SRC].join('; '));
+  if (ctx.html && ctx.dev)
+    h.set('content-security-policy', [...BASE_DIRECTIVES, "script-src 'self' 'unsafe-inline'", STYLE_SRC].join('; '));
   else if (ctx.html) h.set('content-security-policy', pagePolicy(astroPolicy));
   else if (!astroPolicy) h.set('content-security-policy', DEFAULT_CSP);
   h.set('x-content-type-options', 'nosniff');

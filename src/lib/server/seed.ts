@@ -1,8 +1,8 @@
 import type { Db } from './db';
-import * as t from '../../db/schema';
-import { demoCatalog, demoFamilies } from '../domain/demo-catalog';
-import { starterLayout } from '../domain/starter';
-import type { CropId, DrumId, Layout, MachineFamily, VaneControl } from '../domain/schemas';
+import * as t from '~/db/schema';
+import { demoCatalog, demoFamilies } from '~/lib/domain/demo-catalog';
+import { starterLayout } from '~/lib/domain/starter';
+import type { CropId, DrumId, Layout, MachineFamily, VaneControl } from '~/lib/domain/schemas';
 import { hashPassword } from './auth/passwords';
 import { seedDemoDeck } from './demo-deck';
 
@@ -38,15 +38,33 @@ function pickVane(f: MachineFamily, wanted: VaneControl): VaneControl {
 export async function seedDemo(db: Db) {
   const hash = await hashPassword(DEMO_PASSWORD);
   await db.transaction(async (tx) => {
-    const [kestrel] = await tx.insert(t.organisations).values({
-      name: 'Kestrel Valley Implement', kind: 'dealer', partsDeskEmail: 'parts@kestrel.example', currency: 'CAD',
-    }).returning();
-    const [larkspur] = await tx.insert(t.organisations).values({
-      name: 'Larkspur Farms', kind: 'farm', dealerId: kestrel!.id, ownerEmail: 'olive@larkspur.example',
-    }).returning();
-    const [haldane] = await tx.insert(t.organisations).values({
-      name: 'Haldane Brothers', kind: 'farm', dealerId: kestrel!.id, ownerEmail: 'dev@haldane.example',
-    }).returning();
+    const [kestrel] = await tx
+      .insert(t.organisations)
+      .values({
+        name: 'Kestrel Valley Implement',
+        kind: 'dealer',
+        partsDeskEmail: 'parts@kestrel.example',
+        currency: 'CAD',
+      })
+      .returning();
+    const [larkspur] = await tx
+      .insert(t.organisations)
+      .values({
+        name: 'Larkspur Farms',
+        kind: 'farm',
+        dealerId: kestrel!.id,
+        ownerEmail: 'olive@larkspur.example',
+      })
+      .returning();
+    const [haldane] = await tx
+      .insert(t.organisations)
+      .values({
+        name: 'Haldane Brothers',
+        kind: 'farm',
+        dealerId: kestrel!.id,
+        ownerEmail: 'dev@haldane.example',
+      })
+      .returning();
     // The installation itself: holds the instance administrator, who sees no tenant's machines.
     const [instance] = await tx.insert(t.organisations).values({ name: 'Cagewright installation', kind: 'instance' }).returning();
     const orgs = { kestrel: kestrel!, larkspur: larkspur!, haldane: haldane!, instance: instance! };
@@ -62,36 +80,95 @@ export async function seedDemo(db: Db) {
     const familyByGroup = new Map(demoFamilies.map((f) => [f.fitGroup, f.id]));
     for (const p of demoCatalog) {
       await tx.insert(t.catalogParts).values({
-        partNumber: p.partNumber, familyId: familyByGroup.get(p.fitGroup) ?? demoFamilies[0]!.id, kind: p.kind, spec: p,
+        partNumber: p.partNumber,
+        familyId: familyByGroup.get(p.fitGroup) ?? demoFamilies[0]!.id,
+        kind: p.kind,
+        spec: p,
       });
     }
     // The dealer keeps a few of most parts; farms keep a handful of spares.
     const dealerStock = demoCatalog.map((p, i) => ({ orgId: kestrel!.id, partNumber: p.partNumber, quantity: (i * 7) % 5 }));
     await tx.insert(t.stock).values(dealerStock);
     // The dealer's own price list, started at the catalog's list prices (its administrator edits it).
-    await tx.insert(t.dealerPrices).values(demoCatalog.map((p) => ({ dealerId: kestrel!.id, partNumber: p.partNumber, priceCents: p.priceCents })));
+    await tx
+      .insert(t.dealerPrices)
+      .values(demoCatalog.map((p) => ({ dealerId: kestrel!.id, partNumber: p.partNumber, priceCents: p.priceCents })));
 
     const modular = familyOfKind('modular');
     const split = familyOfKind('split');
-    const fleet: { org: keyof typeof orgs; family: MachineFamily; drum: DrumId; vane: VaneControl; serial: string; nickname: string; crop: CropId; notes: string }[] = [
-      { org: 'larkspur', family: modular, drum: 'slim', vane: 'powered', serial: 'LK-2291-A', nickname: 'North Quarter', crop: 'wheat', notes: 'Bought used in 2024; new rasp bars fitted last spring.' },
-      { org: 'haldane', family: split, drum: 'full', vane: 'manual', serial: 'HB-7730-S', nickname: 'Creekside', crop: 'corn', notes: 'Corn and soybeans on the river ground.' },
-      { org: 'haldane', family: modular, drum: 'full', vane: 'fixed', serial: 'HB-4410-M', nickname: 'Bean Runner', crop: 'soybeans', notes: 'Kept for edible beans and soybeans.' },
+    const fleet: {
+      org: keyof typeof orgs;
+      family: MachineFamily;
+      drum: DrumId;
+      vane: VaneControl;
+      serial: string;
+      nickname: string;
+      crop: CropId;
+      notes: string;
+    }[] = [
+      {
+        org: 'larkspur',
+        family: modular,
+        drum: 'slim',
+        vane: 'powered',
+        serial: 'LK-2291-A',
+        nickname: 'North Quarter',
+        crop: 'wheat',
+        notes: 'Bought used in 2024; new rasp bars fitted last spring.',
+      },
+      {
+        org: 'haldane',
+        family: split,
+        drum: 'full',
+        vane: 'manual',
+        serial: 'HB-7730-S',
+        nickname: 'Creekside',
+        crop: 'corn',
+        notes: 'Corn and soybeans on the river ground.',
+      },
+      {
+        org: 'haldane',
+        family: modular,
+        drum: 'full',
+        vane: 'fixed',
+        serial: 'HB-4410-M',
+        nickname: 'Bean Runner',
+        crop: 'soybeans',
+        notes: 'Kept for edible beans and soybeans.',
+      },
     ];
     for (const m of fleet) {
       const drum = pickDrum(m.family, m.drum);
       const vaneControl = pickVane(m.family, m.vane);
-      const [machine] = await tx.insert(t.machines).values({
-        orgId: orgs[m.org].id, familyId: m.family.id, drum, vaneControl, serial: m.serial, nickname: m.nickname, notes: m.notes,
-      }).returning();
+      const [machine] = await tx
+        .insert(t.machines)
+        .values({
+          orgId: orgs[m.org].id,
+          familyId: m.family.id,
+          drum,
+          vaneControl,
+          serial: m.serial,
+          nickname: m.nickname,
+          notes: m.notes,
+        })
+        .returning();
       // The starter on this machine's own drum and vanes: the slim drum runs its crop's window 100 rpm
       // higher (common practice), and the vane setting is one this vane control can take.
       const layout: Layout = starterLayout(m.family, m.crop, demoCatalog, { drum, vaneControl });
       const owner = m.org === 'larkspur' ? userIds['olive@larkspur.example'] : userIds['dev@haldane.example'];
-      const [plan] = await tx.insert(t.layouts).values({
-        machineId: machine!.id, orgId: orgs[m.org].id, name: `${m.crop.replace('-', ' ')} setup`, currentVersion: 1, createdBy: owner,
-      }).returning();
-      await tx.insert(t.layoutVersions).values({ layoutId: plan!.id, version: 1, body: layout, note: 'As installed at the start of the season', createdBy: owner });
+      const [plan] = await tx
+        .insert(t.layouts)
+        .values({
+          machineId: machine!.id,
+          orgId: orgs[m.org].id,
+          name: `${m.crop.replace('-', ' ')} setup`,
+          currentVersion: 1,
+          createdBy: owner,
+        })
+        .returning();
+      await tx
+        .insert(t.layoutVersions)
+        .values({ layoutId: plan!.id, version: 1, body: layout, note: 'As installed at the start of the season', createdBy: owner });
       await tx.insert(t.installed).values({ machineId: machine!.id, layout, sourceLayoutId: plan!.id, sourceVersion: 1, updatedBy: owner });
       // A few spares on the farm's shelf: the parts of this layout's first position.
       const spares = layout.elements.filter((e) => e.position === 1).map((e) => e.partNumber);

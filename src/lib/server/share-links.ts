@@ -1,7 +1,7 @@
 import { createHash, randomBytes } from 'node:crypto';
 import { and, eq, isNotNull } from 'drizzle-orm';
 import { getDb } from './db';
-import { shareLinks } from '../../db/schema';
+import { shareLinks } from '~/db/schema';
 
 /**
  * Read-only share links, for layouts and decks alike: the token (32 random bytes, base64url,

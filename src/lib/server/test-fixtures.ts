@@ -1,7 +1,7 @@
 import type { Db } from './db';
-import * as t from '../../db/schema';
-import { demoCatalog, demoFamilies } from '../domain/demo-catalog';
-import { starterLayout } from '../domain/starter';
+import * as t from '~/db/schema';
+import { demoCatalog, demoFamilies } from '~/lib/domain/demo-catalog';
+import { starterLayout } from '~/lib/domain/starter';
 import { hashPassword } from './auth/passwords';
 import { DEMO_PASSWORD } from './seed';
 
@@ -20,8 +20,14 @@ export const FIXTURE_USERS = {
 export async function seedTestFixtures(db: Db) {
   const hash = await hashPassword(DEMO_PASSWORD);
   await db.transaction(async (tx) => {
-    const [dealer] = await tx.insert(t.organisations).values({ name: 'Brackenridge Ag Supply', kind: 'dealer', partsDeskEmail: 'parts@brackenridge.example', currency: 'EUR' }).returning();
-    const [farm] = await tx.insert(t.organisations).values({ name: 'Fenwick Acres', kind: 'farm', dealerId: dealer!.id, ownerEmail: 'op@fenwick.example' }).returning();
+    const [dealer] = await tx
+      .insert(t.organisations)
+      .values({ name: 'Brackenridge Ag Supply', kind: 'dealer', partsDeskEmail: 'parts@brackenridge.example', currency: 'EUR' })
+      .returning();
+    const [farm] = await tx
+      .insert(t.organisations)
+      .values({ name: 'Fenwick Acres', kind: 'farm', dealerId: dealer!.id, ownerEmail: 'op@fenwick.example' })
+      .returning();
     const people = [
       [FIXTURE_USERS.otherTechnician, 'Rowan Pike', dealer!.id, 'technician'],
       [FIXTURE_USERS.otherTrainer, 'Mara Quill', dealer!.id, 'trainer'],
@@ -36,11 +42,22 @@ export async function seedTestFixtures(db: Db) {
     }
     const family = demoFamilies[0]!;
     const layout = starterLayout(family, 'barley', demoCatalog);
-    const [machine] = await tx.insert(t.machines).values({
-      orgId: farm!.id, familyId: family.id, drum: layout.drum, vaneControl: layout.vaneControl, serial: 'FA-0001', nickname: 'Fenwick One',
-    }).returning();
+    const [machine] = await tx
+      .insert(t.machines)
+      .values({
+        orgId: farm!.id,
+        familyId: family.id,
+        drum: layout.drum,
+        vaneControl: layout.vaneControl,
+        serial: 'FA-0001',
+        nickname: 'Fenwick One',
+      })
+      .returning();
     await tx.insert(t.installed).values({ machineId: machine!.id, layout, updatedBy: operatorId });
-    const [plan] = await tx.insert(t.layouts).values({ machineId: machine!.id, orgId: farm!.id, name: 'barley setup', createdBy: operatorId }).returning();
+    const [plan] = await tx
+      .insert(t.layouts)
+      .values({ machineId: machine!.id, orgId: farm!.id, name: 'barley setup', createdBy: operatorId })
+      .returning();
     await tx.insert(t.layoutVersions).values({ layoutId: plan!.id, version: 1, body: layout, createdBy: operatorId });
   });
 }

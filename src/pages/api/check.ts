@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { readJson, requireActor, route, routeInputs } from '../../lib/server/http';
-import { checkStateless } from '../../lib/server/services/check';
+import { readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { checkStateless } from '~/lib/server/services/check';
 
 // The layout itself is checked by the domain's input checker, which names every bad field.
 const checkRequestSchema = z.object({ layout: z.unknown().refine((v) => v !== undefined, 'required field is missing') });

@@ -1,8 +1,8 @@
 import type { APIRoute } from 'astro';
 import { sql } from 'drizzle-orm';
-import { store } from '../../lib/server/db';
-import { DataDirInUseError } from '../../lib/server/data-dir-lock';
-import { errorResponse, json } from '../../lib/server/http';
+import { store } from '~/lib/server/db';
+import { DataDirInUseError } from '~/lib/server/data-dir-lock';
+import { errorResponse, json } from '~/lib/server/http';
 
 /**
  * Liveness and store readiness; the start script calls it to open and migrate the store at boot.

@@ -1,5 +1,5 @@
-import { readJson, requireActor, route, routeInputs } from '../../lib/server/http';
-import { me, preferencesSchema, updatePreferences } from '../../lib/server/services/users';
+import { readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { me, preferencesSchema, updatePreferences } from '~/lib/server/services/users';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ PUT: { body: preferencesSchema } });

@@ -1,10 +1,10 @@
-import { parseParams, readJson, requireActor, route, routeInputs } from '../../lib/server/http';
+import { parseParams, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
 import {
   listStartingValues,
   putStartingValues,
   startingValuesQuerySchema,
   startingValuesSchema,
-} from '../../lib/server/services/starting-values';
+} from '~/lib/server/services/starting-values';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ PUT: { body: startingValuesSchema } });

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { compareLayouts, settingValueWords } from '../../../src/lib/classroom/compare';
-import { demoCatalog, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
-import { starterLayout } from '../../../src/lib/domain/starter';
-import { placeKey } from '../../../src/lib/domain/places';
+import { compareLayouts, settingValueWords } from '~/lib/classroom/compare';
+import { demoCatalog, tamarackM4 } from '~/lib/domain/demo-catalog';
+import { starterLayout } from '~/lib/domain/starter';
+import { placeKey } from '~/lib/domain/places';
 
 const side = (layout: ReturnType<typeof starterLayout>) => ({ family: tamarackM4, catalog: demoCatalog, layout });
 const wheat = starterLayout(tamarackM4, 'wheat', demoCatalog);
@@ -60,7 +60,7 @@ describe('compareLayouts', () => {
 
 describe('comparing across machine families', () => {
   it('counts a part as changed only when it is of another kind', async () => {
-    const { sedgeS6 } = await import('../../../src/lib/domain/demo-catalog');
+    const { sedgeS6 } = await import('~/lib/domain/demo-catalog');
     const a = starterLayout(tamarackM4, 'wheat', demoCatalog);
     const b = starterLayout(sedgeS6, 'wheat', demoCatalog);
     const c = compareLayouts(side(a), { family: sedgeS6, catalog: demoCatalog, layout: b });
@@ -69,7 +69,8 @@ describe('comparing across machine families', () => {
     expect(c.places.map(placeKey)).not.toContain('element:1:left');
     // Bars differ in kind only where one family has in-line mounts (spike rasp bars, common
     // practice) and the other plain rasp bars.
-    const inLine = (f: typeof tamarackM4, row: number, position: number) => f.rotorBarPlaces.some((p) => p.row === row && p.position === position && p.inLine);
+    const inLine = (f: typeof tamarackM4, row: number, position: number) =>
+      f.rotorBarPlaces.some((p) => p.row === row && p.position === position && p.inLine);
     for (const r of c.rows) {
       if (r.difference.kind !== 'bar' || r.difference.change !== 'changed') continue;
       const pl = r.difference.place;

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { cropPathModel, kernelFate, seeded, TURNS_PER_POSITION } from '../../../src/lib/classroom/crop-path';
-import { demoCatalog, tamarackM4, sedgeS6 } from '../../../src/lib/domain/demo-catalog';
-import { starterLayout } from '../../../src/lib/domain/starter';
-import type { Layout } from '../../../src/lib/domain/schemas';
+import { cropPathModel, kernelFate, seeded, TURNS_PER_POSITION } from '~/lib/classroom/crop-path';
+import { demoCatalog, tamarackM4, sedgeS6 } from '~/lib/domain/demo-catalog';
+import { starterLayout } from '~/lib/domain/starter';
+import type { Layout } from '~/lib/domain/schemas';
 
 // The crop-path view is a teaching illustration on Cagewright's own scale (no published
 // source); these tests hold it to the directions the trade describes (common practice).

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { commandForKey } from '../../../src/components/classroom/keys';
+import { commandForKey } from '~/components/classroom/keys';
 
 describe('presentation keys', () => {
   it('moves on with the keys a keyboard and a clicker send', () => {

@@ -1,7 +1,35 @@
 import { describe, expect, it } from 'vitest';
-import { renderNotes, safeHref } from '../../../src/lib/server/markdown';
+import { renderNotes, safeHref } from '~/lib/server/markdown';
 
-const TAGS = new Set(['p', 'br', 'strong', 'em', 'del', 'code', 'pre', 'ul', 'ol', 'li', 'a', 'blockquote', 'h1', 'h2', 'h3', 'h4', 'h5', 'h6', 'hr', 'table', 'thead', 'tbody', 'tr', 'th', 'td', 'input', 'span']);
+const TAGS = new Set([
+  'p',
+  'br',
+  'strong',
+  'em',
+  'del',
+  'code',
+  'pre',
+  'ul',
+  'ol',
+  'li',
+  'a',
+  'blockquote',
+  'h1',
+  'h2',
+  'h3',
+  'h4',
+  'h5',
+  'h6',
+  'hr',
+  'table',
+  'thead',
+  'tbody',
+  'tr',
+  'th',
+  'td',
+  'input',
+  'span',
+]);
 const ATTRS = new Set(['href', 'title', 'rel', 'align', 'type', 'checked', 'disabled', 'start', 'class']);
 
 /** Every real tag in the output is one marked writes, with harmless attributes and link targets. */
@@ -25,7 +53,9 @@ function assertInert(html: string) {
 
 describe('renderNotes', () => {
   it('renders the markdown trainers write: lists, emphasis, links, code, tables', () => {
-    const html = renderNotes('**Fine-wire** up front\n\n- wheat\n- barley\n\n[Guide](https://example.org/g) and `CW-FW-L-04`\n\n| a | b |\n|---|---|\n| 1 | 2 |');
+    const html = renderNotes(
+      '**Fine-wire** up front\n\n- wheat\n- barley\n\n[Guide](https://example.org/g) and `CW-FW-L-04`\n\n| a | b |\n|---|---|\n| 1 | 2 |',
+    );
     expect(html).toContain('<strong>Fine-wire</strong>');
     expect(html).toMatch(/<ul>\s*<li>wheat<\/li>\s*<li>barley<\/li>\s*<\/ul>/);
     expect(html).toContain('<a href="https://example.org/g" rel="noopener noreferrer nofollow">Guide</a>');
@@ -42,7 +72,14 @@ describe('renderNotes', () => {
   });
 
   it('drops dangerous link targets but keeps the words', () => {
-    for (const target of ['javascript:alert(1)', 'JaVaScRiPt:alert(1)', 'java\tscript:alert(1)', 'data:text/html;base64,PHNjcmlwdD4=', 'vbscript:x', '//evil.example/x']) {
+    for (const target of [
+      'javascript:alert(1)',
+      'JaVaScRiPt:alert(1)',
+      'java\tscript:alert(1)',
+      'data:text/html;base64,PHNjcmlwdD4=',
+      'vbscript:x',
+      '//evil.example/x',
+    ]) {
       const html = renderNotes(`[click me](${target})`);
       assertInert(html);
       expect(html).toContain('click me');

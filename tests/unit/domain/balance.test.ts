@@ -14,15 +14,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import {
-  checkLayout,
-  cropIdSchema,
-  demoCatalog,
-  type CatalogPart,
-  type Finding,
-  type Layout,
-  type MachineFamily,
-} from '~/lib/domain';
+import { checkLayout, cropIdSchema, demoCatalog, type CatalogPart, type Finding, type Layout, type MachineFamily } from '~/lib/domain';
 import { billOfMaterials } from '~/lib/domain/planner/bom';
 import { rotorModel } from '~/lib/domain/rotor';
 import { catalog, codes, modular, setBar, split, start } from './helpers';
@@ -48,10 +40,12 @@ describe('the three layouts the review found silent', () => {
     const fs = check(l);
     expect(codes(fs)).toContain('BAR_PLACE_EMPTY');
     const u = unbalanced(fs);
-    expect(u.map((f) => f.places)).toEqual([1, 2, 3, 4].map((p) => [
-      { kind: 'bar', row: 1, position: p },
-      { kind: 'bar', row: 3, position: p },
-    ]));
+    expect(u.map((f) => f.places)).toEqual(
+      [1, 2, 3, 4].map((p) => [
+        { kind: 'bar', row: 1, position: p },
+        { kind: 'bar', row: 3, position: p },
+      ]),
+    );
     // Position 3 of row 3 carries a rasp bar: F = m·r·ω² with m its mass, r = 762 mm / 2.
     const f3 = u[2]!;
     const F = mass('CW-BR-RS-04') * 0.381 * omega(base.rotorRpm) ** 2;
@@ -84,7 +78,15 @@ describe('severity threshold and mass tolerance', () => {
   // A second rasp bar of the same kind, a little heavier: as a dealer's catalog might list.
   const heavier = (kg: number): CatalogPart[] => [
     ...demoCatalog,
-    { kind: 'rotor-bar', partNumber: 'CW-BR-RS-04H', name: 'Rasp bar, heavier', fitGroup: 'tamarack', barKind: 'rasp', massKg: kg, priceCents: 9000 },
+    {
+      kind: 'rotor-bar',
+      partNumber: 'CW-BR-RS-04H',
+      name: 'Rasp bar, heavier',
+      fitGroup: 'tamarack',
+      barKind: 'rasp',
+      massKg: kg,
+      priceCents: 9000,
+    },
   ];
   const run = (kg: number, rpm: number) =>
     checkLayout(modular, heavier(kg), { ...setBar(start('wheat'), 2, 3, 'CW-BR-RS-04H'), rotorRpm: rpm });
@@ -138,7 +140,12 @@ describe('straight bars span a pair of in-line mounts', () => {
   });
   it('a straight bar on one row only is out of balance at both mounts it spans', () => {
     const corn = start('corn');
-    const l = setBar(setBar({ ...corn, rotorBars: corn.rotorBars.filter((b) => !(b.row === 3 && b.position === 1)) }, 3, 1, 'CW-BR-SP-04'), 3, 2, 'CW-BR-SP-04');
+    const l = setBar(
+      setBar({ ...corn, rotorBars: corn.rotorBars.filter((b) => !(b.row === 3 && b.position === 1)) }, 3, 1, 'CW-BR-SP-04'),
+      3,
+      2,
+      'CW-BR-SP-04',
+    );
     const u = unbalanced(check(l));
     expect(u.map((f) => f.places[0])).toEqual([
       { kind: 'bar', row: 1, position: 1 },
@@ -186,7 +193,10 @@ describe('properties (fast-check)', () => {
     });
 
   it('every balanced rotor raises no balance finding', () => {
-    fc.assert(fc.property(arbBalanced, ({ family, layout }) => unbalanced(check(layout, family)).length === 0), { numRuns: 300 });
+    fc.assert(
+      fc.property(arbBalanced, ({ family, layout }) => unbalanced(check(layout, family)).length === 0),
+      { numRuns: 300 },
+    );
   });
 
   it('removing any bar from a balanced rotor always raises a balance finding naming its place', () => {
@@ -203,25 +213,23 @@ describe('properties (fast-check)', () => {
 
   it('adding a mirrored pair (same part on opposite places) never raises one', () => {
     fc.assert(
-      fc.property(
-        arbBalanced,
-        fc.nat(),
-        fc.constantFrom('RS', 'SR', 'SP', 'ST', 'DC'),
-        ({ family, layout }, i, kind) => {
-          const m = rotorModel(family);
-          const p = family.rotorBarPlaces.filter((x) => x.row < (m.oppositeRow.get(x.row) ?? 0))[i % (family.rotorBarPlaces.length / 2)]!;
-          const o = m.oppositeRow.get(p.row)!;
-          // Empty the two places first (and the rears of their spans), then add the pair.
-          const span = m.spanByFront.get(`${p.row}:${p.position}`) ?? m.spanByRear.get(`${p.row}:${p.position}`);
-          const positions = span ? [span.front, span.rear] : [p.position];
-          const cleared = { ...layout, rotorBars: layout.rotorBars.filter((b) => !((b.row === p.row || b.row === o) && positions.includes(b.position))) };
-          const at = kind === 'ST' && span ? span.front : p.position;
-          const pn = `CW-BR-${kind}-${family === modular ? '04' : '06'}`;
-          let l = setBar(setBar(cleared, p.row, at, pn), o, at, pn);
-          if (span && kind !== 'ST') for (const q of positions) l = setBar(setBar(l, p.row, q, pn), o, q, pn);
-          return unbalanced(check(l, family)).length === 0;
-        },
-      ),
+      fc.property(arbBalanced, fc.nat(), fc.constantFrom('RS', 'SR', 'SP', 'ST', 'DC'), ({ family, layout }, i, kind) => {
+        const m = rotorModel(family);
+        const p = family.rotorBarPlaces.filter((x) => x.row < (m.oppositeRow.get(x.row) ?? 0))[i % (family.rotorBarPlaces.length / 2)]!;
+        const o = m.oppositeRow.get(p.row)!;
+        // Empty the two places first (and the rears of their spans), then add the pair.
+        const span = m.spanByFront.get(`${p.row}:${p.position}`) ?? m.spanByRear.get(`${p.row}:${p.position}`);
+        const positions = span ? [span.front, span.rear] : [p.position];
+        const cleared = {
+          ...layout,
+          rotorBars: layout.rotorBars.filter((b) => !((b.row === p.row || b.row === o) && positions.includes(b.position))),
+        };
+        const at = kind === 'ST' && span ? span.front : p.position;
+        const pn = `CW-BR-${kind}-${family === modular ? '04' : '06'}`;
+        let l = setBar(setBar(cleared, p.row, at, pn), o, at, pn);
+        if (span && kind !== 'ST') for (const q of positions) l = setBar(setBar(l, p.row, q, pn), o, q, pn);
+        return unbalanced(check(l, family)).length === 0;
+      }),
       { numRuns: 300 },
     );
   });

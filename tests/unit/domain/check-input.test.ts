@@ -29,7 +29,9 @@ describe('checkLayoutInput (shared by the check command and the check route)', (
   });
   it('names the field of a part of the wrong kind', () => {
     const l = start('wheat');
-    expect(problems({ ...l, rotorBars: [{ row: 1, position: 1, partNumber: 'CW-FW-L-04' }] })[0]).toMatchObject({ path: 'rotorBars.0.partNumber' });
+    expect(problems({ ...l, rotorBars: [{ row: 1, position: 1, partNumber: 'CW-FW-L-04' }] })[0]).toMatchObject({
+      path: 'rotorBars.0.partNumber',
+    });
   });
   it('names an unknown family', () => {
     expect(problems({ ...start('wheat'), familyId: 'nowhere-x9' })[0]).toMatchObject({ path: 'familyId' });

@@ -105,7 +105,8 @@ describe('computeSettings', () => {
     const wide = computeSettings(modular, catalog, start('wheat')).capacity;
     let blank = start('wheat');
     for (const p of modular.positions)
-      if (p.zone === 'separating') for (const side of ['left', 'right'] as const) blank = setElement(blank, p.index, side, `CW-BL-${side === 'left' ? 'L' : 'R'}-04`);
+      if (p.zone === 'separating')
+        for (const side of ['left', 'right'] as const) blank = setElement(blank, p.index, side, `CW-BL-${side === 'left' ? 'L' : 'R'}-04`);
     const closed = computeSettings(modular, catalog, blank).capacity;
     expect(closed.value).toBeLessThan(wide.value);
     expect(closed.value).toBe(0);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { cropPrograms, sourceInWords } from '../../../src/lib/domain/crops';
+import { cropPrograms, sourceInWords } from '~/lib/domain/crops';
 
 /**
  * Words of the crop programs that reach the screen (advice, names, notes) never carry the data's

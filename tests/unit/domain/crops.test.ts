@@ -1,12 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  bushelsPerTonne,
-  cropIdSchema,
-  cropProgramSchema,
-  cropPrograms,
-  geometricMeanDiameter,
-  sphericity,
-} from '~/lib/domain';
+import { bushelsPerTonne, cropIdSchema, cropProgramSchema, cropPrograms, geometricMeanDiameter, sphericity } from '~/lib/domain';
 
 describe('crop programs', () => {
   it('cover all 14 crops and match their schema', () => {
@@ -24,13 +17,16 @@ describe('crop programs', () => {
     }
   });
   it('passing size is min(width, thickness)', () => {
-    for (const c of Object.values(cropPrograms))
-      expect(c.passingSizeMm).toBe(Math.min(c.kernel.widthMm, c.kernel.thicknessMm));
+    for (const c of Object.values(cropPrograms)) expect(c.passingSizeMm).toBe(Math.min(c.kernel.widthMm, c.kernel.thicknessMm));
     expect(cropPrograms.wheat.passingSizeMm).toBe(2.98);
   });
   it('straight interrupter bars are wanted in corn only; discharge bars in hemp (common practice)', () => {
-    const straight = Object.values(cropPrograms).filter((c) => c.rotorBars.straight === 'wanted').map((c) => c.id);
-    const discharge = Object.values(cropPrograms).filter((c) => c.rotorBars.discharge === 'wanted').map((c) => c.id);
+    const straight = Object.values(cropPrograms)
+      .filter((c) => c.rotorBars.straight === 'wanted')
+      .map((c) => c.id);
+    const discharge = Object.values(cropPrograms)
+      .filter((c) => c.rotorBars.discharge === 'wanted')
+      .map((c) => c.id);
     expect(straight).toEqual(['corn']);
     expect(discharge).toEqual(['hemp']);
   });

@@ -1,13 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  cropIdSchema,
-  demoCatalog,
-  demoFamilies,
-  elementTypeSchema,
-  layoutSchema,
-  partNumberSchema,
-  starterLayout,
-} from '~/lib/domain';
+import { cropIdSchema, demoCatalog, demoFamilies, elementTypeSchema, layoutSchema, partNumberSchema, starterLayout } from '~/lib/domain';
 import { catalog, check } from './helpers';
 
 describe('demo catalog (invented data)', () => {
@@ -26,7 +18,9 @@ describe('demo catalog (invented data)', () => {
         for (const hand of ['left', 'right'])
           for (const role of roles)
             expect(
-              demoCatalog.some((p) => p.kind === 'element' && p.fitGroup === f.fitGroup && p.elementType === t && p.hand === hand && p.role === role),
+              demoCatalog.some(
+                (p) => p.kind === 'element' && p.fitGroup === f.fitGroup && p.elementType === t && p.hand === hand && p.role === role,
+              ),
               `${f.id} ${t} ${hand} ${role}`,
             ).toBe(true);
     }

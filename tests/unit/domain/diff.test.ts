@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { readFileSync } from 'node:fs';
-import { demoCatalog, sedgeS6, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
-import { starterLayout } from '../../../src/lib/domain/starter';
+import { demoCatalog, sedgeS6, tamarackM4 } from '~/lib/domain/demo-catalog';
+import { starterLayout } from '~/lib/domain/starter';
 import {
   describeDifference,
   describePlace,
@@ -11,8 +11,8 @@ import {
   diffPlaces,
   isSameLayout,
   type LayoutDifference,
-} from '../../../src/lib/domain/diff';
-import { layoutSchema, type Layout } from '../../../src/lib/domain/schemas';
+} from '~/lib/domain/diff';
+import { layoutSchema, type Layout } from '~/lib/domain/schemas';
 
 const wheat = starterLayout(tamarackM4, 'wheat', demoCatalog);
 const peas = starterLayout(tamarackM4, 'field-peas', demoCatalog);
@@ -121,10 +121,13 @@ const layoutArb: fc.Arbitrary<Layout> = fc
       selector: (c) => `${c.section}:${c.side}`,
       maxLength: 6,
     }),
-    rotorBars: fc.uniqueArray(fc.record({ row: fc.integer({ min: 1, max: 4 }), position: fc.integer({ min: 1, max: 4 }), partNumber: pn }), {
-      selector: (r) => `${r.row}:${r.position}`,
-      maxLength: 16,
-    }),
+    rotorBars: fc.uniqueArray(
+      fc.record({ row: fc.integer({ min: 1, max: 4 }), position: fc.integer({ min: 1, max: 4 }), partNumber: pn }),
+      {
+        selector: (r) => `${r.row}:${r.position}`,
+        maxLength: 16,
+      },
+    ),
     rotorRpm: fc.integer({ min: 100, max: 1500 }),
     vaneSetting: fc.constantFrom('very-slow' as const, 'slow' as const, 'medium' as const, 'fast' as const),
     crop: fc.constantFrom('wheat' as const, 'canola' as const, 'corn' as const),

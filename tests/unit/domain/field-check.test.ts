@@ -54,7 +54,11 @@ describe('basis: kernels per unit area for 1 bu/ac', () => {
     expect(Math.abs(b.kernelsPerFt2PerBuAc - 130)).toBeLessThanOrEqual(1);
   });
   it('own thousand-seed weight: Canola Council of Canada (2012), TSW 2 g → 261, 3 g → 174, 5 g → 104 seeds/ft² (±1)', () => {
-    for (const [tsw, seeds] of [[2, 261], [3, 174], [5, 104]] as const) {
+    for (const [tsw, seeds] of [
+      [2, 261],
+      [3, 174],
+      [5, 104],
+    ] as const) {
       const b = basisFor(cropPrograms.canola, { kind: 'own-weight', tkwG: tsw });
       expect(b.kind).toBe('own-weight');
       expect(Math.abs(b.kernelsPerFt2PerBuAc - seeds)).toBeLessThanOrEqual(1);
@@ -150,7 +154,7 @@ describe('units, share of yield, money, target and verdict', () => {
   });
   it('pre-harvest loss does not count against the harvest target', () => {
     const r = computeLossCheck(base({ preHarvest: [40], header: [40], behindMachine: [40] }));
-    expect(r.total.pctOfYield).toBeCloseTo(100 * 2 / 60, 9);
+    expect(r.total.pctOfYield).toBeCloseTo((100 * 2) / 60, 9);
     expect(r.harvest.pctOfYield).toBe(0);
     expect(r.verdict).toBe('within');
   });

@@ -24,17 +24,30 @@ function fromMemory(): string[] {
 // alone deciding "hurts crop".)
 const KNOWN_FROM_MEMORY = [
   'barley.speed.ranges.0.source',
-  'oats.kernel.source', 'oats.tkwG.source', 'oats.speed.ranges.0.source',
+  'oats.kernel.source',
+  'oats.tkwG.source',
+  'oats.speed.ranges.0.source',
   'canola.speed.ranges.0.source',
-  'lentils.speed.ranges.0.source', 'lentils.bushel.usLb.source',
-  'soybeans.tkwG.source', 'soybeans.speed.ranges.0.source',
-  'edible-beans.speed.ranges.1.source', 'edible-beans.bushel.usLb.source',
-  'corn.tkwG.source', 'corn.clearanceMm.source',
+  'lentils.speed.ranges.0.source',
+  'lentils.bushel.usLb.source',
+  'soybeans.tkwG.source',
+  'soybeans.speed.ranges.0.source',
+  'edible-beans.speed.ranges.1.source',
+  'edible-beans.bushel.usLb.source',
+  'corn.tkwG.source',
+  'corn.clearanceMm.source',
   'rice.speed.ranges.0.source',
   'sunflower.speed.ranges.0.source',
-  'grass-seed.kernel.source', 'grass-seed.tkwG.source', 'grass-seed.speed.ranges.0.source', 'grass-seed.bushel.usLb.source',
-  'sorghum.tkwG.source', 'sorghum.speed.ranges.0.source',
-  'hemp.kernel.source', 'hemp.tkwG.source', 'hemp.speed.ranges.0.source', 'hemp.bushel.usLb.source',
+  'grass-seed.kernel.source',
+  'grass-seed.tkwG.source',
+  'grass-seed.speed.ranges.0.source',
+  'grass-seed.bushel.usLb.source',
+  'sorghum.tkwG.source',
+  'sorghum.speed.ranges.0.source',
+  'hemp.kernel.source',
+  'hemp.tkwG.source',
+  'hemp.speed.ranges.0.source',
+  'hemp.bushel.usLb.source',
 ];
 
 /** Every place in the crop programs whose source says "common practice, no published source". */
@@ -54,9 +67,21 @@ function commonPractice(): string[] {
 // Values that are facts of the trade with no published source found. This list may only shrink too:
 // a value that finds a source leaves it; a new one fails here.
 const KNOWN_COMMON_PRACTICE = [
-  ...['wheat', 'barley', 'oats', 'canola', 'field-peas', 'lentils', 'soybeans', 'edible-beans', 'rice', 'sunflower', 'grass-seed', 'sorghum', 'hemp'].map(
-    (c) => `${c}.clearanceMm.source`,
-  ),
+  ...[
+    'wheat',
+    'barley',
+    'oats',
+    'canola',
+    'field-peas',
+    'lentils',
+    'soybeans',
+    'edible-beans',
+    'rice',
+    'sunflower',
+    'grass-seed',
+    'sorghum',
+    'hemp',
+  ].map((c) => `${c}.clearanceMm.source`),
   ...Object.keys(cropPrograms).map((c) => `${c}.vanes.source`),
 ];
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { demoCatalog, sedgeS6, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
-import { starterLayout } from '../../../src/lib/domain/starter';
+import { demoCatalog, sedgeS6, tamarackM4 } from '~/lib/domain/demo-catalog';
+import { starterLayout } from '~/lib/domain/starter';
 import {
   assessWear,
   buildChecklist,
@@ -18,9 +18,9 @@ import {
   surveyFromMeasurements,
   WEAR_REPLACE_MM,
   type ClearanceReading,
-} from '../../../src/lib/domain/inspection';
-import { MM_PER_INCH } from '../../../src/lib/domain/units';
-import type { Layout } from '../../../src/lib/domain/schemas';
+} from '~/lib/domain/inspection';
+import { MM_PER_INCH } from '~/lib/domain/units';
+import type { Layout } from '~/lib/domain/schemas';
 
 const wheat = starterLayout(tamarackM4, 'wheat', demoCatalog);
 const corn = starterLayout(sedgeS6, 'corn', demoCatalog);
@@ -31,10 +31,19 @@ describe('buildChecklist', () => {
     const lines = buildChecklist(tamarackM4, withPlate, demoCatalog);
     const keys = lines.map((l) => l.placeKey);
     expect(keys).toEqual([
-      'element:1:left', 'element:1:right', 'element:2:left', 'element:2:right',
-      'element:3:left', 'element:3:right', 'element:4:left', 'element:4:right',
+      'element:1:left',
+      'element:1:right',
+      'element:2:left',
+      'element:2:right',
+      'element:3:left',
+      'element:3:right',
+      'element:4:left',
+      'element:4:right',
       'cover:2:right',
-      'row:1', 'row:2', 'row:3', 'row:4',
+      'row:1',
+      'row:2',
+      'row:3',
+      'row:4',
       'survey',
     ]);
     expect(lines.map((l) => l.kind)).toEqual([...Array(8).fill('element'), 'cover', 'row', 'row', 'row', 'row', 'survey']);
@@ -62,7 +71,11 @@ describe('buildChecklist', () => {
   });
 
   it('leaves out empty half-positions and rows with no bars', () => {
-    const sparse: Layout = { ...wheat, elements: wheat.elements.filter((e) => e.position !== 3), rotorBars: wheat.rotorBars.filter((b) => b.row !== 4) };
+    const sparse: Layout = {
+      ...wheat,
+      elements: wheat.elements.filter((e) => e.position !== 3),
+      rotorBars: wheat.rotorBars.filter((b) => b.row !== 4),
+    };
     const keys = buildChecklist(tamarackM4, sparse, demoCatalog).map((l) => l.placeKey);
     expect(keys).not.toContain('element:3:left');
     expect(keys).not.toContain('row:4');
@@ -195,7 +208,12 @@ describe('the clearance survey (unevenness beyond a tolerance: common practice, 
   });
 
   it('reads a survey back from stored measurements', () => {
-    const m = { setClearanceMm: 10, toleranceMm: 2, [clearanceReadingKey(2, 'left', 'front')]: 10, [clearanceReadingKey(2, 'right', 'front')]: 14.5 };
+    const m = {
+      setClearanceMm: 10,
+      toleranceMm: 2,
+      [clearanceReadingKey(2, 'left', 'front')]: 10,
+      [clearanceReadingKey(2, 'right', 'front')]: 14.5,
+    };
     const s = surveyFromMeasurements(tamarackM4, m);
     expect(s.readingCount).toBe(2);
     expect(s.findings.map((f) => f.kind)).toEqual(['side-to-side', 'off-setting']);
@@ -205,14 +223,19 @@ describe('the clearance survey (unevenness beyond a tolerance: common practice, 
 
   it('flags a pair exactly when the two readings differ by more than the tolerance (property)', () => {
     fc.assert(
-      fc.property(fc.double({ min: 0, max: 60, noNaN: true }), fc.double({ min: 0, max: 60, noNaN: true }), fc.double({ min: 0.5, max: 10, noNaN: true }), (a, b, tol) => {
-        const r: ClearanceReading[] = [
-          { position: 1, side: 'left', end: 'front', mm: a },
-          { position: 1, side: 'right', end: 'front', mm: b },
-        ];
-        const d = Math.round(Math.abs(a - b) * 100) / 100;
-        return surveyClearance(tamarackM4, r, tol).uneven === d > tol + 1e-9;
-      }),
+      fc.property(
+        fc.double({ min: 0, max: 60, noNaN: true }),
+        fc.double({ min: 0, max: 60, noNaN: true }),
+        fc.double({ min: 0.5, max: 10, noNaN: true }),
+        (a, b, tol) => {
+          const r: ClearanceReading[] = [
+            { position: 1, side: 'left', end: 'front', mm: a },
+            { position: 1, side: 'right', end: 'front', mm: b },
+          ];
+          const d = Math.round(Math.abs(a - b) * 100) / 100;
+          return surveyClearance(tamarackM4, r, tol).uneven === d > tol + 1e-9;
+        },
+      ),
     );
   });
 });
@@ -242,13 +265,19 @@ describe('measurements and suggested severity', () => {
   });
 
   it('counts severities', () => {
-    expect(countSeverities([{ severity: 'ok' }, { severity: 'replace' }, { severity: 'replace' }])).toEqual({ ok: 1, watch: 0, replace: 2, total: 3 });
+    expect(countSeverities([{ severity: 'ok' }, { severity: 'replace' }, { severity: 'replace' }])).toEqual({
+      ok: 1,
+      watch: 0,
+      replace: 2,
+      total: 3,
+    });
   });
 });
 
 describe('replacementLines', () => {
   const lines = buildChecklist(tamarackM4, withPlate, demoCatalog);
-  const mark = (keys: string[]) => lines.map((l) => ({ ...l, severity: keys.includes(l.placeKey) ? ('replace' as const) : ('ok' as const) }));
+  const mark = (keys: string[]) =>
+    lines.map((l) => ({ ...l, severity: keys.includes(l.placeKey) ? ('replace' as const) : ('ok' as const) }));
 
   it('orders the same part number and hand for a flagged element', () => {
     const { lines: out, unknown } = replacementLines(mark(['element:2:left']), withPlate, demoCatalog, tamarackM4);
@@ -260,7 +289,12 @@ describe('replacementLines', () => {
 
   it('adds up equal part numbers and keeps hands apart', () => {
     // Fine-wire in positions 1 and 2 on both sides for wheat: two left, two right.
-    const { lines: out } = replacementLines(mark(['element:1:left', 'element:2:left', 'element:1:right', 'element:2:right']), withPlate, demoCatalog, tamarackM4);
+    const { lines: out } = replacementLines(
+      mark(['element:1:left', 'element:2:left', 'element:1:right', 'element:2:right']),
+      withPlate,
+      demoCatalog,
+      tamarackM4,
+    );
     expect(out.map((l) => [l.hand, l.quantity])).toEqual([
       ['left', 2],
       ['right', 2],
@@ -298,7 +332,12 @@ describe('replacementLines', () => {
   });
 
   it('reports parts missing from the catalog instead of inventing them', () => {
-    const { lines: out, unknown } = replacementLines([{ placeKey: 'element:1:left', partNumber: 'CW-XX-L-99', severity: 'replace' }], null, demoCatalog, tamarackM4);
+    const { lines: out, unknown } = replacementLines(
+      [{ placeKey: 'element:1:left', partNumber: 'CW-XX-L-99', severity: 'replace' }],
+      null,
+      demoCatalog,
+      tamarackM4,
+    );
     expect(out).toEqual([]);
     expect(unknown).toEqual(['CW-XX-L-99']);
   });

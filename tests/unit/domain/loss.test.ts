@@ -1,12 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  concentrationRatio,
-  cropPrograms,
-  estimateCropLoss,
-  estimateLoss,
-  kernelsPerFt2PerBuAc,
-  kernelsPerM2PerBuAc,
-} from '~/lib/domain';
+import { concentrationRatio, cropPrograms, estimateCropLoss, estimateLoss, kernelsPerFt2PerBuAc, kernelsPerM2PerBuAc } from '~/lib/domain';
 
 describe('kernels per ft² ≈ 1 bu/ac = (lb/bu × 453.59237 / 43,560) / (TKW/1000)', () => {
   const table: [number, number][] = [
@@ -28,8 +21,12 @@ describe('kernels per ft² ≈ 1 bu/ac = (lb/bu × 453.59237 / 43,560) / (TKW/10
     expect(Math.abs(k / 20 - 1)).toBeLessThan(0.1);
   });
   it('smallgrains.org (2003): durum 16, barley 14, oats 10 kernels/ft² imply TKWs of 25–50 g ([mem] plausible range for small grains)', () => {
-    const implied = (lbPerBu: number, count: number) => (lbPerBu * 453.59237) / 43560 / count * 1000;
-    for (const [lbPerBu, count] of [[60, 16], [48, 14], [32, 10]] as const) {
+    const implied = (lbPerBu: number, count: number) => ((lbPerBu * 453.59237) / 43560 / count) * 1000;
+    for (const [lbPerBu, count] of [
+      [60, 16],
+      [48, 14],
+      [32, 10],
+    ] as const) {
       const tkw = implied(lbPerBu, count);
       expect(tkw).toBeGreaterThan(25);
       expect(tkw).toBeLessThan(50);

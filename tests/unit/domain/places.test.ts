@@ -12,8 +12,16 @@ describe('place keys', () => {
   });
   it('round-trip through parsePlaceKey', () => {
     const placeArb: fc.Arbitrary<Place> = fc.oneof(
-      fc.record({ kind: fc.constant('element' as const), position: fc.integer({ min: 1, max: 64 }), side: fc.constantFrom('left' as const, 'right' as const) }),
-      fc.record({ kind: fc.constant('cover' as const), section: fc.integer({ min: 1, max: 64 }), side: fc.constantFrom('left' as const, 'right' as const) }),
+      fc.record({
+        kind: fc.constant('element' as const),
+        position: fc.integer({ min: 1, max: 64 }),
+        side: fc.constantFrom('left' as const, 'right' as const),
+      }),
+      fc.record({
+        kind: fc.constant('cover' as const),
+        section: fc.integer({ min: 1, max: 64 }),
+        side: fc.constantFrom('left' as const, 'right' as const),
+      }),
       fc.record({ kind: fc.constant('bar' as const), row: fc.integer({ min: 1, max: 64 }), position: fc.integer({ min: 1, max: 64 }) }),
       fc.constantFrom(...settingPlaces),
     );
@@ -24,7 +32,19 @@ describe('place keys', () => {
     );
   });
   it('reject malformed keys', () => {
-    for (const k of ['', 'element', 'element:2', 'element:x:left', 'element:2:up', 'bar:1', 'cover:0:left', 'setting:speed', 'element:2:left:extra', 'element:-1:left', 'element:1.5:left'])
+    for (const k of [
+      '',
+      'element',
+      'element:2',
+      'element:x:left',
+      'element:2:up',
+      'bar:1',
+      'cover:0:left',
+      'setting:speed',
+      'element:2:left:extra',
+      'element:-1:left',
+      'element:1.5:left',
+    ])
       expect(parsePlaceKey(k), k).toBeNull();
   });
 });
@@ -33,9 +53,17 @@ describe('allPlaces: the drawing order', () => {
   it('walks cage top left, left half, right half, cage top right, then rotor rows — each band front to rear', () => {
     const keys = allPlaces(modular).map(placeKey);
     expect(keys.slice(0, 11)).toEqual([
-      'cover:1:left', 'cover:2:left', 'cover:3:left',
-      'element:1:left', 'element:2:left', 'element:3:left', 'element:4:left',
-      'element:1:right', 'element:2:right', 'element:3:right', 'element:4:right',
+      'cover:1:left',
+      'cover:2:left',
+      'cover:3:left',
+      'element:1:left',
+      'element:2:left',
+      'element:3:left',
+      'element:4:left',
+      'element:1:right',
+      'element:2:right',
+      'element:3:right',
+      'element:4:right',
     ]);
     expect(keys.slice(11, 14)).toEqual(['cover:1:right', 'cover:2:right', 'cover:3:right']);
     expect(keys.slice(14, 19)).toEqual(['bar:1:1', 'bar:1:2', 'bar:1:3', 'bar:1:4', 'bar:2:1']);

@@ -66,12 +66,20 @@ describe('planner on every demo machine and crop', () => {
         for (const shelf of [{}, farmShelf(installed), fullShelf(m.family)])
           for (const to of cropIds)
             for (const mode of ['program', 'on-hand'] as const) {
-              const plan = ok(planCropChange({ family: m.family, catalog, installed, shelf, crop: to, mode, drum: m.drum, vaneControl: m.vaneControl }));
+              const plan = ok(
+                planCropChange({ family: m.family, catalog, installed, shelf, crop: to, mode, drum: m.drum, vaneControl: m.vaneControl }),
+              );
               const findings = checkLayout(m.family, catalog, plan.layout);
               const ctx = `${from ?? 'empty'} → ${to} (${mode})`;
-              expect(findings.filter((f) => f.severity === 'blocks-fit'), ctx).toEqual([]);
+              expect(
+                findings.filter((f) => f.severity === 'blocks-fit'),
+                ctx,
+              ).toEqual([]);
               // The demo catalog has every program part, so the crop is served well too.
-              expect(findings.filter((f) => f.severity === 'hurts-crop'), ctx).toEqual([]);
+              expect(
+                findings.filter((f) => f.severity === 'hurts-crop'),
+                ctx,
+              ).toEqual([]);
               expect(plan.layout.crop).toBe(to);
               expect(plan.layout.drum).toBe(m.drum);
               expect(plan.layout.vaneControl).toBe(m.vaneControl);
@@ -98,7 +106,17 @@ describe('planner on every demo machine and crop', () => {
       for (const from of [null, ...cropIds] as (CropId | null)[]) {
         const installed = from ? starterLayout(m.family, from, demoCatalog, { drum: m.drum, vaneControl: m.vaneControl }) : null;
         for (const to of cropIds) {
-          const plan = ok(planCropChange({ family: m.family, catalog, installed, shelf: fullShelf(m.family), crop: to, drum: m.drum, vaneControl: m.vaneControl }));
+          const plan = ok(
+            planCropChange({
+              family: m.family,
+              catalog,
+              installed,
+              shelf: fullShelf(m.family),
+              crop: to,
+              drum: m.drum,
+              vaneControl: m.vaneControl,
+            }),
+          );
           expect(plan.counts.purchases, `${from} → ${to}`).toBe(0);
           expect(plan.purchases).toEqual([]);
           expect(plan.steps.some((s) => s.kind === 'buy')).toBe(false);
@@ -181,7 +199,9 @@ describe('a wheat machine going to peas, corn and rice', () => {
     const p = plan('rice');
     expect(p.layout.coverPlates).toEqual([{ section: 2, side: 'right', partNumber: 'CW-CP-R-04' }]);
     const withLeft = { ...wheat, coverPlates: [{ section: 2, side: 'left' as const, partNumber: 'CW-CP-L-04' }] };
-    const q = ok(planCropChange({ family: modular, catalog, installed: withLeft, shelf: {}, crop: 'rice', drum: 'slim', vaneControl: 'powered' }));
+    const q = ok(
+      planCropChange({ family: modular, catalog, installed: withLeft, shelf: {}, crop: 'rice', drum: 'slim', vaneControl: 'powered' }),
+    );
     const off = q.removals.find((r) => r.key === 'cover:2:left');
     expect(off?.why).toMatch(/vane linkage/);
     expect(q.layout.coverPlates.map((c) => c.side)).toEqual(['right']);
@@ -199,7 +219,10 @@ describe('a wheat machine going to peas, corn and rice', () => {
     const p = plan('field-peas');
     const fields = p.settings.map((s) => s.field);
     expect(fields).toEqual(expect.arrayContaining(['rotorRpm', 'clearanceMm', 'vaneSetting']));
-    expect(p.settings.find((s) => s.field === 'clearanceMm')).toMatchObject({ before: cropPrograms.wheat.clearanceMm.maxMm, after: cropPrograms['field-peas'].clearanceMm.maxMm });
+    expect(p.settings.find((s) => s.field === 'clearanceMm')).toMatchObject({
+      before: cropPrograms.wheat.clearanceMm.maxMm,
+      after: cropPrograms['field-peas'].clearanceMm.maxMm,
+    });
   });
 
   it('the fingerprint changes when the shelf changes the plan, and not otherwise', () => {
@@ -291,7 +314,9 @@ describe('no possible plan', () => {
     expect(plan.ok).toBe(false);
     if (plan.ok) return;
     expect(plan.reasons).toHaveLength(3);
-    expect(plan.reasons[0]!.message).toMatch(/None of the right-hand grates in the catalog suits edible beans.*fine-wire: its opening is too small/);
+    expect(plan.reasons[0]!.message).toMatch(
+      /None of the right-hand grates in the catalog suits edible beans.*fine-wire: its opening is too small/,
+    );
   });
 
   it('falls back to the closest suitable element when the program’s own is missing from the catalog', () => {
@@ -336,7 +361,11 @@ const SPEC: Record<ElementType, { w: number; l: number; open: number; price: num
 const pairParts: CatalogPart[] = [];
 for (const [type, s] of Object.entries(SPEC) as [ElementType, (typeof SPEC)[ElementType]][])
   for (const hand of ['left', 'right'] as Side[]) {
-    const code = type.split('-').map((w) => w[0]!.toUpperCase()).join('') + (type === 'perforated' ? 'F' : '');
+    const code =
+      type
+        .split('-')
+        .map((w) => w[0]!.toUpperCase())
+        .join('') + (type === 'perforated' ? 'F' : '');
     pairParts.push(
       catalogPartSchema.parse({
         kind: 'element',
@@ -355,13 +384,29 @@ for (const [type, s] of Object.entries(SPEC) as [ElementType, (typeof SPEC)[Elem
     );
   }
 for (const hand of ['left', 'right'] as Side[])
-  pairParts.push({ ...(pairParts.find((p) => p.partNumber === `TP-WW-${hand[0]!.toUpperCase()}`) as ElementPart), partNumber: `TP-WW-${hand[0]!.toUpperCase()}-2`, priceCents: 95_000 });
+  pairParts.push({
+    ...(pairParts.find((p) => p.partNumber === `TP-WW-${hand[0]!.toUpperCase()}`) as ElementPart),
+    partNumber: `TP-WW-${hand[0]!.toUpperCase()}-2`,
+    priceCents: 95_000,
+  });
 const pairCatalog = indexCatalog(pairParts);
 const foreign = 'CW-FW-L-04'; // a part of another family
 const SLOTS = [1, 2].flatMap((position) => (['left', 'right'] as Side[]).map((side) => ({ kind: 'element' as const, position, side })));
 
 function pairLayout(crop: CropId, elements: Layout['elements']): Layout {
-  return { format: LAYOUT_FORMAT, familyId: pair.id, crop, drum: 'full', vaneControl: 'fixed', vaneSetting: 'medium', rotorRpm: 500, clearanceMm: 15, elements, coverPlates: [], rotorBars: [] };
+  return {
+    format: LAYOUT_FORMAT,
+    familyId: pair.id,
+    crop,
+    drum: 'full',
+    vaneControl: 'fixed',
+    vaneSetting: 'medium',
+    rotorRpm: 500,
+    clearanceMm: 15,
+    elements,
+    coverPlates: [],
+    rotorBars: [],
+  };
 }
 
 /**
@@ -430,7 +475,9 @@ describe('exactness against exhaustive search', () => {
     expect(bruteForce(installed, {}, 'corn', 'program')).toEqual([0, 4]);
     expect([plan.counts.purchases, plan.counts.moves]).toEqual([0, 4]);
     expect(plan.steps.map((s) => s.kind)).toEqual(['swap', 'swap']);
-    expect(plan.steps[0]!.text).toMatch(/^Swap the left-hand skip-wire element TP-SW-L at position 1, left with the left-hand wide-wire element TP-WW-L at position 2, left/);
+    expect(plan.steps[0]!.text).toMatch(
+      /^Swap the left-hand skip-wire element TP-SW-L at position 1, left with the left-hand wide-wire element TP-WW-L at position 2, left/,
+    );
   });
 
   it('matches exhaustive search on random machines, shelves, crops and modes', () => {
@@ -465,11 +512,19 @@ describe('the assignment solver', () => {
   it('finds the optimum of small matrices, checked against all permutations', () => {
     fc.assert(
       fc.property(
-        fc.integer({ min: 1, max: 5 }).chain((n) =>
-          fc.tuple(fc.constant(n), fc.integer({ min: n, max: n + 2 })).chain(([n, m]) =>
-            fc.tuple(fc.constant(n), fc.constant(m), fc.array(fc.integer({ min: -50, max: 50 }), { minLength: n * m, maxLength: n * m })),
+        fc
+          .integer({ min: 1, max: 5 })
+          .chain((n) =>
+            fc
+              .tuple(fc.constant(n), fc.integer({ min: n, max: n + 2 }))
+              .chain(([n, m]) =>
+                fc.tuple(
+                  fc.constant(n),
+                  fc.constant(m),
+                  fc.array(fc.integer({ min: -50, max: 50 }), { minLength: n * m, maxLength: n * m }),
+                ),
+              ),
           ),
-        ),
         ([n, m, flat]) => {
           const { colOfRow, total } = solveAssignment(n, m, (i, j) => flat[i * m + j]!);
           expect(new Set(colOfRow).size).toBe(n);
@@ -477,11 +532,12 @@ describe('the assignment solver', () => {
           const used = new Array<boolean>(m).fill(false);
           const go = (i: number, sum: number) => {
             if (i === n) return void (best = Math.min(best, sum));
-            for (let j = 0; j < m; j++) if (!used[j]) {
-              used[j] = true;
-              go(i + 1, sum + flat[i * m + j]!);
-              used[j] = false;
-            }
+            for (let j = 0; j < m; j++)
+              if (!used[j]) {
+                used[j] = true;
+                go(i + 1, sum + flat[i * m + j]!);
+                used[j] = false;
+              }
           };
           go(0, 0);
           expect(total).toBe(best);
@@ -501,7 +557,13 @@ describe('working order', () => {
   it('rotates three parts that stand in each other’s way through one set aside', () => {
     const part = (pn: string) => pairCatalog.byPartNumber.get(pn)!;
     const at = (position: number) => ({ kind: 'element' as const, position, side: 'left' as const });
-    const unit = (pn: string, position: number): Unit => ({ source: 'installed', partNumber: pn, part: part(pn), at: at(position), atKey: `element:${position}:left` });
+    const unit = (pn: string, position: number): Unit => ({
+      source: 'installed',
+      partNumber: pn,
+      part: part(pn),
+      at: at(position),
+      atKey: `element:${position}:left`,
+    });
     const moved = (pn: string, from: number, to: number): SlotOutcome => ({
       slot: { place: at(to), key: `element:${to}:left`, candidates: [], empty: null },
       source: 'moved',
@@ -523,7 +585,13 @@ describe('working order', () => {
   it('moves along a chain from its free end', () => {
     const part = (pn: string) => pairCatalog.byPartNumber.get(pn)!;
     const at = (position: number) => ({ kind: 'element' as const, position, side: 'left' as const });
-    const unit = (pn: string, position: number): Unit => ({ source: 'installed', partNumber: pn, part: part(pn), at: at(position), atKey: `element:${position}:left` });
+    const unit = (pn: string, position: number): Unit => ({
+      source: 'installed',
+      partNumber: pn,
+      part: part(pn),
+      at: at(position),
+      atKey: `element:${position}:left`,
+    });
     const moved = (pn: string, from: number, to: number): SlotOutcome => ({
       slot: { place: at(to), key: `element:${to}:left`, candidates: [], empty: null },
       source: 'moved',

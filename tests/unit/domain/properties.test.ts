@@ -54,10 +54,13 @@ const anyLayoutArb: fc.Arbitrary<{ family: MachineFamily; layout: Layout }> = fc
       maxLength: 4,
       selector: (c) => `${c.section}:${c.side}`,
     }),
-    rotorBars: fc.uniqueArray(fc.record({ row: fc.integer({ min: 1, max: 5 }), position: fc.integer({ min: 1, max: 7 }), partNumber: partNumberArb }), {
-      maxLength: 30,
-      selector: (b) => `${b.row}:${b.position}`,
-    }),
+    rotorBars: fc.uniqueArray(
+      fc.record({ row: fc.integer({ min: 1, max: 5 }), position: fc.integer({ min: 1, max: 7 }), partNumber: partNumberArb }),
+      {
+        maxLength: 30,
+        selector: (b) => `${b.row}:${b.position}`,
+      },
+    ),
   })
   .map(({ family, ...rest }) => ({ family, layout: layoutSchema.parse({ format: 'cagewright.layout/1', ...rest }) }));
 

@@ -16,7 +16,8 @@ function files(dir: string): string[] {
   });
 }
 
-const IMPORT = /(?:^|[\s;])(?:import|export)\s[^;]*?from\s*['"]([^'"]+)['"]|import\s*\(\s*['"]([^'"]+)['"]\s*\)|^\s*import\s*['"]([^'"]+)['"]|require\s*\(\s*['"]([^'"]+)['"]\s*\)/gm;
+const IMPORT =
+  /(?:^|[\s;])(?:import|export)\s[^;]*?from\s*['"]([^'"]+)['"]|import\s*\(\s*['"]([^'"]+)['"]\s*\)|^\s*import\s*['"]([^'"]+)['"]|require\s*\(\s*['"]([^'"]+)['"]\s*\)/gm;
 const GLOBALS = /\b(window|document|localStorage|sessionStorage|navigator|process|Buffer|require|__dirname|fetch)\s*[.(]/;
 
 // `~/` is src/ (the import alias); anything else is relative to the importing file.

@@ -85,7 +85,11 @@ describe('parts', () => {
     expect(codes(fs)).toEqual(['PART_UNKNOWN']);
   });
   it('PART_UNKNOWN fires for unknown cover plates and bars too', () => {
-    expectFires(run({ ...start('rice'), coverPlates: [{ section: 2, side: 'right', partNumber: 'CW-CP-X-99' }] }), 'PART_UNKNOWN', 'blocks-fit');
+    expectFires(
+      run({ ...start('rice'), coverPlates: [{ section: 2, side: 'right', partNumber: 'CW-CP-X-99' }] }),
+      'PART_UNKNOWN',
+      'blocks-fit',
+    );
     expectFires(run(setBar(start('wheat'), 1, 1, 'CW-BR-XX-04')), 'PART_UNKNOWN', 'blocks-fit');
   });
   it('PART_WRONG_KIND fires for a cover plate placed as an element', () => {
@@ -151,7 +155,11 @@ describe('elements', () => {
 });
 
 describe('cover plates', () => {
-  const plate = (section: number, side: 'left' | 'right', pn = side === 'left' ? 'CW-CP-L-04' : 'CW-CP-R-04') => ({ section, side, partNumber: pn });
+  const plate = (section: number, side: 'left' | 'right', pn = side === 'left' ? 'CW-CP-L-04' : 'CW-CP-R-04') => ({
+    section,
+    side,
+    partNumber: pn,
+  });
   it('COVER_SECTION_UNKNOWN fires for a section the cage top does not have', () => {
     expectFires(run({ ...start('rice'), coverPlates: [plate(7, 'right')] }), 'COVER_SECTION_UNKNOWN', 'blocks-fit');
   });
@@ -182,7 +190,10 @@ describe('cover plates', () => {
     const unslottedCatalog = demoCatalog.map((p) => (p.kind === 'cover-plate' ? { ...p, slotted: false } : p));
     const fixed = { ...start('rice'), vaneControl: 'fixed' as const, coverPlates: [plate(2, 'right')] };
     const f = expectFires(run(fixed, modular, unslottedCatalog), 'COVER_UNSLOTTED_VANES', 'advice');
-    expect(f.places).toEqual([{ kind: 'cover', section: 2, side: 'right' }, { kind: 'setting', field: 'vaneSetting' }]);
+    expect(f.places).toEqual([
+      { kind: 'cover', section: 2, side: 'right' },
+      { kind: 'setting', field: 'vaneSetting' },
+    ]);
     expect(f.explanation).toMatch(/bolts/);
     expect(codes(run(fixed))).not.toContain('COVER_UNSLOTTED_VANES');
     expect(codes(run({ ...fixed, vaneControl: 'powered' }, modular, unslottedCatalog))).not.toContain('COVER_UNSLOTTED_VANES');
@@ -293,7 +304,9 @@ describe('crop', () => {
     const f = expectFires(run(setElement(start('wheat'), 3, 'right', 'CW-BL-R-04')), 'CROP_BLANK_PLATE', 'hurts-crop');
     expect(f.places).toEqual([{ kind: 'element', position: 3, side: 'right' }]);
     expect(f.fix).toContain('wide-wire');
-    expect(expectFires(run(setElement(start('wheat'), 1, 'left', 'CW-BL-L-04')), 'CROP_BLANK_PLATE', 'hurts-crop').fix).toContain('fine-wire');
+    expect(expectFires(run(setElement(start('wheat'), 1, 'left', 'CW-BL-L-04')), 'CROP_BLANK_PLATE', 'hurts-crop').fix).toContain(
+      'fine-wire',
+    );
   });
   it('CROP_BLANK_PLATE does not fire in sunflower, nor for perforated plates in edible beans', () => {
     expect(codes(run(setElement(start('sunflower'), 1, 'left', 'CW-BL-L-04')))).not.toContain('CROP_BLANK_PLATE');
@@ -354,7 +367,7 @@ describe('kernel passage with a margin', () => {
     // Canola's stored size is the published upper bound already (Razavi et al., 2009): factor 1.
     expect(kernelPassage({ width: 5, length: 25 }, cropPrograms.canola.kernel).largerSizeMm).toBeCloseTo(1.91, 6);
   });
-  it('a round hole is judged by its diameter against the kernel\'s middle size', () => {
+  it("a round hole is judged by its diameter against the kernel's middle size", () => {
     // Perforated plate: 14 mm round holes. A large dry bean is 9.75 mm wide (Isik, 2013).
     const bean = kernelPassage({ width: 14, length: 14 }, cropPrograms['edible-beans'].kernel);
     expect(bean.opening).toBe('hole');
@@ -395,16 +408,21 @@ describe('kernel passage with a margin', () => {
     const blank = (side: 'left' | 'right') => `CW-BL-${side === 'left' ? 'L' : 'R'}-04`;
     for (const crop of cropIds) {
       let l = start(crop);
-      for (const p of modular.positions) if (p.zone === 'separating') for (const side of ['left', 'right'] as const) l = setElement(l, p.index, side, blank(side));
+      for (const p of modular.positions)
+        if (p.zone === 'separating') for (const side of ['left', 'right'] as const) l = setElement(l, p.index, side, blank(side));
       const f = only(run(l), 'ZONE_NO_OPEN_AREA');
-      expect(f.map((x) => x.title), crop).toEqual(['No open area in the separating zone']);
+      expect(
+        f.map((x) => x.title),
+        crop,
+      ).toEqual(['No open area in the separating zone']);
       expect(f[0]!.places).toHaveLength(4);
     }
     const sunflower = run(everywhere(start('sunflower'), blank));
-    expect(only(sunflower, 'ZONE_NO_OPEN_AREA').map((x) => x.title).sort()).toEqual([
-      'No open area in the separating zone',
-      'No open area in the threshing zone',
-    ]);
+    expect(
+      only(sunflower, 'ZONE_NO_OPEN_AREA')
+        .map((x) => x.title)
+        .sort(),
+    ).toEqual(['No open area in the separating zone', 'No open area in the threshing zone']);
     // A few blank plates in sunflower (whole heads kept up) raise nothing.
     expect(codes(run(setElement(start('sunflower'), 1, 'left', 'CW-BL-L-04')))).not.toContain('ZONE_NO_OPEN_AREA');
   });
@@ -424,7 +442,8 @@ describe('findings read as a person says them', () => {
     expect(soyFine.explanation).toContain('an average soybean kernel');
     const rice = run(setElement(start('rice'), 1, 'left', 'CW-WW-L-04'));
     expect(expectFires(rice, 'CROP_OPEN_HARD_THRESHING', 'hurts-crop').explanation).toMatch(/^Rice is hard to thresh/);
-    for (const f of [...beans, ...wheat, ...soy, ...rice]) expect(`${f.title} ${f.explanation} ${f.fix}`).not.toMatch(/\b(soybeans|edible beans|field peas) (kernel|cage|heads|program)\b/i);
+    for (const f of [...beans, ...wheat, ...soy, ...rice])
+      expect(`${f.title} ${f.explanation} ${f.fix}`).not.toMatch(/\b(soybeans|edible beans|field peas) (kernel|cage|heads|program)\b/i);
   });
 });
 
@@ -458,22 +477,40 @@ describe('settings', () => {
     expect(f.places).toEqual([{ kind: 'setting', field: 'clearanceMm' }]);
   });
   it('CROP_CLEARANCE_OUTSIDE_WINDOW: corn at 3 mm is too tight, wheat at 40 mm too wide (common practice windows)', () => {
-    expect(expectFires(run({ ...start('corn', split), clearanceMm: 3 }, split), 'CROP_CLEARANCE_OUTSIDE_WINDOW', 'hurts-crop').title).toMatch(/too tight/);
-    expect(expectFires(run({ ...start('wheat'), clearanceMm: 40 }), 'CROP_CLEARANCE_OUTSIDE_WINDOW', 'hurts-crop').title).toMatch(/too wide/);
+    expect(
+      expectFires(run({ ...start('corn', split), clearanceMm: 3 }, split), 'CROP_CLEARANCE_OUTSIDE_WINDOW', 'hurts-crop').title,
+    ).toMatch(/too tight/);
+    expect(expectFires(run({ ...start('wheat'), clearanceMm: 40 }), 'CROP_CLEARANCE_OUTSIDE_WINDOW', 'hurts-crop').title).toMatch(
+      /too wide/,
+    );
     expect(codes(run({ ...start('wheat'), clearanceMm: 12 }))).not.toContain('CROP_CLEARANCE_OUTSIDE_WINDOW');
   });
   it('FIT_VANE_SETTING_UNAVAILABLE: bolt-set vanes cannot be set very slow, and the fix names a setting they take', () => {
-    const f = expectFires(run({ ...start('wheat', modular, { vaneControl: 'fixed' }), vaneSetting: 'very-slow' }), 'FIT_VANE_SETTING_UNAVAILABLE', 'blocks-fit');
+    const f = expectFires(
+      run({ ...start('wheat', modular, { vaneControl: 'fixed' }), vaneSetting: 'very-slow' }),
+      'FIT_VANE_SETTING_UNAVAILABLE',
+      'blocks-fit',
+    );
     expect(f.explanation).toMatch(/in the shop/);
     expect(f.fix).toMatch(/Set the vanes to (slow|medium|fast)\b/);
-    expect(codes(run({ ...start('wheat', modular, { vaneControl: 'powered' }), vaneSetting: 'very-slow' }))).not.toContain('FIT_VANE_SETTING_UNAVAILABLE');
+    expect(codes(run({ ...start('wheat', modular, { vaneControl: 'powered' }), vaneSetting: 'very-slow' }))).not.toContain(
+      'FIT_VANE_SETTING_UNAVAILABLE',
+    );
   });
   it('CROP_VANES_AGAINST_CROP: rice with fast vanes hurts the crop (common practice: slow vanes for hard threshing)', () => {
-    const f = expectFires(run({ ...start('rice', modular, { vaneControl: 'powered' }), vaneSetting: 'fast' }), 'CROP_VANES_AGAINST_CROP', 'hurts-crop');
+    const f = expectFires(
+      run({ ...start('rice', modular, { vaneControl: 'powered' }), vaneSetting: 'fast' }),
+      'CROP_VANES_AGAINST_CROP',
+      'hurts-crop',
+    );
     expect(f.fix).toMatch(/very slow|slow/);
     expect(f.fix).toMatch(/from the cab/);
     // On bolt-set vanes the advice is slow, never very slow (they cannot take it).
-    const g = expectFires(run({ ...start('rice', modular, { vaneControl: 'fixed' }), vaneSetting: 'fast' }), 'CROP_VANES_AGAINST_CROP', 'hurts-crop');
+    const g = expectFires(
+      run({ ...start('rice', modular, { vaneControl: 'fixed' }), vaneSetting: 'fast' }),
+      'CROP_VANES_AGAINST_CROP',
+      'hurts-crop',
+    );
     expect(g.fix).toMatch(/^Set the vanes to slow /);
   });
   it('CROP_VANES_ADVICE: wheat on very slow vanes is advice only', () => {

@@ -1,12 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import {
-  catalogPartSchema,
-  demoCatalog,
-  demoFamilies,
-  layoutSchema,
-  machineFamilySchema,
-  machineFamilyBaseSchema,
-} from '~/lib/domain';
+import { catalogPartSchema, demoCatalog, demoFamilies, layoutSchema, machineFamilySchema, machineFamilyBaseSchema } from '~/lib/domain';
 import { start } from './helpers';
 
 const paths = (r: { success: boolean; error?: { issues: { path: PropertyKey[] }[] } }) =>
@@ -41,7 +34,9 @@ describe('layout schema', () => {
     expect(paths(layoutSchema.safeParse({ ...l, elements: [...l.elements, l.elements[0]!] }))).toEqual([`elements.${l.elements.length}`]);
   });
   it('rejects a malformed part number', () => {
-    expect(paths(layoutSchema.safeParse({ ...start('wheat'), rotorBars: [{ row: 1, position: 1, partNumber: 'cw fw' }] }))).toEqual(['rotorBars.0.partNumber']);
+    expect(paths(layoutSchema.safeParse({ ...start('wheat'), rotorBars: [{ row: 1, position: 1, partNumber: 'cw fw' }] }))).toEqual([
+      'rotorBars.0.partNumber',
+    ]);
   });
 });
 

@@ -62,14 +62,19 @@ describe('speed windows agree with their sources', () => {
 
   it('property: inside any cited range never "hurts crop"; outside all of them always does — every crop, both drums', () => {
     fc.assert(
-      fc.property(fc.constantFrom(...crops), fc.constantFrom('full' as const, 'slim' as const), fc.integer({ min: 100, max: 1500 }), (crop, drum, n) => {
-        const w = w762(crop, drum);
-        const inside = w.ranges.some((r) => n >= r.lo && n <= r.hi);
-        const f = check({ ...start(crop, modular, { drum }), rotorRpm: n });
-        expect(codes(f).includes('CROP_RPM_OUTSIDE_WINDOW')).toBe(!inside);
-        // The start band gives advice at most.
-        for (const x of f.filter((x) => x.code === 'CROP_RPM_OUTSIDE_START')) expect(x.severity).toBe('advice');
-      }),
+      fc.property(
+        fc.constantFrom(...crops),
+        fc.constantFrom('full' as const, 'slim' as const),
+        fc.integer({ min: 100, max: 1500 }),
+        (crop, drum, n) => {
+          const w = w762(crop, drum);
+          const inside = w.ranges.some((r) => n >= r.lo && n <= r.hi);
+          const f = check({ ...start(crop, modular, { drum }), rotorRpm: n });
+          expect(codes(f).includes('CROP_RPM_OUTSIDE_WINDOW')).toBe(!inside);
+          // The start band gives advice at most.
+          for (const x of f.filter((x) => x.code === 'CROP_RPM_OUTSIDE_START')) expect(x.severity).toBe('advice');
+        },
+      ),
       { numRuns: 400 },
     );
   });
@@ -77,7 +82,8 @@ describe('speed windows agree with their sources', () => {
     for (const crop of crops) {
       const w = w762(crop);
       for (const r of w.ranges) {
-        for (const n of [r.lo, r.hi]) expect(codes(check({ ...start(crop), rotorRpm: n })), `${crop} ${n}`).not.toContain('CROP_RPM_OUTSIDE_WINDOW');
+        for (const n of [r.lo, r.hi])
+          expect(codes(check({ ...start(crop), rotorRpm: n })), `${crop} ${n}`).not.toContain('CROP_RPM_OUTSIDE_WINDOW');
       }
       const lo = Math.min(...w.ranges.map((r) => r.lo));
       const hi = Math.max(...w.ranges.map((r) => r.hi));
@@ -112,8 +118,10 @@ describe('concave clearance', () => {
         const win = cropPrograms[crop].clearanceMm;
         const f = check({ ...start(crop), clearanceMm: mmValue });
         const got = f.filter((x) => CLEARANCE_CODES.includes(x.code));
-        if (mmValue < MECHANICAL_MIN_CLEARANCE_MM) expect(got.map((x) => [x.code, x.severity])).toEqual([['FIT_CLEARANCE_BELOW_MINIMUM', 'blocks-fit']]);
-        else if (mmValue < win.minMm || mmValue > win.maxMm) expect(got.map((x) => [x.code, x.severity])).toEqual([['CROP_CLEARANCE_OUTSIDE_WINDOW', 'hurts-crop']]);
+        if (mmValue < MECHANICAL_MIN_CLEARANCE_MM)
+          expect(got.map((x) => [x.code, x.severity])).toEqual([['FIT_CLEARANCE_BELOW_MINIMUM', 'blocks-fit']]);
+        else if (mmValue < win.minMm || mmValue > win.maxMm)
+          expect(got.map((x) => [x.code, x.severity])).toEqual([['CROP_CLEARANCE_OUTSIDE_WINDOW', 'hurts-crop']]);
         else expect(got).toEqual([]);
       }),
       { numRuns: 400 },
@@ -138,7 +146,11 @@ describe('vanes', () => {
           const l: Layout = { ...start(crop, family), vaneControl: control, vaneSetting: setting };
           for (const f of check(l, family).filter((x) => VANE_CODES.includes(x.code))) {
             const named = /(?:Set the vanes to|Try) (very slow|slow|medium|fast)\b/.exec(f.fix)?.[1];
-            if (named) expect(vaneSettingsFor(control).map((v) => v.replace('-', ' ')), `${crop} ${control} ${setting}: ${f.fix}`).toContain(named);
+            if (named)
+              expect(
+                vaneSettingsFor(control).map((v) => v.replace('-', ' ')),
+                `${crop} ${control} ${setting}: ${f.fix}`,
+              ).toContain(named);
           }
         }
   });
@@ -168,8 +180,13 @@ describe('starting settings start slow and wide', () => {
             expect(l.rotorRpm - 1, crop).toBeLessThan(slowest.minRpm - 1e-6);
             expect(l.clearanceMm, crop).toBe(cropPrograms[crop].clearanceMm.maxMm);
             expect(vaneSettingsFor(control)).toContain(l.vaneSetting);
-            const bad = check(l, family).filter((f) => [...SPEED_CODES, ...CLEARANCE_CODES, ...VANE_CODES].includes(f.code) && f.severity !== 'advice');
-            expect(bad.map((f) => f.code), `${family.id} ${drum.id} ${control} ${crop}`).toEqual([]);
+            const bad = check(l, family).filter(
+              (f) => [...SPEED_CODES, ...CLEARANCE_CODES, ...VANE_CODES].includes(f.code) && f.severity !== 'advice',
+            );
+            expect(
+              bad.map((f) => f.code),
+              `${family.id} ${drum.id} ${control} ${crop}`,
+            ).toEqual([]);
           }
   });
 });
@@ -190,8 +207,13 @@ describe('the planner proposes the same starting settings', () => {
         expect(plan.layout.rotorRpm, crop).toBe(startRpm(w));
         expect(plan.layout.clearanceMm, crop).toBe(cropPrograms[crop].clearanceMm.maxMm);
         expect(vaneSettingsFor(control)).toContain(plan.layout.vaneSetting);
-        const bad = plan.findings.filter((f) => [...SPEED_CODES, ...CLEARANCE_CODES, ...VANE_CODES].includes(f.code) && f.severity !== 'advice');
-        expect(bad.map((f) => f.code), `${control} ${crop}`).toEqual([]);
+        const bad = plan.findings.filter(
+          (f) => [...SPEED_CODES, ...CLEARANCE_CODES, ...VANE_CODES].includes(f.code) && f.severity !== 'advice',
+        );
+        expect(
+          bad.map((f) => f.code),
+          `${control} ${crop}`,
+        ).toEqual([]);
       }
     expect(planned).toBeGreaterThan(crops.length);
   });

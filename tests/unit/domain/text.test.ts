@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { findUnstorable, isStorableText, storableString } from '../../../src/lib/domain/text';
+import { findUnstorable, isStorableText, storableString } from '~/lib/domain/text';
 
 // PostgreSQL documentation, "Character Types": the character with code zero cannot be stored in text.
 // RFC 8259 §8.2: JSON escapes may encode an unpaired surrogate, which is no Unicode character.
@@ -10,7 +10,8 @@ describe('text the store can keep', () => {
   });
 
   it('refuses NUL and lone surrogates wherever they sit', () => {
-    for (const s of ['\u0000', 'a\u0000b', 'end\u0000', '\ud800', 'x\ud83cy', '\udc00x', 'x\udfff', '🌾\ud800', '\ude00🌾']) expect(isStorableText(s), JSON.stringify(s)).toBe(false);
+    for (const s of ['\u0000', 'a\u0000b', 'end\u0000', '\ud800', 'x\ud83cy', '\udc00x', 'x\udfff', '🌾\ud800', '\ude00🌾'])
+      expect(isStorableText(s), JSON.stringify(s)).toBe(false);
   });
 
   it('agrees with String.prototype.isWellFormed plus a NUL check on any string', () => {

@@ -1,13 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { createEditorStore } from '../../../src/components/editor/store/create-editor-store';
-import { demoCatalog, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
-import { buildChecklist } from '../../../src/lib/domain/inspection';
-import { withPartAt } from '../../../src/lib/domain/layout-edits';
-import { elementPlace, placeKey } from '../../../src/lib/domain/places';
-import { planCropChange } from '../../../src/lib/domain/planner';
-import { checkLayout } from '../../../src/lib/domain/rules';
-import { barKindSchema, elementTypeSchema, type CatalogPart, type Place } from '../../../src/lib/domain/schemas';
-import { starterLayout } from '../../../src/lib/domain/starter';
+import { createEditorStore } from '~/components/editor/store/create-editor-store';
+import { demoCatalog, tamarackM4 } from '~/lib/domain/demo-catalog';
+import { buildChecklist } from '~/lib/domain/inspection';
+import { withPartAt } from '~/lib/domain/layout-edits';
+import { elementPlace, placeKey } from '~/lib/domain/places';
+import { planCropChange } from '~/lib/domain/planner';
+import { checkLayout } from '~/lib/domain/rules';
+import { barKindSchema, elementTypeSchema, type CatalogPart, type Place } from '~/lib/domain/schemas';
+import { starterLayout } from '~/lib/domain/starter';
 import {
   BAR_KINDS,
   ELEMENT_TYPES,
@@ -18,7 +18,7 @@ import {
   partName,
   placeLabel,
   placeWords,
-} from '../../../src/lib/domain/vocabulary';
+} from '~/lib/domain/vocabulary';
 import { VersionedMemory, wheatInit } from '../editor/fixtures';
 
 // One vocabulary: the same slot reads the same wherever the product speaks of it. The phrasing
@@ -33,7 +33,13 @@ const otherHand = (pn: string): CatalogPart => {
   return catalog.find((q) => q.kind === 'element' && q.elementType === p.elementType && q.hand !== p.hand && q.role === p.role)!;
 };
 /** Any other phrasing a slot once had somewhere in the product. */
-const OLD_PHRASINGS = [/position \d+, (left|right) half\b/i, /\b(left|right), position \d/i, /\bcage top (left|right)/i, /\brotor bar row\b/i, /\bRotor bar, row\b/];
+const OLD_PHRASINGS = [
+  /position \d+, (left|right) half\b/i,
+  /\b(left|right), position \d/i,
+  /\bcage top (left|right)/i,
+  /\brotor bar row\b/i,
+  /\bRotor bar, row\b/,
+];
 
 describe('one phrasing for a slot everywhere', () => {
   for (const e of wheat.elements) {
@@ -51,7 +57,9 @@ describe('one phrasing for a slot everywhere', () => {
       expect(said).toContain(`at ${words}.`);
 
       // Finding: the hand finding pinned to that slot names it.
-      const finding = store.getState().findings.find((f) => f.code === 'FIT_HAND_MISMATCH' && f.places.some((p) => placeKey(p) === placeKey(place)))!;
+      const finding = store
+        .getState()
+        .findings.find((f) => f.code === 'FIT_HAND_MISMATCH' && f.places.some((p) => placeKey(p) === placeKey(place)))!;
       expect(finding.explanation).toContain(` at ${words}.`);
       // An emptied slot names it in the title.
       const emptied = checkLayout(tamarackM4, catalog, withPartAt(wheat, place, null)).find((f) => f.code === 'FIT_EMPTY_POSITION')!;
@@ -79,18 +87,21 @@ describe('one phrasing for a slot everywhere', () => {
     expect(placeWords(cover)).toBe('cage-top section 2, right');
     expect(placeWords(bar)).toBe('rotor row 1, position 4');
     const withPlate = { ...wheat, coverPlates: [{ section: 2, side: 'right' as const, partNumber: 'CW-CP-R-04' }] };
-    expect(buildChecklist(tamarackM4, withPlate, catalog).find((l) => l.placeKey === 'cover:2:right')!.label).toMatch(/^Cage-top section 2, right: /);
+    expect(buildChecklist(tamarackM4, withPlate, catalog).find((l) => l.placeKey === 'cover:2:right')!.label).toMatch(
+      /^Cage-top section 2, right: /,
+    );
     // A foreign part at a cover slot: the finding names the slot the same way.
     const foreign = demoCatalog.find((p) => p.kind === 'cover-plate' && p.side === 'right' && p.fitGroup !== tamarackM4.fitGroup)!;
-    const f = checkLayout(tamarackM4, demoCatalog, { ...wheat, coverPlates: [{ section: 2, side: 'right', partNumber: foreign.partNumber }] }).find(
-      (x) => x.code === 'FIT_GROUP_FOREIGN',
-    )!;
+    const f = checkLayout(tamarackM4, demoCatalog, {
+      ...wheat,
+      coverPlates: [{ section: 2, side: 'right', partNumber: foreign.partNumber }],
+    }).find((x) => x.code === 'FIT_GROUP_FOREIGN')!;
     expect(f.explanation).toContain(' at cage-top section 2, right ');
   });
 });
 
 describe('one name per kind of part', () => {
-  it('the element types are the schema\'s list, not a copy', () => {
+  it("the element types are the schema's list, not a copy", () => {
     expect(ELEMENT_TYPES).toBe(elementTypeSchema.options);
     expect(BAR_KINDS).toBe(barKindSchema.options);
   });

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { countOf, listWords, plural, withArticle } from '../../../src/lib/domain/words';
-import { aKernelOf, cropAdjective, cropNoun, cropSays, kernelsOf } from '../../../src/lib/domain/vocabulary';
-import { cropIds } from '../../../src/lib/domain/crops';
+import { countOf, listWords, plural, withArticle } from '~/lib/domain/words';
+import { aKernelOf, cropAdjective, cropNoun, cropSays, kernelsOf } from '~/lib/domain/vocabulary';
+import { cropIds } from '~/lib/domain/crops';
 
 // English usage: the article follows the first sound; common practice, no published source.
 describe('words', () => {
@@ -22,8 +22,8 @@ describe('words', () => {
   });
 });
 
-import { inRpmWindow, rpmWindowWhole, rpmWindowWords, type RpmWindow } from '../../../src/lib/domain/speed';
-import { planSummaryWords, type PlanOk } from '../../../src/lib/domain/planner';
+import { inRpmWindow, rpmWindowWhole, rpmWindowWords, type RpmWindow } from '~/lib/domain/speed';
+import { planSummaryWords, type PlanOk } from '~/lib/domain/planner';
 
 describe('one rpm window everywhere', () => {
   // A window whose ends fall between whole rpm (invented numbers for the check).
@@ -39,13 +39,14 @@ describe('one rpm window everywhere', () => {
 });
 
 describe('plan headline', () => {
-  const plan = (purchases: number, moves: number, settings: number) => ({ counts: { purchases, moves }, settings: Array.from({ length: settings }, () => ({})) }) as unknown as PlanOk;
+  const plan = (purchases: number, moves: number, settings: number) =>
+    ({ counts: { purchases, moves }, settings: Array.from({ length: settings }, () => ({})) }) as unknown as PlanOk;
   it('says "nothing to change" only when nothing changes', () => {
     expect(planSummaryWords(plan(0, 0, 0))).toBe('Nothing to buy, nothing to change.');
     expect(planSummaryWords(plan(0, 0, 2))).toBe('Nothing to buy, no part to take off, move or fit, 2 settings to change.');
     expect(planSummaryWords(plan(1, 3, 1))).toBe('1 part to buy, 3 parts to take off, move or fit, 1 setting to change.');
   });
-  it('takes the number from the language\'s plural rules (Intl.PluralRules), fractions included', () => {
+  it("takes the number from the language's plural rules (Intl.PluralRules), fractions included", () => {
     // English: only exactly 1 takes the singular (Unicode CLDR plural rules, "en").
     expect(countOf(1.5, 'kernel')).toBe('1.5 kernels');
     expect(countOf(0.5, 'kernel')).toBe('0.5 kernels');
@@ -53,7 +54,9 @@ describe('plan headline', () => {
     expect(plural(3, 'it arrives', 'they arrive')).toBe('they arrive');
   });
   it('parts a list whose items hold commas by semicolons', () => {
-    expect(listWords(['position 1, left', 'position 2, left', 'position 3, right'])).toBe('position 1, left; position 2, left and position 3, right');
+    expect(listWords(['position 1, left', 'position 2, left', 'position 3, right'])).toBe(
+      'position 1, left; position 2, left and position 3, right',
+    );
     expect(listWords([1, 2, 3])).toBe('1, 2 and 3');
   });
   it('says crops as nouns, with their kernels and the verb that agrees', () => {

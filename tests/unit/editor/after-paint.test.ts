@@ -1,5 +1,5 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { afterPaint, beforeNextPaint } from '../../../src/components/editor/after-paint';
+import { afterPaint, beforeNextPaint } from '~/components/editor/after-paint';
 
 /** A stand-in for the browser's frames: rAF callbacks run when `frame()` is called. */
 function fakeFrames() {

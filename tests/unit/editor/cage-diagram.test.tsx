@@ -1,13 +1,13 @@
 import { renderToStaticMarkup } from 'react-dom/server';
 import { describe, expect, it } from 'vitest';
-import { CageDiagram } from '../../../src/components/cage/CageDiagram';
-import { CageLegend } from '../../../src/components/cage/CageLegend';
-import { diagramGeometry } from '../../../src/components/cage/geometry';
-import { demoCatalog, sedgeS6, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
-import { starterLayout } from '../../../src/lib/domain/starter';
-import { allPlaces, placeKey } from '../../../src/lib/domain/places';
-import { checkLayout } from '../../../src/lib/domain/rules';
-import type { Layout } from '../../../src/lib/domain/schemas';
+import { CageDiagram } from '~/components/cage/CageDiagram';
+import { CageLegend } from '~/components/cage/CageLegend';
+import { diagramGeometry } from '~/components/cage/geometry';
+import { demoCatalog, sedgeS6, tamarackM4 } from '~/lib/domain/demo-catalog';
+import { starterLayout } from '~/lib/domain/starter';
+import { allPlaces, placeKey } from '~/lib/domain/places';
+import { checkLayout } from '~/lib/domain/rules';
+import type { Layout } from '~/lib/domain/schemas';
 
 const ariaOf = (html: string, key: string) => html.match(new RegExp(`data-place="${key}"[^>]*aria-label="([^"]*)"`))?.[1];
 
@@ -42,7 +42,9 @@ describe('cage diagram on the server', () => {
       elements: base.elements.map((e) => (e.position === 3 && e.side === 'right' ? { ...e, partNumber: 'CW-WW-L-04' } : e)),
     };
     const findings = checkLayout(tamarackM4, demoCatalog, layout);
-    const html = renderToStaticMarkup(<CageDiagram family={tamarackM4} layout={layout} catalog={demoCatalog} findings={findings} units="metric" />);
+    const html = renderToStaticMarkup(
+      <CageDiagram family={tamarackM4} layout={layout} catalog={demoCatalog} findings={findings} units="metric" />,
+    );
     expect(ariaOf(html, 'element:3:right')).toContain('Blocks fit: Left-hand element in the right half');
     expect(html).toContain('>Blocks fit<');
     expect(html).toContain('left-hand part');
@@ -52,9 +54,21 @@ describe('cage diagram on the server', () => {
   it('marks changed places in compare views, and the selection', () => {
     const layout = starterLayout(tamarackM4, 'corn', demoCatalog);
     const html = renderToStaticMarkup(
-      <CageDiagram family={tamarackM4} layout={layout} catalog={demoCatalog} units="metric" diffPlaces={[{ kind: 'bar', row: 1, position: 1 }, { kind: 'element', position: 1, side: 'left' }]} selectedPlace={{ kind: 'element', position: 2, side: 'left' }} />,
+      <CageDiagram
+        family={tamarackM4}
+        layout={layout}
+        catalog={demoCatalog}
+        units="metric"
+        diffPlaces={[
+          { kind: 'bar', row: 1, position: 1 },
+          { kind: 'element', position: 1, side: 'left' },
+        ]}
+        selectedPlace={{ kind: 'element', position: 2, side: 'left' }}
+      />,
     );
-    expect(ariaOf(html, 'bar:1:1')).toBe('Rotor row 1, position 1: straight bar, CW-BR-ST-04, across this mount and the one behind it. Changed');
+    expect(ariaOf(html, 'bar:1:1')).toBe(
+      'Rotor row 1, position 1: straight bar, CW-BR-ST-04, across this mount and the one behind it. Changed',
+    );
     expect(html).toContain('Δ CHANGED');
     // Elements carry the badge across their top edge; rotor bars, whose rows touch, a "Δ" inside the slot.
     expect(/data-place="bar:1:1"[^]*?<\/g><\/g>/.exec(html)![0]).toContain('data-mark="changed"');
@@ -69,7 +83,15 @@ describe('cage diagram on the server', () => {
     expect(html).toContain('Straight, from pos. 1');
     // Without the straight bar the rear mount is simply empty (and a finding).
     const bare = { ...corn, rotorBars: corn.rotorBars.filter((b) => !(b.row === 1 && b.position === 1)) };
-    const html2 = renderToStaticMarkup(<CageDiagram family={tamarackM4} layout={bare} catalog={demoCatalog} units="metric" findings={checkLayout(tamarackM4, demoCatalog, bare)} />);
+    const html2 = renderToStaticMarkup(
+      <CageDiagram
+        family={tamarackM4}
+        layout={bare}
+        catalog={demoCatalog}
+        units="metric"
+        findings={checkLayout(tamarackM4, demoCatalog, bare)}
+      />,
+    );
     expect(ariaOf(html2, 'bar:1:2')).toMatch(/^Rotor row 1, position 2: empty\. /);
     expect(ariaOf(html2, 'bar:1:2')).toContain('Rotor bar row 1: nothing at positions 1 and 2');
     expect(ariaOf(html2, 'bar:1:2')).toContain('Rotor out of balance at position 2: rows 1 and 3');

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { commandById, commandForKey, commands, keyLabel, matchesKey, runCommand } from '../../../src/components/editor/commands';
-import { createEditorStore } from '../../../src/components/editor/store/create-editor-store';
-import { partNumberAt } from '../../../src/lib/domain/layout-edits';
+import { commandById, commandForKey, commands, keyLabel, matchesKey, runCommand } from '~/components/editor/commands';
+import { createEditorStore } from '~/components/editor/store/create-editor-store';
+import { partNumberAt } from '~/lib/domain/layout-edits';
 import { VersionedMemory, wheatInit } from './fixtures';
 
 const key = (k: string, mods: Partial<{ ctrl: boolean; meta: boolean; shift: boolean; alt: boolean; code: string }> = {}) => ({

@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { findingKeys } from '../../../src/components/editor/FindingsList';
-import { demoCatalog, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
-import { starterLayout } from '../../../src/lib/domain/starter';
-import { checkLayout } from '../../../src/lib/domain/rules';
-import type { Finding, Layout } from '../../../src/lib/domain/schemas';
+import { findingKeys } from '~/components/editor/FindingsList';
+import { demoCatalog, tamarackM4 } from '~/lib/domain/demo-catalog';
+import { starterLayout } from '~/lib/domain/starter';
+import { checkLayout } from '~/lib/domain/rules';
+import type { Finding, Layout } from '~/lib/domain/schemas';
 
 describe('findings list keys', () => {
   it('keep each finding’s key when an edit adds a finding above it', () => {
@@ -24,7 +24,14 @@ describe('findings list keys', () => {
   });
 
   it('tell two findings with the same code and places apart', () => {
-    const f: Finding = { code: 'X', severity: 'advice', title: 't', explanation: 'e', fix: 'f', places: [{ kind: 'element', position: 1, side: 'left' }] } as unknown as Finding;
+    const f: Finding = {
+      code: 'X',
+      severity: 'advice',
+      title: 't',
+      explanation: 'e',
+      fix: 'f',
+      places: [{ kind: 'element', position: 1, side: 'left' }],
+    } as unknown as Finding;
     expect(findingKeys([f, f])).toEqual(['X@element:1:left', 'X@element:1:left#1']);
   });
 });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { fitLabel, textWidth } from '../../../src/components/cage/fit-text';
+import { fitLabel, textWidth } from '~/components/cage/fit-text';
 
 describe('labels that fit their slot', () => {
   it('takes the first wording that fits, else cuts the last one short', () => {

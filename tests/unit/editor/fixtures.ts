@@ -1,8 +1,8 @@
-import { demoCatalog, sedgeS6, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
-import { starterLayout } from '../../../src/lib/domain/starter';
-import type { CatalogPart, Layout, MachineFamily } from '../../../src/lib/domain/schemas';
-import type { EditorApi, SavedVersion } from '../../../src/components/editor/store/api';
-import type { EditorInit } from '../../../src/components/editor/store/types';
+import { demoCatalog, sedgeS6, tamarackM4 } from '~/lib/domain/demo-catalog';
+import { starterLayout } from '~/lib/domain/starter';
+import type { CatalogPart, Layout, MachineFamily } from '~/lib/domain/schemas';
+import type { EditorApi, SavedVersion } from '~/components/editor/store/api';
+import type { EditorInit } from '~/components/editor/store/types';
 
 export const catalogFor = (f: MachineFamily): CatalogPart[] => demoCatalog.filter((p) => p.fitGroup === f.fitGroup);
 
@@ -44,11 +44,24 @@ export class VersionedMemory implements EditorApi {
   }
   /** Someone else saves. */
   saveElsewhere(body: Layout, note = 'elsewhere') {
-    this.versions.push({ id: `v${this.versions.length + 1}`, version: this.current.version + 1, body, note, createdAt: new Date().toISOString(), createdByName: 'Someone Else' });
+    this.versions.push({
+      id: `v${this.versions.length + 1}`,
+      version: this.current.version + 1,
+      body,
+      note,
+      createdAt: new Date().toISOString(),
+      createdByName: 'Someone Else',
+    });
   }
   async saveVersion(_id: string, input: { baseVersion: number; body: Layout; note: string }) {
     if (input.baseVersion !== this.current.version) return { ok: false as const, conflict: this.current };
-    this.versions.push({ id: `v${this.current.version + 1}`, version: this.current.version + 1, body: input.body, note: input.note, createdAt: new Date().toISOString() });
+    this.versions.push({
+      id: `v${this.current.version + 1}`,
+      version: this.current.version + 1,
+      body: input.body,
+      note: input.note,
+      createdAt: new Date().toISOString(),
+    });
     return { ok: true as const, version: this.current };
   }
   async createLayout(_machineId: string, input: { name: string; body: Layout; note: string }) {

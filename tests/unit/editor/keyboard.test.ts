@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
-import { slotCoordinateGetter, slotsFor, stepPlace } from '../../../src/components/editor/keyboard';
-import { demoCatalog, sedgeS6, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
-import { allPlaces, placeKey } from '../../../src/lib/domain/places';
-import type { CatalogPart, Place } from '../../../src/lib/domain/schemas';
+import { slotCoordinateGetter, slotsFor, stepPlace } from '~/components/editor/keyboard';
+import { demoCatalog, sedgeS6, tamarackM4 } from '~/lib/domain/demo-catalog';
+import { allPlaces, placeKey } from '~/lib/domain/places';
+import type { CatalogPart, Place } from '~/lib/domain/schemas';
 
 const part = (pn: string) => demoCatalog.find((p) => p.partNumber === pn)!;
 const keys = (ps: (Place | null)[]) => ps.map((p) => (p ? placeKey(p) : null));
@@ -13,10 +13,23 @@ describe('stepping between slots in the drawing’s order', () => {
 
   it('a part only visits the slots that take its kind', () => {
     expect(keys(elements)).toEqual([
-      'element:1:left', 'element:2:left', 'element:3:left', 'element:4:left',
-      'element:1:right', 'element:2:right', 'element:3:right', 'element:4:right',
+      'element:1:left',
+      'element:2:left',
+      'element:3:left',
+      'element:4:left',
+      'element:1:right',
+      'element:2:right',
+      'element:3:right',
+      'element:4:right',
     ]);
-    expect(keys(slotsFor(tamarackM4, part('CW-CP-R-04')))).toEqual(['cover:1:left', 'cover:2:left', 'cover:3:left', 'cover:1:right', 'cover:2:right', 'cover:3:right']);
+    expect(keys(slotsFor(tamarackM4, part('CW-CP-R-04')))).toEqual([
+      'cover:1:left',
+      'cover:2:left',
+      'cover:3:left',
+      'cover:1:right',
+      'cover:2:right',
+      'cover:3:right',
+    ]);
     expect(slotsFor(tamarackM4, part('CW-BR-RS-04'))).toHaveLength(16);
     expect(slotsFor(tamarackM4, null)).toEqual(all);
   });
@@ -50,7 +63,6 @@ describe('stepping between slots in the drawing’s order', () => {
     expect(placeKey(stepPlace(sedgeS6, slotsFor(sedgeS6, part('CW-FW-R-06C')), null, 'down')!)).toBe('element:1:left');
     expect(stepPlace(sedgeS6, [], null, 'right')).toBeNull();
   });
-
 });
 
 describe('the dnd-kit keyboard coordinate getter', () => {
@@ -58,7 +70,18 @@ describe('the dnd-kit keyboard coordinate getter', () => {
   const rects = new Map<string, { left: number; top: number; width: number; height: number }>();
   for (const p of allPlaces(tamarackM4)) {
     const col = p.kind === 'cover' ? p.section : p.kind === 'setting' ? 0 : p.position;
-    const band = p.kind === 'cover' ? (p.side === 'left' ? 0 : 3) : p.kind === 'element' ? (p.side === 'left' ? 1 : 2) : p.kind === 'bar' ? 3 + p.row : 0;
+    const band =
+      p.kind === 'cover'
+        ? p.side === 'left'
+          ? 0
+          : 3
+        : p.kind === 'element'
+          ? p.side === 'left'
+            ? 1
+            : 2
+          : p.kind === 'bar'
+            ? 3 + p.row
+            : 0;
     rects.set(placeKey(p), { left: col * 150, top: band * 100, width: 140, height: 90 });
   }
   const carried = { left: 0, top: 0, width: 40, height: 30, right: 40, bottom: 30 };
@@ -68,7 +91,11 @@ describe('the dnd-kit keyboard coordinate getter', () => {
   };
   function setup(carry: { part: CatalogPart; from?: Place }) {
     const targets: string[] = [];
-    const getter = slotCoordinateGetter({ family: () => tamarackM4, rectOf: (p) => rects.get(placeKey(p)) ?? null, onTarget: (p) => targets.push(placeKey(p)) });
+    const getter = slotCoordinateGetter({
+      family: () => tamarackM4,
+      rectOf: (p) => rects.get(placeKey(p)) ?? null,
+      onTarget: (p) => targets.push(placeKey(p)),
+    });
     const ctx = { active: { id: 'carry', data: { current: carry } }, over: null, collisionRect: carried };
     const press = (code: string) => {
       let prevented = false;

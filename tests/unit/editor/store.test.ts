@@ -1,9 +1,9 @@
 import { describe, expect, it } from 'vitest';
-import { createEditorStore, isDirty } from '../../../src/components/editor/store/create-editor-store';
-import { partNumberAt } from '../../../src/lib/domain/layout-edits';
-import { placeKey } from '../../../src/lib/domain/places';
-import { checkLayout } from '../../../src/lib/domain/rules';
-import type { Place } from '../../../src/lib/domain/schemas';
+import { createEditorStore, isDirty } from '~/components/editor/store/create-editor-store';
+import { partNumberAt } from '~/lib/domain/layout-edits';
+import { placeKey } from '~/lib/domain/places';
+import { checkLayout } from '~/lib/domain/rules';
+import type { Place } from '~/lib/domain/schemas';
 import { splitInit, VersionedMemory, wheatInit } from './fixtures';
 
 const el = (position: number, side: 'left' | 'right'): Place => ({ kind: 'element', position, side });
@@ -28,7 +28,9 @@ describe('editor store', () => {
     const s = store.getState();
     expect(partNumberAt(s.layout, el(3, 'right'))).toBe('CW-WW-L-04');
     expect(codesAt(s.findings, el(3, 'right'))).toContain('FIT_HAND_MISMATCH');
-    expect(s.announcement.text).toMatch(/^Placed wide-wire element at position 3, right\. It replaces the wide-wire element\. Blocks fit: Left-hand element in the right half\./);
+    expect(s.announcement.text).toMatch(
+      /^Placed wide-wire element at position 3, right\. It replaces the wide-wire element\. Blocks fit: Left-hand element in the right half\./,
+    );
     expect(s.selectedPlace).toEqual(el(3, 'right'));
     expect(isDirty(s)).toBe(true);
   });
@@ -71,7 +73,9 @@ describe('editor store', () => {
     store.getState().movePart(el(2, 'left'), el(3, 'left'));
     expect(partNumberAt(store.getState().layout, el(3, 'left'))).toBe(a);
     expect(partNumberAt(store.getState().layout, el(2, 'left'))).toBe(b);
-    expect(store.getState().announcement.text).toMatch(/^Swapped: fine-wire element now at position 3, left; wide-wire element now at position 2, left\./);
+    expect(store.getState().announcement.text).toMatch(
+      /^Swapped: fine-wire element now at position 3, left; wide-wire element now at position 2, left\./,
+    );
 
     store.getState().removePart(el(4, 'right'));
     expect(codesAt(store.getState().findings, el(4, 'right'))).toContain('FIT_EMPTY_POSITION');

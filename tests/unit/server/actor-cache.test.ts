@@ -1,5 +1,5 @@
 import { describe, expect, it, vi } from 'vitest';
-import { actorFor, forgetActors } from '../../../src/lib/server/actors';
+import { actorFor, forgetActors } from '~/lib/server/actors';
 
 /** A stand-in store: counts the actor queries and answers with one farm membership. */
 function fakeStore(mode: 'pglite' | 'postgres', role = 'operator') {
@@ -9,7 +9,11 @@ function fakeStore(mode: 'pglite' | 'postgres', role = 'operator') {
     execute: vi.fn(async () => {
       calls.n++;
       await gate;
-      return { rows: [{ id: 'u1', email: 'a@b.example', name: 'A', unit_system: 'metric', org_id: 'o1', role, org_kind: 'farm', customer_ids: [] }] };
+      return {
+        rows: [
+          { id: 'u1', email: 'a@b.example', name: 'A', unit_system: 'metric', org_id: 'o1', role, org_kind: 'farm', customer_ids: [] },
+        ],
+      };
     }),
   };
   return { store: { db: db as never, mode }, calls, hold: (p: Promise<void>) => (gate = p) };

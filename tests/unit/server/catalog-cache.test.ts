@@ -11,11 +11,11 @@ const dir = mkdtempSync(join(tmpdir(), 'cagewright-catalog-cache-'));
 process.env.CAGEWRIGHT_DATA_DIR = dir;
 process.env.CAGEWRIGHT_SEED = 'off';
 
-const { store, getDb } = await import('../../../src/lib/server/db');
-const { catalogSnapshot, catalogLoads } = await import('../../../src/lib/server/catalog-cache');
-const { catalogForFamily } = await import('../../../src/lib/server/services/machines');
-const { catalogParts, families } = await import('../../../src/db/schema');
-const { demoCatalog, demoFamilies } = await import('../../../src/lib/domain/demo-catalog');
+const { store, getDb } = await import('~/lib/server/db');
+const { catalogSnapshot, catalogLoads } = await import('~/lib/server/catalog-cache');
+const { catalogForFamily } = await import('~/lib/server/services/machines');
+const { catalogParts, families } = await import('~/db/schema');
+const { demoCatalog, demoFamilies } = await import('~/lib/domain/demo-catalog');
 
 const family = demoFamilies[0]!;
 const parts = demoCatalog.filter((p) => p.fitGroup === family.fitGroup).slice(0, 3);
@@ -45,7 +45,10 @@ describe('the kept catalog', () => {
 
   it('answers concurrent callers with one read', async () => {
     const db = await getDb();
-    await db.update(families).set({ updatedAt: sql`now()` }).where(eq(families.id, family.id));
+    await db
+      .update(families)
+      .set({ updatedAt: sql`now()` })
+      .where(eq(families.id, family.id));
     const before = catalogLoads();
     const all = await Promise.all(Array.from({ length: 5 }, () => catalogSnapshot()));
     expect(catalogLoads() - before).toBe(1);

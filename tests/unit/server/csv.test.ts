@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import Papa from 'papaparse';
-import { toCsv } from '../../../src/lib/server/csv';
+import { toCsv } from '~/lib/server/csv';
 
 // OWASP, "CSV Injection" (https://owasp.org/www-community/attacks/CSV_Injection): cells beginning
 // with =, +, -, @, tab (0x09) or carriage return (0x0D) are prefixed with a single quote and the
@@ -11,9 +11,25 @@ describe('CSV files cannot carry formulas', () => {
   const parse = (csv: string) => Papa.parse<string[]>(csv, { delimiter: ',' }).data;
 
   it('neutralises each dangerous first character and leaves ordinary cells alone', () => {
-    const cells = ['=HYPERLINK("http://example.invalid","x")', '+1+1', '-2+3', '@SUM(A1)', '\t=1', '\r=1', '=1\n+2', 'Wide-wire element', 'CW-EL-1', '12.50'];
-    const csv = toCsv(['Cell'], cells.map((c) => [c]));
-    const back = parse(csv).slice(1).map((r) => r[0]);
+    const cells = [
+      '=HYPERLINK("http://example.invalid","x")',
+      '+1+1',
+      '-2+3',
+      '@SUM(A1)',
+      '\t=1',
+      '\r=1',
+      '=1\n+2',
+      'Wide-wire element',
+      'CW-EL-1',
+      '12.50',
+    ];
+    const csv = toCsv(
+      ['Cell'],
+      cells.map((c) => [c]),
+    );
+    const back = parse(csv)
+      .slice(1)
+      .map((r) => r[0]);
     expect(back).toEqual([
       `'=HYPERLINK("http://example.invalid","x")`,
       "'+1+1",
@@ -38,7 +54,12 @@ describe('CSV files cannot carry formulas', () => {
   it('never leaves a text cell that begins with a formula character, whatever the text', () => {
     fc.assert(
       fc.property(fc.array(fc.string({ maxLength: 12 }), { minLength: 1, maxLength: 6 }), (row) => {
-        const back = parse(toCsv(row.map((_, i) => `c${i}`), [row]))[1]!;
+        const back = parse(
+          toCsv(
+            row.map((_, i) => `c${i}`),
+            [row],
+          ),
+        )[1]!;
         for (let i = 0; i < row.length; i++) {
           expect(/^[=+\-@\t\r]/.test(back[i]!)).toBe(false);
           expect(back[i]).toBe(/^[=+\-@\t\r]/.test(row[i]!) ? `'${row[i]}` : row[i]);

@@ -3,7 +3,7 @@ import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSy
 import { hostname, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { createHash } from 'node:crypto';
-import { currentOwner, DataDirInUseError, judgeOwner, lockDataDir, OWNER_FILE, type OwnerInfo } from '../../../src/lib/server/data-dir-lock';
+import { currentOwner, DataDirInUseError, judgeOwner, lockDataDir, OWNER_FILE, type OwnerInfo } from '~/lib/server/data-dir-lock';
 
 const dirs: string[] = [];
 const freshDir = () => {
@@ -15,11 +15,20 @@ afterEach(() => {
   for (const d of dirs.splice(0)) rmSync(d, { recursive: true, force: true });
 });
 
-const me: OwnerInfo = { pid: 4242, host: 'barn-1', bootId: 'boot-a', pidNamespace: 'pid:[1]', startTicks: '100', since: '2026-01-01T00:00:00Z', nonce: 'me' };
+const me: OwnerInfo = {
+  pid: 4242,
+  host: 'barn-1',
+  bootId: 'boot-a',
+  pidNamespace: 'pid:[1]',
+  startTicks: '100',
+  since: '2026-01-01T00:00:00Z',
+  nonce: 'me',
+};
 const dead = () => false;
 const alive = () => true;
 
-const writeOwner = (dir: string, owner: unknown) => writeFileSync(join(dir, OWNER_FILE), typeof owner === 'string' ? owner : JSON.stringify(owner));
+const writeOwner = (dir: string, owner: unknown) =>
+  writeFileSync(join(dir, OWNER_FILE), typeof owner === 'string' ? owner : JSON.stringify(owner));
 const ownerIn = (dir: string) => JSON.parse(readFileSync(join(dir, OWNER_FILE), 'utf8')) as OwnerInfo;
 
 describe('judgeOwner: only a provably gone owner is stale', () => {
@@ -96,7 +105,9 @@ describe('lockDataDir', () => {
   it('refuses a running owner on this host', () => {
     const dir = freshDir();
     const first = lockDataDir(dir);
-    expect(() => lockDataDir(dir, { me: { ...currentOwner(), pid: 1, nonce: 'second' }, isRunning: alive })).toThrow(/in use by process \d+/);
+    expect(() => lockDataDir(dir, { me: { ...currentOwner(), pid: 1, nonce: 'second' }, isRunning: alive })).toThrow(
+      /in use by process \d+/,
+    );
     first();
   });
 
@@ -114,14 +125,21 @@ describe('lockDataDir', () => {
     const dir = freshDir();
     const first = lockDataDir(dir); // this very process, start time recorded
     // the owner's process id runs with the start time recorded: provably the running owner
-    expect(() => lockDataDir(dir, { force: true, me: { ...currentOwner(), pid: 1, nonce: 'x' }, isRunning: alive })).toThrow(DataDirInUseError);
+    expect(() => lockDataDir(dir, { force: true, me: { ...currentOwner(), pid: 1, nonce: 'x' }, isRunning: alive })).toThrow(
+      DataDirInUseError,
+    );
     first();
   });
 
   it('a release never removes an owner file another server wrote after a forced takeover', () => {
     const dir = freshDir();
     const first = lockDataDir(dir);
-    const second = lockDataDir(dir, { force: true, me: { ...currentOwner(), pid: 1, startTicks: null, nonce: 'other' }, isRunning: dead, log: () => {} });
+    const second = lockDataDir(dir, {
+      force: true,
+      me: { ...currentOwner(), pid: 1, startTicks: null, nonce: 'other' },
+      isRunning: dead,
+      log: () => {},
+    });
     first();
     expect(ownerIn(dir).nonce).toBe('other');
     second();

@@ -1,9 +1,9 @@
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { roles as schemaRoles, type Role } from '../../../src/db/schema';
-import { ACTIONS, ALL_ROLES, can, PERMISSIONS, rolesFor } from '../../../src/lib/server/access';
-import { NAV, navFor } from '../../../src/components/shell/nav';
+import { roles as schemaRoles, type Role } from '~/db/schema';
+import { ACTIONS, ALL_ROLES, can, PERMISSIONS, rolesFor } from '~/lib/server/access';
+import { NAV, navFor } from '~/components/shell/nav';
 
 const root = join(__dirname, '../../..');
 const src = join(root, 'src');
@@ -15,9 +15,29 @@ const src = join(root, 'src');
  */
 const EXPECTED_NAV: Record<Role, string[]> = {
   operator: ['/', '/machines', '/planner', '/parts-requests', '/inspections', '/field-check'],
-  technician: ['/', '/machines', '/planner', '/parts-requests', '/inspections', '/field-check', '/classroom', '/admin/catalog', '/admin/prices'],
+  technician: [
+    '/',
+    '/machines',
+    '/planner',
+    '/parts-requests',
+    '/inspections',
+    '/field-check',
+    '/classroom',
+    '/admin/catalog',
+    '/admin/prices',
+  ],
   trainer: ['/', '/machines', '/field-check', '/classroom'],
-  dealer_admin: ['/', '/machines', '/planner', '/parts-requests', '/inspections', '/field-check', '/admin/catalog', '/admin/prices', '/admin/mailbox'],
+  dealer_admin: [
+    '/',
+    '/machines',
+    '/planner',
+    '/parts-requests',
+    '/inspections',
+    '/field-check',
+    '/admin/catalog',
+    '/admin/prices',
+    '/admin/mailbox',
+  ],
   instance_admin: ['/', '/admin/catalog', '/admin/mailbox', '/admin/backup'],
 };
 
@@ -81,13 +101,15 @@ describe('the top navigation follows the permission table', () => {
     let guarded = 0;
     for (const item of NAV) {
       const base = item.href === '/' ? 'index' : item.href.slice(1);
-      const file = [`${base}.astro`, `${base}/index.astro`].map((p) => join(src, 'pages', p)).find((p) => {
-        try {
-          return statSync(p).isFile();
-        } catch {
-          return false;
-        }
-      })!;
+      const file = [`${base}.astro`, `${base}/index.astro`]
+        .map((p) => join(src, 'pages', p))
+        .find((p) => {
+          try {
+            return statSync(p).isFile();
+          } catch {
+            return false;
+          }
+        })!;
       const page = readFileSync(file, 'utf8');
       if (!/response\.status = 403;/.test(page)) continue;
       guarded++;

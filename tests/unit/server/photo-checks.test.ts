@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { checkedPhoto, DEFAULT_MAX_PHOTO_PIXELS, maxPhotoPixels } from '../../../src/lib/server/services/photos';
-import { HttpError } from '../../../src/lib/server/http';
+import { checkedPhoto, DEFAULT_MAX_PHOTO_PIXELS, maxPhotoPixels } from '~/lib/server/services/photos';
+import { HttpError } from '~/lib/server/http';
 import { hugePng } from '../../integration/fixtures/images';
 
 describe('photo checks before decoding', () => {

@@ -1,7 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { DEFAULT_CSP, HSTS, pagePolicy, publicUrl, setSecurityHeaders } from '../../../src/lib/server/security-headers';
+import { DEFAULT_CSP, HSTS, pagePolicy, publicUrl, setSecurityHeaders } from '~/lib/server/security-headers';
 
-const directive = (csp: string, name: string) => csp.split(';').map((d) => d.trim()).find((d) => d.startsWith(`${name} `));
+const directive = (csp: string, name: string) =>
+  csp
+    .split(';')
+    .map((d) => d.trim())
+    .find((d) => d.startsWith(`${name} `));
 
 describe('security headers', () => {
   it('a page keeps Astro’s script hashes and never allows inline scripts', () => {
@@ -34,7 +38,11 @@ describe('security headers', () => {
     const anon = new Headers({ 'content-type': 'text/html' });
     setSecurityHeaders(anon, { html: true, signedIn: false, env: {} });
     expect(anon.get('cache-control')).toBe('no-store');
-    const photo = new Headers({ 'content-type': 'image/png', 'cache-control': 'private, max-age=86400, immutable', 'content-security-policy': "default-src 'none'; sandbox" });
+    const photo = new Headers({
+      'content-type': 'image/png',
+      'cache-control': 'private, max-age=86400, immutable',
+      'content-security-policy': "default-src 'none'; sandbox",
+    });
     setSecurityHeaders(photo, { html: false, signedIn: true, env: {} });
     expect(photo.get('cache-control')).toBe('private, max-age=86400, immutable');
     expect(photo.get('content-security-policy')).toBe("default-src 'none'; sandbox");

@@ -1,6 +1,6 @@
 import { encode } from '@auth/core/jwt';
 import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest';
-import { sessionRef } from '../../../src/lib/server/auth/session';
+import { sessionRef } from '~/lib/server/auth/session';
 
 const NAME = 'authjs.session-token';
 const request = (cookie: string) => new Request('http://127.0.0.1/api/me', { headers: { cookie } });
@@ -33,7 +33,12 @@ describe('session cookie', () => {
     const tampered = token.slice(0, -4) + (token.endsWith('AAAA') ? 'BBBB' : 'AAAA');
     expect(await sessionUserId(request(`${NAME}=${tampered}`))).toBeNull();
     expect(await sessionUserId(request('theme=dark'))).toBeNull();
-    const foreign = await encode({ token: { uid: 'user-3', sid: 's-user-3' }, secret: 'another-secret-0123456789abcdef0123456789', salt: NAME, maxAge: 3600 });
+    const foreign = await encode({
+      token: { uid: 'user-3', sid: 's-user-3' },
+      secret: 'another-secret-0123456789abcdef0123456789',
+      salt: NAME,
+      maxAge: 3600,
+    });
     expect(await sessionUserId(request(`${NAME}=${foreign}`))).toBeNull();
   });
 

@@ -2,11 +2,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { existsSync, mkdtempSync, readdirSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { diskStorage } from '../../../src/lib/server/storage/disk';
-import { s3Storage } from '../../../src/lib/server/storage/s3';
-import { storageFromEnv } from '../../../src/lib/server/storage';
-import { assertKey, readAll, type ObjectStorage } from '../../../src/lib/server/storage/types';
-import { sniffImageType } from '../../../src/lib/server/image-sniff';
+import { diskStorage } from '~/lib/server/storage/disk';
+import { s3Storage } from '~/lib/server/storage/s3';
+import { storageFromEnv } from '~/lib/server/storage';
+import { assertKey, readAll, type ObjectStorage } from '~/lib/server/storage/types';
+import { sniffImageType } from '~/lib/server/image-sniff';
 import { startFakeS3 } from '../../../scripts/fakes/s3.mjs';
 
 process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED = 'true';

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import type { PGlite } from '@electric-sql/pglite';
-import { countWrites, isPlainRead, storeWriteGeneration } from '../../../src/lib/server/store-writes';
+import { countWrites, isPlainRead, storeWriteGeneration } from '~/lib/server/store-writes';
 
 describe('store write generation', () => {
   it('tells plain reads from statements that may write', () => {
@@ -11,7 +11,7 @@ describe('store write generation', () => {
       'update "layouts" set "current_version" = $1',
       'delete from "sessions" where "id" = $1',
       'with moved as (update layouts set current_version = 2 returning id) select * from moved',
-      'select nextval(\'seq\')',
+      "select nextval('seq')",
       'select * from layouts for update',
       'select pg_advisory_lock(1)',
       'begin',

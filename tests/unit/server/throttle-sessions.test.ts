@@ -3,9 +3,9 @@ import { drizzle } from 'drizzle-orm/pglite';
 import { migrate } from 'drizzle-orm/pglite/migrator';
 import { sql } from 'drizzle-orm';
 import { beforeAll, describe, expect, it } from 'vitest';
-import * as schema from '../../../src/db/schema';
-import { ACCOUNT_FREE, ADDRESS_FREE, accountKey, addressKey, reserve, reserveSignIn, signInSucceeded } from '../../../src/lib/server/auth/throttle';
-import { endSession, startSession } from '../../../src/lib/server/auth/sessions';
+import * as schema from '~/db/schema';
+import { ACCOUNT_FREE, ADDRESS_FREE, accountKey, addressKey, reserve, reserveSignIn, signInSucceeded } from '~/lib/server/auth/throttle';
+import { endSession, startSession } from '~/lib/server/auth/sessions';
 
 /**
  * The throttle and the session rows against a real (in-memory) store with the real migrations,
@@ -44,7 +44,9 @@ describe('sign-in throttle in the store', () => {
     const waits: number[] = [];
     for (let round = 0; round < 8; round++) {
       expect((await reserve(db, key, ACCOUNT_FREE)).ok).toBe(false);
-      const [row] = await rows<{ s: number }>(sql`select extract(epoch from next_at - now())::float8 as s from signin_throttle where key = ${key}`);
+      const [row] = await rows<{ s: number }>(
+        sql`select extract(epoch from next_at - now())::float8 as s from signin_throttle where key = ${key}`,
+      );
       waits.push(Math.round(row!.s));
       await db.execute(sql`update signin_throttle set next_at = now() where key = ${key}`); // the wait is over
       expect((await reserve(db, key, ACCOUNT_FREE)).ok).toBe(true);
@@ -56,7 +58,9 @@ describe('sign-in throttle in the store', () => {
   it('starts afresh after a quiet hour', async () => {
     const key = 'account:quiet@test.example';
     for (let i = 0; i < ACCOUNT_FREE; i++) await reserve(db, key, ACCOUNT_FREE);
-    await db.execute(sql`update signin_throttle set next_at = now() - interval '61 minutes', last_at = now() - interval '61 minutes' where key = ${key}`);
+    await db.execute(
+      sql`update signin_throttle set next_at = now() - interval '61 minutes', last_at = now() - interval '61 minutes' where key = ${key}`,
+    );
     expect((await reserve(db, key, ACCOUNT_FREE)).ok).toBe(true);
     const [row] = await rows<{ attempts: number }>(sql`select attempts from signin_throttle where key = ${key}`);
     expect(row!.attempts).toBe(1);

@@ -1,10 +1,11 @@
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { answer, ApiError, getJson, sendJson } from '../../../src/components/shared/api';
-import { fetchApi } from '../../../src/components/editor/store/api';
-import { starterLayout } from '../../../src/lib/domain/starter';
-import { demoCatalog, tamarackM4 } from '../../../src/lib/domain/demo-catalog';
+import { answer, ApiError, getJson, sendJson } from '~/components/shared/api';
+import { fetchApi } from '~/components/editor/store/api';
+import { starterLayout } from '~/lib/domain/starter';
+import { demoCatalog, tamarackM4 } from '~/lib/domain/demo-catalog';
 
-const jsonAnswer = (status: number, body: unknown) => new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
+const jsonAnswer = (status: number, body: unknown) =>
+  new Response(JSON.stringify(body), { status, headers: { 'content-type': 'application/json' } });
 
 afterEach(() => vi.unstubAllGlobals());
 
@@ -34,7 +35,11 @@ describe('the islands’ fetch helpers', () => {
   });
 
   it('say what the server answered when a refusal is not JSON or has no message', async () => {
-    for (const res of [new Response('<html>gateway</html>', { status: 502 }), jsonAnswer(500, { error: 'plain' }), jsonAnswer(400, [1, 2])]) {
+    for (const res of [
+      new Response('<html>gateway</html>', { status: 502 }),
+      jsonAnswer(500, { error: 'plain' }),
+      jsonAnswer(400, [1, 2]),
+    ]) {
       const err = await refusal(res);
       expect(err.message).toBe(`The server answered ${res.status}.`);
       expect(err.field).toBeUndefined();
@@ -60,26 +65,55 @@ describe('the editor’s calls through them', () => {
   const saved = { id: 'v2', layoutId: 'l1', version: 2, body, note: 'mine', createdBy: 'u1', createdAt: '2026-01-02T03:04:05.000Z' };
 
   it('a save answers the new version', async () => {
-    vi.stubGlobal('fetch', vi.fn(async () => jsonAnswer(201, { version: saved })));
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => jsonAnswer(201, { version: saved })),
+    );
     expect(await fetchApi.saveVersion('l1', { baseVersion: 1, body, note: 'mine' })).toEqual({ ok: true, version: saved });
   });
 
   it('a 409 carries the newer version; another refusal its message; no server, the offline words', async () => {
     const newer = { ...saved, version: 3, createdByName: 'Someone Else' };
-    vi.stubGlobal('fetch', vi.fn(async () => jsonAnswer(409, { error: { message: 'Saved by someone else.', field: 'baseVersion', currentVersion: 3, current: newer } })));
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () =>
+        jsonAnswer(409, { error: { message: 'Saved by someone else.', field: 'baseVersion', currentVersion: 3, current: newer } }),
+      ),
+    );
     expect(await fetchApi.saveVersion('l1', { baseVersion: 1, body, note: '' })).toEqual({ ok: false, conflict: newer });
-    vi.stubGlobal('fetch', vi.fn(async () => jsonAnswer(400, { error: { message: 'body.familyId: this machine is of family x', field: 'body.familyId' } })));
-    expect(await fetchApi.saveVersion('l1', { baseVersion: 1, body, note: '' })).toEqual({ ok: false, error: 'body.familyId: this machine is of family x' });
-    vi.stubGlobal('fetch', vi.fn(async () => Promise.reject(new TypeError('Failed to fetch'))));
-    expect(await fetchApi.saveVersion('l1', { baseVersion: 1, body, note: '' })).toEqual({ ok: false, error: 'Could not reach the server. Your changes are still here; try again.' });
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => jsonAnswer(400, { error: { message: 'body.familyId: this machine is of family x', field: 'body.familyId' } })),
+    );
+    expect(await fetchApi.saveVersion('l1', { baseVersion: 1, body, note: '' })).toEqual({
+      ok: false,
+      error: 'body.familyId: this machine is of family x',
+    });
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => Promise.reject(new TypeError('Failed to fetch'))),
+    );
+    expect(await fetchApi.saveVersion('l1', { baseVersion: 1, body, note: '' })).toEqual({
+      ok: false,
+      error: 'Could not reach the server. Your changes are still here; try again.',
+    });
   });
 
   it('save-as answers the new layout’s id; units answer whether they were kept', async () => {
-    vi.stubGlobal('fetch', vi.fn(async () => jsonAnswer(201, { layout: { id: 'l9' }, version: saved })));
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => jsonAnswer(201, { layout: { id: 'l9' }, version: saved })),
+    );
     expect(await fetchApi.createLayout('m1', { name: 'Copy', body, note: '' })).toEqual({ ok: true, layoutId: 'l9' });
-    vi.stubGlobal('fetch', vi.fn(async () => jsonAnswer(200, { unitSystem: 'imperial' })));
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => jsonAnswer(200, { unitSystem: 'imperial' })),
+    );
     expect(await fetchApi.saveUnits('imperial')).toBe(true);
-    vi.stubGlobal('fetch', vi.fn(async () => jsonAnswer(401, { error: { message: 'Sign in first.' } })));
+    vi.stubGlobal(
+      'fetch',
+      vi.fn(async () => jsonAnswer(401, { error: { message: 'Sign in first.' } })),
+    );
     expect(await fetchApi.saveUnits('imperial')).toBe(false);
   });
 });
@@ -95,7 +129,9 @@ describe('the islands read answers through the typed helpers', () => {
         return statSync(p).isDirectory() ? files(p) : /\.(ts|tsx)$/.test(n) ? [p] : [];
       });
     const bad = files(root).flatMap((f) => {
-      const code = readFileSync(f, 'utf8').replace(/\/\*[\s\S]*?\*\//g, '').replace(/\/\/.*$/gm, '');
+      const code = readFileSync(f, 'utf8')
+        .replace(/\/\*[\s\S]*?\*\//g, '')
+        .replace(/\/\/.*$/gm, '');
       const hits = [/:\s*any\b/, /\bas any\b/, /<any>/, /\bany\[\]/, /\.json\(\)/].filter((re) => re.test(code));
       return hits.map((re) => `${relative(root, f)}: ${re}`);
     });

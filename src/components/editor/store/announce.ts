@@ -1,8 +1,8 @@
 /** Sentences the live region reads after an edit: what happened, and what the rules now say there. */
-import type { Finding, Place } from '../../../lib/domain/schemas';
-import { placeKey } from '../../../lib/domain/places';
-import { severityWords } from '../../../lib/domain/vocabulary';
-import { countOf } from '../../../lib/domain/words';
+import type { Finding, Place } from '~/lib/domain/schemas';
+import { placeKey } from '~/lib/domain/places';
+import { severityWords } from '~/lib/domain/vocabulary';
+import { countOf } from '~/lib/domain/words';
 
 export function findingsHereWords(findings: readonly Finding[], place: Place): string {
   const key = placeKey(place);

@@ -1,23 +1,24 @@
 /** The editor's calls to the API: save a version, save as a new layout, store the unit choice. */
-import type { Layout } from '../../../lib/domain/schemas';
-import type { UnitSystem } from '../../../lib/domain/units';
-import type { Json, VersionView } from '../../../lib/responses';
-import { ApiError, sendJson } from '../../shared/api';
+import type { Layout } from '~/lib/domain/schemas';
+import type { UnitSystem } from '~/lib/domain/units';
+import type { Json, VersionView } from '~/lib/responses';
+import { ApiError, sendJson } from '~/components/shared/api';
 
 /**
  * A version as the editor holds it: the 409 of a save carries a whole `VersionView`; the 201
  * answers the stored row, which names no author, so who saved it is optional here.
  */
-export type SavedVersion = Json<Omit<VersionView, 'createdBy' | 'createdByName'>> & Partial<Json<Pick<VersionView, 'createdBy' | 'createdByName'>>>;
+export type SavedVersion = Json<Omit<VersionView, 'createdBy' | 'createdByName'>> &
+  Partial<Json<Pick<VersionView, 'createdBy' | 'createdByName'>>>;
 
-export type SaveResult =
-  | { ok: true; version: SavedVersion }
-  | { ok: false; conflict: SavedVersion }
-  | { ok: false; error: string };
+export type SaveResult = { ok: true; version: SavedVersion } | { ok: false; conflict: SavedVersion } | { ok: false; error: string };
 
 export interface EditorApi {
   saveVersion(layoutId: string, body: { baseVersion: number; body: Layout; note: string }): Promise<SaveResult>;
-  createLayout(machineId: string, body: { name: string; body: Layout; note: string }): Promise<{ ok: true; layoutId: string } | { ok: false; error: string }>;
+  createLayout(
+    machineId: string,
+    body: { name: string; body: Layout; note: string },
+  ): Promise<{ ok: true; layoutId: string } | { ok: false; error: string }>;
   saveUnits(units: UnitSystem): Promise<boolean>;
 }
 
@@ -33,7 +34,8 @@ export const fetchApi: EditorApi = {
       const { version } = await sendJson<{ version: SavedVersion }>('PUT', `/api/layouts/${layoutId}`, body);
       return { ok: true, version };
     } catch (err) {
-      if (err instanceof ApiError && err.status === 409 && isVersion(err.detail.current)) return { ok: false, conflict: err.detail.current };
+      if (err instanceof ApiError && err.status === 409 && isVersion(err.detail.current))
+        return { ok: false, conflict: err.detail.current };
       return { ok: false, error: failure(err) };
     }
   },
@@ -57,5 +59,10 @@ export const fetchApi: EditorApi = {
 
 /** A 409's `current`: the version someone else saved. */
 function isVersion(v: unknown): v is SavedVersion {
-  return typeof v === 'object' && v !== null && typeof (v as { version?: unknown }).version === 'number' && typeof (v as { body?: unknown }).body === 'object';
+  return (
+    typeof v === 'object' &&
+    v !== null &&
+    typeof (v as { version?: unknown }).version === 'number' &&
+    typeof (v as { body?: unknown }).body === 'object'
+  );
 }

@@ -4,7 +4,7 @@ import { useStore } from 'zustand';
 import type { TemporalState } from 'zundo';
 import { createEditorStore } from './create-editor-store';
 import type { EditorDeps, EditorInit, EditorState, EditorStoreApi, Tracked } from './types';
-import { afterPaint } from '../after-paint';
+import { afterPaint } from '~/components/editor/after-paint';
 
 const EditorStoreContext = createContext<EditorStoreApi | null>(null);
 

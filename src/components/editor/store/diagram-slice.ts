@@ -1,14 +1,14 @@
 /** The drawing's content: family, catalog, layout and its findings, and the edits on them. */
-import { checkLayout } from '../../../lib/domain/rules';
-import { indexCatalog } from '../../../lib/domain/catalog';
-import type { Layout, Place } from '../../../lib/domain/schemas';
+import { checkLayout } from '~/lib/domain/rules';
+import { indexCatalog } from '~/lib/domain/catalog';
+import type { Layout, Place } from '~/lib/domain/schemas';
 
 const NO_PLACES: Place[] = [];
-import { partAtPlaceWords, partName as nameOfPart, placeWords } from '../../../lib/domain/vocabulary';
+import { partAtPlaceWords, partName as nameOfPart, placeWords } from '~/lib/domain/vocabulary';
 import { findingsHereWords } from './announce';
-import { accepts, movedLayout, partNumberAt, withPartAt } from '../../../lib/domain/layout-edits';
+import { accepts, movedLayout, partNumberAt, withPartAt } from '~/lib/domain/layout-edits';
 import type { DiagramSlice, EditorInit, EditorSliceCreator } from './types';
-import { countOf } from '../../../lib/domain/words';
+import { countOf } from '~/lib/domain/words';
 
 export const createDiagramSlice =
   (init: EditorInit): EditorSliceCreator<DiagramSlice> =>
@@ -17,7 +17,12 @@ export const createDiagramSlice =
     let seq = 0;
     const announcement = (text: string) => ({ text, seq: ++seq });
     /** Every edit passes here: the rules run at once, so findings always match the layout. */
-    const commit = (layout: Layout, said: string | ((findings: ReturnType<typeof checkLayout>) => string), select?: Place, focus = false) => {
+    const commit = (
+      layout: Layout,
+      said: string | ((findings: ReturnType<typeof checkLayout>) => string),
+      select?: Place,
+      focus = false,
+    ) => {
       const findings = checkLayout(get().family, catalog, layout);
       const text = typeof said === 'string' ? said : said(findings);
       // A finding chosen before the edit may no longer exist; drop the choice. One set() per
@@ -56,10 +61,15 @@ export const createDiagramSlice =
           get().announce(`${partAtPlaceWords(part, place)} is already there.`);
           return false;
         }
-        commit(withPartAt(get().layout, place, partNumber), (f) => {
-          const replaced = before ? ` It replaces the ${partName(before)}.` : '';
-          return `Placed ${partAtPlaceWords(part, place)}.${replaced} ${findingsHereWords(f, place)}`;
-        }, place, !!opts?.focus);
+        commit(
+          withPartAt(get().layout, place, partNumber),
+          (f) => {
+            const replaced = before ? ` It replaces the ${partName(before)}.` : '';
+            return `Placed ${partAtPlaceWords(part, place)}.${replaced} ${findingsHereWords(f, place)}`;
+          },
+          place,
+          !!opts?.focus,
+        );
         return true;
       },
 
@@ -71,10 +81,12 @@ export const createDiagramSlice =
         if (!next || !moving) return false;
         if (next === layout) return false;
         const there = partNumberAt(layout, to);
-        commit(next, (f) =>
-          there
-            ? `Swapped: ${partName(moving)} now at ${placeWords(to)}; ${partName(there)} now at ${placeWords(from)}. ${findingsHereWords(f, to)}`
-            : `Moved ${partName(moving)} from ${placeWords(from)} to ${placeWords(to)}. ${findingsHereWords(f, to)}`,
+        commit(
+          next,
+          (f) =>
+            there
+              ? `Swapped: ${partName(moving)} now at ${placeWords(to)}; ${partName(there)} now at ${placeWords(from)}. ${findingsHereWords(f, to)}`
+              : `Moved ${partName(moving)} from ${placeWords(from)} to ${placeWords(to)}. ${findingsHereWords(f, to)}`,
           to,
           !!opts?.focus,
         );
@@ -85,7 +97,10 @@ export const createDiagramSlice =
         if (!get().canEdit) return false;
         const pn = partNumberAt(get().layout, place);
         if (!pn) return false;
-        commit(withPartAt(get().layout, place, null), (f) => `Removed ${partName(pn)} from ${placeWords(place)}. ${findingsHereWords(f, place)}`);
+        commit(
+          withPartAt(get().layout, place, null),
+          (f) => `Removed ${partName(pn)} from ${placeWords(place)}. ${findingsHereWords(f, place)}`,
+        );
         return true;
       },
 

@@ -1,8 +1,8 @@
 /** The settings beside the drawing (crop, drum, rotor speed, clearance, vanes) and the unit choice. */
-import { checkLayout } from '../../../lib/domain/rules';
-import { formatLength, mm } from '../../../lib/domain/units';
+import { checkLayout } from '~/lib/domain/rules';
+import { formatLength, mm } from '~/lib/domain/units';
 import type { EditorDeps, EditorInit, EditorSliceCreator, LayoutSettingField, SettingsSlice } from './types';
-import { countOf } from '../../../lib/domain/words';
+import { countOf } from '~/lib/domain/words';
 
 const FIELD_WORDS: Record<LayoutSettingField, string> = {
   crop: 'Crop',

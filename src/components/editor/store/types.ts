@@ -5,9 +5,9 @@
  */
 import type { StateCreator, StoreApi } from 'zustand';
 import type { TemporalState } from 'zundo';
-import type { CatalogIndex } from '../../../lib/domain/catalog';
-import type { CatalogPart, Finding, Layout, MachineFamily, Place } from '../../../lib/domain/schemas';
-import type { UnitSystem } from '../../../lib/domain/units';
+import type { CatalogIndex } from '~/lib/domain/catalog';
+import type { CatalogPart, Finding, Layout, MachineFamily, Place } from '~/lib/domain/schemas';
+import type { UnitSystem } from '~/lib/domain/units';
 import type { EditorApi, SavedVersion } from './api';
 
 /** Parts on the shelf: the machine owner's own, and the dealer's. */

@@ -4,13 +4,13 @@
  * flagged lines turn into.
  */
 import { z } from 'zod';
-import type { CatalogPart, Layout, MachineFamily, Side } from '../schemas';
-import { coverPlace, elementPlace } from '../places';
-import { barKindName, barRowWords, placeLabel } from '../vocabulary';
-import { capitalise, countOf } from '../words';
+import type { CatalogPart, Layout, MachineFamily, Side } from '~/lib/domain/schemas';
+import { coverPlace, elementPlace } from '~/lib/domain/places';
+import { barKindName, barRowWords, placeLabel } from '~/lib/domain/vocabulary';
+import { capitalise, countOf } from '~/lib/domain/words';
 import { clearanceTolerance, parseClearanceReadingKey, surveyFromMeasurements } from './survey';
 import { assessWear } from './wear';
-import { rotorModel } from '../rotor';
+import { rotorModel } from '~/lib/domain/rotor';
 
 // ---------------------------------------------------------------------------------------------
 // Checklist lines
@@ -27,14 +27,7 @@ export const SEVERITY_TEXT: Readonly<Record<InspectionSeverity, { label: string;
   replace: { label: 'Replace', hint: 'Order a replacement before the season' },
 };
 
-export const conditionIdSchema = z.enum([
-  'bent-bars',
-  'wires-missing',
-  'edge-wear',
-  'weld-cracked',
-  'bolts-loose',
-  'plate-warped',
-]);
+export const conditionIdSchema = z.enum(['bent-bars', 'wires-missing', 'edge-wear', 'weld-cracked', 'bolts-loose', 'plate-warped']);
 export type ConditionId = z.infer<typeof conditionIdSchema>;
 
 export interface ConditionText {
@@ -155,7 +148,10 @@ export function buildChecklist(family: MachineFamily, layout: Layout, catalog: r
       placeKey: rowKey(row.index),
       kind: 'row',
       partNumber: null,
-      label: `${capitalise(barRowWords(row.index))}: ${describeRowBars(bars.map((b) => b.partNumber), byNumber)}`,
+      label: `${capitalise(barRowWords(row.index))}: ${describeRowBars(
+        bars.map((b) => b.partNumber),
+        byNumber,
+      )}`,
       measurements: {},
     });
   }

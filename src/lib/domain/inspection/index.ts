@@ -6,6 +6,46 @@
  *
  * Lengths are millimetres throughout; the pages convert for people who work in inches.
  */
-export { type ChecklistKind, inspectionSeveritySchema, type InspectionSeverity, SEVERITY_TEXT, conditionIdSchema, type ConditionId, type ConditionText, CONDITIONS, conditionText, conditionsFor, type ChecklistLine, SURVEY_KEY, rowKey, checklistKind, buildChecklist, MAX_WEAR_MM, MAX_CLEARANCE_READING_MM, measurementAllowed, suggestSeverity, SEVERITY_RANK, type InspectedLine, type ReplacementLine, replacementLines, type ChecklistCounts, countSeverities } from './checklist';
+export {
+  type ChecklistKind,
+  inspectionSeveritySchema,
+  type InspectionSeverity,
+  SEVERITY_TEXT,
+  conditionIdSchema,
+  type ConditionId,
+  type ConditionText,
+  CONDITIONS,
+  conditionText,
+  conditionsFor,
+  type ChecklistLine,
+  SURVEY_KEY,
+  rowKey,
+  checklistKind,
+  buildChecklist,
+  MAX_WEAR_MM,
+  MAX_CLEARANCE_READING_MM,
+  measurementAllowed,
+  suggestSeverity,
+  SEVERITY_RANK,
+  type InspectedLine,
+  type ReplacementLine,
+  replacementLines,
+  type ChecklistCounts,
+  countSeverities,
+} from './checklist';
 export { WEAR_REPLACE_MM, WEAR_WATCH_MM, type WearVerdict, assessWear } from './wear';
-export { clearanceEndSchema, type ClearanceEnd, clearanceReadingKey, parseClearanceReadingKey, clearanceTolerance, type ClearanceReading, type SurveyFindingKind, type SurveyFinding, type PositionSurvey, type ClearanceSurvey, surveyClearance, readingsFromMeasurements, surveyFromMeasurements } from './survey';
+export {
+  clearanceEndSchema,
+  type ClearanceEnd,
+  clearanceReadingKey,
+  parseClearanceReadingKey,
+  clearanceTolerance,
+  type ClearanceReading,
+  type SurveyFindingKind,
+  type SurveyFinding,
+  type PositionSurvey,
+  type ClearanceSurvey,
+  surveyClearance,
+  readingsFromMeasurements,
+  surveyFromMeasurements,
+} from './survey';

@@ -1,6 +1,5 @@
 /** Rounding and number formatting the inspection modules share. */
 
-
 export function round1(n: number) {
   return Math.round(n * 10) / 10;
 }

@@ -1,6 +1,6 @@
 /** Inspection measurement two: the clearance survey around the cage. */
 import { z } from 'zod';
-import type { MachineFamily, Side } from '../schemas';
+import type { MachineFamily, Side } from '~/lib/domain/schemas';
 import { fmt, round1, round2 } from './numbers';
 
 // ---------------------------------------------------------------------------------------------
@@ -142,7 +142,14 @@ export function surveyClearance(
         }
       }
     }
-    positions.push({ position: pos.index, readings: table, minMm: min, maxMm: max, spreadMm: min === null || max === null ? null : round2(max - min), uneven });
+    positions.push({
+      position: pos.index,
+      readings: table,
+      minMm: min,
+      maxMm: max,
+      spreadMm: min === null || max === null ? null : round2(max - min),
+      uneven,
+    });
   }
   return { toleranceMm, positions, findings, readingCount, uneven: findings.length > 0 };
 }

@@ -3,8 +3,8 @@
  * what is on the shelf. A part on the machine counts wherever it sits, because it can be moved;
  * so for a fixed layout this is exactly the number of purchases the planner finds.
  */
-import type { CatalogIndex } from '../catalog';
-import type { CatalogPart, Layout, Side } from '../schemas';
+import type { CatalogIndex } from '~/lib/domain/catalog';
+import type { CatalogPart, Layout, Side } from '~/lib/domain/schemas';
 
 export interface BomLine {
   partNumber: string;

@@ -18,8 +18,8 @@
  * packed into one integer with weights large enough that no total of a lower tier reaches one
  * unit of a higher one. The Hungarian method then gives the exact optimum.
  */
-import type { CatalogIndex } from '../catalog';
-import type { CatalogPart } from '../schemas';
+import type { CatalogIndex } from '~/lib/domain/catalog';
+import type { CatalogPart } from '~/lib/domain/schemas';
 import { solveAssignment } from './assignment';
 import type { Candidate, SlotGroup, SlotPlace, SlotTarget } from './targets';
 
@@ -54,9 +54,7 @@ export function groupOf(part: CatalogPart): SlotGroup {
 }
 
 type Column =
-  | { type: 'unit'; unit: Unit }
-  | { type: 'buy'; row: number; candidate: Candidate }
-  | { type: 'empty'; row: number; rank: number };
+  { type: 'unit'; unit: Unit } | { type: 'buy'; row: number; candidate: Candidate } | { type: 'empty'; row: number; rank: number };
 
 const SAFE = 2 ** 52;
 

@@ -4,13 +4,13 @@
  * each other's way, fit spares from the shelf, and last the parts to order, to be fitted when
  * they arrive.
  */
-import type { CatalogPart } from '../schemas';
-import { placeKey } from '../places';
+import type { CatalogPart } from '~/lib/domain/schemas';
+import { placeKey } from '~/lib/domain/places';
 import { ONE_PERSON_LIFT_KG } from './cautions';
 import type { SlotOutcome, Unit } from './solve';
 import type { SlotPlace } from './targets';
-import { partNameWithHand as partWords, partWithNumber, placeWords } from '../vocabulary';
-import { capitalise, listWords, plural } from '../words';
+import { partNameWithHand as partWords, partWithNumber, placeWords } from '~/lib/domain/vocabulary';
+import { capitalise, listWords, plural } from '~/lib/domain/words';
 
 export type StepKind = 'remove' | 'move' | 'swap' | 'install' | 'buy';
 
@@ -67,7 +67,14 @@ export function workSteps(outcomes: readonly SlotOutcome[], removals: readonly R
   const steps: Omit<PlanStep, 'n'>[] = [];
   const push = (kind: StepKind, text: string, units: { partNumber: string; part?: CatalogPart }[], places: SlotPlace[]) => {
     const lift = liftWords(units.map((u) => u.part));
-    steps.push({ kind, text: text + lift.words, partNumbers: [...new Set(units.map((u) => u.partNumber))], places, massKg: lift.massKg, heavy: lift.heavy });
+    steps.push({
+      kind,
+      text: text + lift.words,
+      partNumbers: [...new Set(units.map((u) => u.partNumber))],
+      places,
+      massKg: lift.massKg,
+      heavy: lift.heavy,
+    });
   };
 
   // 1. Take off what goes.
@@ -134,13 +141,23 @@ export function workSteps(outcomes: readonly SlotOutcome[], removals: readonly R
         lines.push(`move ${partWithNumber(m.unit.part, m.unit.partNumber)} from ${placeWords(m.from)} to ${placeWords(m.to)}`);
       }
       lines.push(`fit the part set aside at ${placeWords(first.to)}`);
-      push('swap', `Rotate ${cycle.length} parts: ${lines.join('; ')}.`, cycle.map((m) => m.unit), cycle.map((m) => m.from));
+      push(
+        'swap',
+        `Rotate ${cycle.length} parts: ${lines.join('; ')}.`,
+        cycle.map((m) => m.unit),
+        cycle.map((m) => m.from),
+      );
     }
   }
 
   // 4. Spares from the shelf.
   for (const o of outcomes.filter((x) => x.source === 'shelf').sort((a, b) => byPlace(a.slot.place, b.slot.place))) {
-    push('install', `Fit ${partWithNumber(o.unit!.part, o.unit!.partNumber)} from the shelf at ${placeWords(o.slot.place)}.`, [o.unit!], [o.slot.place]);
+    push(
+      'install',
+      `Fit ${partWithNumber(o.unit!.part, o.unit!.partNumber)} from the shelf at ${placeWords(o.slot.place)}.`,
+      [o.unit!],
+      [o.slot.place],
+    );
   }
 
   // 5. What has to be bought, one step per part number.
@@ -153,7 +170,10 @@ export function workSteps(outcomes: readonly SlotOutcome[], removals: readonly R
     const part = os[0]!.candidate!.part;
     const where = listWords(os.map((o) => placeWords(o.slot.place)));
     // A straight bar is one part across two in-line mounts; it is listed at the front one.
-    const span = part.kind === 'rotor-bar' && part.barKind === 'straight' ? `, ${os.length === 1 ? 'it spans' : 'each spanning'} that mount and the in-line mount behind it` : '';
+    const span =
+      part.kind === 'rotor-bar' && part.barKind === 'straight'
+        ? `, ${os.length === 1 ? 'it spans' : 'each spanning'} that mount and the in-line mount behind it`
+        : '';
     push(
       'buy',
       `Order ${os.length} × ${pn} (${partWords(part)}) and fit ${plural(os.length, 'it', 'them')} at ${where} when ${plural(os.length, 'it arrives', 'they arrive')}${span}.`,

@@ -13,12 +13,12 @@
  *   on-hand  — any element that suits the crop at that place, the program's own first; cover
  *              plates only when on hand. Fewer purchases, at the cost of departing from the program.
  */
-import { indexFamily, type CatalogIndex } from '../catalog';
-import { isDischargeMount, rotorModel } from '../rotor';
-import { ELEMENT_AGGRESSIVENESS, kernelPassage } from '../cage-metrics';
-import { SMALL_GRAINS, SMALL_SEEDED } from '../rules/elements';
-import { AGGRESSIVE_ELEMENT_TYPES, OPEN_ELEMENT_TYPES, type CropProgram } from '../crops';
-import { barPlace, coverPlace, elementPlace, placeKey, type BarPlace, type CoverPlace, type ElementPlace } from '../places';
+import type { CatalogIndex } from '~/lib/domain/catalog';
+import { isDischargeMount, rotorModel } from '~/lib/domain/rotor';
+import { ELEMENT_AGGRESSIVENESS, kernelPassage } from '~/lib/domain/cage-metrics';
+import { SMALL_GRAINS, SMALL_SEEDED } from '~/lib/domain/rules/elements';
+import { AGGRESSIVE_ELEMENT_TYPES, OPEN_ELEMENT_TYPES, type CropProgram } from '~/lib/domain/crops';
+import { barPlace, coverPlace, elementPlace, placeKey, type BarPlace, type CoverPlace, type ElementPlace } from '~/lib/domain/places';
 import type {
   BarKind,
   CatalogPart,
@@ -29,9 +29,9 @@ import type {
   Side,
   VaneControl,
   Zone,
-} from '../schemas';
-import { cropAdjective, cropNoun, cropVerb, elementPlaceWords, elementTypeName as elementWord, kernelsOf } from '../vocabulary';
-import { listWords } from '../words';
+} from '~/lib/domain/schemas';
+import { cropAdjective, cropNoun, cropVerb, elementPlaceWords, elementTypeName as elementWord, kernelsOf } from '~/lib/domain/vocabulary';
+import { listWords } from '~/lib/domain/words';
 
 export type PlanMode = 'program' | 'on-hand';
 export type SlotPlace = ElementPlace | CoverPlace | BarPlace;
@@ -93,7 +93,8 @@ export function elementTrouble(part: ElementPart, zone: Zone, crop: CropProgram)
     return `it lets ${cropAdjective(crop.id)} heads through unthreshed`;
   if (SMALL_GRAINS.has(crop.id) && zone === 'threshing' && part.elementType === 'skip-wire')
     return `it lets ${cropAdjective(crop.id)} heads through unthreshed`;
-  if (SMALL_SEEDED.has(crop.id) && part.elementType === 'close-bar') return `it grinds ${cropAdjective(crop.id)} straw to chaff that loads the sieves`;
+  if (SMALL_SEEDED.has(crop.id) && part.elementType === 'close-bar')
+    return `it grinds ${cropAdjective(crop.id)} straw to chaff that loads the sieves`;
   return null;
 }
 
@@ -139,7 +140,10 @@ function elementSlot(
   if (candidates.length === 0) {
     const what = `${side}-hand ${role}`;
     if (fits.length === 0)
-      return { place, message: `The catalog has no ${what} for the ${family.name} that fits ${elementPlaceWords(position, side)} (${zone} zone), so that half-position cannot be filled.` };
+      return {
+        place,
+        message: `The catalog has no ${what} for the ${family.name} that fits ${elementPlaceWords(position, side)} (${zone} zone), so that half-position cannot be filled.`,
+      };
     const troubles = fits.map((p) => `${elementWord(p.elementType)}: ${elementTrouble(p, zone, crop)}`);
     return {
       place,
@@ -172,7 +176,10 @@ function coverSlots(
         continue;
       }
       if (crop.threshability !== 'hard') {
-        offReasons.set(key, `${cropWord} ${cropVerb(crop.id, 'threshes', 'thresh')} without cover plates; they only cost separating area and capacity`);
+        offReasons.set(
+          key,
+          `${cropWord} ${cropVerb(crop.id, 'threshes', 'thresh')} without cover plates; they only cost separating area and capacity`,
+        );
         continue;
       }
       if (side === 'left' && vaneControl !== 'fixed') {
@@ -191,10 +198,17 @@ function coverSlots(
       if (side === 'right' && rightWanted) {
         rightWanted = false;
         if (candidates.length === 0) {
-          notes.push(`The ${cropAdjective(crop.id)} program would fit a right cover plate, but the catalog has none for the ${family.name}.`);
+          notes.push(
+            `The ${cropAdjective(crop.id)} program would fit a right cover plate, but the catalog has none for the ${family.name}.`,
+          );
           slots.push({ place, key, candidates, empty: { rank: 0, why: 'the catalog has no right cover plate for this family' } });
         } else if (mode === 'on-hand') {
-          slots.push({ place, key, candidates, empty: { rank: 1, why: `no right cover plate is on hand; fit one if ${cropAdjective(crop.id)} heads go through unthreshed` } });
+          slots.push({
+            place,
+            key,
+            candidates,
+            empty: { rank: 1, why: `no right cover plate is on hand; fit one if ${cropAdjective(crop.id)} heads go through unthreshed` },
+          });
         } else {
           slots.push({ place, key, candidates, empty: null });
         }
@@ -210,13 +224,7 @@ function coverSlots(
   return slots;
 }
 
-function barSlots(
-  family: MachineFamily,
-  parts: readonly CatalogPart[],
-  crop: CropProgram,
-  mode: PlanMode,
-  notes: string[],
-): SlotTarget[] {
+function barSlots(family: MachineFamily, parts: readonly CatalogPart[], crop: CropProgram, mode: PlanMode, notes: string[]): SlotTarget[] {
   const cropWord = cropNoun(crop.id);
   const bars = parts.filter((p): p is RotorBarPart => p.kind === 'rotor-bar' && p.fitGroup === family.fitGroup);
   const ofKind = (k: BarKind) => bars.filter((b) => b.barKind === k);
@@ -225,9 +233,13 @@ function barSlots(
   const straight = ofKind('straight');
   const discharge = ofKind('discharge');
   if (straightWanted && straight.length === 0 && family.rotorBarPlaces.some((p) => p.inLine))
-    notes.push(`The ${cropAdjective(crop.id)} program would bolt straight bars across the in-line rasp bars, but the catalog has none for the ${family.name}.`);
+    notes.push(
+      `The ${cropAdjective(crop.id)} program would bolt straight bars across the in-line rasp bars, but the catalog has none for the ${family.name}.`,
+    );
   if (dischargeWanted && discharge.length === 0)
-    notes.push(`The ${cropAdjective(crop.id)} program would fit discharge bars at the rear, but the catalog has none for the ${family.name}.`);
+    notes.push(
+      `The ${cropAdjective(crop.id)} program would fit discharge bars at the rear, but the catalog has none for the ${family.name}.`,
+    );
 
   // Discharge and straight-bar mounts as the starter layout sets them (rotor.ts): an opposite
   // pair of discharge bars at the rear and one ahead of it; one straight bar across each in-line
@@ -256,14 +268,23 @@ function barSlots(
     const spanKey = `${p.row}:${p.position}`;
     if (useStraight && model.spanByRear.has(spanKey)) {
       const span = model.spanByRear.get(spanKey)!;
-      slots.push({ place, key, candidates: [], empty: { rank: 0, why: `the straight bar from position ${span.front} takes this mount too` } });
+      slots.push({
+        place,
+        key,
+        candidates: [],
+        empty: { rank: 0, why: `the straight bar from position ${span.front} takes this mount too` },
+      });
       continue;
     }
     let candidates: Candidate[];
     if (useStraight && model.spanByFront.has(spanKey)) {
       candidates = straight.map((part) => ({ part, rank: 0, why: crop.rotorBars.advice.replace(/\s*\(common practice\)/, '') }));
     } else if (dischargeWanted && isDischargeMount(family, p.row, p.position) && discharge.length) {
-      candidates = discharge.map((part) => ({ part, rank: 0, why: `discharge bars move stringy ${cropWord} out at the rear before ${cropVerb(crop.id, 'it ropes', 'they rope')}` }));
+      candidates = discharge.map((part) => ({
+        part,
+        rank: 0,
+        why: `discharge bars move stringy ${cropWord} out at the rear before ${cropVerb(crop.id, 'it ropes', 'they rope')}`,
+      }));
     } else if (p.inLine) {
       candidates = raspCandidates(`spike rasp bars go on the in-line mounts when no straight bar is fitted`, 'spike-rasp');
     } else {

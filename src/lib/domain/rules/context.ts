@@ -1,7 +1,7 @@
 /** What every rule sees: the indexed family and catalog, the layout, the crop, and the sink. */
-import type { CatalogIndex, FamilyIndex } from '../catalog';
-import type { CropProgram } from '../crops';
-import type { Finding, FindingCode, Layout, MachineFamily, Place, Severity } from '../schemas';
+import type { CatalogIndex, FamilyIndex } from '~/lib/domain/catalog';
+import type { CropProgram } from '~/lib/domain/crops';
+import type { Finding, FindingCode, Layout, MachineFamily, Place, Severity } from '~/lib/domain/schemas';
 
 export interface RuleContext {
   readonly family: MachineFamily;

@@ -1,8 +1,8 @@
 /** Rules for cover plates on the cage top. */
-import type { Place } from '../schemas';
+import type { Place } from '~/lib/domain/schemas';
 import { emit, type RuleContext } from './context';
 import { resolvePart } from './parts';
-import { coverPlaceWords as coverWords, cropNoun } from '../vocabulary';
+import { coverPlaceWords as coverWords, cropNoun } from '~/lib/domain/vocabulary';
 
 export function checkCoverPlates(ctx: RuleContext): void {
   const { fam, family, layout, crop } = ctx;
@@ -33,7 +33,15 @@ export function checkCoverPlates(ctx: RuleContext): void {
     }
     const key = `${c.section}:${c.side}`;
     if (seen.has(key)) {
-      emit(ctx, 'LAYOUT_DUPLICATE_PLACE', 'blocks-fit', [place], `Two cover plates at ${where}`, 'One slot holds one plate.', 'Remove one of the two.');
+      emit(
+        ctx,
+        'LAYOUT_DUPLICATE_PLACE',
+        'blocks-fit',
+        [place],
+        `Two cover plates at ${where}`,
+        'One slot holds one plate.',
+        'Remove one of the two.',
+      );
       continue;
     }
     seen.add(key);

@@ -1,14 +1,14 @@
 /** Rules for the element ring: position, hand, zone, empty half-positions, and the crop's fit. */
-import { AGGRESSIVE_ELEMENT_TYPES, OPEN_ELEMENT_TYPES } from '../crops';
-import { isRoundHole, kernelPassage, LARGER_KERNEL_BASIS, PASSAGE_MARGIN_BASIS } from '../cage-metrics';
-import type { KernelSize } from '../crops';
-import type { ElementPlace } from '../places';
-import type { CropId, ElementPart, Opening, Side, Zone } from '../schemas';
+import { AGGRESSIVE_ELEMENT_TYPES, OPEN_ELEMENT_TYPES } from '~/lib/domain/crops';
+import { isRoundHole, kernelPassage, LARGER_KERNEL_BASIS, PASSAGE_MARGIN_BASIS } from '~/lib/domain/cage-metrics';
+import type { KernelSize } from '~/lib/domain/crops';
+import type { ElementPlace } from '~/lib/domain/places';
+import type { CropId, ElementPart, Opening, Side, Zone } from '~/lib/domain/schemas';
 import { emit, type RuleContext } from './context';
 import { resolvePart } from './parts';
-import { elementPlaceWords as halfWords, elementTypeName as elementWord, partNameWithHand as partWords } from '../vocabulary';
-import { cropAdjective, cropNoun, cropSays, kernelOf, kernelsOf } from '../vocabulary';
-import { capitalise, fmtMm, withArticle } from '../words';
+import { elementPlaceWords as halfWords, elementTypeName as elementWord, partNameWithHand as partWords } from '~/lib/domain/vocabulary';
+import { cropAdjective, cropNoun, cropSays, kernelOf, kernelsOf } from '~/lib/domain/vocabulary';
+import { capitalise, fmtMm, withArticle } from '~/lib/domain/words';
 
 const SIDES: readonly Side[] = ['left', 'right'];
 
@@ -123,7 +123,10 @@ function checkPassage(ctx: RuleContext, part: ElementPart, position: number, sid
   if (p.verdict !== 'blocked' && p.verdict !== 'tight') return;
   const o = part.openingMm!;
   const dim = dimensionName(crop.kernel, p.meanSizeMm);
-  const through = p.opening === 'hole' ? `A round hole lets a kernel through by its ${dim}, its middle size` : `A slot lets a kernel through by its ${dim}, its smallest size`;
+  const through =
+    p.opening === 'hole'
+      ? `A round hole lets a kernel through by its ${dim}, its middle size`
+      : `A slot lets a kernel through by its ${dim}, its smallest size`;
   const suggested = elementWord(zone === 'threshing' ? crop.suggested.threshing : crop.suggested.separating);
   const suggestion = suggested === elementWord(part.elementType) ? 'an element with a wider opening' : withArticle(`${suggested} element`);
   if (p.verdict === 'blocked') {

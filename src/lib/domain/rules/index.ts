@@ -4,9 +4,9 @@
  * and cheap enough to run on every edit (index the catalog once with `indexCatalog` when
  * checking many layouts).
  */
-import { asCatalogIndex, indexFamily, type CatalogIndex } from '../catalog';
-import { cropPrograms } from '../crops';
-import type { CatalogPart, Finding, Layout, MachineFamily, Severity } from '../schemas';
+import { asCatalogIndex, indexFamily, type CatalogIndex } from '~/lib/domain/catalog';
+import { cropPrograms } from '~/lib/domain/crops';
+import type { CatalogPart, Finding, Layout, MachineFamily, Severity } from '~/lib/domain/schemas';
 import type { RuleContext } from './context';
 import { checkCoverPlates } from './cover-plates';
 import { checkElements } from './elements';
@@ -16,11 +16,7 @@ import { checkSettings } from './settings';
 const SEVERITY_RANK: Record<Severity, number> = { 'blocks-fit': 0, 'hurts-crop': 1, advice: 2 };
 
 /** Findings, most serious first; within a severity in the order the checks met them. */
-export function checkLayout(
-  family: MachineFamily,
-  catalog: readonly CatalogPart[] | CatalogIndex,
-  layout: Layout,
-): Finding[] {
+export function checkLayout(family: MachineFamily, catalog: readonly CatalogPart[] | CatalogIndex, layout: Layout): Finding[] {
   const ctx: RuleContext = {
     family,
     fam: indexFamily(family),

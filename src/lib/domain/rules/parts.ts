@@ -1,7 +1,7 @@
 /** Resolving a placed part number against the catalog, with the findings when that fails. */
-import type { CatalogPart, CatalogPartKind, Place } from '../schemas';
+import type { CatalogPart, CatalogPartKind, Place } from '~/lib/domain/schemas';
 import { emit, type RuleContext } from './context';
-import { partNameWithHand as partWords } from '../vocabulary';
+import { partNameWithHand as partWords } from '~/lib/domain/vocabulary';
 
 const KIND_WORDS: Record<CatalogPartKind, string> = {
   element: 'an element',

@@ -4,7 +4,7 @@
  * The model of the mountings (opposite rows, straight-bar spans, discharge mounts, the balance
  * physics and its sources) is in ../rotor.ts.
  */
-import { drumFor } from '../compute';
+import { drumFor } from '~/lib/domain/compute';
 import {
   BALANCE_MASS_TOLERANCE_KG,
   DEFAULT_ROTOR_MASS_KG,
@@ -15,14 +15,14 @@ import {
   permissibleForceN,
   rotorModel,
   type MountLoad,
-} from '../rotor';
-import type { BarKind, Place, RotorBarPart } from '../schemas';
-import { countOf, withArticle } from '../words';
+} from '~/lib/domain/rotor';
+import type { BarKind, Place, RotorBarPart } from '~/lib/domain/schemas';
+import { countOf, withArticle } from '~/lib/domain/words';
 import { emit, type RuleContext } from './context';
 import { resolvePart } from './parts';
-import { barPlaceWords as barWords } from '../vocabulary';
-import { listWords } from '../words';
-import { cropNoun, cropVerb } from '../vocabulary';
+import { barPlaceWords as barWords } from '~/lib/domain/vocabulary';
+import { listWords } from '~/lib/domain/words';
+import { cropNoun, cropVerb } from '~/lib/domain/vocabulary';
 
 interface Placed {
   row: number;
@@ -76,7 +76,15 @@ export function checkRotorBars(ctx: RuleContext): void {
       continue;
     }
     if (seen.has(key)) {
-      emit(ctx, 'LAYOUT_DUPLICATE_PLACE', 'blocks-fit', [place], `Two bars at ${where}`, 'One mounting holds one bar.', 'Remove one of the two.');
+      emit(
+        ctx,
+        'LAYOUT_DUPLICATE_PLACE',
+        'blocks-fit',
+        [place],
+        `Two bars at ${where}`,
+        'One mounting holds one bar.',
+        'Remove one of the two.',
+      );
       continue;
     }
     seen.add(key);
@@ -129,7 +137,9 @@ export function checkRotorBars(ctx: RuleContext): void {
       twice
         ? `One straight bar spans the in-line mounts of row ${span.row} at positions ${span.front} and ${span.rear}; a second one listed at position ${span.rear} has no mount and would be ordered for nothing.`
         : `The straight bar from position ${span.front} of row ${span.row} is one part across the mounts at positions ${span.front} and ${span.rear}; the ${other ? barKindWord(other.barKind) : 'bar'} at position ${span.rear} has no mount left.`,
-      twice ? `Remove the straight bar at position ${span.rear}; the one at position ${span.front} covers both mounts.` : `Remove the bar at position ${span.rear}, or take the straight bar off and fit spike rasp bars on both mounts (common practice).`,
+      twice
+        ? `Remove the straight bar at position ${span.rear}; the one at position ${span.front} covers both mounts.`
+        : `Remove the bar at position ${span.rear}, or take the straight bar off and fit spike rasp bars on both mounts (common practice).`,
     );
   }
 

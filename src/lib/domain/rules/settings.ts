@@ -1,13 +1,11 @@
 /** Rules for the settings beside the diagram: family, drum, vane control and setting, rotor speed, clearance. */
-import { MECHANICAL_MIN_CLEARANCE_MM, sourceInWords } from '../crops';
-import { drumFor } from '../compute';
-import { inRpmWindow, inStartBand, rpmWindow, rpmWindowWords, startRpm, type RpmWindow } from '../speed';
-import { VANE_CONTROL_HOW, VANE_SETTING_WORDS, adviseVaneSetting, vaneSettingsFor } from '../vanes';
+import { MECHANICAL_MIN_CLEARANCE_MM, sourceInWords } from '~/lib/domain/crops';
+import { drumFor } from '~/lib/domain/compute';
+import { inRpmWindow, inStartBand, rpmWindow, rpmWindowWords, startRpm, type RpmWindow } from '~/lib/domain/speed';
+import { VANE_CONTROL_HOW, VANE_SETTING_WORDS, adviseVaneSetting, vaneSettingsFor } from '~/lib/domain/vanes';
 import { emit, type RuleContext } from './context';
-import { cropNoun, cropSays } from '../vocabulary';
 
-const list = (xs: readonly string[]) =>
-  xs.length <= 1 ? (xs[0] ?? '') : `${xs.slice(0, -1).join(', ')} or ${xs[xs.length - 1]}`;
+const list = (xs: readonly string[]) => (xs.length <= 1 ? (xs[0] ?? '') : `${xs.slice(0, -1).join(', ')} or ${xs[xs.length - 1]}`);
 
 /** Rotor speed: outside every cited range hurts the crop; outside the start band is advice. */
 function checkSpeed(ctx: RuleContext, w: RpmWindow, drumLabel: string, diameterMm: number): void {
@@ -30,7 +28,9 @@ function checkSpeed(ctx: RuleContext, w: RpmWindow, drumLabel: string, diameterM
       [{ kind: 'setting', field: 'rotorRpm' }],
       `Rotor ${slow ? 'too slow' : 'too fast'} for ${crop.name.toLowerCase()}`,
       `${layout.rotorRpm} rpm lies outside every speed range cited for ${crop.name.toLowerCase()} ${on}: ${cited}. ${slow ? 'Too slow, heads or pods go through unthreshed.' : 'Too fast, kernels crack: rotor speed is the main cause of cracked grain (USDA Yearbook of Agriculture 1961, "Seeds"; University of Wisconsin–Madison, "Combine Adjustments", 2006).'}`,
-      slow ? `Raise the rotor speed to ${target} rpm; go up further only as losses call for it.` : `Lower the rotor speed to ${target} rpm or less.`,
+      slow
+        ? `Raise the rotor speed to ${target} rpm; go up further only as losses call for it.`
+        : `Lower the rotor speed to ${target} rpm or less.`,
     );
   } else if (!inStartBand(speed, w) && w.start) {
     const below = speed < w.start.lo;

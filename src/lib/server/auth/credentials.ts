@@ -1,9 +1,9 @@
 import { CredentialsSignin } from '@auth/core/errors';
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb } from '../db';
-import { audit } from '../audit';
-import { users, memberships } from '../../../db/schema';
+import { getDb } from '~/lib/server/db';
+import { audit } from '~/lib/server/audit';
+import { users, memberships } from '~/db/schema';
 import { DECOY_HASH, verifyPassword } from './passwords';
 import { reserveSignIn, signInSucceeded } from './throttle';
 import { startSession } from './sessions';

@@ -1,6 +1,6 @@
 import { randomBytes } from 'node:crypto';
 import { sql } from 'drizzle-orm';
-import type { Db } from '../db';
+import type { Db } from '~/lib/server/db';
 
 /** How long a session lasts from sign-in; auth.config.ts gives the cookie the same age. */
 export const SESSION_MAX_AGE_S = 12 * 60 * 60;

@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import type { Db } from '../db';
+import type { Db } from '~/lib/server/db';
 
 /**
  * Sign-in throttling, shared by every server process through the store.
@@ -46,7 +46,11 @@ export function addressKey(address: string | null | undefined) {
     const left = head ? head.split(':') : [];
     const right = tail ? tail.split(':') : [];
     const groups = a.includes('::') ? [...left, ...Array(Math.max(0, 8 - left.length - right.length)).fill('0'), ...right] : left;
-    a = groups.slice(0, 4).map((g) => g.replace(/^0+(?=.)/, '')).join(':') + '::/64';
+    a =
+      groups
+        .slice(0, 4)
+        .map((g) => g.replace(/^0+(?=.)/, ''))
+        .join(':') + '::/64';
   }
   return `address:${a}`;
 }

@@ -1,13 +1,13 @@
 import { and, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb } from '../db';
-import { memberships, users } from '../../../db/schema';
-import { TENANT_ROLES, type Actor } from '../access';
-import { forgetActors } from '../actors';
-import { audit } from '../audit';
-import { HttpError, notFound } from '../http';
-import { hashPassword, verifyPassword } from '../auth/passwords';
-import { ACCOUNT_FREE, reserve } from '../auth/throttle';
+import { getDb } from '~/lib/server/db';
+import { memberships, users } from '~/db/schema';
+import { TENANT_ROLES, type Actor } from '~/lib/server/access';
+import { forgetActors } from '~/lib/server/actors';
+import { audit } from '~/lib/server/audit';
+import { HttpError, notFound } from '~/lib/server/http';
+import { hashPassword, verifyPassword } from '~/lib/server/auth/passwords';
+import { ACCOUNT_FREE, reserve } from '~/lib/server/auth/throttle';
 
 /** Roles a dealer administrator may give within their dealer. */
 
@@ -78,7 +78,10 @@ export async function changeRole(actor: Actor, userId: string, input: z.infer<ty
       .for('update');
     if (!before) return null;
     if (before.role === input.role) return { previous: before.role, role: input.role };
-    await tx.update(memberships).set({ role: input.role }).where(and(eq(memberships.userId, userId), eq(memberships.orgId, input.orgId)));
+    await tx
+      .update(memberships)
+      .set({ role: input.role })
+      .where(and(eq(memberships.userId, userId), eq(memberships.orgId, input.orgId)));
     await audit(tx, actor, 'update', 'membership', userId, { orgId: input.orgId, role: input.role, previous: before.role }, input.orgId);
     return { previous: before.role, role: input.role };
   });

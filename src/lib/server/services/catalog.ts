@@ -1,11 +1,11 @@
 import { and, asc, eq, ilike, or, sql, type SQL } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb } from '../db';
-import { catalogParts, families, machines } from '../../../db/schema';
-import { catalogPartSchema, slugSchema, type CatalogPart, type MachineFamily } from '../../domain/schemas';
-import type { Actor } from '../access';
-import { audit } from '../audit';
-import { HttpError, notFound } from '../http';
+import { getDb } from '~/lib/server/db';
+import { catalogParts, families, machines } from '~/db/schema';
+import { catalogPartSchema, slugSchema, type CatalogPart, type MachineFamily } from '~/lib/domain/schemas';
+import type { Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError, notFound } from '~/lib/server/http';
 
 export async function listFamilies() {
   const db = await getDb();
@@ -60,7 +60,10 @@ export async function updateFamily(actor: Actor, id: string, spec: MachineFamily
       throw new HttpError(409, `vaneControls: machines of this family have ${u.vaneControl} vanes; keep that control`, 'vaneControls');
   }
   if (spec.fitGroup !== current.spec.fitGroup) {
-    const [p] = await db.select({ n: sql<number>`count(*)::int` }).from(catalogParts).where(eq(catalogParts.familyId, id));
+    const [p] = await db
+      .select({ n: sql<number>`count(*)::int` })
+      .from(catalogParts)
+      .where(eq(catalogParts.familyId, id));
     if ((p?.n ?? 0) > 0)
       throw new HttpError(409, `fitGroup: ${p!.n} parts are listed under fit group “${current.spec.fitGroup}”`, 'fitGroup');
   }
@@ -142,12 +145,22 @@ async function familyForPart(input: PartInput) {
 export async function createPart(actor: Actor, input: PartInput) {
   await familyForPart(input);
   const db = await getDb();
-  const [clash] = await db.select({ p: catalogParts.partNumber }).from(catalogParts).where(eq(catalogParts.partNumber, input.part.partNumber)).limit(1);
+  const [clash] = await db
+    .select({ p: catalogParts.partNumber })
+    .from(catalogParts)
+    .where(eq(catalogParts.partNumber, input.part.partNumber))
+    .limit(1);
   if (clash) throw new HttpError(409, `part.partNumber: ${input.part.partNumber} is already in the catalog`, 'part.partNumber');
   return db.transaction(async (tx) => {
     const [row] = await tx
       .insert(catalogParts)
-      .values({ partNumber: input.part.partNumber, familyId: input.familyId, kind: input.part.kind, spec: input.part, active: input.active })
+      .values({
+        partNumber: input.part.partNumber,
+        familyId: input.familyId,
+        kind: input.part.kind,
+        spec: input.part,
+        active: input.active,
+      })
       .returning();
     await audit(tx, actor, 'create', 'part', row!.partNumber, { familyId: input.familyId, kind: input.part.kind });
     return row!;

@@ -1,7 +1,7 @@
-import { checkLayoutInput } from '../../domain/check-input';
-import { catalogSnapshot } from '../catalog-cache';
-import { getDb } from '../db';
-import { HttpError } from '../http';
+import { checkLayoutInput } from '~/lib/domain/check-input';
+import { catalogSnapshot } from '~/lib/server/catalog-cache';
+import { getDb } from '~/lib/server/db';
+import { HttpError } from '~/lib/server/http';
 import { priceCatalogFor } from './prices';
 
 /**

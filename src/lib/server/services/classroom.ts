@@ -4,15 +4,23 @@
  * Pages call these directly; the deck's own writes live in decks.ts.
  */
 import { and, eq, inArray } from 'drizzle-orm';
-import { getDb } from '../db';
-import { catalogParts, deckSlides, decks, layouts, layoutVersions, machines, organisations } from '../../../db/schema';
-import { computeSettings, type Settings } from '../../domain/compute';
-import { cropIdSchema, slugSchema, type CatalogPart, type CropId, type Finding, type Layout, type MachineFamily } from '../../domain/schemas';
-import { cropPrograms } from '../../domain/crops';
-import { starterLayout } from '../../domain/starter';
-import { checkLayout } from '../../domain/rules';
-import type { Actor } from '../access';
-import { HttpError, notFound } from '../http';
+import { getDb } from '~/lib/server/db';
+import { catalogParts, deckSlides, decks, layouts, layoutVersions, machines, organisations } from '~/db/schema';
+import { computeSettings, type Settings } from '~/lib/domain/compute';
+import {
+  cropIdSchema,
+  slugSchema,
+  type CatalogPart,
+  type CropId,
+  type Finding,
+  type Layout,
+  type MachineFamily,
+} from '~/lib/domain/schemas';
+import { cropPrograms } from '~/lib/domain/crops';
+import { starterLayout } from '~/lib/domain/starter';
+import { checkLayout } from '~/lib/domain/rules';
+import type { Actor } from '~/lib/server/access';
+import { HttpError, notFound } from '~/lib/server/http';
 import { getDeck, resolveDeckShareToken, type DeckRecord, type SlideRecord } from './decks';
 import { catalogForFamily, familyById, familyChoices } from './machines';
 
@@ -55,7 +63,12 @@ export async function showSlides(deck: DeckRecord, slides: SlideRecord[]): Promi
     const family = s.layout ? families[s.layout.familyId] : undefined;
     if (!s.layout || !family) return { ...s, layout: family ? s.layout : null, familyId: null, findings: [], settings: null };
     const catalog = catalogs[family.id]!;
-    return { ...s, familyId: family.id, findings: checkLayout(family, catalog, s.layout), settings: computeSettings(family, catalog, s.layout) };
+    return {
+      ...s,
+      familyId: family.id,
+      findings: checkLayout(family, catalog, s.layout),
+      settings: computeSettings(family, catalog, s.layout),
+    };
   });
   return { deck, slides: views, families, catalogs };
 }
@@ -81,9 +94,7 @@ export async function sharedDeckShow(token: string) {
  *   version:<layout version id> (or the bare id) · slide:<deck slide id> · starter:<family>:<crop>
  */
 export type CompareRef =
-  | { kind: 'version'; id: string }
-  | { kind: 'slide'; id: string }
-  | { kind: 'starter'; familyId: string; crop: CropId };
+  { kind: 'version'; id: string } | { kind: 'slide'; id: string } | { kind: 'starter'; familyId: string; crop: CropId };
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
@@ -122,7 +133,13 @@ export async function compareSide(actor: Actor, ref: CompareRef, field: string):
   let detail: string;
   if (ref.kind === 'version') {
     const [v] = await db
-      .select({ body: layoutVersions.body, version: layoutVersions.version, name: layouts.name, nickname: machines.nickname, orgName: organisations.name })
+      .select({
+        body: layoutVersions.body,
+        version: layoutVersions.version,
+        name: layouts.name,
+        nickname: machines.nickname,
+        orgName: organisations.name,
+      })
       .from(layoutVersions)
       .innerJoin(layouts, eq(layouts.id, layoutVersions.layoutId))
       .innerJoin(machines, eq(machines.id, layouts.machineId))
@@ -160,7 +177,9 @@ export async function compareSide(actor: Actor, ref: CompareRef, field: string):
 }
 
 /** What the compare page's chooser offers: layouts on visible machines and a starter per crop. */
-export async function compareChoices(versions: { layoutVersionId: string; layoutName: string; version: number; machineNickname: string; orgName: string; crop: CropId }[]) {
+export async function compareChoices(
+  versions: { layoutVersionId: string; layoutName: string; version: number; machineNickname: string; orgName: string; crop: CropId }[],
+) {
   const families = await familyChoices();
   return [
     ...versions.map((v) => ({

@@ -1,7 +1,7 @@
 import { desc, eq, inArray, sql } from 'drizzle-orm';
-import { getDb } from '../db';
-import { families, lossChecks, machines, organisations } from '../../../db/schema';
-import type { Actor } from '../access';
+import { getDb } from '~/lib/server/db';
+import { families, lossChecks, machines, organisations } from '~/db/schema';
+import type { Actor } from '~/lib/server/access';
 
 /** The machines the actor may see, with the time of each one's last loss check (a page of 100). */
 export async function fieldCheckMachines(actor: Actor) {
@@ -12,7 +12,10 @@ export async function fieldCheckMachines(actor: Actor) {
       nickname: machines.nickname,
       familyName: families.name,
       orgName: organisations.name,
-      lastCheckAt: sql<Date | null>`(select max(${lossChecks.checkedAt}) from ${lossChecks} where ${lossChecks.machineId} = ${machines.id})`.mapWith((v) => (v ? new Date(v) : null)),
+      lastCheckAt:
+        sql<Date | null>`(select max(${lossChecks.checkedAt}) from ${lossChecks} where ${lossChecks.machineId} = ${machines.id})`.mapWith(
+          (v) => (v ? new Date(v) : null),
+        ),
     })
     .from(machines)
     .innerJoin(families, eq(families.id, machines.familyId))

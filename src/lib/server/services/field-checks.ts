@@ -1,13 +1,13 @@
 import { and, asc, desc, eq, inArray, sql } from 'drizzle-orm';
 import Papa from 'papaparse';
 import { z } from 'zod';
-import { getDb, type Db } from '../db';
-import { layouts, layoutVersions, lossChecks, users } from '../../../db/schema';
-import { checkWidths, computeLossCheck, lossCheckInputBaseSchema } from '../../domain/field-check';
-import { CLEARANCE_MAX_MM, CLEARANCE_MIN_MM, RPM_MAX, RPM_MIN, vaneSettingSchema, type Layout } from '../../domain/schemas';
-import type { Actor } from '../access';
-import { audit } from '../audit';
-import { HttpError, notFound } from '../http';
+import { getDb, type Db } from '~/lib/server/db';
+import { layouts, layoutVersions, lossChecks, users } from '~/db/schema';
+import { checkWidths, computeLossCheck, lossCheckInputBaseSchema } from '~/lib/domain/field-check';
+import { CLEARANCE_MAX_MM, CLEARANCE_MIN_MM, RPM_MAX, RPM_MIN, vaneSettingSchema, type Layout } from '~/lib/domain/schemas';
+import type { Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError, notFound } from '~/lib/server/http';
 import { installedLayout, machineForActor } from './machines';
 import { dealerOfOrg, startingValuesFor } from './starting-values';
 
@@ -74,7 +74,11 @@ export async function recordLossCheck(actor: Actor, machineId: string, input: z.
   const clearanceMm = s.clearanceMm ?? current?.layout.clearanceMm;
   const vaneSetting = s.vaneSetting ?? current?.layout.vaneSetting;
   if (rotorRpm === undefined || clearanceMm === undefined || vaneSetting === undefined)
-    throw new HttpError(400, 'settings: nothing is recorded as installed on this machine; give the rotor speed, clearance and vanes', 'settings');
+    throw new HttpError(
+      400,
+      'settings: nothing is recorded as installed on this machine; give the rotor speed, clearance and vanes',
+      'settings',
+    );
   const dealerId = await dealerOfOrg(ctx.machine.orgId, db);
   const start = dealerId ? await startingValuesFor(dealerId, ctx.family.id, input.crop, db) : null;
   const fanRpm = s.fanRpm !== undefined ? s.fanRpm : (start?.fanRpm ?? null);
@@ -124,7 +128,13 @@ export async function recordLossCheck(actor: Actor, machineId: string, input: z.
       'record',
       'loss-check',
       row!.id,
-      { machineId: ctx.machine.id, fieldName, crop: input.crop, harvestPct: Math.round(result.harvest.pctOfYield * 100) / 100, verdict: result.verdict },
+      {
+        machineId: ctx.machine.id,
+        fieldName,
+        crop: input.crop,
+        harvestPct: Math.round(result.harvest.pctOfYield * 100) / 100,
+        verdict: result.verdict,
+      },
       ctx.machine.orgId,
     );
     return row!.id;
@@ -191,7 +201,13 @@ export async function seasonLog(actor: Actor, machineId: string, season?: number
     .orderBy(asc(lossChecks.checkedAt), asc(lossChecks.id))
     .limit(1000);
   return {
-    machine: { id: ctx.machine.id, nickname: ctx.machine.nickname, serial: ctx.machine.serial, familyName: ctx.family.name, orgName: ctx.orgName },
+    machine: {
+      id: ctx.machine.id,
+      nickname: ctx.machine.nickname,
+      serial: ctx.machine.serial,
+      familyName: ctx.family.name,
+      orgName: ctx.orgName,
+    },
     season: chosen,
     seasons: seasons.includes(chosen) ? seasons : [chosen, ...seasons].sort((a, b) => b - a),
     checks,
@@ -223,16 +239,52 @@ export function seasonCsv(checks: Awaited<ReturnType<typeof seasonLog>>['checks'
   return Papa.unparse(
     {
       fields: [
-        'Checked at (UTC)', 'Field', 'Crop', 'Moisture %', 'Layout version', 'Rotor rpm', `Clearance ${lenUnit}`, 'Vanes',
-        'Fan rpm', `Upper sieve ${lenUnit}`, `Lower sieve ${lenUnit}`, 'Basis', 'Kernels/ft² for 1 bu/ac',
-        'Pre-harvest bu/ac', 'Header bu/ac', 'Machine bu/ac', 'Harvest loss bu/ac', 'Harvest loss kg/ha', 'Harvest loss % of yield',
-        'Target %', 'Verdict', 'Recorded by',
+        'Checked at (UTC)',
+        'Field',
+        'Crop',
+        'Moisture %',
+        'Layout version',
+        'Rotor rpm',
+        `Clearance ${lenUnit}`,
+        'Vanes',
+        'Fan rpm',
+        `Upper sieve ${lenUnit}`,
+        `Lower sieve ${lenUnit}`,
+        'Basis',
+        'Kernels/ft² for 1 bu/ac',
+        'Pre-harvest bu/ac',
+        'Header bu/ac',
+        'Machine bu/ac',
+        'Harvest loss bu/ac',
+        'Harvest loss kg/ha',
+        'Harvest loss % of yield',
+        'Target %',
+        'Verdict',
+        'Recorded by',
       ],
       data: checks.map((c) => [
-        c.checkedAt.toISOString(), c.fieldName, c.crop, r(c.moisturePct, 1), c.layoutVersion ?? '', c.rotorRpm, len(c.clearanceMm), c.vaneSetting,
-        c.fanRpm ?? '', len(c.upperSieveMm), len(c.lowerSieveMm), c.result.basis.kind, r(c.result.basis.kernelsPerFt2PerBuAc, 2),
-        r(c.result.preHarvest.buPerAc, 2), r(c.result.header.buPerAc, 2), r(c.result.machine.buPerAc, 2), r(c.result.harvest.buPerAc, 2),
-        r(c.result.harvest.kgPerHa, 1), r(c.result.harvest.pctOfYield, 2), r(c.result.target.pct, 2), c.verdict, c.createdByName ?? '',
+        c.checkedAt.toISOString(),
+        c.fieldName,
+        c.crop,
+        r(c.moisturePct, 1),
+        c.layoutVersion ?? '',
+        c.rotorRpm,
+        len(c.clearanceMm),
+        c.vaneSetting,
+        c.fanRpm ?? '',
+        len(c.upperSieveMm),
+        len(c.lowerSieveMm),
+        c.result.basis.kind,
+        r(c.result.basis.kernelsPerFt2PerBuAc, 2),
+        r(c.result.preHarvest.buPerAc, 2),
+        r(c.result.header.buPerAc, 2),
+        r(c.result.machine.buPerAc, 2),
+        r(c.result.harvest.buPerAc, 2),
+        r(c.result.harvest.kgPerHa, 1),
+        r(c.result.harvest.pctOfYield, 2),
+        r(c.result.target.pct, 2),
+        c.verdict,
+        c.createdByName ?? '',
       ]),
     },
     { escapeFormulae: true },

@@ -1,7 +1,7 @@
 import { and, count, desc, eq, inArray } from 'drizzle-orm';
-import { getDb } from '../db';
-import { machines, organisations, partsRequests, decks, families, users } from '../../../db/schema';
-import type { Actor } from '../access';
+import { getDb } from '~/lib/server/db';
+import { machines, organisations, partsRequests, decks, families, users } from '~/db/schema';
+import type { Actor } from '~/lib/server/access';
 
 export interface HomeSummary {
   orgs: { id: string; name: string; kind: 'farm' | 'dealer' | 'instance' }[];
@@ -17,21 +17,39 @@ export async function homeSummary(actor: Actor): Promise<HomeSummary> {
   const db = await getDb();
   const visible = actor.visibleOrgIds;
   const [orgs, machineRows, [requests], [deckCount], [drafts]] = await Promise.all([
-    db.select({ id: organisations.id, name: organisations.name, kind: organisations.kind })
-      .from(organisations).where(inArray(organisations.id, visible)).orderBy(organisations.kind, organisations.name),
-    db.select({ id: machines.id, nickname: machines.nickname, serial: machines.serial, familyName: families.name, orgName: organisations.name })
+    db
+      .select({ id: organisations.id, name: organisations.name, kind: organisations.kind })
+      .from(organisations)
+      .where(inArray(organisations.id, visible))
+      .orderBy(organisations.kind, organisations.name),
+    db
+      .select({
+        id: machines.id,
+        nickname: machines.nickname,
+        serial: machines.serial,
+        familyName: families.name,
+        orgName: organisations.name,
+      })
       .from(machines)
       .innerJoin(families, eq(families.id, machines.familyId))
       .innerJoin(organisations, eq(organisations.id, machines.orgId))
       .where(inArray(machines.orgId, visible))
       .orderBy(desc(machines.updatedAt))
       .limit(8),
-    db.select({ n: count() }).from(partsRequests).where(and(
-      actor.homeOrgKind === 'dealer' ? inArray(partsRequests.dealerOrgId, actor.memberOrgIds) : inArray(partsRequests.orgId, visible),
-      inArray(partsRequests.status, ['sent', 'acknowledged', 'ready']),
-    )),
+    db
+      .select({ n: count() })
+      .from(partsRequests)
+      .where(
+        and(
+          actor.homeOrgKind === 'dealer' ? inArray(partsRequests.dealerOrgId, actor.memberOrgIds) : inArray(partsRequests.orgId, visible),
+          inArray(partsRequests.status, ['sent', 'acknowledged', 'ready']),
+        ),
+      ),
     db.select({ n: count() }).from(decks).where(inArray(decks.orgId, visible)),
-    db.select({ n: count() }).from(partsRequests).where(and(inArray(partsRequests.orgId, visible), eq(partsRequests.status, 'draft'))),
+    db
+      .select({ n: count() })
+      .from(partsRequests)
+      .where(and(inArray(partsRequests.orgId, visible), eq(partsRequests.status, 'draft'))),
   ]);
   return { orgs, machines: machineRows, openPartsRequests: requests?.n ?? 0, draftPartsRequests: drafts?.n ?? 0, decks: deckCount?.n ?? 0 };
 }

@@ -1,7 +1,7 @@
 import { and, asc, count, desc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb, type Db } from '../db';
-import { auditLog, families, inspectionItems, inspections, machines, organisations, partsRequests, photos, users } from '../../../db/schema';
+import { getDb, type Db } from '~/lib/server/db';
+import { auditLog, families, inspectionItems, inspections, machines, organisations, partsRequests, photos, users } from '~/db/schema';
 import {
   buildChecklist,
   checklistKind,
@@ -16,11 +16,11 @@ import {
   type ChecklistKind,
   type ConditionId,
   type ReplacementLine,
-} from '../../domain/inspection';
-import type { MachineFamily } from '../../domain/schemas';
-import type { Actor } from '../access';
-import { audit } from '../audit';
-import { HttpError, notFound } from '../http';
+} from '~/lib/domain/inspection';
+import type { MachineFamily } from '~/lib/domain/schemas';
+import type { Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError, notFound } from '~/lib/server/http';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
 import { currencyFor } from './prices';
 import { addLinesToDraftRequest } from './parts-requests';
@@ -32,10 +32,16 @@ export type InspectionItemRow = typeof inspectionItems.$inferSelect;
 // Input formats
 
 /** Text a person types; the database cannot keep a NUL character, so it is refused up front. */
-const typed = (max: number) => z.string().max(max).refine((t) => !t.includes('\u0000'), { error: 'contains a character that cannot be stored' });
+const typed = (max: number) =>
+  z
+    .string()
+    .max(max)
+    .refine((t) => !t.includes('\u0000'), { error: 'contains a character that cannot be stored' });
 
 export const startInspectionSchema = z.object({
-  title: typed(120).transform((t) => t.trim()).optional(),
+  title: typed(120)
+    .transform((t) => t.trim())
+    .optional(),
 });
 
 const measurementValue = z.number().min(0).max(1000).nullable();
@@ -52,7 +58,9 @@ export type ItemUpdate = z.infer<typeof itemUpdateSchema>;
 
 export const updateInspectionSchema = z
   .object({
-    title: typed(120).transform((t) => t.trim()).optional(),
+    title: typed(120)
+      .transform((t) => t.trim())
+      .optional(),
     items: z.array(itemUpdateSchema).max(200).default([]),
   })
   .superRefine((v, ctx) => {
@@ -109,7 +117,10 @@ export async function listInspections(actor: Actor, query: z.infer<typeof listIn
       .orderBy(desc(inspections.startedAt), asc(inspections.id))
       .limit(query.pageSize)
       .offset((query.page - 1) * query.pageSize),
-    db.select({ n: count() }).from(inspections).where(and(...where)) as Promise<{ n: number }[]>,
+    db
+      .select({ n: count() })
+      .from(inspections)
+      .where(and(...where)) as Promise<{ n: number }[]>,
   ]);
   return { items: rows, total: n, page: query.page, pageSize: query.pageSize };
 }
@@ -119,7 +130,13 @@ export async function listInspectionsForMachine(actor: Actor, machineId: string,
   const ctx = await machineForActor(actor, machineId);
   const list = await listInspections(actor, { machineId: ctx.machine.id, page, pageSize });
   return {
-    machine: { id: ctx.machine.id, nickname: ctx.machine.nickname, serial: ctx.machine.serial, familyName: ctx.family.name, orgName: ctx.orgName },
+    machine: {
+      id: ctx.machine.id,
+      nickname: ctx.machine.nickname,
+      serial: ctx.machine.serial,
+      familyName: ctx.family.name,
+      orgName: ctx.orgName,
+    },
     ...list,
   };
 }
@@ -131,7 +148,11 @@ export async function startInspection(actor: Actor, machineId: string, input: z.
   const ctx = await machineForActor(actor, machineId, dbArg);
   const current = await installedLayout(ctx.machine.id, dbArg);
   if (!current)
-    throw new HttpError(409, 'Nothing is recorded as installed on this machine yet, so there is no checklist to build. Record what is installed first.', 'machineId');
+    throw new HttpError(
+      409,
+      'Nothing is recorded as installed on this machine yet, so there is no checklist to build. Record what is installed first.',
+      'machineId',
+    );
   const catalog = await catalogForFamily(ctx.family.id, dbArg, ctx.machine.orgId);
   const lines = buildChecklist(ctx.family, current.layout, catalog);
   const db = dbArg ?? (await getDb());
@@ -200,7 +221,14 @@ export async function getInspection(actor: Actor, id: string, dbArg?: Db) {
   const byItem = new Map<string, PhotoRef[]>();
   for (const p of photoRows) {
     const list = byItem.get(p.itemId) ?? [];
-    list.push({ id: p.id, url: photoUrl(p.id), thumbUrl: photoUrl(p.id, true), contentType: p.contentType, bytes: p.bytes, createdAt: p.createdAt });
+    list.push({
+      id: p.id,
+      url: photoUrl(p.id),
+      thumbUrl: photoUrl(p.id, true),
+      contentType: p.contentType,
+      bytes: p.bytes,
+      createdAt: p.createdAt,
+    });
     byItem.set(p.itemId, list);
   }
   const lines = items.map((it) => {
@@ -257,7 +285,9 @@ async function partsRequestOfInspection(row: InspectionRow, db: Db) {
   const [entry] = await db
     .select({ detail: auditLog.detail })
     .from(auditLog)
-    .where(and(eq(auditLog.orgId, row.orgId), eq(auditLog.entity, 'inspection'), eq(auditLog.entityId, row.id), eq(auditLog.action, 'finish')))
+    .where(
+      and(eq(auditLog.orgId, row.orgId), eq(auditLog.entity, 'inspection'), eq(auditLog.entityId, row.id), eq(auditLog.action, 'finish')),
+    )
     .orderBy(desc(auditLog.at))
     .limit(1);
   const requestId = entry?.detail.partsRequestId;
@@ -300,7 +330,10 @@ export async function updateInspection(actor: Actor, id: string, input: z.infer<
   const ctx = await machineForActor(actor, row.machineId, db);
   const ids = input.items.map((u) => u.id);
   const current = ids.length
-    ? await db.select().from(inspectionItems).where(and(eq(inspectionItems.inspectionId, row.id), inArray(inspectionItems.id, ids)))
+    ? await db
+        .select()
+        .from(inspectionItems)
+        .where(and(eq(inspectionItems.inspectionId, row.id), inArray(inspectionItems.id, ids)))
     : [];
   const byId = new Map(current.map((c) => [c.id, c] as const));
   input.items.forEach((u, i) => {
@@ -313,7 +346,10 @@ export async function updateInspection(actor: Actor, id: string, input: z.infer<
     const [locked] = await tx.select({ status: inspections.status }).from(inspections).where(eq(inspections.id, row.id)).for('update');
     if (locked?.status !== 'open') assertOpen({ ...row, status: 'finished' });
     if (input.title !== undefined && input.title !== row.title) {
-      await tx.update(inspections).set({ title: input.title || 'Pre-season inspection' }).where(eq(inspections.id, row.id));
+      await tx
+        .update(inspections)
+        .set({ title: input.title || 'Pre-season inspection' })
+        .where(eq(inspections.id, row.id));
     }
     for (const u of input.items) {
       const item = byId.get(u.id)!;
@@ -337,7 +373,10 @@ export async function updateInspection(actor: Actor, id: string, input: z.infer<
       'update',
       'inspection',
       row.id,
-      { title: input.title, items: input.items.map((u) => ({ id: u.id, placeKey: byId.get(u.id)!.placeKey, severity: u.severity, conditions: u.conditions })) },
+      {
+        title: input.title,
+        items: input.items.map((u) => ({ id: u.id, placeKey: byId.get(u.id)!.placeKey, severity: u.severity, conditions: u.conditions })),
+      },
       row.orgId,
     );
   });
@@ -348,7 +387,10 @@ export async function updateInspection(actor: Actor, id: string, input: z.infer<
 // Finish: flagged lines become replacement lines on a draft parts request
 
 /** The survey line says "serviceable" while its readings find an uneven clearance. */
-export function surveyVerdictDisagrees(family: MachineFamily, items: readonly { placeKey: string; severity: string; measurements: Record<string, number> }[]): boolean {
+export function surveyVerdictDisagrees(
+  family: MachineFamily,
+  items: readonly { placeKey: string; severity: string; measurements: Record<string, number> }[],
+): boolean {
   const survey = items.find((it) => checklistKind(it.placeKey) === 'survey');
   return !!survey && survey.severity === 'ok' && surveyFromMeasurements(family, survey.measurements).uneven;
 }
@@ -381,7 +423,10 @@ export async function finishInspection(actor: Actor, id: string, opts: { acceptU
   await db.transaction(async (tx) => {
     const [locked] = await tx.select({ status: inspections.status }).from(inspections).where(eq(inspections.id, row.id)).for('update');
     if (locked?.status !== 'open') assertOpen({ ...row, status: 'finished' });
-    await tx.update(inspections).set({ status: 'finished', finishedAt: sql`now()` }).where(eq(inspections.id, row.id));
+    await tx
+      .update(inspections)
+      .set({ status: 'finished', finishedAt: sql`now()` })
+      .where(eq(inspections.id, row.id));
   });
 
   let requestId: string | null = null;
@@ -409,7 +454,14 @@ export async function finishInspection(actor: Actor, id: string, opts: { acceptU
       'finish',
       'inspection',
       row.id,
-      { machineId: row.machineId, counts: countSeverities(items), partsRequestId: requestId, lines, unknownParts: unknown, ...(disagrees ? { unevenSurveyAccepted: true } : {}) },
+      {
+        machineId: row.machineId,
+        counts: countSeverities(items),
+        partsRequestId: requestId,
+        lines,
+        unknownParts: unknown,
+        ...(disagrees ? { unevenSurveyAccepted: true } : {}),
+      },
       row.orgId,
     );
   });
@@ -421,7 +473,13 @@ export async function finishInspection(actor: Actor, id: string, opts: { acceptU
 export async function machinesToInspect(actor: Actor) {
   const db = await getDb();
   return db
-    .select({ id: machines.id, nickname: machines.nickname, serial: machines.serial, familyName: families.name, orgName: organisations.name })
+    .select({
+      id: machines.id,
+      nickname: machines.nickname,
+      serial: machines.serial,
+      familyName: families.name,
+      orgName: organisations.name,
+    })
     .from(machines)
     .innerJoin(families, eq(families.id, machines.familyId))
     .innerJoin(organisations, eq(organisations.id, machines.orgId))

@@ -1,12 +1,12 @@
 import { count, desc, eq, inArray, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb } from '../db';
-import { auditLog, installed, layouts, layoutVersions, shareLinks, users } from '../../../db/schema';
-import { checkLayout } from '../../domain/rules';
-import { layoutSchema, type Layout } from '../../domain/schemas';
-import type { Actor } from '../access';
-import { audit } from '../audit';
-import { HttpError, whenNotFound } from '../http';
+import { getDb } from '~/lib/server/db';
+import { auditLog, installed, layouts, layoutVersions, shareLinks, users } from '~/db/schema';
+import { checkLayout } from '~/lib/domain/rules';
+import { layoutSchema, type Layout } from '~/lib/domain/schemas';
+import type { Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError, whenNotFound } from '~/lib/server/http';
 import { checkStateless } from './check';
 import { catalogForFamily, machineForActor } from './machines';
 import { versionOf } from './layouts';
@@ -51,7 +51,9 @@ export async function putInstalled(actor: Actor, machineId: string, input: z.inf
       throw new HttpError(400, 'fromLayout.layoutId: not a layout of this machine', 'fromLayout.layoutId');
     layout = (
       await versionOf(l.id, input.fromLayout.version).catch(
-        whenNotFound(() => new HttpError(400, `fromLayout.version: this layout has no version ${input.fromLayout!.version}`, 'fromLayout.version')),
+        whenNotFound(
+          () => new HttpError(400, `fromLayout.version: this layout has no version ${input.fromLayout!.version}`, 'fromLayout.version'),
+        ),
       )
     ).body;
     source = { fromLayout: l.id, version: input.fromLayout.version };
@@ -67,10 +69,22 @@ export async function putInstalled(actor: Actor, machineId: string, input: z.inf
   await db.transaction(async (tx) => {
     await tx
       .insert(installed)
-      .values({ machineId: ctx.machine.id, layout, sourceLayoutId: from?.layoutId ?? null, sourceVersion: from?.version ?? null, updatedBy: actor.id })
+      .values({
+        machineId: ctx.machine.id,
+        layout,
+        sourceLayoutId: from?.layoutId ?? null,
+        sourceVersion: from?.version ?? null,
+        updatedBy: actor.id,
+      })
       .onConflictDoUpdate({
         target: installed.machineId,
-        set: { layout, sourceLayoutId: from?.layoutId ?? null, sourceVersion: from?.version ?? null, updatedBy: actor.id, updatedAt: sql`now()` },
+        set: {
+          layout,
+          sourceLayoutId: from?.layoutId ?? null,
+          sourceVersion: from?.version ?? null,
+          updatedBy: actor.id,
+          updatedAt: sql`now()`,
+        },
       });
     await audit(tx, actor, 'install', 'machine', ctx.machine.id, { crop: layout.crop, ...source }, ctx.machine.orgId);
   });
@@ -128,7 +142,10 @@ export async function machineOverview(actor: Actor, machineId: string, layoutPag
  */
 export async function recentActivity(machineId: string, limit = 20) {
   const db = await getDb();
-  const ofMachine = db.select({ id: sql<string>`${layouts.id}::text` }).from(layouts).where(eq(layouts.machineId, machineId));
+  const ofMachine = db
+    .select({ id: sql<string>`${layouts.id}::text` })
+    .from(layouts)
+    .where(eq(layouts.machineId, machineId));
   return db
     .select({
       at: auditLog.at,

@@ -1,16 +1,16 @@
 import { and, count, desc, eq, inArray, lt, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb, store, storeWriteGeneration, type Db } from '../db';
-import { families, layouts, layoutVersions, machines, organisations, users } from '../../../db/schema';
-import { cropIdSchema, layoutSchema, type Layout } from '../../domain/schemas';
-import { starterLayout } from '../../domain/starter';
-import { checkLayout } from '../../domain/rules';
-import { diffLayouts } from '../../domain/diff';
-import type { Actor } from '../access';
-import { audit } from '../audit';
-import { HttpError, notFound, whenNotFound } from '../http';
+import { getDb, store, storeWriteGeneration, type Db } from '~/lib/server/db';
+import { families, layouts, layoutVersions, machines, organisations, users } from '~/db/schema';
+import { cropIdSchema, layoutSchema, type Layout } from '~/lib/domain/schemas';
+import { starterLayout } from '~/lib/domain/starter';
+import { checkLayout } from '~/lib/domain/rules';
+import { diffLayouts } from '~/lib/domain/diff';
+import type { Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError, notFound, whenNotFound } from '~/lib/server/http';
 import { catalogForFamily, machineForActor } from './machines';
-import type { VersionView } from '../../responses';
+import type { VersionView } from '~/lib/responses';
 
 export const createLayoutSchema = z.object({
   name: z.string().trim().min(1).max(120),
@@ -196,7 +196,13 @@ async function versionPage(layoutId: string, currentVersion: number, before: num
   const db = await getDb();
   const top = Math.min(before ?? currentVersion + 1, currentVersion + 1);
   const versions = await db
-    .select({ id: layoutVersions.id, version: layoutVersions.version, note: layoutVersions.note, createdAt: layoutVersions.createdAt, createdByName: users.name })
+    .select({
+      id: layoutVersions.id,
+      version: layoutVersions.version,
+      note: layoutVersions.note,
+      createdAt: layoutVersions.createdAt,
+      createdByName: users.name,
+    })
     .from(layoutVersions)
     .leftJoin(users, eq(users.id, layoutVersions.createdBy))
     .where(and(eq(layoutVersions.layoutId, layoutId), lt(layoutVersions.version, top)))
@@ -274,7 +280,11 @@ export const layoutListQuerySchema = z.object({
 });
 
 /** One page of a machine's layouts, most recently changed first, with the total. */
-export async function listLayoutsForMachine(actor: Actor, machineId: string, paging: z.infer<typeof layoutListQuerySchema> = { page: 1, pageSize: 50 }) {
+export async function listLayoutsForMachine(
+  actor: Actor,
+  machineId: string,
+  paging: z.infer<typeof layoutListQuerySchema> = { page: 1, pageSize: 50 },
+) {
   const ctx = await machineForActor(actor, machineId);
   const db = await getDb();
   const [rows, [counted]] = await Promise.all([
@@ -358,7 +368,15 @@ async function appendVersion(
       select ${actor.id}::uuid, ${row.orgId}::uuid, ${action}, 'layout', id::text, ${JSON.stringify(auditDetail)}::jsonb from moved
     )
     select id, layout_id, version, body, note, created_by, created_at from added`);
-  const [v] = written.rows as { id: string; layout_id: string; version: number; body: Layout | string; note: string; created_by: string | null; created_at: string | Date }[];
+  const [v] = written.rows as {
+    id: string;
+    layout_id: string;
+    version: number;
+    body: Layout | string;
+    note: string;
+    created_by: string | null;
+    created_at: string | Date;
+  }[];
   const result = v
     ? {
         id: v.id,

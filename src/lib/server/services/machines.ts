@@ -1,12 +1,12 @@
 import { and, asc, count, desc, eq, ilike, inArray, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb, type Db } from '../db';
-import { catalogParts, families, installed, machines, organisations } from '../../../db/schema';
-import { drumIdSchema, slugSchema, vaneControlSchema, type CatalogPart, type MachineFamily } from '../../domain/schemas';
-import type { Actor } from '../access';
-import { audit } from '../audit';
-import { catalogSnapshot } from '../catalog-cache';
-import { HttpError, notFound } from '../http';
+import { getDb, type Db } from '~/lib/server/db';
+import { catalogParts, families, installed, machines, organisations } from '~/db/schema';
+import { drumIdSchema, slugSchema, vaneControlSchema, type CatalogPart, type MachineFamily } from '~/lib/domain/schemas';
+import type { Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { catalogSnapshot } from '~/lib/server/catalog-cache';
+import { HttpError, notFound } from '~/lib/server/http';
 import { priceCatalogFor } from './prices';
 
 export type MachineRow = typeof machines.$inferSelect;
@@ -171,7 +171,10 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
     .offset((query.page - 1) * query.pageSize);
   const counting = db.select({ n: count() }).from(machines);
   const [c] = query.q
-    ? await counting.innerJoin(families, eq(families.id, machines.familyId)).innerJoin(organisations, eq(organisations.id, machines.orgId)).where(where)
+    ? await counting
+        .innerJoin(families, eq(families.id, machines.familyId))
+        .innerJoin(organisations, eq(organisations.id, machines.orgId))
+        .where(where)
     : await counting.where(where);
   const n = c?.n ?? 0;
   return { items: rows, total: n, page: query.page, pageSize: query.pageSize, sort: query.sort, q: query.q };
@@ -200,7 +203,15 @@ export async function createMachine(actor: Actor, input: z.infer<typeof createMa
   return db.transaction(async (tx) => {
     const [row] = await tx
       .insert(machines)
-      .values({ orgId, familyId: family.id, drum: input.drum, vaneControl: input.vaneControl, serial: input.serial, nickname: input.nickname, notes: input.notes })
+      .values({
+        orgId,
+        familyId: family.id,
+        drum: input.drum,
+        vaneControl: input.vaneControl,
+        serial: input.serial,
+        nickname: input.nickname,
+        notes: input.notes,
+      })
       .returning();
     await audit(tx, actor, 'create', 'machine', row!.id, { nickname: row!.nickname, serial: row!.serial, familyId: family.id }, orgId);
     return row!;
@@ -213,9 +224,13 @@ export async function updateMachine(actor: Actor, machineId: string, input: z.in
   const vaneControl = input.vaneControl ?? ctx.machine.vaneControl;
   assertMachineFitsFamily(ctx.family, drum, vaneControl);
   const changes = Object.fromEntries(
-    Object.entries({ drum: input.drum, vaneControl: input.vaneControl, serial: input.serial, nickname: input.nickname, notes: input.notes }).filter(
-      ([, v]) => v !== undefined,
-    ),
+    Object.entries({
+      drum: input.drum,
+      vaneControl: input.vaneControl,
+      serial: input.serial,
+      nickname: input.nickname,
+      notes: input.notes,
+    }).filter(([, v]) => v !== undefined),
   );
   const db = await getDb();
   return db.transaction(async (tx) => {
@@ -235,7 +250,15 @@ export async function deleteMachine(actor: Actor, machineId: string) {
   const db = await getDb();
   await db.transaction(async (tx) => {
     await tx.delete(machines).where(eq(machines.id, ctx.machine.id));
-    await audit(tx, actor, 'delete', 'machine', ctx.machine.id, { nickname: ctx.machine.nickname, serial: ctx.machine.serial }, ctx.machine.orgId);
+    await audit(
+      tx,
+      actor,
+      'delete',
+      'machine',
+      ctx.machine.id,
+      { nickname: ctx.machine.nickname, serial: ctx.machine.serial },
+      ctx.machine.orgId,
+    );
   });
   return { deleted: ctx.machine.id };
 }

@@ -11,8 +11,8 @@
 import nodemailer from 'nodemailer';
 import { readdir, readFile } from 'node:fs/promises';
 import { join } from 'node:path';
-import { HttpError } from '../http';
-import { envMs, ServiceUnavailableError, withDeadline } from '../deadline';
+import { HttpError } from '~/lib/server/http';
+import { envMs, ServiceUnavailableError, withDeadline } from '~/lib/server/deadline';
 
 export interface OutgoingMail {
   to: string[];
@@ -91,13 +91,21 @@ export async function sendMail(mail: OutgoingMail): Promise<SentMail> {
           signal,
         } as Parameters<Transport['sendMail']>[0]),
     );
-    const list = (xs: unknown[] | undefined) => (xs ?? []).map((x) => (typeof x === 'string' ? x : String((x as { address?: string }).address ?? x)));
+    const list = (xs: unknown[] | undefined) =>
+      (xs ?? []).map((x) => (typeof x === 'string' ? x : String((x as { address?: string }).address ?? x)));
     return { messageId: String(info.messageId ?? ''), accepted: list(info.accepted), rejected: list(info.rejected) };
   } catch (err) {
     console.error('cagewright: sending mail failed:', err instanceof Error ? err.message : err);
-    const timedOut = expired || (err instanceof ServiceUnavailableError && err.timedOut) || /timeout|timed out/i.test(err instanceof Error ? `${err.message} ${(err as { code?: string }).code ?? ''}` : '');
+    const timedOut =
+      expired ||
+      (err instanceof ServiceUnavailableError && err.timedOut) ||
+      /timeout|timed out/i.test(err instanceof Error ? `${err.message} ${(err as { code?: string }).code ?? ''}` : '');
     if (timedOut) throw new HttpError(504, 'The mail server did not answer in time, so nothing was sent. Try again in a moment.', 'mail');
-    throw new HttpError(502, 'The mail server could not be reached or refused the message, so nothing was sent. Try again in a moment.', 'mail');
+    throw new HttpError(
+      502,
+      'The mail server could not be reached or refused the message, so nothing was sent. Try again in a moment.',
+      'mail',
+    );
   }
 }
 

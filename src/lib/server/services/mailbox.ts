@@ -4,9 +4,9 @@
  * customer farms (owners and members). Nothing here names a server path.
  */
 import { eq, inArray } from 'drizzle-orm';
-import { getDb } from '../db';
-import { memberships, organisations, users } from '../../../db/schema';
-import { isInstanceAdmin, type Actor } from '../access';
+import { getDb } from '~/lib/server/db';
+import { memberships, organisations, users } from '~/db/schema';
+import { isInstanceAdmin, type Actor } from '~/lib/server/access';
 import { readMailbox, type StoredMessage } from './mail';
 
 /** How many of the newest messages a dealer's view is picked from. */
@@ -19,8 +19,15 @@ async function addressesOf(orgIds: string[]): Promise<Set<string>> {
   if (!orgIds.length) return new Set();
   const db = await getDb();
   const [orgs, people] = await Promise.all([
-    db.select({ desk: organisations.partsDeskEmail, owner: organisations.ownerEmail }).from(organisations).where(inArray(organisations.id, orgIds)),
-    db.select({ email: users.email }).from(users).innerJoin(memberships, eq(memberships.userId, users.id)).where(inArray(memberships.orgId, orgIds)),
+    db
+      .select({ desk: organisations.partsDeskEmail, owner: organisations.ownerEmail })
+      .from(organisations)
+      .where(inArray(organisations.id, orgIds)),
+    db
+      .select({ email: users.email })
+      .from(users)
+      .innerJoin(memberships, eq(memberships.userId, users.id))
+      .where(inArray(memberships.orgId, orgIds)),
   ]);
   const out = new Set<string>();
   for (const o of orgs) for (const a of [o.desk, o.owner]) if (a) out.add(a.toLowerCase());

@@ -7,10 +7,10 @@
  * Both talk to the database in short transactions and to the object store outside them.
  */
 import { inArray, or } from 'drizzle-orm';
-import { inspections, photos } from '../../../db/schema';
-import type { Db, Store } from '../db';
-import { envMs } from '../deadline';
-import { storage, type ObjectStorage } from '../storage';
+import { inspections, photos } from '~/db/schema';
+import type { Db, Store } from '~/lib/server/db';
+import { envMs } from '~/lib/server/deadline';
+import { storage, type ObjectStorage } from '~/lib/server/storage';
 import { recoverStuckSends } from './parts-requests';
 
 /** An object younger than this may belong to an upload whose row is still being written. */
@@ -76,11 +76,15 @@ export async function startMaintenance(s: Store) {
   const recovered = await recoverStuckSends(s.db, s.mode === 'pglite' ? { olderThanMs: 0 } : {});
   if (recovered) console.log(`cagewright: ${recovered} parts request(s) left sending by a stopped server are drafts again.`);
   const sweep = () =>
-    sweepOrphanPhotos(s.db, storage()).catch((err) => console.error('cagewright: the photo orphan sweep failed:', err instanceof Error ? err.message : err));
+    sweepOrphanPhotos(s.db, storage()).catch((err) =>
+      console.error('cagewright: the photo orphan sweep failed:', err instanceof Error ? err.message : err),
+    );
   void sweep();
   if (holder.__cagewrightMaintenance) return;
   const recover = () =>
-    recoverStuckSends(s.db).catch((err) => console.error('cagewright: recovering stuck sends failed:', err instanceof Error ? err.message : err));
+    recoverStuckSends(s.db).catch((err) =>
+      console.error('cagewright: recovering stuck sends failed:', err instanceof Error ? err.message : err),
+    );
   holder.__cagewrightMaintenance = [
     setInterval(recover, envMs('CAGEWRIGHT_RECOVER_EVERY_MS', RECOVER_EVERY_MS)).unref(),
     setInterval(sweep, envMs('CAGEWRIGHT_ORPHAN_SWEEP_MS', ORPHAN_SWEEP_EVERY_MS)).unref(),

@@ -1,11 +1,11 @@
 import { and, count, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb } from '../db';
-import { machines, memberships, organisations } from '../../../db/schema';
-import type { Actor } from '../access';
-import { forgetActors } from '../actors';
-import { audit } from '../audit';
-import { HttpError } from '../http';
+import { getDb } from '~/lib/server/db';
+import { machines, memberships, organisations } from '~/db/schema';
+import type { Actor } from '~/lib/server/access';
+import { forgetActors } from '~/lib/server/actors';
+import { audit } from '~/lib/server/audit';
+import { HttpError } from '~/lib/server/http';
 
 /** The organisations the actor may see, with how many machines and members each has. */
 export async function listOrgs(actor: Actor) {

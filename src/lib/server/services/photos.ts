@@ -1,14 +1,14 @@
 import { and, count, eq, inArray } from 'drizzle-orm';
 import sharp from 'sharp';
 import { z, type ZodType } from 'zod';
-import { getDb, type Db } from '../db';
-import { inspectionItems, inspections, photos } from '../../../db/schema';
-import type { Actor } from '../access';
-import { audit } from '../audit';
-import { HttpError, notFound, parseForm } from '../http';
-import { IMAGE_EXTENSION, sniffImageType, type ImageType } from '../image-sniff';
-import { storage, type ObjectStorage } from '../storage';
-import { BodyTooLarge, readCapped } from '../body';
+import { getDb, type Db } from '~/lib/server/db';
+import { inspectionItems, inspections, photos } from '~/db/schema';
+import type { Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError, notFound, parseForm } from '~/lib/server/http';
+import { IMAGE_EXTENSION, sniffImageType, type ImageType } from '~/lib/server/image-sniff';
+import { storage, type ObjectStorage } from '~/lib/server/storage';
+import { BodyTooLarge, readCapped } from '~/lib/server/body';
 
 /** The largest photo accepted: a full-resolution phone picture fits comfortably. */
 export const MAX_PHOTO_BYTES = 8 * 1024 * 1024;
@@ -31,14 +31,20 @@ export function maxPhotoPixels(env: NodeJS.ProcessEnv = process.env): number {
 const THUMB_BOX = 480;
 
 const megabytes = (n: number) => `${Math.round(n / (1024 * 1024))} MB`;
-const tooLarge = () => new HttpError(413, `The photo is larger than ${megabytes(MAX_PHOTO_BYTES)}. Take it at a lower resolution or crop it.`, 'photo');
+const tooLarge = () =>
+  new HttpError(413, `The photo is larger than ${megabytes(MAX_PHOTO_BYTES)}. Take it at a lower resolution or crop it.`, 'photo');
 const notAnImage = () => new HttpError(415, 'That file is not a JPEG, PNG or WebP photo.', 'photo');
 const tooManyPixels = (w: number, h: number, max: number) =>
-  new HttpError(413, `photo: the picture is ${w} × ${h} pixels; at most ${Math.floor(max / 1e6)} megapixels are accepted. Take it at a lower resolution.`, 'photo', {
-    width: w,
-    height: h,
-    maxPixels: max,
-  });
+  new HttpError(
+    413,
+    `photo: the picture is ${w} × ${h} pixels; at most ${Math.floor(max / 1e6)} megapixels are accepted. Take it at a lower resolution.`,
+    'photo',
+    {
+      width: w,
+      height: h,
+      maxPixels: max,
+    },
+  );
 
 /** The fields of a photo upload: the picture itself, as a file, in a field named "photo". */
 export const photoUploadSchema = z.object({
@@ -111,7 +117,8 @@ export async function checkedPhoto(bytes: Uint8Array, maxPixels = maxPhotoPixels
 async function withoutMetadata(bytes: Uint8Array, type: ImageType, maxPixels: number): Promise<UploadedPhoto> {
   try {
     const upright = sharp(bytes, { failOn: 'error', limitInputPixels: maxPixels }).rotate().keepIccProfile();
-    const encoded = type === 'image/jpeg' ? upright.jpeg({ quality: 92 }) : type === 'image/png' ? upright.png() : upright.webp({ quality: 92 });
+    const encoded =
+      type === 'image/jpeg' ? upright.jpeg({ quality: 92 }) : type === 'image/png' ? upright.png() : upright.webp({ quality: 92 });
     const { data, info } = await encoded.toBuffer({ resolveWithObject: true });
     return { bytes: new Uint8Array(data), type, width: info.width, height: info.height };
   } catch {
@@ -138,7 +145,13 @@ export const photoKeys = (inspectionId: string, photoId: string, type: ImageType
 /** The line of an inspection the actor may see, with its inspection's status and organisation. */
 async function itemForActor(actor: Actor, inspectionId: string, itemId: string, db: Db) {
   const [row] = await db
-    .select({ itemId: inspectionItems.id, inspectionId: inspections.id, orgId: inspections.orgId, status: inspections.status, placeKey: inspectionItems.placeKey })
+    .select({
+      itemId: inspectionItems.id,
+      inspectionId: inspections.id,
+      orgId: inspections.orgId,
+      status: inspections.status,
+      placeKey: inspectionItems.placeKey,
+    })
     .from(inspectionItems)
     .innerJoin(inspections, eq(inspections.id, inspectionItems.inspectionId))
     .where(and(eq(inspectionItems.id, itemId), eq(inspections.id, inspectionId), inArray(inspections.orgId, actor.visibleOrgIds)))
@@ -161,7 +174,11 @@ export async function photoTarget(actor: Actor, inspectionId: string, itemId: st
 }
 
 /** What the user hears when the object store is away; the details go to the server log. */
-function storeAway(err: unknown, what: string, words = 'The photo store did not answer in time, so nothing was saved. Try again in a moment.'): HttpError {
+function storeAway(
+  err: unknown,
+  what: string,
+  words = 'The photo store did not answer in time, so nothing was saved. Try again in a moment.',
+): HttpError {
   console.error(`cagewright: ${what}:`, err instanceof Error ? err.message : err);
   return new HttpError(503, words, 'photo');
 }
@@ -228,7 +245,15 @@ export async function addPhoto(
           createdBy: actor.id,
         })
         .returning();
-      await audit(tx, actor, 'add-photo', 'inspection', item.inspectionId, { photoId, itemId: item.itemId, placeKey: item.placeKey, bytes: photo.bytes.byteLength, type: photo.type }, item.orgId);
+      await audit(
+        tx,
+        actor,
+        'add-photo',
+        'inspection',
+        item.inspectionId,
+        { photoId, itemId: item.itemId, placeKey: item.placeKey, bytes: photo.bytes.byteLength, type: photo.type },
+        item.orgId,
+      );
       return {
         id: row!.id,
         itemId: row!.itemId,

@@ -5,14 +5,14 @@
  */
 import { eq } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb } from '../db';
-import { stock } from '../../../db/schema';
-import { cropPrograms } from '../../domain/crops';
-import { checkLayout } from '../../domain/rules';
-import { cropIdSchema, type Layout } from '../../domain/schemas';
-import { planCropChange, planModeSchema, planSummaryWords, type Plan, type PlanOk } from '../../domain/planner';
-import type { Actor } from '../access';
-import { HttpError, whenNotFound } from '../http';
+import { getDb } from '~/lib/server/db';
+import { stock } from '~/db/schema';
+import { cropPrograms } from '~/lib/domain/crops';
+import { checkLayout } from '~/lib/domain/rules';
+import { cropIdSchema, type Layout } from '~/lib/domain/schemas';
+import { planCropChange, planModeSchema, planSummaryWords, type Plan, type PlanOk } from '~/lib/domain/planner';
+import type { Actor } from '~/lib/server/access';
+import { HttpError, whenNotFound } from '~/lib/server/http';
 import { createLayout, getLayout, saveVersion } from './layouts';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
 import { currencyFor } from './prices';
@@ -27,7 +27,10 @@ export type PlanRequest = z.infer<typeof planRequestSchema>;
 export const acceptPlanSchema = planRequestSchema
   .extend({
     /** The proposal the user looked at; if the plan has changed since, nothing is saved (409). */
-    fingerprint: z.string().regex(/^[0-9a-f]{8}$/, 'the fingerprint of the proposal you saw').optional(),
+    fingerprint: z
+      .string()
+      .regex(/^[0-9a-f]{8}$/, 'the fingerprint of the proposal you saw')
+      .optional(),
     /** Save as a new version of this layout of the machine; without it a new layout is made. */
     layoutId: z.uuid().optional(),
     baseVersion: z.int32().min(1).optional(),
@@ -99,9 +102,14 @@ export async function proposePlan(actor: Actor, input: PlanRequest) {
 /** A proposal that exists, or a 422 saying why none does. */
 export function requirePlan(plan: Plan): PlanOk {
   if (!plan.ok)
-    throw new HttpError(422, `No plan is possible for ${cropPrograms[plan.crop].name.toLowerCase()} on this machine: ${plan.reasons[0]!.message}`, 'crop', {
-      reasons: plan.reasons,
-    });
+    throw new HttpError(
+      422,
+      `No plan is possible for ${cropPrograms[plan.crop].name.toLowerCase()} on this machine: ${plan.reasons[0]!.message}`,
+      'crop',
+      {
+        reasons: plan.reasons,
+      },
+    );
   return plan;
 }
 
@@ -119,10 +127,15 @@ export async function acceptPlan(actor: Actor, input: AcceptPlan) {
   const proposal = await proposePlan(actor, input);
   const plan = requirePlan(proposal.plan);
   if (input.fingerprint && input.fingerprint !== plan.fingerprint) {
-    throw new HttpError(409, 'What is installed or on the shelf has changed since you looked: here is the new proposal. Nothing was saved.', 'fingerprint', {
-      fingerprint: plan.fingerprint,
-      plan,
-    });
+    throw new HttpError(
+      409,
+      'What is installed or on the shelf has changed since you looked: here is the new proposal. Nothing was saved.',
+      'fingerprint',
+      {
+        fingerprint: plan.fingerprint,
+        plan,
+      },
+    );
   }
   const note = input.note?.trim() || planNote(proposal.installed, plan);
   if (input.layoutId) {

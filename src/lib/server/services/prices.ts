@@ -8,13 +8,13 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import Papa from 'papaparse';
 import { z } from 'zod';
-import { getDb, type Db } from '../db';
-import { catalogParts, dealerPrices, organisations } from '../../../db/schema';
-import type { CatalogPart } from '../../domain/schemas';
-import { currencyCodeSchema, DEFAULT_CURRENCY } from '../../domain/format';
-import { can, dealerOf, type Actor } from '../access';
-import { audit } from '../audit';
-import { HttpError, notFound } from '../http';
+import { getDb, type Db } from '~/lib/server/db';
+import { catalogParts, dealerPrices, organisations } from '~/db/schema';
+import type { CatalogPart } from '~/lib/domain/schemas';
+import { currencyCodeSchema, DEFAULT_CURRENCY } from '~/lib/domain/format';
+import { can, dealerOf, type Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError, notFound } from '~/lib/server/http';
 
 /** The largest price a line may carry: 10 million in whole currency units. */
 const MAX_PRICE_CENTS = 1_000_000_000;
@@ -30,7 +30,11 @@ type Reader = Pick<Db, 'select'>;
 /** The dealer that prices parts for an organisation: itself (a dealer), its dealer (a farm), or none. */
 export async function pricingDealerOf(orgId: string, db?: Reader): Promise<string | null> {
   const d = db ?? (await getDb());
-  const [org] = await d.select({ kind: organisations.kind, dealerId: organisations.dealerId }).from(organisations).where(eq(organisations.id, orgId)).limit(1);
+  const [org] = await d
+    .select({ kind: organisations.kind, dealerId: organisations.dealerId })
+    .from(organisations)
+    .where(eq(organisations.id, orgId))
+    .limit(1);
   if (!org) return null;
   if (org.kind === 'dealer') return orgId;
   return org.kind === 'farm' ? org.dealerId : null;
@@ -60,7 +64,11 @@ export async function setDealerCurrency(actor: Actor, currency: string): Promise
   const code = parsed.data.currency;
   const db = await getDb();
   await db.transaction(async (tx) => {
-    const [before] = await tx.select({ currency: organisations.currency }).from(organisations).where(eq(organisations.id, dealerId)).limit(1);
+    const [before] = await tx
+      .select({ currency: organisations.currency })
+      .from(organisations)
+      .where(eq(organisations.id, dealerId))
+      .limit(1);
     await tx.update(organisations).set({ currency: code }).where(eq(organisations.id, dealerId));
     await audit(tx, actor, 'set-currency', 'organisation', dealerId, { from: before?.currency ?? DEFAULT_CURRENCY, to: code }, dealerId);
   });
@@ -74,7 +82,11 @@ export async function dealerPriceMap(dealerId: string, partNumbers?: readonly st
   const rows = await d
     .select({ partNumber: dealerPrices.partNumber, priceCents: dealerPrices.priceCents })
     .from(dealerPrices)
-    .where(partNumbers ? and(eq(dealerPrices.dealerId, dealerId), inArray(dealerPrices.partNumber, [...partNumbers])) : eq(dealerPrices.dealerId, dealerId));
+    .where(
+      partNumbers
+        ? and(eq(dealerPrices.dealerId, dealerId), inArray(dealerPrices.partNumber, [...partNumbers]))
+        : eq(dealerPrices.dealerId, dealerId),
+    );
   return new Map(rows.map((r) => [r.partNumber, r.priceCents]));
 }
 
@@ -85,7 +97,11 @@ export async function dealerPriceMap(dealerId: string, partNumbers?: readonly st
 export async function priceCatalogFor<T extends CatalogPart>(catalog: readonly T[], orgId: string, db?: Reader): Promise<T[]> {
   const dealerId = await pricingDealerOf(orgId, db);
   if (!dealerId) return [...catalog];
-  const prices = await dealerPriceMap(dealerId, catalog.map((p) => p.partNumber), db);
+  const prices = await dealerPriceMap(
+    dealerId,
+    catalog.map((p) => p.partNumber),
+    db,
+  );
   return catalog.map((p) => (prices.has(p.partNumber) ? { ...p, priceCents: prices.get(p.partNumber)! } : p));
 }
 
@@ -110,10 +126,16 @@ export interface PriceListItem {
 }
 
 /** The actor's dealer's price list: every catalog part with the dealer's price beside the list price. */
-export async function listPriceList(actor: Actor): Promise<{ dealer: { id: string; name: string; currency: string }; items: PriceListItem[] }> {
+export async function listPriceList(
+  actor: Actor,
+): Promise<{ dealer: { id: string; name: string; currency: string }; items: PriceListItem[] }> {
   const dealerId = ownDealer(actor);
   const db = await getDb();
-  const [row] = await db.select({ id: organisations.id, name: organisations.name, currency: organisations.currency }).from(organisations).where(eq(organisations.id, dealerId)).limit(1);
+  const [row] = await db
+    .select({ id: organisations.id, name: organisations.name, currency: organisations.currency })
+    .from(organisations)
+    .where(eq(organisations.id, dealerId))
+    .limit(1);
   if (!row) throw notFound('Dealer not found');
   const dealer = { ...row, currency: row.currency ?? DEFAULT_CURRENCY };
   const rows = await db
@@ -144,7 +166,11 @@ export async function listPriceList(actor: Actor): Promise<{ dealer: { id: strin
 }
 
 async function requirePart(db: Reader, partNumber: string) {
-  const [part] = await db.select({ partNumber: catalogParts.partNumber }).from(catalogParts).where(eq(catalogParts.partNumber, partNumber)).limit(1);
+  const [part] = await db
+    .select({ partNumber: catalogParts.partNumber })
+    .from(catalogParts)
+    .where(eq(catalogParts.partNumber, partNumber))
+    .limit(1);
   if (!part) throw notFound('Part not found', 'partNumber');
 }
 
@@ -180,7 +206,11 @@ export async function clearDealerPrice(actor: Actor, partNumber: string) {
 
 const PART_COLUMNS = ['part number', 'part_number', 'partnumber', 'part no', 'part'];
 const PRICE_COLUMNS = ['price', 'unit price', 'unit_price', 'dealer price'];
-const normalise = (h: string) => h.replace(/^\uFEFF/, '').trim().toLowerCase();
+const normalise = (h: string) =>
+  h
+    .replace(/^\uFEFF/, '')
+    .trim()
+    .toLowerCase();
 
 export interface ImportProblem {
   /** 1-based, as a spreadsheet numbers rows: the header is row 1. */
@@ -215,8 +245,10 @@ export async function importPriceList(actor: Actor, csv: string) {
   // A one-column file makes papaparse guess the delimiter and warn; a comma it is.
   for (const e of parsed.errors.filter((x) => x.type !== 'Delimiter').slice(0, 20))
     problems.push({ row: (e.row ?? 0) + 1, column: '', message: `the file is not valid CSV here (${e.message})` });
-  if (rows.length - 1 > MAX_IMPORT_ROWS) problems.push({ row: MAX_IMPORT_ROWS + 2, column: '', message: `at most ${MAX_IMPORT_ROWS} rows in one import` });
-  if (rows.length < 2 && partCol >= 0 && priceCol >= 0) problems.push({ row: 2, column: 'part number', message: 'the file has no rows under its header' });
+  if (rows.length - 1 > MAX_IMPORT_ROWS)
+    problems.push({ row: MAX_IMPORT_ROWS + 2, column: '', message: `at most ${MAX_IMPORT_ROWS} rows in one import` });
+  if (rows.length < 2 && partCol >= 0 && priceCol >= 0)
+    problems.push({ row: 2, column: 'part number', message: 'the file has no rows under its header' });
   if (problems.length) throw importError(problems);
 
   const db = await getDb();
@@ -228,11 +260,18 @@ export async function importPriceList(actor: Actor, csv: string) {
     const partNumber = (cells[partCol] ?? '').trim();
     const priceText = cells[priceCol] ?? '';
     if (!partNumber) problems.push({ row, column: 'part number', message: 'empty' });
-    else if (!known.has(partNumber)) problems.push({ row, column: 'part number', message: `${partNumber.slice(0, 40)} is not in the catalog` });
-    else if (seen.has(partNumber)) problems.push({ row, column: 'part number', message: `${partNumber} is already priced on row ${seen.get(partNumber)}` });
+    else if (!known.has(partNumber))
+      problems.push({ row, column: 'part number', message: `${partNumber.slice(0, 40)} is not in the catalog` });
+    else if (seen.has(partNumber))
+      problems.push({ row, column: 'part number', message: `${partNumber} is already priced on row ${seen.get(partNumber)}` });
     else seen.set(partNumber, row);
     const priceCents = parsePrice(priceText);
-    if (priceCents === null) problems.push({ row, column: 'price', message: priceText.trim() ? `“${priceText.trim().slice(0, 20)}” is not an amount (e.g. 1185.00)` : 'empty' });
+    if (priceCents === null)
+      problems.push({
+        row,
+        column: 'price',
+        message: priceText.trim() ? `“${priceText.trim().slice(0, 20)}” is not an amount (e.g. 1185.00)` : 'empty',
+      });
     else if (priceCents > MAX_PRICE_CENTS) problems.push({ row, column: 'price', message: 'too large' });
     if (partNumber && priceCents !== null) values.push({ partNumber, priceCents });
   });
@@ -243,7 +282,10 @@ export async function importPriceList(actor: Actor, csv: string) {
       await tx
         .insert(dealerPrices)
         .values(values.slice(i, i + 500).map((v) => ({ dealerId, ...v })))
-        .onConflictDoUpdate({ target: [dealerPrices.dealerId, dealerPrices.partNumber], set: { priceCents: sql`excluded.price_cents`, updatedAt: sql`now()` } });
+        .onConflictDoUpdate({
+          target: [dealerPrices.dealerId, dealerPrices.partNumber],
+          set: { priceCents: sql`excluded.price_cents`, updatedAt: sql`now()` },
+        });
     }
     await audit(tx, actor, 'import-prices', 'dealer-price', null, { rows: values.length }, dealerId);
   });
@@ -291,8 +333,12 @@ export async function savePriceTable(actor: Actor, entries: Record<string, strin
       await tx
         .insert(dealerPrices)
         .values(set.map((v) => ({ dealerId, ...v })))
-        .onConflictDoUpdate({ target: [dealerPrices.dealerId, dealerPrices.partNumber], set: { priceCents: sql`excluded.price_cents`, updatedAt: sql`now()` } });
-    if (clear.length) await tx.delete(dealerPrices).where(and(eq(dealerPrices.dealerId, dealerId), inArray(dealerPrices.partNumber, clear)));
+        .onConflictDoUpdate({
+          target: [dealerPrices.dealerId, dealerPrices.partNumber],
+          set: { priceCents: sql`excluded.price_cents`, updatedAt: sql`now()` },
+        });
+    if (clear.length)
+      await tx.delete(dealerPrices).where(and(eq(dealerPrices.dealerId, dealerId), inArray(dealerPrices.partNumber, clear)));
     await audit(tx, actor, 'save-prices', 'dealer-price', null, { set: set.length, cleared: clear.length }, dealerId);
   });
   return { ok: true as const, changed: set.length + clear.length };

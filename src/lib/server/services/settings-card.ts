@@ -1,11 +1,11 @@
 import { and, desc, eq } from 'drizzle-orm';
-import { getDb } from '../db';
-import { catalogParts, layouts, layoutVersions } from '../../../db/schema';
-import { computeSettings } from '../../domain/compute';
-import { checkLayout } from '../../domain/rules';
-import type { CatalogPart, CropId, Layout } from '../../domain/schemas';
-import type { Actor } from '../access';
-import { HttpError } from '../http';
+import { getDb } from '~/lib/server/db';
+import { catalogParts, layouts, layoutVersions } from '~/db/schema';
+import { computeSettings } from '~/lib/domain/compute';
+import { checkLayout } from '~/lib/domain/rules';
+import type { CatalogPart, CropId, Layout } from '~/lib/domain/schemas';
+import type { Actor } from '~/lib/server/access';
+import { HttpError } from '~/lib/server/http';
 import { installedVersionOf, lastLossCheck } from './field-checks';
 import { installedLayout, machineForActor } from './machines';
 import { dealerOfOrg, startingValuesFor } from './starting-values';

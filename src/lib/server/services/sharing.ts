@@ -1,16 +1,16 @@
 import { and, desc, eq, inArray, isNotNull, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb } from '../db';
-import { catalogParts, layouts, layoutVersions, machines, organisations, shareLinks, users } from '../../../db/schema';
-import { computeSettings } from '../../domain/compute';
-import { checkLayout } from '../../domain/rules';
-import type { CatalogPart } from '../../domain/schemas';
+import { getDb } from '~/lib/server/db';
+import { catalogParts, layouts, layoutVersions, machines, organisations, shareLinks, users } from '~/db/schema';
+import { computeSettings } from '~/lib/domain/compute';
+import { checkLayout } from '~/lib/domain/rules';
+import type { CatalogPart } from '~/lib/domain/schemas';
 import { currencyFor, priceCatalogFor } from './prices';
-import type { Actor } from '../access';
-import { audit } from '../audit';
-import { HttpError, notFound } from '../http';
+import type { Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError, notFound } from '~/lib/server/http';
 import { familyById } from './machines';
-import { hashToken, lookUpToken, newToken, statusOf } from '../share-links';
+import { hashToken, lookUpToken, newToken, statusOf } from '~/lib/server/share-links';
 
 export const createShareSchema = z.object({
   layoutId: z.uuid(),
@@ -18,10 +18,7 @@ export const createShareSchema = z.object({
   version: z.int32().min(1),
   label: z.string().trim().max(120).default(''),
   /** Optional end of the link's life (ISO 8601 with an offset); must lie in the future. */
-  expiresAt: z.iso
-    .datetime({ offset: true, error: 'give a date and time such as 2026-09-30T18:00:00Z' })
-    .nullable()
-    .optional(),
+  expiresAt: z.iso.datetime({ offset: true, error: 'give a date and time such as 2026-09-30T18:00:00Z' }).nullable().optional(),
 });
 
 export const shareListQuerySchema = z.object({
@@ -49,7 +46,14 @@ export async function createShareLink(actor: Actor, input: z.infer<typeof create
   return db.transaction(async (tx) => {
     const [row] = await tx
       .insert(shareLinks)
-      .values({ orgId: layout.orgId, tokenHash: hashToken(token), layoutVersionId: version.id, label: input.label, expiresAt, createdBy: actor.id })
+      .values({
+        orgId: layout.orgId,
+        tokenHash: hashToken(token),
+        layoutVersionId: version.id,
+        label: input.label,
+        expiresAt,
+        createdBy: actor.id,
+      })
       .returning();
     await audit(
       tx,
@@ -118,9 +122,7 @@ export async function revokeShareLink(actor: Actor, id: string) {
 }
 
 export type ResolvedShare =
-  | { status: 'not-found' }
-  | { status: 'expired'; expiresAt: Date }
-  | { status: 'ok'; view: Awaited<ReturnType<typeof shareView>> };
+  { status: 'not-found' } | { status: 'expired'; expiresAt: Date } | { status: 'ok'; view: Awaited<ReturnType<typeof shareView>> };
 
 /**
  * What a share token opens, read-only. An unknown or revoked token is simply not found (404);

@@ -1,11 +1,11 @@
 import { and, asc, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb, type Db } from '../db';
-import { families, organisations, startingValues } from '../../../db/schema';
-import { cropIdSchema, slugSchema } from '../../domain/schemas';
-import type { Actor } from '../access';
-import { audit } from '../audit';
-import { HttpError } from '../http';
+import { getDb, type Db } from '~/lib/server/db';
+import { families, organisations, startingValues } from '~/db/schema';
+import { cropIdSchema, slugSchema } from '~/lib/domain/schemas';
+import type { Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError } from '~/lib/server/http';
 
 const note = (what: string) =>
   z
@@ -19,9 +19,24 @@ const note = (what: string) =>
 export const startingValuesSchema = z.object({
   familyId: slugSchema,
   crop: cropIdSchema,
-  fanRpm: z.int({ error: 'give the fan speed as a whole number' }).min(100, 'the fan speed is too low').max(3000, 'the fan speed is too high').nullable().default(null),
-  upperSieveMm: z.number({ error: 'give the opening as a number' }).min(0, 'an opening cannot be negative').max(60, 'the opening is too large').nullable().default(null),
-  lowerSieveMm: z.number({ error: 'give the opening as a number' }).min(0, 'an opening cannot be negative').max(60, 'the opening is too large').nullable().default(null),
+  fanRpm: z
+    .int({ error: 'give the fan speed as a whole number' })
+    .min(100, 'the fan speed is too low')
+    .max(3000, 'the fan speed is too high')
+    .nullable()
+    .default(null),
+  upperSieveMm: z
+    .number({ error: 'give the opening as a number' })
+    .min(0, 'an opening cannot be negative')
+    .max(60, 'the opening is too large')
+    .nullable()
+    .default(null),
+  lowerSieveMm: z
+    .number({ error: 'give the opening as a number' })
+    .min(0, 'an opening cannot be negative')
+    .max(60, 'the opening is too large')
+    .nullable()
+    .default(null),
   feederNote: note('feeder note'),
   headerNote: note('header note'),
 });
@@ -37,7 +52,11 @@ export type StartingValuesRow = typeof startingValues.$inferSelect;
 /** The dealer that serves an organisation: itself when it is a dealer, else the farm's dealer. */
 export async function dealerOfOrg(orgId: string, db?: Db): Promise<string | null> {
   const d = db ?? (await getDb());
-  const [org] = await d.select({ kind: organisations.kind, dealerId: organisations.dealerId }).from(organisations).where(eq(organisations.id, orgId)).limit(1);
+  const [org] = await d
+    .select({ kind: organisations.kind, dealerId: organisations.dealerId })
+    .from(organisations)
+    .where(eq(organisations.id, orgId))
+    .limit(1);
   if (!org) return null;
   return org.kind === 'dealer' ? orgId : org.dealerId;
 }
@@ -104,7 +123,10 @@ export async function putStartingValues(actor: Actor, input: StartingValuesInput
     await tx
       .insert(startingValues)
       .values({ dealerId, familyId: input.familyId, crop: input.crop, ...values })
-      .onConflictDoUpdate({ target: [startingValues.dealerId, startingValues.familyId, startingValues.crop], set: { ...values, updatedAt: sql`now()` } });
+      .onConflictDoUpdate({
+        target: [startingValues.dealerId, startingValues.familyId, startingValues.crop],
+        set: { ...values, updatedAt: sql`now()` },
+      });
     await audit(tx, actor, 'set', 'starting-values', null, { familyId: input.familyId, crop: input.crop, ...values }, dealerId);
   });
   return startingValuesFor(dealerId, input.familyId, input.crop);
@@ -112,15 +134,53 @@ export async function putStartingValues(actor: Actor, input: StartingValuesInput
 
 /** Invented demo values for the demo dealer: marked `invented`, never real settings. */
 export const DEMO_STARTING_VALUES: Omit<StartingValuesInput, 'familyId'>[] = [
-  { crop: 'wheat', fanRpm: 1050, upperSieveMm: 16, lowerSieveMm: 8, feederNote: 'Feeder drum in the lower position (demo value).', headerNote: 'Reel just ahead of the knife; cut high enough to leave stubble for the spreader (demo value).' },
-  { crop: 'canola', fanRpm: 780, upperSieveMm: 12, lowerSieveMm: 5, feederNote: 'Feeder drum in the upper position (demo value).', headerNote: 'Draper speed matched to ground speed (demo value).' },
-  { crop: 'field-peas', fanRpm: 1150, upperSieveMm: 20, lowerSieveMm: 14, feederNote: 'Feeder drum in the upper position (demo value).', headerNote: 'Flex header on the ground; slow reel (demo value).' },
-  { crop: 'corn', fanRpm: 1200, upperSieveMm: 20, lowerSieveMm: 12, feederNote: 'Feeder drum in the upper position (demo value).', headerNote: 'Deck plates set a little wider than the stalks (demo value).' },
-  { crop: 'soybeans', fanRpm: 1100, upperSieveMm: 18, lowerSieveMm: 10, feederNote: 'Feeder drum in the lower position (demo value).', headerNote: 'Cut as low as the ground allows (demo value).' },
+  {
+    crop: 'wheat',
+    fanRpm: 1050,
+    upperSieveMm: 16,
+    lowerSieveMm: 8,
+    feederNote: 'Feeder drum in the lower position (demo value).',
+    headerNote: 'Reel just ahead of the knife; cut high enough to leave stubble for the spreader (demo value).',
+  },
+  {
+    crop: 'canola',
+    fanRpm: 780,
+    upperSieveMm: 12,
+    lowerSieveMm: 5,
+    feederNote: 'Feeder drum in the upper position (demo value).',
+    headerNote: 'Draper speed matched to ground speed (demo value).',
+  },
+  {
+    crop: 'field-peas',
+    fanRpm: 1150,
+    upperSieveMm: 20,
+    lowerSieveMm: 14,
+    feederNote: 'Feeder drum in the upper position (demo value).',
+    headerNote: 'Flex header on the ground; slow reel (demo value).',
+  },
+  {
+    crop: 'corn',
+    fanRpm: 1200,
+    upperSieveMm: 20,
+    lowerSieveMm: 12,
+    feederNote: 'Feeder drum in the upper position (demo value).',
+    headerNote: 'Deck plates set a little wider than the stalks (demo value).',
+  },
+  {
+    crop: 'soybeans',
+    fanRpm: 1100,
+    upperSieveMm: 18,
+    lowerSieveMm: 10,
+    feederNote: 'Feeder drum in the lower position (demo value).',
+    headerNote: 'Cut as low as the ground allows (demo value).',
+  },
 ];
 
 /** Every starting value a dealer keeps for one machine family (the loss check prefills from them). */
 export async function startingValuesOfDealer(dealerId: string, familyId: string, db?: Db): Promise<StartingValuesRow[]> {
   const d = db ?? (await getDb());
-  return d.select().from(startingValues).where(and(eq(startingValues.dealerId, dealerId), eq(startingValues.familyId, familyId)));
+  return d
+    .select()
+    .from(startingValues)
+    .where(and(eq(startingValues.dealerId, dealerId), eq(startingValues.familyId, familyId)));
 }

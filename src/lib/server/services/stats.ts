@@ -1,7 +1,7 @@
 import { count, inArray, sql, type SQL } from 'drizzle-orm';
-import { getDb } from '../db';
-import * as t from '../../../db/schema';
-import { dealerOf, isInstanceAdmin, type Actor } from '../access';
+import { getDb } from '~/lib/server/db';
+import * as t from '~/db/schema';
+import { dealerOf, isInstanceAdmin, type Actor } from '~/lib/server/access';
 
 const TABLES = {
   organisations: t.organisations,
@@ -34,7 +34,10 @@ type Counts = Record<keyof typeof TABLES, number>;
  * visible organisations). The machine families and the catalog are shared by every dealer.
  */
 function scopeOf(visible: string[], dealerId: string | null): Record<keyof typeof TABLES, SQL | undefined> {
-  const ids = sql.join(visible.map((id) => sql`${id}::uuid`), sql`, `);
+  const ids = sql.join(
+    visible.map((id) => sql`${id}::uuid`),
+    sql`, `,
+  );
   const inVisible = (col: SQL) => sql`${col} in (${ids})`;
   return {
     organisations: inArray(t.organisations.id, visible),
@@ -71,7 +74,9 @@ function scopeOf(visible: string[], dealerId: string | null): Record<keyof typeo
 export async function tableCounts(actor?: Actor): Promise<Counts> {
   const db = await getDb();
   const scoped = actor && !isInstanceAdmin(actor);
-  const scope = scoped ? scopeOf(actor.visibleOrgIds.length ? actor.visibleOrgIds : ['00000000-0000-0000-0000-000000000000'], dealerOf(actor)) : null;
+  const scope = scoped
+    ? scopeOf(actor.visibleOrgIds.length ? actor.visibleOrgIds : ['00000000-0000-0000-0000-000000000000'], dealerOf(actor))
+    : null;
   const entries = await Promise.all(
     Object.entries(TABLES).map(async ([name, table]) => {
       const where = scope?.[name as keyof typeof TABLES];
@@ -99,4 +104,3 @@ export async function tableDigests(): Promise<Record<keyof typeof TABLES, string
   );
   return Object.fromEntries(entries) as Record<keyof typeof TABLES, string>;
 }
-

@@ -1,8 +1,8 @@
 import { and, eq, inArray } from 'drizzle-orm';
-import { getDb, type Db } from '../db';
-import { organisations, stock } from '../../../db/schema';
-import type { Actor } from '../access';
-import { notFound } from '../http';
+import { getDb, type Db } from '~/lib/server/db';
+import { organisations, stock } from '~/db/schema';
+import type { Actor } from '~/lib/server/access';
+import { notFound } from '~/lib/server/http';
 
 export interface StockCount {
   /** On the shelf of the organisation that owns the machine. */
@@ -19,7 +19,11 @@ export interface StockCount {
 export async function stockForOrg(actor: Actor, orgId: string, db?: Db): Promise<Record<string, StockCount>> {
   if (!actor.visibleOrgIds.includes(orgId)) throw notFound('Organisation not found', 'orgId');
   const d = db ?? (await getDb());
-  const [org] = await d.select({ id: organisations.id, kind: organisations.kind, dealerId: organisations.dealerId }).from(organisations).where(eq(organisations.id, orgId)).limit(1);
+  const [org] = await d
+    .select({ id: organisations.id, kind: organisations.kind, dealerId: organisations.dealerId })
+    .from(organisations)
+    .where(eq(organisations.id, orgId))
+    .limit(1);
   if (!org) throw notFound('Organisation not found', 'orgId');
   const dealerId = org.kind === 'farm' ? org.dealerId : null;
   const orgIds = dealerId ? [org.id, dealerId] : [org.id];

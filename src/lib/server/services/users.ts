@@ -1,10 +1,10 @@
 import { eq, inArray } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb } from '../db';
-import { memberships, organisations, users } from '../../../db/schema';
-import { isInstanceAdmin, type Actor } from '../access';
-import { forgetActors } from '../actors';
-import { audit } from '../audit';
+import { getDb } from '~/lib/server/db';
+import { memberships, organisations, users } from '~/db/schema';
+import { isInstanceAdmin, type Actor } from '~/lib/server/access';
+import { forgetActors } from '~/lib/server/actors';
+import { audit } from '~/lib/server/audit';
 
 export const preferencesSchema = z.object({ unitSystem: z.enum(['metric', 'imperial']) }).strict();
 
@@ -30,7 +30,14 @@ export async function updatePreferences(actor: Actor, prefs: z.infer<typeof pref
 export async function listUsers(actor: Actor) {
   const db = await getDb();
   const q = db
-    .select({ id: users.id, email: users.email, name: users.name, role: memberships.role, orgId: organisations.id, orgName: organisations.name })
+    .select({
+      id: users.id,
+      email: users.email,
+      name: users.name,
+      role: memberships.role,
+      orgId: organisations.id,
+      orgName: organisations.name,
+    })
     .from(memberships)
     .innerJoin(users, eq(users.id, memberships.userId))
     .innerJoin(organisations, eq(organisations.id, memberships.orgId))

@@ -1,7 +1,7 @@
 import { join } from 'node:path';
-import { dataDir } from '../db';
+import { dataDir } from '~/lib/server/db';
 import { diskStorage } from './disk';
-import { envMs } from '../deadline';
+import { envMs } from '~/lib/server/deadline';
 import { S3_CONNECT_TIMEOUT_MS, S3_TIMEOUT_MS, s3Storage } from './s3';
 import type { ObjectStorage } from './types';
 

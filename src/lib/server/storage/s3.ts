@@ -7,7 +7,7 @@ import {
   S3Client,
   S3ServiceException,
 } from '@aws-sdk/client-s3';
-import { ServiceUnavailableError, withDeadline } from '../deadline';
+import { ServiceUnavailableError, withDeadline } from '~/lib/server/deadline';
 import { assertKey, type ObjectStorage, type StoredObject } from './types';
 
 export interface S3Settings {
@@ -53,14 +53,21 @@ export function s3Storage(settings: S3Settings): ObjectStorage {
 
   /** One call to the bucket within the deadline; anything but an S3 answer becomes "unavailable". */
   const call = <T>(what: string, run: (abortSignal: AbortSignal) => Promise<T>): Promise<T> =>
-    withDeadline(total, () => new ServiceUnavailableError('object store', `The object store did not answer within ${total} ms (${what}).`, true), run).catch(
-      (err: unknown) => {
-        if (err instanceof ServiceUnavailableError || err instanceof S3ServiceException) throw err;
-        throw new ServiceUnavailableError('object store', `The object store could not be reached (${what}): ${err instanceof Error ? err.message : String(err)}`, false, {
+    withDeadline(
+      total,
+      () => new ServiceUnavailableError('object store', `The object store did not answer within ${total} ms (${what}).`, true),
+      run,
+    ).catch((err: unknown) => {
+      if (err instanceof ServiceUnavailableError || err instanceof S3ServiceException) throw err;
+      throw new ServiceUnavailableError(
+        'object store',
+        `The object store could not be reached (${what}): ${err instanceof Error ? err.message : String(err)}`,
+        false,
+        {
           cause: err,
-        });
-      },
-    );
+        },
+      );
+    });
 
   return {
     kind: 's3',
@@ -68,7 +75,9 @@ export function s3Storage(settings: S3Settings): ObjectStorage {
     async put(key, bytes, contentType) {
       assertKey(key);
       await call(`put ${key}`, (abortSignal) =>
-        client.send(new PutObjectCommand({ Bucket, Key: key, Body: bytes, ContentType: contentType, ContentLength: bytes.byteLength }), { abortSignal }),
+        client.send(new PutObjectCommand({ Bucket, Key: key, Body: bytes, ContentType: contentType, ContentLength: bytes.byteLength }), {
+          abortSignal,
+        }),
       );
     },
     async get(key): Promise<StoredObject | null> {

@@ -30,10 +30,7 @@ export interface ListedObject {
  * out of the disk backend's folder.
  */
 export function assertKey(key: string): void {
-  const ok =
-    key.length > 0 &&
-    key.length <= 512 &&
-    key.split('/').every((seg) => /^[a-z0-9._-]+$/.test(seg) && !/^\.+$/.test(seg));
+  const ok = key.length > 0 && key.length <= 512 && key.split('/').every((seg) => /^[a-z0-9._-]+$/.test(seg) && !/^\.+$/.test(seg));
   if (!ok) throw new Error(`storage: refusing the key ${JSON.stringify(key)}`);
 }
 

@@ -2,8 +2,8 @@ import { timingSafeEqual } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { APIContext } from 'astro';
-import { dataDir, store } from '../../../lib/server/db';
-import { errorResponse, HttpError, requireActor, route, routeInputs, refuseBody } from '../../../lib/server/http';
+import { dataDir, store } from '~/lib/server/db';
+import { errorResponse, HttpError, requireActor, route, routeInputs, refuseBody } from '~/lib/server/http';
 import { withoutSecrets } from '../../../../scripts/lib/backup-archive.mjs';
 
 /**

@@ -1,6 +1,6 @@
-import { parseParams, requireActor, route } from '../../../lib/server/http';
+import { parseParams, requireActor, route } from '~/lib/server/http';
 import { z } from 'zod';
-import { mailboxFor } from '../../../lib/server/services/mailbox';
+import { mailboxFor } from '~/lib/server/services/mailbox';
 
 const querySchema = z.object({ limit: z.coerce.number().int().min(1).max(500).default(100) });
 

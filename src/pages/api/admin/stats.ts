@@ -1,6 +1,6 @@
-import { HttpError, requireActor, route } from '../../../lib/server/http';
-import { tableCounts, tableDigests } from '../../../lib/server/services/stats';
-import { isInstanceAdmin } from '../../../lib/server/access';
+import { HttpError, requireActor, route } from '~/lib/server/http';
+import { tableCounts, tableDigests } from '~/lib/server/services/stats';
+import { isInstanceAdmin } from '~/lib/server/access';
 
 /**
  * Row counts: every row for the instance administrator, a dealer's own rows for its administrator.

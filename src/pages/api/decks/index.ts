@@ -1,5 +1,5 @@
-import { json, readJson, requireActor, route, routeInputs } from '../../../lib/server/http';
-import { createDeck, createDeckSchema, listDecks } from '../../../lib/server/services/decks';
+import { json, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { createDeck, createDeckSchema, listDecks } from '~/lib/server/services/decks';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: createDeckSchema } });

@@ -1,5 +1,5 @@
-import { parseParams, requireActor, route } from '../../../lib/server/http';
-import { listInspections, listInspectionsQuerySchema } from '../../../lib/server/services/inspections';
+import { parseParams, requireActor, route } from '~/lib/server/http';
+import { listInspections, listInspectionsQuerySchema } from '~/lib/server/services/inspections';
 
 /** Inspections across the machines the user may see, newest first; filter by machine or status. */
 export const GET = route(async (ctx) => {

@@ -1,5 +1,5 @@
-import { parseId, requireActor, route, routeInputs, refuseBody } from '../../../lib/server/http';
-import { deleteLossCheck, getLossCheck } from '../../../lib/server/services/field-checks';
+import { parseId, requireActor, route, routeInputs, refuseBody } from '~/lib/server/http';
+import { deleteLossCheck, getLossCheck } from '~/lib/server/services/field-checks';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ DELETE: {} });

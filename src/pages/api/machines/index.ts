@@ -1,10 +1,5 @@
-import { json, parseParams, readJson, requireActor, route, routeInputs } from '../../../lib/server/http';
-import {
-  createMachine,
-  createMachineSchema,
-  listMachines,
-  machineListQuerySchema,
-} from '../../../lib/server/services/machines';
+import { json, parseParams, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { createMachine, createMachineSchema, listMachines, machineListQuerySchema } from '~/lib/server/services/machines';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: createMachineSchema } });

@@ -1,5 +1,5 @@
-import { readJson, requireActor, route, routeInputs } from '../../../lib/server/http';
-import { changePassword, passwordChangeSchema } from '../../../lib/server/services/account';
+import { readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { changePassword, passwordChangeSchema } from '~/lib/server/services/account';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: passwordChangeSchema } });

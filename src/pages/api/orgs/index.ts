@@ -1,5 +1,5 @@
-import { json, readJson, requireActor, route, routeInputs } from '../../../lib/server/http';
-import { createFarm, createOrgSchema, listOrgs } from '../../../lib/server/services/orgs';
+import { json, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { createFarm, createOrgSchema, listOrgs } from '~/lib/server/services/orgs';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: createOrgSchema } });

@@ -1,10 +1,5 @@
-import { json, parseParams, readJson, requireActor, route, routeInputs } from '../../../lib/server/http';
-import {
-  createPartsRequest,
-  createPartsRequestSchema,
-  listPartsRequests,
-  listQuerySchema,
-  } from '../../../lib/server/services/parts-requests';
+import { json, parseParams, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { createPartsRequest, createPartsRequestSchema, listPartsRequests, listQuerySchema } from '~/lib/server/services/parts-requests';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: createPartsRequestSchema } });

@@ -1,5 +1,5 @@
-import { parseId, requireActor, route, routeInputs, refuseBody } from '../../../lib/server/http';
-import { deletePhoto, photoResponse } from '../../../lib/server/services/photos';
+import { parseId, requireActor, route, routeInputs, refuseBody } from '~/lib/server/http';
+import { deletePhoto, photoResponse } from '~/lib/server/services/photos';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ DELETE: {} });

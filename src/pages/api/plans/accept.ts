@@ -1,5 +1,5 @@
-import { json, readJson, requireActor, route, routeInputs } from '../../../lib/server/http';
-import { acceptPlan, acceptPlanSchema, editorUrl } from '../../../lib/server/services/planner';
+import { json, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { acceptPlan, acceptPlanSchema, editorUrl } from '~/lib/server/services/planner';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: acceptPlanSchema } });

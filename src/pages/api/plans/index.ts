@@ -1,5 +1,5 @@
-import { readJson, requireActor, route, routeInputs } from '../../../lib/server/http';
-import { planRequestSchema, proposePlan } from '../../../lib/server/services/planner';
+import { readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { planRequestSchema, proposePlan } from '~/lib/server/services/planner';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: planRequestSchema } });

@@ -1,6 +1,6 @@
-import { partNumberSchema } from '../../../lib/domain/schemas';
-import { notFound, readJson, requireActor, route, routeInputs, refuseBody } from '../../../lib/server/http';
-import { clearDealerPrice, setDealerPrice, setPriceSchema } from '../../../lib/server/services/prices';
+import { partNumberSchema } from '~/lib/domain/schemas';
+import { notFound, readJson, requireActor, route, routeInputs, refuseBody } from '~/lib/server/http';
+import { clearDealerPrice, setDealerPrice, setPriceSchema } from '~/lib/server/services/prices';
 
 function partNumber(raw: string | undefined): string {
   const parsed = partNumberSchema.safeParse(raw);

@@ -1,5 +1,5 @@
-import { readJson, requireActor, route, routeInputs } from '../../../lib/server/http';
-import { importPricesSchema, importPriceList } from '../../../lib/server/services/prices';
+import { readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { importPricesSchema, importPriceList } from '~/lib/server/services/prices';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: importPricesSchema } });

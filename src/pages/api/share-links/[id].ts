@@ -1,5 +1,5 @@
-import { parseId, requireActor, route, routeInputs, refuseBody } from '../../../lib/server/http';
-import { revokeShareLink } from '../../../lib/server/services/sharing';
+import { parseId, requireActor, route, routeInputs, refuseBody } from '~/lib/server/http';
+import { revokeShareLink } from '~/lib/server/services/sharing';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ DELETE: {} });

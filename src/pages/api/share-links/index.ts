@@ -1,10 +1,5 @@
-import { json, parseParams, readJson, requireActor, route, routeInputs } from '../../../lib/server/http';
-import {
-  createShareLink,
-  createShareSchema,
-  listShareLinks,
-  shareListQuerySchema,
-} from '../../../lib/server/services/sharing';
+import { json, parseParams, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { createShareLink, createShareSchema, listShareLinks, shareListQuerySchema } from '~/lib/server/services/sharing';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: createShareSchema } });

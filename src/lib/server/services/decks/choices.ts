@@ -1,8 +1,8 @@
 /** Choices for the deck editor: the layouts a slide may show. */
 import { and, asc, eq, inArray } from 'drizzle-orm';
-import { getDb } from '../../db';
-import { layouts, layoutVersions, machines, organisations } from '../../../../db/schema';
-import type { Actor } from '../../access';
+import { getDb } from '~/lib/server/db';
+import { layouts, layoutVersions, machines, organisations } from '~/db/schema';
+import type { Actor } from '~/lib/server/access';
 
 /** The current version of every layout on the machines the actor may see, to put on a slide. */
 export async function slideLayoutChoices(actor: Actor) {

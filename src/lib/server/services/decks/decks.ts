@@ -1,10 +1,10 @@
 /** Decks: list, read, create, rename, delete. */
 import { asc, count, desc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb } from '../../db';
-import { deckSlides, decks, users } from '../../../../db/schema';
-import type { Actor } from '../../access';
-import { audit } from '../../audit';
+import { getDb } from '~/lib/server/db';
+import { deckSlides, decks, users } from '~/db/schema';
+import type { Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
 import { updateDeckSchema, createDeckSchema } from './schemas';
 import { deckColumns, deckForActor, slidesOf } from './records';
 
@@ -39,7 +39,11 @@ export async function updateDeck(actor: Actor, deckId: string, input: z.infer<ty
   const deck = await deckForActor(actor, deckId);
   const db = await getDb();
   return db.transaction(async (tx) => {
-    const [row] = await tx.update(decks).set({ title: input.title, updatedAt: sql`now()` }).where(eq(decks.id, deck.id)).returning();
+    const [row] = await tx
+      .update(decks)
+      .set({ title: input.title, updatedAt: sql`now()` })
+      .where(eq(decks.id, deck.id))
+      .returning();
     await audit(tx, actor, 'update', 'deck', deck.id, { title: { from: deck.title, to: input.title } }, deck.orgId);
     return row!;
   });

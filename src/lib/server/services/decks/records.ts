@@ -1,18 +1,18 @@
 /** Who may use decks, what a deck and a slide look like, and loading them for an actor. */
 import { and, asc, eq, inArray } from 'drizzle-orm';
-import { getDb, type Db } from '../../db';
-import { deckSlides, decks, layouts, layoutVersions, machines, organisations, users } from '../../../../db/schema';
-import type { Layout } from '../../../domain/schemas';
-import type { Actor } from '../../access';
-import { notFound } from '../../http';
-import { renderNotes } from '../../markdown';
-import type { SlideRecord, SlideSource } from '../../../responses';
+import { getDb, type Db } from '~/lib/server/db';
+import { deckSlides, decks, layouts, layoutVersions, machines, organisations, users } from '~/db/schema';
+import type { Layout } from '~/lib/domain/schemas';
+import type { Actor } from '~/lib/server/access';
+import { notFound } from '~/lib/server/http';
+import { renderNotes } from '~/lib/server/markdown';
+import type { SlideRecord, SlideSource } from '~/lib/responses';
 
 export const MAX_SLIDES = 200;
 
 export type Tx = Parameters<Parameters<Db['transaction']>[0]>[0];
 
-export type { SlideRecord, SlideSource } from '../../../responses';
+export type { SlideRecord, SlideSource } from '~/lib/responses';
 
 export interface DeckRecord {
   id: string;

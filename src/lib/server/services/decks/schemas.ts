@@ -1,6 +1,6 @@
 /** Input formats of decks, slides and deck share links (zod; the API and the pages share them). */
 import { z } from 'zod';
-import { cropIdSchema, layoutSchema, slugSchema } from '../../../domain/schemas';
+import { cropIdSchema, layoutSchema, slugSchema } from '~/lib/domain/schemas';
 import { MAX_SLIDES } from './records';
 
 const deckTitle = z.string().trim().min(1, { error: 'give the deck a title' }).max(120);
@@ -29,8 +29,5 @@ export const reorderSlidesSchema = z.object({
 export const createDeckShareSchema = z.object({
   label: z.string().trim().max(120).default(''),
   /** Optional end of the link's life (ISO 8601 with an offset); must lie in the future. */
-  expiresAt: z.iso
-    .datetime({ offset: true, error: 'give a date and time such as 2026-09-30T18:00:00Z' })
-    .nullable()
-    .optional(),
+  expiresAt: z.iso.datetime({ offset: true, error: 'give a date and time such as 2026-09-30T18:00:00Z' }).nullable().optional(),
 });

@@ -1,15 +1,14 @@
 /** Read-only share links for decks (token handling in ../../share-links.ts). */
 import { and, desc, eq, isNull, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb } from '../../db';
-import { decks, organisations, shareLinks, users } from '../../../../db/schema';
-import type { Actor } from '../../access';
-import { audit } from '../../audit';
-import { HttpError, notFound } from '../../http';
-import { hashToken, lookUpToken, newToken, statusOf } from '../../share-links';
+import { getDb } from '~/lib/server/db';
+import { decks, organisations, shareLinks, users } from '~/db/schema';
+import type { Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError, notFound } from '~/lib/server/http';
+import { hashToken, lookUpToken, newToken, statusOf } from '~/lib/server/share-links';
 import { createDeckShareSchema } from './schemas';
 import { deckColumns, deckForActor, slidesOf, type DeckRecord, type SlideRecord } from './records';
-
 
 const linkColumns = {
   id: shareLinks.id,
@@ -46,7 +45,15 @@ export async function createDeckShare(actor: Actor, deckId: string, input: z.inf
       .insert(shareLinks)
       .values({ orgId: deck.orgId, tokenHash: hashToken(token), deckId: deck.id, label: input.label, expiresAt, createdBy: actor.id })
       .returning();
-    await audit(tx, actor, 'share', 'deck', deck.id, { linkId: row!.id, label: input.label, expiresAt: expiresAt?.toISOString() ?? null }, deck.orgId);
+    await audit(
+      tx,
+      actor,
+      'share',
+      'deck',
+      deck.id,
+      { linkId: row!.id, label: input.label, expiresAt: expiresAt?.toISOString() ?? null },
+      deck.orgId,
+    );
     const { tokenHash: _hidden, ...link } = row!;
     return { link: { ...link, status: statusOf(row!) }, token, path: `/share/deck/${token}` };
   });
@@ -67,7 +74,11 @@ export async function revokeDeckShare(actor: Actor, deckId: string, linkId: stri
       if (!exists) throw notFound('Share link not found', 'link');
       where.push(eq(shareLinks.id, linkId));
     }
-    const done = await tx.update(shareLinks).set({ revokedAt: sql`now()` }).where(and(...where)).returning({ id: shareLinks.id });
+    const done = await tx
+      .update(shareLinks)
+      .set({ revokedAt: sql`now()` })
+      .where(and(...where))
+      .returning({ id: shareLinks.id });
     if (done.length) await audit(tx, actor, 'revoke-share', 'deck', deck.id, { linkIds: done.map((d) => d.id) }, deck.orgId);
     return { revoked: done.map((d) => d.id) };
   });
@@ -87,13 +98,21 @@ export async function resolveDeckShareToken(token: string): Promise<ResolvedDeck
   if (found.status !== 'ok') return found;
   const { row } = found;
   const db = await getDb();
-  const [deck] = await db.select(deckColumns).from(decks).leftJoin(users, eq(users.id, decks.createdBy)).where(eq(decks.id, row.deckId!)).limit(1);
+  const [deck] = await db
+    .select(deckColumns)
+    .from(decks)
+    .leftJoin(users, eq(users.id, decks.createdBy))
+    .where(eq(decks.id, row.deckId!))
+    .limit(1);
   if (!deck) return { status: 'not-found' };
   // The deck's organisation and, for a dealer, its customer farms.
   const orgs = await db
     .select({ id: organisations.id })
     .from(organisations)
     .where(or(eq(organisations.id, deck.orgId), eq(organisations.dealerId, deck.orgId)));
-  const slides = await slidesOf(deck.id, orgs.map((o) => o.id));
+  const slides = await slidesOf(
+    deck.id,
+    orgs.map((o) => o.id),
+  );
   return { status: 'ok', deck, slides, link: { label: row.label, expiresAt: row.expiresAt, createdAt: row.createdAt } };
 }

@@ -1,14 +1,14 @@
 /** Slides: add (a saved layout version, a sample layout or a starter), change, remove, reorder. */
 import { and, count, eq, inArray, max, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb } from '../../db';
-import { deckSlides, decks, layouts, layoutVersions } from '../../../../db/schema';
-import type { Layout } from '../../../domain/schemas';
-import { starterLayout } from '../../../domain/starter';
-import type { Actor } from '../../access';
-import { audit } from '../../audit';
-import { HttpError, notFound } from '../../http';
-import { catalogForFamily, familyById } from '../machines';
+import { getDb } from '~/lib/server/db';
+import { deckSlides, decks, layouts, layoutVersions } from '~/db/schema';
+import type { Layout } from '~/lib/domain/schemas';
+import { starterLayout } from '~/lib/domain/starter';
+import type { Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError, notFound } from '~/lib/server/http';
+import { catalogForFamily, familyById } from '~/lib/server/services/machines';
 import { addSlideSchema, reorderSlidesSchema, updateSlideSchema } from './schemas';
 import { deckForActor, MAX_SLIDES, slidesOf, type DeckRecord, type SlideRecord, type Tx } from './records';
 import { getDeck } from './decks';
@@ -69,7 +69,11 @@ async function lockDeck(tx: Tx, deckId: string) {
   await tx.select({ id: decks.id }).from(decks).where(eq(decks.id, deckId)).for('update');
 }
 
-const touch = (tx: Tx, deckId: string) => tx.update(decks).set({ updatedAt: sql`now()` }).where(eq(decks.id, deckId));
+const touch = (tx: Tx, deckId: string) =>
+  tx
+    .update(decks)
+    .set({ updatedAt: sql`now()` })
+    .where(eq(decks.id, deckId));
 
 async function slideOf(deck: DeckRecord, slideId: string, actor: Actor): Promise<SlideRecord> {
   const slide = (await slidesOf(deck.id, actor.visibleOrgIds)).find((s) => s.id === slideId);
@@ -135,7 +139,10 @@ export async function updateSlide(actor: Actor, deckId: string, slideId: string,
   if (Object.keys(changes).length === 0) return before;
   const db = await getDb();
   await db.transaction(async (tx) => {
-    await tx.update(deckSlides).set(changes).where(and(eq(deckSlides.id, before.id), eq(deckSlides.deckId, deck.id)));
+    await tx
+      .update(deckSlides)
+      .set(changes)
+      .where(and(eq(deckSlides.id, before.id), eq(deckSlides.deckId, deck.id)));
     await touch(tx, deck.id);
     await audit(
       tx,
@@ -187,7 +194,11 @@ export async function reorderSlides(actor: Actor, deckId: string, input: z.infer
       seen.add(id);
     });
     if (seen.size !== ids.size) throw new HttpError(400, `order: list all ${ids.size} slides of the deck`, 'order');
-    for (const [i, id] of input.order.entries()) await tx.update(deckSlides).set({ position: i + 1 }).where(eq(deckSlides.id, id));
+    for (const [i, id] of input.order.entries())
+      await tx
+        .update(deckSlides)
+        .set({ position: i + 1 })
+        .where(eq(deckSlides.id, id));
     await touch(tx, deck.id);
     await audit(tx, actor, 'reorder-slides', 'deck', deck.id, { order: input.order }, deck.orgId);
   });

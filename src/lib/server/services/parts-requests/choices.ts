@@ -1,8 +1,8 @@
 /** Parts requests: what a request can be made from. */
 import { desc, eq, inArray } from 'drizzle-orm';
-import { getDb } from '../../db';
-import { layouts, machines, organisations } from '../../../../db/schema';
-import type { Actor } from '../../access';
+import { getDb } from '~/lib/server/db';
+import { layouts, machines, organisations } from '~/db/schema';
+import type { Actor } from '~/lib/server/access';
 
 /** The saved layouts a request can be made from: the current version of each, newest first. */
 export async function requestLayoutChoices(actor: Actor) {

@@ -1,11 +1,11 @@
 /** Parts requests: the parts desk's workflow. */
 import { and, eq, sql } from 'drizzle-orm';
-import { getDb } from '../../db';
-import { partsRequests } from '../../../../db/schema';
-import { can, type Actor } from '../../access';
-import { audit } from '../../audit';
-import { HttpError } from '../../http';
-import { sendMail } from '../mail';
+import { getDb } from '~/lib/server/db';
+import { partsRequests } from '~/db/schema';
+import { can, type Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError } from '~/lib/server/http';
+import { sendMail } from '~/lib/server/services/mail';
 import { rowForActor } from './rows';
 import { NEXT_STATUS, type PartsRequestStatus, STATUS_WORDS } from './statuses';
 import { getPartsRequest } from './views';
@@ -21,10 +21,18 @@ export async function advancePartsRequest(actor: Actor, id: string, status: Part
   if (!row.dealerOrgId || !actor.memberOrgIds.includes(row.dealerOrgId) || !can(actor, 'parts.desk'))
     throw new HttpError(403, 'Only the parts desk of the dealer the request went to moves its status.');
   if (row.status === 'sending')
-    throw new HttpError(409, 'This request is still being sent; the parts desk can acknowledge it once the mail server has accepted it.', 'status');
+    throw new HttpError(
+      409,
+      'This request is still being sent; the parts desk can acknowledge it once the mail server has accepted it.',
+      'status',
+    );
   const next = NEXT_STATUS[row.status];
-  if (!next) throw new HttpError(409, `This request is ${STATUS_WORDS[row.status].toLowerCase()}; its status does not move on from here.`, 'status');
-  if (status !== next) throw new HttpError(409, `status: this request is ${STATUS_WORDS[row.status].toLowerCase()}; the next status is “${next}”.`, 'status', { next });
+  if (!next)
+    throw new HttpError(409, `This request is ${STATUS_WORDS[row.status].toLowerCase()}; its status does not move on from here.`, 'status');
+  if (status !== next)
+    throw new HttpError(409, `status: this request is ${STATUS_WORDS[row.status].toLowerCase()}; the next status is “${next}”.`, 'status', {
+      next,
+    });
   await db.transaction(async (tx) => {
     const moved = await tx
       .update(partsRequests)

@@ -2,28 +2,32 @@
  * Parts requests: making, changing and deleting drafts; lines always checked against the machine's
  * catalog.
  */
-import { and, eq, or, sql } from 'drizzle-orm';
+import { and, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb, type Db } from '../../db';
-import { families, machines, organisations, partsRequests, type PartsRequestLine, type PartsRequestSettings } from '../../../../db/schema';
-import { formatLength, mm, type UnitSystem } from '../../../domain/units';
-import { indexCatalog } from '../../../domain/catalog';
-import type { CatalogPart, Layout } from '../../../domain/schemas';
-import { billOfMaterials, bomLine } from '../../../domain/planner';
-import { can, rolesFor, type Actor } from '../../access';
-import { audit } from '../../audit';
-import { HttpError, whenNotFound } from '../../http';
-import { getVersion, getLayout } from '../layouts';
-import { catalogForFamily, installedLayout, machineForActor } from '../machines';
-import { proposePlan, requirePlan, shelfOf } from '../planner';
+import { getDb, type Db } from '~/lib/server/db';
+import { families, machines, organisations, partsRequests, type PartsRequestLine, type PartsRequestSettings } from '~/db/schema';
+import { formatLength, mm, type UnitSystem } from '~/lib/domain/units';
+import { indexCatalog } from '~/lib/domain/catalog';
+import type { CatalogPart, Layout } from '~/lib/domain/schemas';
+import { billOfMaterials, bomLine } from '~/lib/domain/planner';
+import { can, rolesFor, type Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError, whenNotFound } from '~/lib/server/http';
+import { getVersion, getLayout } from '~/lib/server/services/layouts';
+import { catalogForFamily, installedLayout, machineForActor } from '~/lib/server/services/machines';
+import { proposePlan, requirePlan, shelfOf } from '~/lib/server/services/planner';
 import { type Row, rowForActor } from './rows';
-import { type CreatePartsRequest, type LineInput, MAX_QTY, note, updatePartsRequestSchema } from './schemas';
+import { type CreatePartsRequest, type LineInput, MAX_QTY, updatePartsRequestSchema } from './schemas';
 import { type PartsRequestSource, STATUS_WORDS } from './statuses';
 import { type PartsRequestView, getPartsRequest } from './views';
 
 /** The dealer a farm's requests go to (a dealer's own machine: the dealer itself). */
 async function dealerFor(orgId: string, db: Pick<Db, 'select'>): Promise<string | null> {
-  const [org] = await db.select({ kind: organisations.kind, dealerId: organisations.dealerId }).from(organisations).where(eq(organisations.id, orgId)).limit(1);
+  const [org] = await db
+    .select({ kind: organisations.kind, dealerId: organisations.dealerId })
+    .from(organisations)
+    .where(eq(organisations.id, orgId))
+    .limit(1);
   if (!org) return null;
   return org.kind === 'dealer' ? orgId : org.dealerId;
 }
@@ -52,11 +56,18 @@ export function linesFromInput(
     if (same) same.quantity += l.quantity;
     else {
       const b = bomLine(part, l.quantity);
-      out.push({ partNumber: b.partNumber, description: b.description, hand: b.hand, quantity: b.quantity, unitPriceCents: b.unitPriceCents });
+      out.push({
+        partNumber: b.partNumber,
+        description: b.description,
+        hand: b.hand,
+        quantity: b.quantity,
+        unitPriceCents: b.unitPriceCents,
+      });
     }
   });
   const tooMany = out.findIndex((l) => l.quantity > MAX_QTY);
-  if (tooMany >= 0) throw new HttpError(400, `${fieldPrefix}.${tooMany}.quantity: at most ${MAX_QTY} of one part`, `${fieldPrefix}.${tooMany}.quantity`);
+  if (tooMany >= 0)
+    throw new HttpError(400, `${fieldPrefix}.${tooMany}.quantity: at most ${MAX_QTY} of one part`, `${fieldPrefix}.${tooMany}.quantity`);
   return out;
 }
 
@@ -95,7 +106,13 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
     const plan = requirePlan(proposal.plan);
     machineId = proposal.machine.id;
     orgId = proposal.machine.orgId;
-    lines = plan.purchases.map((p) => ({ partNumber: p.partNumber, description: p.description, hand: p.hand, quantity: p.quantity, unitPriceCents: p.unitPriceCents }));
+    lines = plan.purchases.map((p) => ({
+      partNumber: p.partNumber,
+      description: p.description,
+      hand: p.hand,
+      quantity: p.quantity,
+      unitPriceCents: p.unitPriceCents,
+    }));
     if (!lines.length) throw new HttpError(422, `${NOTHING_TO_ORDER} The plan buys nothing.`, 'crop');
     detail = { crop: input.crop, mode: input.mode, fingerprint: plan.fingerprint };
     settings = settingsOf(plan.layout);
@@ -107,11 +124,21 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
     const version = await getVersion(actor, layout.id, input.version ?? layout.currentVersion).catch(
       whenNotFound(() => new HttpError(400, `version: this layout has no version ${input.version}`, 'version')),
     );
-    const [catalog, installed, shelf] = await Promise.all([catalogForFamily(family.id, undefined, machine.orgId), installedLayout(machine.id), shelfOf(machine.orgId)]);
+    const [catalog, installed, shelf] = await Promise.all([
+      catalogForFamily(family.id, undefined, machine.orgId),
+      installedLayout(machine.id),
+      shelfOf(machine.orgId),
+    ]);
     const bom = billOfMaterials(indexCatalog(catalog), version.body, installed?.layout ?? null, shelf);
     if (bom.unknown.length)
       throw new HttpError(400, `layoutId: the layout holds part numbers the catalog does not know (${bom.unknown.join(', ')})`, 'layoutId');
-    lines = bom.lines.map((l) => ({ partNumber: l.partNumber, description: l.description, hand: l.hand, quantity: l.quantity, unitPriceCents: l.unitPriceCents }));
+    lines = bom.lines.map((l) => ({
+      partNumber: l.partNumber,
+      description: l.description,
+      hand: l.hand,
+      quantity: l.quantity,
+      unitPriceCents: l.unitPriceCents,
+    }));
     if (!lines.length) throw new HttpError(422, `${NOTHING_TO_ORDER} The layout adds no parts.`, 'layoutId');
     machineId = machine.id;
     orgId = machine.orgId;
@@ -129,7 +156,17 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
     const dealerOrgId = await dealerFor(orgId, tx);
     const [row] = await tx
       .insert(partsRequests)
-      .values({ orgId, dealerOrgId, machineId, source: input.from, status: 'draft', lines, settings, note: input.note || autoNote, createdBy: actor.id })
+      .values({
+        orgId,
+        dealerOrgId,
+        machineId,
+        source: input.from,
+        status: 'draft',
+        lines,
+        settings,
+        note: input.note || autoNote,
+        createdBy: actor.id,
+      })
       .returning({ id: partsRequests.id });
     await audit(tx, actor, 'create', 'parts-request', row!.id, { source: input.from, lines: lines.length, ...detail }, orgId);
     return row!.id;
@@ -166,14 +203,26 @@ export async function addLinesToDraftRequest(
     if (draft) {
       const merged = mergeLines(draft.lines, added);
       const nextNote = noteText ? (draft.note ? `${draft.note}\n${noteText}` : noteText) : draft.note;
-      await tx.update(partsRequests).set({ lines: merged, note: nextNote, updatedAt: sql`now()` }).where(eq(partsRequests.id, draft.id));
+      await tx
+        .update(partsRequests)
+        .set({ lines: merged, note: nextNote, updatedAt: sql`now()` })
+        .where(eq(partsRequests.id, draft.id));
       await audit(tx, actor, 'add-lines', 'parts-request', draft.id, { source, lines: added }, draft.orgId);
       return draft.id;
     }
     const dealerOrgId = await dealerFor(ctx.machine.orgId, tx);
     const [row] = await tx
       .insert(partsRequests)
-      .values({ orgId: ctx.machine.orgId, dealerOrgId, machineId: ctx.machine.id, source, status: 'draft', lines: added, note: noteText, createdBy: actor.id })
+      .values({
+        orgId: ctx.machine.orgId,
+        dealerOrgId,
+        machineId: ctx.machine.id,
+        source,
+        status: 'draft',
+        lines: added,
+        note: noteText,
+        createdBy: actor.id,
+      })
       .returning({ id: partsRequests.id });
     await audit(tx, actor, 'create', 'parts-request', row!.id, { source, lines: added }, ctx.machine.orgId);
     return row!.id;
@@ -228,7 +277,15 @@ export async function updatePartsRequest(actor: Actor, id: string, input: z.infe
       .where(and(eq(partsRequests.id, row.id), eq(partsRequests.status, 'draft')))
       .returning({ id: partsRequests.id });
     if (!moved.length) throw new HttpError(409, 'This request was sent meanwhile; it can no longer be changed.', 'status');
-    await audit(tx, actor, 'update', 'parts-request', row.id, { lines: changes.lines?.map((l) => [l.partNumber, l.quantity]), note: changes.note !== undefined }, row.orgId);
+    await audit(
+      tx,
+      actor,
+      'update',
+      'parts-request',
+      row.id,
+      { lines: changes.lines?.map((l) => [l.partNumber, l.quantity]), note: changes.note !== undefined },
+      row.orgId,
+    );
   });
   return getPartsRequest(actor, id);
 }

@@ -10,10 +10,33 @@
  * Lines keep the description and unit price the catalog had when they were added, so a sent
  * request reads the same later; part numbers are always checked against the machine's catalog.
  */
-export { type PartsRequestStatus, type PartsRequestSource, NEXT_STATUS, STATUS_WORDS, SOURCE_WORDS, sourceOrigin, requestNumber } from './statuses';
-export { lineInputSchema, type LineInput, createPartsRequestSchema, type CreatePartsRequest, updatePartsRequestSchema, statusChangeSchema, listQuerySchema } from './schemas';
+export {
+  type PartsRequestStatus,
+  type PartsRequestSource,
+  NEXT_STATUS,
+  STATUS_WORDS,
+  SOURCE_WORDS,
+  sourceOrigin,
+  requestNumber,
+} from './statuses';
+export {
+  lineInputSchema,
+  type LineInput,
+  createPartsRequestSchema,
+  type CreatePartsRequest,
+  updatePartsRequestSchema,
+  statusChangeSchema,
+  listQuerySchema,
+} from './schemas';
 export { type PartsRequestView, getPartsRequest, listPartsRequests } from './views';
-export { linesFromInput, requestSettingsWords, createPartsRequest, addLinesToDraftRequest, updatePartsRequest, deletePartsRequest } from './drafts';
+export {
+  linesFromInput,
+  requestSettingsWords,
+  createPartsRequest,
+  addLinesToDraftRequest,
+  updatePartsRequest,
+  deletePartsRequest,
+} from './drafts';
 export { partsRequestCsv, csvFileName } from './csv';
 export { submitPartsRequest, STUCK_SEND_REASON, recoverStuckSends } from './sending';
 export { advancePartsRequest } from './desk';

@@ -1,7 +1,7 @@
 /**
  * Parts requests: what an actor may do with one request (writers of its farm, its dealer's desk).
  */
-import { can, type Actor } from '../../access';
+import { can, type Actor } from '~/lib/server/access';
 import type { Row } from './rows';
 import { NEXT_STATUS } from './statuses';
 

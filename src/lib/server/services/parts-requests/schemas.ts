@@ -1,9 +1,8 @@
 /** Parts requests: what the API and the pages accept. */
-import { or } from 'drizzle-orm';
 import { z } from 'zod';
-import { partsRequestStatuses } from '../../../../db/schema';
-import { cropIdSchema, partNumberSchema } from '../../../domain/schemas';
-import { planModeSchema } from '../../../domain/planner';
+import { partsRequestStatuses } from '~/db/schema';
+import { cropIdSchema, partNumberSchema } from '~/lib/domain/schemas';
+import { planModeSchema } from '~/lib/domain/planner';
 
 export const MAX_QTY = 999;
 export const note = z.string().trim().max(2000).default('');

@@ -2,16 +2,16 @@
  * Parts requests: sending to the parts desk through the outbox, and recovering sends a stop left
  * behind.
  */
-import { and, eq, or, sql } from 'drizzle-orm';
-import { getDb, type Db } from '../../db';
-import { partsRequests } from '../../../../db/schema';
-import type { Actor } from '../../access';
-import { audit } from '../../audit';
-import { HttpError } from '../../http';
-import { mailDeadlineMs, sendMail } from '../mail';
+import { and, eq, sql } from 'drizzle-orm';
+import { getDb, type Db } from '~/lib/server/db';
+import { partsRequests } from '~/db/schema';
+import type { Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError } from '~/lib/server/http';
+import { mailDeadlineMs, sendMail } from '~/lib/server/services/mail';
 import { csvFileName, partsRequestCsv } from './csv';
 import { requestSettingsWords } from './drafts';
-import { formatMoney, formatNumber } from '../../../domain/format';
+import { formatMoney, formatNumber } from '~/lib/domain/format';
 import { assertDraft, assertWriter } from './drafts';
 import { rowForActor } from './rows';
 import { SOURCE_WORDS } from './statuses';
@@ -113,7 +113,15 @@ export async function submitPartsRequest(actor: Actor, id: string, origin: strin
       .where(and(eq(partsRequests.id, row.id), eq(partsRequests.status, 'sending')))
       .returning({ id: partsRequests.id });
     // Not sending any more: it was returned to draft as stuck while the mail server took its time.
-    await audit(tx, actor, done.length ? 'mailed' : 'mailed-late', 'parts-request', row.id, { messageId: info.messageId, accepted: info.accepted }, row.orgId);
+    await audit(
+      tx,
+      actor,
+      done.length ? 'mailed' : 'mailed-late',
+      'parts-request',
+      row.id,
+      { messageId: info.messageId, accepted: info.accepted },
+      row.orgId,
+    );
   });
   return getPartsRequest(actor, id);
 }

@@ -1,6 +1,6 @@
 /** Parts requests: the statuses and sources, their words, and the desk's next step. */
-import { withArticle } from '../../../domain/words';
-import { partsRequestStatuses } from '../../../../db/schema';
+import { withArticle } from '~/lib/domain/words';
+import { partsRequestStatuses } from '~/db/schema';
 
 export type PartsRequestStatus = (typeof partsRequestStatuses)[number];
 export type PartsRequestSource = 'plan' | 'layout' | 'inspection' | 'manual';
@@ -28,6 +28,7 @@ export const SOURCE_WORDS: Record<PartsRequestSource, string> = {
 };
 
 /** Where a request came from, as a phrase: "from an inspection", "entered by hand". */
-export const sourceOrigin = (source: PartsRequestSource): string => (source === 'manual' ? SOURCE_WORDS.manual : `from ${withArticle(SOURCE_WORDS[source])}`);
+export const sourceOrigin = (source: PartsRequestSource): string =>
+  source === 'manual' ? SOURCE_WORDS.manual : `from ${withArticle(SOURCE_WORDS[source])}`;
 
 export const requestNumber = (id: string) => `PR-${id.slice(0, 8).toUpperCase()}`;

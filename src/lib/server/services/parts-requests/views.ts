@@ -1,13 +1,13 @@
 /** Parts requests: one request or a list as the API and the pages show it. */
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb, type Db } from '../../db';
-import { families, machines, organisations, partsRequests, users, type PartsRequestLine, type PartsRequestSettings } from '../../../../db/schema';
-import { DEFAULT_CURRENCY } from '../../../domain/format';
-import { can, type Actor } from '../../access';
+import { getDb, type Db } from '~/lib/server/db';
+import { families, machines, organisations, partsRequests, users, type PartsRequestLine, type PartsRequestSettings } from '~/db/schema';
+import { DEFAULT_CURRENCY } from '~/lib/domain/format';
+import type { Actor } from '~/lib/server/access';
 import { permissions } from './permissions';
 import { type Row, rowForActor, visibleTo } from './rows';
-import { listQuerySchema, note } from './schemas';
+import { listQuerySchema } from './schemas';
 import { NEXT_STATUS, type PartsRequestSource, type PartsRequestStatus, STATUS_WORDS, requestNumber } from './statuses';
 
 export interface PartsRequestView {
@@ -41,12 +41,24 @@ export async function viewOf(actor: Actor, row: Row, db: Db): Promise<PartsReque
   const ids = [row.orgId, ...(row.dealerOrgId ? [row.dealerOrgId] : [])];
   const [orgRows, machineRows, creator] = await Promise.all([
     db
-      .select({ id: organisations.id, name: organisations.name, ownerEmail: organisations.ownerEmail, partsDeskEmail: organisations.partsDeskEmail, currency: organisations.currency })
+      .select({
+        id: organisations.id,
+        name: organisations.name,
+        ownerEmail: organisations.ownerEmail,
+        partsDeskEmail: organisations.partsDeskEmail,
+        currency: organisations.currency,
+      })
       .from(organisations)
       .where(inArray(organisations.id, ids)),
     row.machineId
       ? db
-          .select({ id: machines.id, nickname: machines.nickname, serial: machines.serial, familyId: machines.familyId, familyName: families.name })
+          .select({
+            id: machines.id,
+            nickname: machines.nickname,
+            serial: machines.serial,
+            familyId: machines.familyId,
+            familyName: families.name,
+          })
           .from(machines)
           .innerJoin(families, eq(families.id, machines.familyId))
           .where(eq(machines.id, row.machineId))

@@ -1,5 +1,5 @@
-import { parseId, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
-import { changeRole, roleChangeSchema } from '../../../../lib/server/services/account';
+import { parseId, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { changeRole, roleChangeSchema } from '~/lib/server/services/account';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ PUT: { body: roleChangeSchema } });

@@ -1,6 +1,6 @@
-import { machineFamilySchema, slugSchema } from '../../../../lib/domain/schemas';
-import { notFound, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
-import { getFamily, updateFamily } from '../../../../lib/server/services/catalog';
+import { machineFamilySchema, slugSchema } from '~/lib/domain/schemas';
+import { notFound, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { getFamily, updateFamily } from '~/lib/server/services/catalog';
 
 function familyId(raw: string | undefined): string {
   const parsed = slugSchema.safeParse(raw);

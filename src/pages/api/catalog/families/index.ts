@@ -1,6 +1,6 @@
-import { machineFamilySchema } from '../../../../lib/domain/schemas';
-import { json, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
-import { createFamily, listFamilies } from '../../../../lib/server/services/catalog';
+import { machineFamilySchema } from '~/lib/domain/schemas';
+import { json, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { createFamily, listFamilies } from '~/lib/server/services/catalog';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: machineFamilySchema } });

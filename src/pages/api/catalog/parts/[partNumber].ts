@@ -1,6 +1,6 @@
-import { partNumberSchema } from '../../../../lib/domain/schemas';
-import { notFound, readJson, requireActor, route, routeInputs, refuseBody } from '../../../../lib/server/http';
-import { getPart, partInputSchema, retirePart, updatePart } from '../../../../lib/server/services/catalog';
+import { partNumberSchema } from '~/lib/domain/schemas';
+import { notFound, readJson, requireActor, route, routeInputs, refuseBody } from '~/lib/server/http';
+import { getPart, partInputSchema, retirePart, updatePart } from '~/lib/server/services/catalog';
 
 function partNumber(raw: string | undefined): string {
   const parsed = partNumberSchema.safeParse(raw);

@@ -1,5 +1,5 @@
-import { json, parseParams, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
-import { createPart, listParts, partInputSchema, partListQuerySchema } from '../../../../lib/server/services/catalog';
+import { json, parseParams, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { createPart, listParts, partInputSchema, partListQuerySchema } from '~/lib/server/services/catalog';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: partInputSchema } });

@@ -1,5 +1,5 @@
-import { parseId, readJson, requireActor, route, routeInputs, refuseBody } from '../../../../lib/server/http';
-import { deleteDeck, getDeck, updateDeck, updateDeckSchema } from '../../../../lib/server/services/decks';
+import { parseId, readJson, requireActor, route, routeInputs, refuseBody } from '~/lib/server/http';
+import { deleteDeck, getDeck, updateDeck, updateDeckSchema } from '~/lib/server/services/decks';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ PATCH: { body: updateDeckSchema }, DELETE: {} });

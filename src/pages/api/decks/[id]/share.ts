@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { idParam, json, parseId, readIdQuery, readJson, refuseBody, requireActor, route, routeInputs } from '../../../../lib/server/http';
-import { createDeckShare, createDeckShareSchema, listDeckShares, revokeDeckShare } from '../../../../lib/server/services/decks';
+import { idParam, json, parseId, readIdQuery, readJson, refuseBody, requireActor, route, routeInputs } from '~/lib/server/http';
+import { createDeckShare, createDeckShareSchema, listDeckShares, revokeDeckShare } from '~/lib/server/services/decks';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({

@@ -1,11 +1,6 @@
 import { z } from 'zod';
-import { parseId, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
-import {
-  finishInspection,
-  getInspection,
-  updateInspection,
-  updateInspectionSchema,
-} from '../../../../lib/server/services/inspections';
+import { parseId, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { finishInspection, getInspection, updateInspection, updateInspectionSchema } from '~/lib/server/services/inspections';
 
 const actionSchema = z.object({
   action: z.literal('finish', { error: 'the only action is "finish"' }),

@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { parseId, parseParams, requireActor, route } from '../../../../lib/server/http';
-import { compareVersions } from '../../../../lib/server/services/layouts';
+import { parseId, parseParams, requireActor, route } from '~/lib/server/http';
+import { compareVersions } from '~/lib/server/services/layouts';
 
 const compareQuery = z.object({
   a: z.coerce.number({ error: 'give version numbers ?a=1&b=2' }).int().min(1),

@@ -1,5 +1,5 @@
-import { readJson, requireActor, route, parseId, json, routeInputs } from '../../../../lib/server/http';
-import { layoutWithCurrent, saveVersion, saveVersionSchema } from '../../../../lib/server/services/layouts';
+import { readJson, requireActor, route, parseId, json, routeInputs } from '~/lib/server/http';
+import { layoutWithCurrent, saveVersion, saveVersionSchema } from '~/lib/server/services/layouts';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ PUT: { body: saveVersionSchema } });

@@ -1,5 +1,5 @@
-import { json, parseId, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
-import { restoreSchema, restoreVersion } from '../../../../lib/server/services/layouts';
+import { json, parseId, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { restoreSchema, restoreVersion } from '~/lib/server/services/layouts';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: restoreSchema } });

@@ -1,6 +1,6 @@
-import { parseId, readJson, requireActor, route, routeInputs, refuseBody } from '../../../../lib/server/http';
-import { deleteMachine, updateMachine, updateMachineSchema } from '../../../../lib/server/services/machines';
-import { machineOverview } from '../../../../lib/server/services/installed';
+import { parseId, readJson, requireActor, route, routeInputs, refuseBody } from '~/lib/server/http';
+import { deleteMachine, updateMachine, updateMachineSchema } from '~/lib/server/services/machines';
+import { machineOverview } from '~/lib/server/services/installed';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ PUT: { body: updateMachineSchema }, DELETE: {} });

@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { json, parseId, parseParams, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
-import { listInspectionsForMachine, startInspection, startInspectionSchema } from '../../../../lib/server/services/inspections';
+import { json, parseId, parseParams, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { listInspectionsForMachine, startInspection, startInspectionSchema } from '~/lib/server/services/inspections';
 
 const pageQuery = z.object({
   page: z.coerce.number().int().min(1).max(100_000).default(1),

@@ -1,5 +1,5 @@
-import { parseId, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
-import { getInstalled, putInstalled, putInstalledSchema } from '../../../../lib/server/services/installed';
+import { parseId, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { getInstalled, putInstalled, putInstalledSchema } from '~/lib/server/services/installed';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ PUT: { body: putInstalledSchema } });

@@ -1,5 +1,5 @@
-import { json, readJson, requireActor, route, parseId, parseParams, routeInputs } from '../../../../lib/server/http';
-import { createLayout, createLayoutSchema, layoutListQuerySchema, listLayoutsForMachine } from '../../../../lib/server/services/layouts';
+import { json, readJson, requireActor, route, parseId, parseParams, routeInputs } from '~/lib/server/http';
+import { createLayout, createLayoutSchema, layoutListQuerySchema, listLayoutsForMachine } from '~/lib/server/services/layouts';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: createLayoutSchema } });

@@ -1,11 +1,5 @@
-import { json, parseId, parseParams, readJson, requireActor, route, routeInputs } from '../../../../lib/server/http';
-import {
-  recordLossCheck,
-  recordLossCheckSchema,
-  seasonCsv,
-  seasonLog,
-  seasonQuerySchema,
-} from '../../../../lib/server/services/field-checks';
+import { json, parseId, parseParams, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { recordLossCheck, recordLossCheckSchema, seasonCsv, seasonLog, seasonQuerySchema } from '~/lib/server/services/field-checks';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: recordLossCheckSchema } });

@@ -1,4 +1,4 @@
-import { parseId, parseParams, readJson, requireActor, route, routeInputs, refuseBody } from '../../../../lib/server/http';
+import { parseId, parseParams, readJson, requireActor, route, routeInputs, refuseBody } from '~/lib/server/http';
 import { z } from 'zod';
 import {
   csvFileName,
@@ -7,7 +7,7 @@ import {
   partsRequestCsv,
   updatePartsRequest,
   updatePartsRequestSchema,
-} from '../../../../lib/server/services/parts-requests';
+} from '~/lib/server/services/parts-requests';
 
 const formatSchema = z.object({ format: z.enum(['json', 'csv']).default('json') });
 

@@ -1,5 +1,5 @@
-import { readJson, requireActor, route, parseId, routeInputs } from '../../../../lib/server/http';
-import { advancePartsRequest, statusChangeSchema } from '../../../../lib/server/services/parts-requests';
+import { readJson, requireActor, route, parseId, routeInputs } from '~/lib/server/http';
+import { advancePartsRequest, statusChangeSchema } from '~/lib/server/services/parts-requests';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: statusChangeSchema } });

@@ -1,5 +1,5 @@
-import { requireActor, route, parseId, routeInputs, refuseBody } from '../../../../lib/server/http';
-import { submitPartsRequest } from '../../../../lib/server/services/parts-requests';
+import { requireActor, route, parseId, routeInputs, refuseBody } from '~/lib/server/http';
+import { submitPartsRequest } from '~/lib/server/services/parts-requests';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: {} });

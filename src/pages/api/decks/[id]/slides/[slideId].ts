@@ -1,5 +1,5 @@
-import { parseId, readJson, requireActor, route, routeInputs, refuseBody } from '../../../../../lib/server/http';
-import { deleteSlide, getSlide, updateSlide, updateSlideSchema } from '../../../../../lib/server/services/decks';
+import { parseId, readJson, requireActor, route, routeInputs, refuseBody } from '~/lib/server/http';
+import { deleteSlide, getSlide, updateSlide, updateSlideSchema } from '~/lib/server/services/decks';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ PATCH: { body: updateSlideSchema }, DELETE: {} });

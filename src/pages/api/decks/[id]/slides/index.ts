@@ -1,5 +1,5 @@
-import { json, parseId, readJson, requireActor, route, routeInputs } from '../../../../../lib/server/http';
-import { addSlide, addSlideSchema, getDeck, reorderSlides, reorderSlidesSchema } from '../../../../../lib/server/services/decks';
+import { json, parseId, readJson, requireActor, route, routeInputs } from '~/lib/server/http';
+import { addSlide, addSlideSchema, getDeck, reorderSlides, reorderSlidesSchema } from '~/lib/server/services/decks';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { body: addSlideSchema }, PUT: { body: reorderSlidesSchema } });

@@ -1,6 +1,6 @@
 import { z } from 'zod';
-import { requireActor, route, parseId, parseParams } from '../../../../../lib/server/http';
-import { getVersion } from '../../../../../lib/server/services/layouts';
+import { requireActor, route, parseId, parseParams } from '~/lib/server/http';
+import { getVersion } from '~/lib/server/services/layouts';
 
 export const GET = route(async (ctx) => {
   const actor = requireActor(ctx);

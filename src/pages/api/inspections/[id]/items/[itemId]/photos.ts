@@ -1,5 +1,5 @@
-import { json, parseId, requireActor, route, routeInputs } from '../../../../../../lib/server/http';
-import { addPhoto, photoTarget, photoUploadSchema, readPhotoUpload } from '../../../../../../lib/server/services/photos';
+import { json, parseId, requireActor, route, routeInputs } from '~/lib/server/http';
+import { addPhoto, photoTarget, photoUploadSchema, readPhotoUpload } from '~/lib/server/services/photos';
 
 /** What each write handler reads (see RouteInputs in lib/server/http). */
 export const inputs = routeInputs({ POST: { multipart: photoUploadSchema } });
