@@ -24,13 +24,13 @@ describe('to-alias-imports', () => {
   it('rewrites every kind of import and nothing that is only a path', () => {
     const file = at('tests/unit/server/x.test.ts');
     const before = [
-      "import { a } from '~/lib/domain/a';",
-      'import type { B } from "~/lib/domain/b";',
-      "export * from '~/lib/c';",
+      "import { a } from '../../../src/lib/domain/a';",
+      'import type { B } from "../../../src/lib/domain/b";',
+      "export * from '../../../src/lib/c';",
       "import '../../../src/styles/global.css';",
-      "const d = await import('~/lib/server/db');",
-      "vi.mock('~/lib/server/mail', () => ({}));",
-      "import {\n  e,\n  f,\n} from '~/lib/e';",
+      "const d = await import('../../../src/lib/server/db');",
+      "vi.mock('../../../src/lib/server/mail', () => ({}));",
+      "import {\n  e,\n  f,\n} from '../../../src/lib/e';",
       "import { g } from './g';",
       "import { h } from '../../integration/client';",
       "const url = new URL('../../../src/lib/domain/diff.ts', import.meta.url);",
