@@ -102,6 +102,8 @@ function filesUnder(dir: string): string[] {
   return out;
 }
 
+const round1 = (n: number) => Math.round(n * 10) / 10;
+
 describe('inspections with photos in an S3-compatible bucket', () => {
   let s3: { endpoint: string; bucket: string; stop: () => Promise<void> };
   let s3Dir: string;
@@ -351,7 +353,14 @@ describe('inspections with photos in an S3-compatible bucket', () => {
     const ok = await tech.patch(`/api/inspections/${insp.id}`, {
       items: [
         { id: el.id, conditions: ['wires-missing', 'edge-wear'], measurements: { wearMm: 7.2 }, note: 'Front wires gone' },
-        { id: survey.id, measurements: { 'clearance:1:left:front': 20, 'clearance:1:right:front': 26 } },
+        // Left and right 1.2 tolerances apart, each within a tolerance of the set clearance: uneven side to side only.
+        {
+          id: survey.id,
+          measurements: {
+            'clearance:1:left:front': round1(survey.measurements.setClearanceMm - 0.6 * survey.measurements.toleranceMm),
+            'clearance:1:right:front': round1(survey.measurements.setClearanceMm + 0.6 * survey.measurements.toleranceMm),
+          },
+        },
       ],
     });
     expect(ok.status).toBe(200);
