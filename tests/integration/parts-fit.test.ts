@@ -146,4 +146,33 @@ describe('a parts request for a layout that does not fit', () => {
     const mail = (await mailbox(admin)).messages.find((m) => m.subject.includes(res.body.number))!;
     expect(mail.text).not.toContain('DOES NOT FIT');
   });
+
+  it('is checked again at submit: a blocks-fit finding the override did not cover (the catalog changed) refuses the send, nothing written or mailed', async () => {
+    const made = await tomas.post('/api/parts-requests', { from: 'layout', layoutId: unfitId, overrideReason: REASON });
+    expect(made.status).toBe(201);
+    // The part at position 1, left (and, wrongly, at position 1, right) is said to fit the separating zone only.
+    const body = (await olive.get(`/api/layouts/${unfitId}`)).body.current.body;
+    const pn: string = body.elements.find((e: { position: number; side: string }) => e.position === 1 && e.side === 'left').partNumber;
+    const original = (await noor.get(`/api/catalog/parts/${pn}`)).body.part;
+    const put = (spec: unknown) =>
+      noor.put(`/api/catalog/parts/${pn}`, { familyId: original.familyId, active: original.active, part: spec });
+    expect((await put({ ...original.spec, zones: ['separating'] })).status).toBe(200);
+    try {
+      const mails = (await mailbox(admin)).total;
+      const before = await digests();
+      const res = await olive.post(`/api/parts-requests/${made.body.id}/submit`);
+      expect(res.status, JSON.stringify(res.body)).toBe(409);
+      expect(res.body.error.field).toBe('fit');
+      const codes = res.body.error.findings.map((f: { code: string }) => f.code);
+      expect(codes.length).toBeGreaterThan(0);
+      expect(new Set(codes)).toEqual(new Set(['FIT_ZONE_FORBIDDEN']));
+      expect(await digests()).toEqual(before);
+      expect((await mailbox(admin)).total).toBe(mails);
+      expect((await olive.get(`/api/parts-requests/${made.body.id}`)).body.status).toBe('draft');
+    } finally {
+      expect((await put(original.spec)).status).toBe(200);
+    }
+    // The catalog as it was: the override covers what is left, and it goes.
+    expect((await olive.post(`/api/parts-requests/${made.body.id}/submit`)).status).toBe(200);
+  });
 });

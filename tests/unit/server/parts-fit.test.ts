@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { demoCatalog, starterLayout, tamarackM4, type Layout } from '~/lib/domain';
 import type { Actor } from '~/lib/server/access';
 import { HttpError } from '~/lib/server/http';
-import { blockingFindings, judgeFit, uncoveredAtSubmit } from '~/lib/server/services/parts-requests/fit';
+import { blockingFindings, judgeFit, refuseAtSubmit, uncoveredAtSubmit } from '~/lib/server/services/parts-requests/fit';
 
 const actor = (role: Actor['role']): Actor => ({
   id: '00000000-0000-4000-8000-000000000001',
@@ -96,6 +96,13 @@ describe('checking again at submit', () => {
   it('without an override every blocks-fit finding stops it; a layout that fits goes', () => {
     expect(uncoveredAtSubmit(findings, null)).toEqual(findings);
     expect(uncoveredAtSubmit([], null)).toEqual([]);
+  });
+
+  it('the refusal at submit is a 409 naming fit and the findings', () => {
+    const e = refuseAtSubmit([other]);
+    expect(e.status).toBe(409);
+    expect(e.field).toBe('fit');
+    expect(e.extra).toEqual({ findings: [other] });
   });
 
   it('the same code at another place is not covered', () => {

@@ -9,7 +9,7 @@
  *
  * At submit the kept layout is checked again against today's rules and catalog: a blocks-fit
  * finding that the override did not cover (a rule or catalog changed meanwhile) refuses the send
- * with the same 409, and nothing is written or mailed.
+ * with a 409 naming `fit` and the findings, and nothing is written or mailed.
  */
 import type { PartsRequestFitFinding, PartsRequestFitOverride } from '~/db/schema';
 import { checkLayout } from '~/lib/domain';
@@ -37,8 +37,8 @@ const findingKey = (f: PartsRequestFitFinding) => `${f.code}|${f.places.join(';'
 export const fitFindingWords = (f: PartsRequestFitFinding) =>
   `${f.title} (${f.code})${f.places.length ? ` at ${f.places.join(', ')}` : ''}`;
 
-function refuse(findings: PartsRequestFitFinding[], message: string): HttpError {
-  return new HttpError(409, message, 'overrideReason', { findings });
+function refuse(findings: PartsRequestFitFinding[], message: string, field = 'overrideReason'): HttpError {
+  return new HttpError(409, message, field, { findings });
 }
 
 /**
@@ -80,5 +80,6 @@ export function refuseAtSubmit(findings: PartsRequestFitFinding[]): HttpError {
   return refuse(
     findings,
     `The layout this request was made for does not fit any more: ${findings.map(fitFindingWords).join('; ')}. Nothing was sent; make a new request from the corrected layout (a technician may order anyway with a reason).`,
+    'fit',
   );
 }
