@@ -28,10 +28,5 @@ export const NAV: readonly NavItem[] = [
 
 export const navFor = (role: Role): NavItem[] => NAV.filter((item) => !item.action || can(role, item.action));
 
-export const ROLE_LABEL: Record<Role, string> = {
-  operator: 'Operator',
-  technician: 'Service technician',
-  trainer: 'Trainer',
-  dealer_admin: 'Dealer administrator',
-  instance_admin: 'Instance administrator',
-};
+/** Role names as people read them (kept beside the permission table). */
+export { ROLE_LABEL } from '~/lib/server/access';

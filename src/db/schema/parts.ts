@@ -1,6 +1,7 @@
 import { pgTable, text, uuid, timestamp, jsonb, index } from 'drizzle-orm/pg-core';
 import { organisations, users } from './orgs';
 import { machines } from './fleet';
+import type { Layout } from '~/lib/domain/schemas';
 
 /** `sending`: claimed for sending, until the mail server accepts (then `sent`) or fails (back to `draft`). */
 export const partsRequestStatuses = ['draft', 'sending', 'sent', 'acknowledged', 'ready', 'picked-up'] as const;
@@ -18,6 +19,26 @@ export interface PartsRequestSettings {
   rotorRpm: number;
   clearanceMm: number;
   vaneSetting: string;
+}
+
+/** A blocks-fit finding as it stood when a request was made or sent: code, title and its places in words. */
+export interface PartsRequestFitFinding {
+  code: string;
+  title: string;
+  places: string[];
+}
+
+/**
+ * A technician's or administrator's decision to order for a layout that does not fit: why, who,
+ * when, and the blocks-fit findings it covered.
+ */
+export interface PartsRequestFitOverride {
+  reason: string;
+  byUserId: string;
+  byName: string;
+  byRole: string;
+  at: string;
+  findings: PartsRequestFitFinding[];
 }
 
 /** A bill of materials sent from a farm to its dealer's parts desk. */
@@ -38,6 +59,10 @@ export const partsRequests = pgTable(
     note: text('note').notNull().default(''),
     /** Settings of the layout it was made for (plan or layout requests); shown in the reader's units. */
     settings: jsonb('settings').$type<PartsRequestSettings>(),
+    /** The layout the lines were worked out for (layout and plan requests), checked again at submit. */
+    fitLayout: jsonb('fit_layout').$type<Layout>(),
+    /** Set when the layout had blocks-fit findings and someone allowed to gave a reason to order anyway. */
+    fitOverride: jsonb('fit_override').$type<PartsRequestFitOverride>(),
     createdBy: uuid('created_by').references(() => users.id),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),

@@ -48,6 +48,11 @@ const TABLE = {
   'inspections.write': HANDS,
   /** Draft, edit and send parts requests (and see the parts-request pages). */
   'parts.request': HANDS,
+  /**
+   * Order parts for a layout with blocks-fit findings, giving a reason (kept on the request).
+   * The instance administrator makes no parts requests, so only the dealer's people.
+   */
+  'parts.overrideFit': ['technician', 'dealer_admin'],
   /** The dealer's parts desk: move a request along its workflow. */
   'parts.desk': ['technician', 'dealer_admin'],
   'lossChecks.write': ['operator', 'technician'],
@@ -96,3 +101,12 @@ export const isInstanceAdmin = (actor: Pick<Actor, 'role'>): boolean => actor.ro
 export function dealerOf(actor: Pick<Actor, 'homeOrgId' | 'homeOrgKind'>): string | null {
   return actor.homeOrgKind === 'dealer' ? actor.homeOrgId : null;
 }
+
+/** Each role as people read it: the page header, the home page, request sheets and e-mails. */
+export const ROLE_LABEL: Record<Role, string> = {
+  operator: 'Operator',
+  technician: 'Service technician',
+  trainer: 'Trainer',
+  dealer_admin: 'Dealer administrator',
+  instance_admin: 'Instance administrator',
+};

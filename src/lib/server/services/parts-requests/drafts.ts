@@ -5,10 +5,18 @@
 import { and, eq, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, type Db } from '~/lib/server/db';
-import { families, machines, organisations, partsRequests, type PartsRequestLine, type PartsRequestSettings } from '~/db/schema';
+import {
+  families,
+  machines,
+  organisations,
+  partsRequests,
+  type PartsRequestFitOverride,
+  type PartsRequestLine,
+  type PartsRequestSettings,
+} from '~/db/schema';
 import { formatLength, mm, type UnitSystem } from '~/lib/domain/units';
 import { indexCatalog } from '~/lib/domain/catalog';
-import type { CatalogPart, Layout } from '~/lib/domain/schemas';
+import type { CatalogPart, Layout, MachineFamily } from '~/lib/domain/schemas';
 import { billOfMaterials, bomLine } from '~/lib/domain/planner';
 import { can, rolesFor, type Actor } from '~/lib/server/access';
 import { audit } from '~/lib/server/audit';
@@ -16,6 +24,7 @@ import { HttpError, whenNotFound } from '~/lib/server/http';
 import { getVersion, getLayout } from '~/lib/server/services/layouts';
 import { catalogForFamily, installedLayout, machineForActor } from '~/lib/server/services/machines';
 import { proposePlan, requirePlan, shelfOf } from '~/lib/server/services/planner';
+import { blockingFindings, judgeFit } from './fit';
 import { type Row, rowForActor } from './rows';
 import { type CreatePartsRequest, type LineInput, MAX_QTY, updatePartsRequestSchema } from './schemas';
 import { type PartsRequestSource, STATUS_WORDS } from './statuses';
@@ -101,6 +110,9 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
   let detail: Record<string, unknown> = {};
   let autoNote = '';
   let settings: PartsRequestSettings | null = null;
+  /** The layout the lines are for (plan and layout requests), and the override if it does not fit. */
+  let fitLayout: Layout | null = null;
+  let fitOverride: PartsRequestFitOverride | null = null;
   if (input.from === 'plan') {
     const proposal = await proposePlan(actor, input);
     const plan = requirePlan(proposal.plan);
@@ -114,6 +126,8 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
       unitPriceCents: p.unitPriceCents,
     }));
     if (!lines.length) throw new HttpError(422, `${NOTHING_TO_ORDER} The plan buys nothing.`, 'crop');
+    fitLayout = plan.layout;
+    fitOverride = judgeFit(actor, blockingFindings(proposal.family, proposal.catalog, plan.layout), input.overrideReason);
     detail = { crop: input.crop, mode: input.mode, fingerprint: plan.fingerprint };
     settings = settingsOf(plan.layout);
     autoNote = `For the change to ${input.crop.replace('-', ' ')} on ${proposal.machine.nickname}.`;
@@ -140,6 +154,8 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
       unitPriceCents: l.unitPriceCents,
     }));
     if (!lines.length) throw new HttpError(422, `${NOTHING_TO_ORDER} The layout adds no parts.`, 'layoutId');
+    fitLayout = version.body;
+    fitOverride = judgeFit(actor, blockingFindings(family, catalog, version.body), input.overrideReason);
     machineId = machine.id;
     orgId = machine.orgId;
     detail = { layoutId: layout.id, version: version.version };
@@ -164,11 +180,23 @@ export async function createPartsRequest(actor: Actor, input: CreatePartsRequest
         status: 'draft',
         lines,
         settings,
+        fitLayout,
+        fitOverride,
         note: input.note || autoNote,
         createdBy: actor.id,
       })
       .returning({ id: partsRequests.id });
     await audit(tx, actor, 'create', 'parts-request', row!.id, { source: input.from, lines: lines.length, ...detail }, orgId);
+    if (fitOverride)
+      await audit(
+        tx,
+        actor,
+        'override-fit',
+        'parts-request',
+        row!.id,
+        { reason: fitOverride.reason, findings: fitOverride.findings.map((f) => ({ code: f.code, places: f.places })), ...detail },
+        orgId,
+      );
     return row!.id;
   });
   return getPartsRequest(actor, id);
@@ -239,18 +267,18 @@ export function assertWriter(actor: Actor) {
   if (!can(actor, 'parts.request')) throw new HttpError(403, `This needs one of these roles: ${rolesFor('parts.request').join(', ')}.`);
 }
 
-/** The catalog a request's lines are checked against: its machine's family. */
-async function catalogOfRequest(row: Row): Promise<{ catalog: CatalogPart[]; familyName: string }> {
+/** The catalog a request's lines are checked against: its machine's family (and that family, for the fit check at submit). */
+export async function catalogOfRequest(row: Row): Promise<{ catalog: CatalogPart[]; familyName: string; family: MachineFamily | null }> {
   const db = await getDb();
-  if (!row.machineId) return { catalog: [], familyName: 'this machine' };
+  if (!row.machineId) return { catalog: [], familyName: 'this machine', family: null };
   const [m] = await db
-    .select({ familyId: machines.familyId, familyName: families.name })
+    .select({ familyId: machines.familyId, familyName: families.name, family: families.spec })
     .from(machines)
     .innerJoin(families, eq(families.id, machines.familyId))
     .where(eq(machines.id, row.machineId))
     .limit(1);
-  if (!m) return { catalog: [], familyName: 'this machine' };
-  return { catalog: await catalogForFamily(m.familyId, undefined, row.orgId), familyName: m.familyName };
+  if (!m) return { catalog: [], familyName: 'this machine', family: null };
+  return { catalog: await catalogForFamily(m.familyId, undefined, row.orgId), familyName: m.familyName, family: m.family };
 }
 
 export async function updatePartsRequest(actor: Actor, id: string, input: z.infer<typeof updatePartsRequestSchema>) {

@@ -23,6 +23,7 @@ export {
   lineInputSchema,
   type LineInput,
   createPartsRequestSchema,
+  overrideReasonSchema,
   type CreatePartsRequest,
   updatePartsRequestSchema,
   statusChangeSchema,
@@ -38,6 +39,7 @@ export {
   deletePartsRequest,
 } from './drafts';
 export { partsRequestCsv, csvFileName } from './csv';
+export { fitFindingWords } from './fit';
 export { submitPartsRequest, STUCK_SEND_REASON, recoverStuckSends } from './sending';
 export { advancePartsRequest } from './desk';
 export { requestLayoutChoices } from './choices';

@@ -13,9 +13,33 @@ export const lineInputSchema = z.object({
 });
 export type LineInput = z.infer<typeof lineInputSchema>;
 
+/**
+ * Why parts are ordered for a layout that does not fit (blocks-fit findings): technicians and
+ * administrators only (`parts.overrideFit`), 10 to 500 characters once trimmed.
+ */
+export const overrideReasonSchema = z
+  .string()
+  .trim()
+  .min(10, { error: 'give a reason of at least 10 characters' })
+  .max(500, { error: 'at most 500 characters' })
+  .optional();
+
 export const createPartsRequestSchema = z.discriminatedUnion('from', [
-  z.object({ from: z.literal('plan'), machineId: z.uuid(), crop: cropIdSchema, mode: planModeSchema.default('program'), note }),
-  z.object({ from: z.literal('layout'), layoutId: z.uuid(), version: z.int32().min(1).optional(), note }),
+  z.object({
+    from: z.literal('plan'),
+    machineId: z.uuid(),
+    crop: cropIdSchema,
+    mode: planModeSchema.default('program'),
+    note,
+    overrideReason: overrideReasonSchema,
+  }),
+  z.object({
+    from: z.literal('layout'),
+    layoutId: z.uuid(),
+    version: z.int32().min(1).optional(),
+    note,
+    overrideReason: overrideReasonSchema,
+  }),
   z.object({ from: z.literal('manual'), machineId: z.uuid(), lines: z.array(lineInputSchema).min(1).max(100), note }),
 ]);
 export type CreatePartsRequest = z.infer<typeof createPartsRequestSchema>;

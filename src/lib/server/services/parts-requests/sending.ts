@@ -5,13 +5,14 @@
 import { and, eq, sql } from 'drizzle-orm';
 import { getDb, type Db } from '~/lib/server/db';
 import { partsRequests } from '~/db/schema';
-import type { Actor } from '~/lib/server/access';
+import { ROLE_LABEL, type Actor } from '~/lib/server/access';
 import { audit } from '~/lib/server/audit';
 import { HttpError } from '~/lib/server/http';
 import { mailDeadlineMs, sendMail } from '~/lib/server/services/mail';
 import { csvFileName, partsRequestCsv } from './csv';
-import { requestSettingsWords } from './drafts';
-import { formatMoney, formatNumber } from '~/lib/domain/format';
+import { catalogOfRequest, requestSettingsWords } from './drafts';
+import { blockingFindings, fitFindingWords, refuseAtSubmit, uncoveredAtSubmit } from './fit';
+import { DEFAULT_LOCALE, formatDateTime, formatMoney, formatNumber } from '~/lib/domain/format';
 import { assertDraft, assertWriter } from './drafts';
 import { rowForActor } from './rows';
 import { SOURCE_WORDS } from './statuses';
@@ -33,6 +34,7 @@ function mailText(view: PartsRequestView, actor: Actor, link: string): string {
     `Made from:    ${SOURCE_WORDS[view.source]}`,
     ...(view.note ? [`Note:         ${view.note.replace(/\n/g, '\n              ')}`] : []),
     ...(view.settings ? [`Settings:     ${requestSettingsWords(view.settings, actor.unitSystem)} (after fitting)`] : []),
+    ...(view.fitOverride ? ['', ...fitOverrideMailLines(view.fitOverride)] : []),
     '',
     `  Qty   Part number    Hand       Unit ${view.currency}   Line ${view.currency}  Description`,
     ...rows,
@@ -42,6 +44,18 @@ function mailText(view: PartsRequestView, actor: Actor, link: string): string {
     `Open the request: ${link}`,
     'The attached CSV file lists the same lines.',
   ].join('\n');
+}
+
+/** The override in the mail to the parts desk: the layout does not fit, who ordered anyway, why, and the findings. */
+function fitOverrideMailLines(o: NonNullable<PartsRequestView['fitOverride']>): string[] {
+  const role = ROLE_LABEL[o.byRole as keyof typeof ROLE_LABEL] ?? o.byRole;
+  return [
+    'ORDERED FOR A LAYOUT THAT DOES NOT FIT',
+    `Override by:  ${o.byName} (${role.toLowerCase()}), ${formatDateTime(o.at, { locale: DEFAULT_LOCALE })}`,
+    `Reason:       ${o.reason.replace(/\n/g, '\n              ')}`,
+    'Findings:',
+    ...o.findings.map((f) => `  - ${fitFindingWords(f)}`),
+  ];
 }
 
 /** Why a send failed, in the words the request page and the API show. */
@@ -66,6 +80,12 @@ export async function submitPartsRequest(actor: Actor, id: string, origin: strin
   assertDraft(row, 'sent');
   const view = await viewOf(actor, row, db);
   if (!view.lines.length) throw new HttpError(400, 'lines: the request has no parts to order', 'lines');
+  if (row.fitLayout) {
+    // The kept layout, checked again with today's rules and catalog (see fit.ts).
+    const { catalog, family } = await catalogOfRequest(row);
+    const uncovered = family ? uncoveredAtSubmit(blockingFindings(family, catalog, row.fitLayout), row.fitOverride ?? null) : [];
+    if (uncovered.length) throw refuseAtSubmit(uncovered);
+  }
   const desk = view.dealer?.partsDeskEmail;
   if (!desk) throw new HttpError(422, `${view.org.name} has no dealer parts desk to send to; ask an administrator to set one.`, 'dealer');
 

@@ -2,7 +2,16 @@
 import { and, desc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, type Db } from '~/lib/server/db';
-import { families, machines, organisations, partsRequests, users, type PartsRequestLine, type PartsRequestSettings } from '~/db/schema';
+import {
+  families,
+  machines,
+  organisations,
+  partsRequests,
+  users,
+  type PartsRequestFitOverride,
+  type PartsRequestLine,
+  type PartsRequestSettings,
+} from '~/db/schema';
 import { DEFAULT_CURRENCY } from '~/lib/domain/format';
 import type { Actor } from '~/lib/server/access';
 import { permissions } from './permissions';
@@ -25,6 +34,8 @@ export interface PartsRequestView {
   currency: string;
   /** What the layout it was made for asks of the machine (plan and layout requests). */
   settings: PartsRequestSettings | null;
+  /** Set when a technician or administrator ordered for a layout with blocks-fit findings: why, who, when, which findings. */
+  fitOverride: PartsRequestFitOverride | null;
   totalQuantity: number;
   note: string;
   createdAt: Date;
@@ -82,6 +93,7 @@ export async function viewOf(actor: Actor, row: Row, db: Db): Promise<PartsReque
     totalCents: lines.reduce((s, l) => s + l.lineTotalCents, 0),
     currency: dealer?.currency ?? DEFAULT_CURRENCY,
     settings: row.settings ?? null,
+    fitOverride: row.fitOverride ?? null,
     totalQuantity: lines.reduce((s, l) => s + l.quantity, 0),
     note: row.note,
     createdAt: row.createdAt,
