@@ -10,15 +10,23 @@ test('plan a crop change, accept it, make a parts request and send it; the desk 
 
   // The proposal beside what is installed, the cautions before the steps.
   await expect(page.getByTestId('plan-heading')).toHaveText('North Quarter: wheat → field peas');
-  await expect(page.getByTestId('plan-summary')).toContainText('4 parts to buy, 8 parts to take off, move or fit, 3 settings to change.');
+  await expect(page.getByTestId('plan-summary')).toContainText(
+    /4 parts to buy, about \d+ h( \d+ min)? of work, [\d.,]+ (kg|lb) lifted, 3 settings to change\./,
+  );
   await expect(page.getByTestId('cage-diagram')).toHaveCount(2);
   const cautions = page.getByTestId('work-cautions');
   await expect(cautions).toContainText('Engine off, key out');
   await expect(cautions).toContainText('operator’s manual');
   const steps = page.getByTestId('plan-steps').locator('li');
-  await expect(steps).toHaveCount(6);
-  await expect(steps.first()).toContainText('Take off the left-hand fine-wire element CW-FW-L-04 at position 1, left');
-  await expect(steps.last()).toContainText('Order 2 × CW-RB-R-04');
+  // Parts first (two orders and the wait), then four places emptied and filled one by one, then
+  // nine set-and-verify steps ending with the loss check.
+  await expect(steps).toHaveCount(2 + 1 + 8 + 9);
+  await expect(steps.first()).toContainText('Order 2 × CW-RB-L-04');
+  await expect(steps.nth(2)).toContainText('Wait until every part on order has arrived');
+  await expect(steps.nth(3)).toContainText('Take off the left-hand fine-wire element CW-FW-L-04 at position 1, left');
+  await expect(steps.nth(4)).toContainText('Fit the left-hand round-bar element CW-RB-L-04 (new) at position 1, left');
+  await expect(steps.last()).toContainText('Check the losses in the first field');
+  await expect(steps.last().getByRole('link', { name: 'Open the field check' })).toHaveAttribute('href', '/field-check');
   const cautionsBox = await cautions.boundingBox();
   const firstStep = await steps.first().boundingBox();
   expect(cautionsBox!.y).toBeLessThan(firstStep!.y);

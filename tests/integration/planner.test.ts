@@ -30,8 +30,15 @@ describe('POST /api/plans', () => {
     expect(plan.cautions).toEqual(WORK_CAUTIONS);
     expect(plan.cautions.join(' ')).toMatch(/Engine off, key out/);
     expect(plan.cautions.join(' ')).toMatch(/operator’s manual/);
-    expect(plan.steps.map((s: any) => s.kind)).toEqual(['remove', 'remove', 'remove', 'remove', 'buy', 'buy']);
-    expect(plan.steps[0].text).toMatch(/^Take off the left-hand fine-wire element CW-FW-L-04 at position 1, left/);
+    // Parts first: the orders and the wait for them, then each place emptied and filled at once,
+    // then set and verify.
+    const work = (k: string) => plan.steps.filter((s: any) => s.phase === k).map((s: any) => s.kind);
+    expect(work('parts')).toEqual(['buy', 'buy', 'wait']);
+    expect(work('work')).toEqual(['remove', 'install', 'remove', 'install', 'remove', 'install', 'remove', 'install']);
+    expect(plan.steps[3].text).toMatch(/^Take off the left-hand fine-wire element CW-FW-L-04 at position 1, left/);
+    expect(plan.steps[4].text).toMatch(/^Fit the left-hand round-bar element CW-RB-L-04 \(new\) at position 1, left/);
+    expect(plan.steps.at(-1)).toMatchObject({ phase: 'verify', link: '/field-check' });
+    expect(plan.counts.effort).toMatchObject({ lifts: 8, rotorAccess: false });
     // The proposal passes every fit rule, checked again by the server's own check endpoint.
     const check = await olive.post('/api/check', { layout: plan.layout });
     expect(check.status).toBe(200);
@@ -50,7 +57,7 @@ describe('POST /api/plans', () => {
     expect(res.body.shelf).toMatchObject({ 'CW-FW-L-04': 1, 'CW-FW-R-04': 1 });
     const { plan } = res.body;
     expect(plan.counts).toMatchObject({ purchases: 0, fromShelf: 2, moves: 2 });
-    expect(plan.steps.map((s: any) => s.kind)).toEqual(['install', 'install']);
+    expect(plan.steps.filter((s: any) => s.phase !== 'verify').map((s: any) => s.kind)).toEqual(['fetch', 'fetch', 'install', 'install']);
   });
 
   it('follows the mode: parts on hand first never buys a cover plate the program would fit', async () => {

@@ -131,6 +131,8 @@ function element(
     // The left element is about 12.7 mm longer (common practice): a touch heavier.
     massKg: kgs(s.massKg * scale * (hand === 'left' ? 1.01 : 1)),
     priceCents: cents(s.priceCents * scale),
+    // Invented demo torque for the mounting bolts (not from any manual).
+    boltTorqueNm: 130,
   };
 }
 
@@ -156,6 +158,8 @@ function familyParts(family: MachineFamily, familyCode: string, plateMassKg: num
       slotted: true,
       massKg: plateMassKg,
       priceCents: 24_500,
+      // Invented demo torque (not from any manual).
+      boltTorqueNm: 45,
     });
   const bars: [string, 'rasp' | 'smooth-rasp' | 'spike-rasp' | 'straight' | 'discharge', string, number, number][] = [
     ['RS', 'rasp', 'Rasp bar', 6.8, 8_900],
@@ -173,6 +177,8 @@ function familyParts(family: MachineFamily, familyCode: string, plateMassKg: num
       barKind,
       massKg,
       priceCents,
+      // Invented demo torque (not from any manual).
+      boltTorqueNm: 95,
     });
   return parts;
 }

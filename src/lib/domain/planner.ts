@@ -1,8 +1,10 @@
 /**
  * The crop-change planner: from what is bolted in the machine now, the spares on the shelf and
- * a target crop, the layout for that crop with the fewest purchases first and the fewest parts
- * handled second — solved exactly (an assignment problem per kind of part, see planner/solve.ts)
- * — with every choice explained and the work listed in the order it is done, safety first.
+ * a target crop, the layout for that crop that spends least on purchases first, then takes the
+ * least effort (mass lifted and handling time, planner/effort.ts), then departs least from the crop
+ * program — solved exactly (an assignment problem per kind of part, see planner/solve.ts) — with
+ * every choice explained and the work listed in the order a crew can follow: parts first, one work
+ * session, then set and verify, safety first.
  *
  * Pure: the same call runs on the server, in a browser island and in tests.
  */
@@ -17,16 +19,21 @@ import type { CatalogPart, CropId, DrumId, Finding, Layout, MachineFamily, VaneC
 import { bomLine, fingerprint, type BomLine } from './planner/bom';
 import { WORK_CAUTIONS } from './planner/cautions';
 import { groupOf, solveGroup, type SlotOutcome, type SlotSource, type Unit } from './planner/solve';
-import { placeOrder, workSteps, type PlanStep, type Removal } from './planner/steps';
+import { number, placeOrder, workSteps, type PlanStep, type PurchaseAvailability, type Removal } from './planner/steps';
+import { effortOf, type Effort } from './planner/effort';
+import { finishSteps } from './planner/finish';
 import { buildTargets, elementFits, elementTrouble, type PlanMode, type SlotGroup, type SlotPlace, type Targets } from './planner/targets';
 import { cropAdjective, cropNoun, cropVerb, elementTypeName as elementWord, partNameWithHand as partWords, placeWords } from './vocabulary';
 import { capitalise, countOf, plural } from './words';
-import { formatLength, mm, type UnitSystem } from './units';
+import { formatLength, formatMass, kg, mm, type UnitSystem } from './units';
 
 export { WORK_CAUTIONS, ONE_PERSON_LIFT_KG } from './planner/cautions';
 export { billOfMaterials, bomLine, bomTotal, handOf, partCounts, fingerprint, type Bom, type BomLine } from './planner/bom';
 export { solveAssignment } from './planner/assignment';
-export type { PlanStep, StepKind } from './planner/steps';
+export type { PlanStep, StepKind, StepPhase, StepOp, PurchaseAvailability } from './planner/steps';
+export { availabilityWords } from './planner/steps';
+export { HANDLING_SECONDS, SECONDS_PER_KG, ROTOR_ACCESS_SECONDS, type Effort } from './planner/effort';
+export { FIELD_CHECK_PATH } from './planner/finish';
 export type { PlanMode, SlotPlace } from './planner/targets';
 
 export const planModeSchema = z.enum(['program', 'on-hand']);
@@ -45,6 +52,11 @@ export interface PlanInput {
   vaneControl?: VaneControl;
   /** The reader's unit system for the words of the setting changes (default metric). */
   units?: UnitSystem;
+  /**
+   * Where each purchase comes from, by part number, when known (dealer stock and lead time);
+   * without it a purchase is "to order" and the work waits for it.
+   */
+  availability?: Readonly<Record<string, PurchaseAvailability | undefined>>;
 }
 
 export interface PlanChoice {
@@ -85,6 +97,8 @@ export interface PlanCounts {
   purchases: number;
   /** Parts handled: taken off, moved, or fitted from the shelf or new. */
   moves: number;
+  /** The effort of the work: mass lifted and minutes (planner/effort.ts). */
+  effort: Effort;
   kept: number;
   moved: number;
   removed: number;
@@ -110,6 +124,8 @@ export interface PlanOk {
   notes: string[];
   /** Changes whenever the proposal would change (installed parts, shelf, catalog, crop). */
   fingerprint: string;
+  /** The reader's unit system the words were made in. */
+  units: UnitSystem;
 }
 
 export interface PlanImpossible {
@@ -303,6 +319,14 @@ export function planCropChange(input: PlanInput): Plan {
     fromShelf: count('shelf'),
     removed: removals.length,
     moves: removals.length + count('moved') + count('shelf') + count('buy'),
+    effort: effortOf([
+      ...removals.map((r) => ({ group: r.unit.at!.kind, massKg: r.unit.part?.massKg })),
+      ...outcomes.flatMap((o) => {
+        if (o.source !== 'moved' && o.source !== 'shelf' && o.source !== 'buy') return [];
+        const lift = { group: groupOf(o.candidate!.part), massKg: o.candidate!.part.massKg };
+        return o.source === 'moved' ? [lift, lift] : [lift];
+      }),
+    ]),
     purchaseCents: purchases.reduce((s, p) => s + p.lineTotalCents, 0),
   };
 
@@ -331,6 +355,7 @@ export function planCropChange(input: PlanInput): Plan {
     );
   if (!installed) notes.push('Nothing is recorded as installed in this machine, so every part is fitted from the shelf or bought.');
 
+  const settingList = settingChanges(installed, layout, input.units ?? 'metric');
   const removalList: PlanRemoval[] = removals
     .map((r) => ({ place: r.unit.at!, key: r.unit.atKey!, partNumber: r.unit.partNumber, why: capitalise(r.why) + '.' }))
     .sort((a, b) => placeOrder(a.place) - placeOrder(b.place));
@@ -344,8 +369,17 @@ export function planCropChange(input: PlanInput): Plan {
     removals: removalList,
     purchases,
     cautions: WORK_CAUTIONS,
-    steps: workSteps(outcomes, removals),
-    settings: settingChanges(installed, layout, input.units ?? 'metric'),
+    steps: steps(workSteps(outcomes, removals, { availability: input.availability }), settingList, () =>
+      finishSteps({
+        layout,
+        installed,
+        vaneControl,
+        fitted: outcomes.flatMap((o) => (o.source === 'moved' || o.source === 'shelf' || o.source === 'buy' ? [o.candidate!.part] : [])),
+        units: input.units ?? 'metric',
+      }),
+    ),
+    settings: settingList,
+    units: input.units ?? 'metric',
     counts,
     findings,
     notes,
@@ -353,12 +387,34 @@ export function planCropChange(input: PlanInput): Plan {
   };
 }
 
-/** Words for the plan's headline: "2 parts to buy, 8 to handle". */
+/** Parts and work steps, then set and verify; nothing at all when nothing changes. */
+function steps(work: PlanStep[], settings: readonly SettingChange[], finish: () => Omit<PlanStep, 'n'>[]): PlanStep[] {
+  if (work.length === 0 && settings.length === 0) return [];
+  return number([...work, ...finish()]);
+}
+
+/** "3 h 20 min", "45 min": a working time in words, rounded to the minute (5 minutes above an hour). */
+export function durationWords(seconds: number): string {
+  const minutes = Math.round(seconds / 60);
+  if (minutes < 60) return `${minutes} min`;
+  const rounded = Math.round(minutes / 5) * 5;
+  const h = Math.floor(rounded / 60);
+  const m = rounded % 60;
+  return m ? `${h} h ${m} min` : `${h} h`;
+}
+
+/** The effort in words: "about 3 h 20 min of work, 412.5 kg lifted". */
+export function effortWords(effort: Effort, units: UnitSystem = 'metric'): string {
+  if (effort.lifts === 0) return 'no part to take off, move or fit';
+  return `about ${durationWords(effort.seconds)} of work, ${formatMass(kg(effort.massKg), units)} lifted${effort.rotorAccess ? ' (rotor access included)' : ''}`;
+}
+
+/** Words for the plan's headline: "2 parts to buy, about 3 h 20 min of work, 412.5 kg lifted". */
 export function planSummaryWords(plan: PlanOk): string {
   const { purchases, moves } = plan.counts;
   const settings = plan.settings.length;
   const buy = purchases === 0 ? 'nothing to buy' : `${countOf(purchases, 'part')} to buy`;
-  const handle = moves === 0 ? 'no part to take off, move or fit' : `${countOf(moves, 'part')} to take off, move or fit`;
+  const handle = effortWords(plan.counts.effort, plan.units);
   const set = settings === 0 ? '' : `, ${countOf(settings, 'setting')} to change`;
   // "Nothing to change" only when the plan really changes nothing (no part and no setting).
   if (purchases === 0 && moves === 0 && settings === 0) return 'Nothing to buy, nothing to change.';

@@ -198,6 +198,8 @@ const partCommon = {
   massKg: z.number().positive().max(500),
   /** Unit price in cents of the catalog currency. */
   priceCents: z.int().min(0),
+  /** Tightening torque of the part's mounting bolts, N·m; absent: the operator's manual gives it. */
+  boltTorqueNm: z.number().positive().max(2000).optional(),
 };
 
 export const openingSchema = z.object({

@@ -39,12 +39,20 @@ describe('one rpm window everywhere', () => {
 });
 
 describe('plan headline', () => {
-  const plan = (purchases: number, moves: number, settings: number) =>
-    ({ counts: { purchases, moves }, settings: Array.from({ length: settings }, () => ({})) }) as unknown as PlanOk;
-  it('says "nothing to change" only when nothing changes', () => {
+  const plan = (purchases: number, lifts: number, settings: number, seconds = 0, massKg = 0, rotorAccess = false) =>
+    ({
+      counts: { purchases, moves: lifts, effort: { lifts, seconds, massKg, rotorAccess } },
+      settings: Array.from({ length: settings }, () => ({})),
+      units: 'metric',
+    }) as unknown as PlanOk;
+  it('says "nothing to change" only when nothing changes, and the effort in time and mass lifted', () => {
     expect(planSummaryWords(plan(0, 0, 0))).toBe('Nothing to buy, nothing to change.');
     expect(planSummaryWords(plan(0, 0, 2))).toBe('Nothing to buy, no part to take off, move or fit, 2 settings to change.');
-    expect(planSummaryWords(plan(1, 3, 1))).toBe('1 part to buy, 3 parts to take off, move or fit, 1 setting to change.');
+    expect(planSummaryWords(plan(1, 3, 1, 2460, 131.5))).toBe('1 part to buy, about 41 min of work, 131.5 kg lifted, 1 setting to change.');
+    // Above an hour the time is rounded to 5 minutes.
+    expect(planSummaryWords(plan(2, 12, 0, 3 * 3600 + 22 * 60, 412, true))).toBe(
+      '2 parts to buy, about 3 h 20 min of work, 412.0 kg lifted (rotor access included).',
+    );
   });
   it("takes the number from the language's plural rules (Intl.PluralRules), fractions included", () => {
     // English: only exactly 1 takes the singular (Unicode CLDR plural rules, "en").

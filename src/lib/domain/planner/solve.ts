@@ -5,22 +5,29 @@
  *
  * Rows are the target places; columns are the parts that could fill them — each part now on
  * the machine, each spare on the shelf (no more copies of a part number than places that take
- * it) — plus, per place, a private "buy the best part for it" column and, where the place may
- * stay empty, a private "leave empty" column. The cost of a pair is lexicographic:
+ * it) — plus, per place, a private "buy" column for each part that may go there and, where the
+ * place may stay empty, a private "leave empty" column. The cost of a pair is lexicographic:
  *
- *   1. purchases          (buying: 1)
- *   2. parts handled      (a part that stays: −1 against the baseline that every part on the
- *                          machine comes off once; moving one: 0; fitting a spare or a bought
- *                          part: 1) — so the total is "parts taken off, moved or fitted"
- *   3. departure from the crop program (the candidate's rank)
- *   4. price of what is bought
+ *   1. money spent on purchases (the price of what is bought)
+ *   2. number of parts bought (so a part priced at nothing still counts as a purchase)
+ *   3. effort, seconds (planner/effort.ts): against the baseline that every part on the machine
+ *      comes off once, a part that stays saves its lift; moving one, fitting a spare or a bought
+ *      part costs the lift at the new place
+ *   4. departure from the crop program (the candidate's rank)
  *
  * packed into one integer with weights large enough that no total of a lower tier reaches one
  * unit of a higher one. The Hungarian method then gives the exact optimum.
+ *
+ * The rotor access (a fixed time once any bar is touched, planner/effort.ts) is no sum over pairs,
+ * yet it needs no place here: leaving every bar as it is costs no money and no effort, so when
+ * that is allowed it is already the optimum of the bar group, and when it is not, every plan
+ * touches a bar and pays the same access. Adding it to the effort afterwards keeps the optimum
+ * exact.
  */
 import type { CatalogIndex } from '~/lib/domain/catalog';
 import type { CatalogPart } from '~/lib/domain/schemas';
 import { solveAssignment } from './assignment';
+import { groupOfKind, liftSeconds } from './effort';
 import type { Candidate, SlotGroup, SlotPlace, SlotTarget } from './targets';
 
 export interface Unit {
@@ -50,7 +57,7 @@ export interface GroupOutcome {
 }
 
 export function groupOf(part: CatalogPart): SlotGroup {
-  return part.kind === 'element' ? 'element' : part.kind === 'cover-plate' ? 'cover' : 'bar';
+  return groupOfKind(part.kind);
 }
 
 type Column =
@@ -90,30 +97,29 @@ export function solveGroup(
   }
   let maxRank = 0;
   let maxPrice = 0;
+  let maxLift = 0;
+  const lift = (part: CatalogPart) => liftSeconds(groupOf(part), part.massKg);
+  for (const c of columns) if (c.type === 'unit') maxLift = Math.max(maxLift, lift(c.unit.part));
   slots.forEach((s, row) => {
-    const best = s.candidates[0];
-    if (best) {
-      columns.push({ type: 'buy', row, candidate: best });
-      maxPrice = Math.max(maxPrice, best.part.priceCents);
+    for (const candidate of s.candidates) {
+      columns.push({ type: 'buy', row, candidate });
+      maxPrice = Math.max(maxPrice, candidate.part.priceCents);
+      maxLift = Math.max(maxLift, lift(candidate.part));
+      maxRank = Math.max(maxRank, candidate.rank);
     }
-    if (s.empty) columns.push({ type: 'empty', row, rank: s.empty.rank });
-    for (const c of s.candidates) maxRank = Math.max(maxRank, c.rank);
-    if (s.empty) maxRank = Math.max(maxRank, s.empty.rank);
+    if (s.empty) {
+      columns.push({ type: 'empty', row, rank: s.empty.rank });
+      maxRank = Math.max(maxRank, s.empty.rank);
+    }
   });
 
-  // Weights: each tier's whole range stays below one unit of the tier above.
-  let wPrice = 1;
-  let wRank = n * maxPrice + 1;
-  let wMove = (n * maxRank + 1) * wRank;
-  let wBuy = (2 * n + 1) * wMove;
-  if (wBuy * (n + 1) > SAFE) {
-    // Too large to stay exact: drop the price tier (a tie-break only).
-    wPrice = 0;
-    wRank = 1;
-    wMove = n * maxRank + 1;
-    wBuy = (2 * n + 1) * wMove;
-    if (wBuy * (n + 1) > SAFE) throw new RangeError(`planner: ${n} places are too many to solve exactly`);
-  }
+  // Weights: each tier's whole range stays below one unit of the tier above. Effort per row lies
+  // in [−maxLift, maxLift].
+  const wRank = 1;
+  const wEffort = n * maxRank + 1;
+  const wCount = (2 * n * maxLift + 1) * wEffort;
+  const wMoney = (n + 1) * wCount;
+  if (wMoney * (n * maxPrice + 1) > SAFE) throw new RangeError(`planner: ${n} places are too many to solve exactly`);
 
   const cost = (row: number, col: number): number => {
     const c = columns[col]!;
@@ -121,11 +127,13 @@ export function solveGroup(
       case 'unit': {
         const cand = accepts.get(c.unit.partNumber)?.get(row);
         if (!cand) return Infinity;
-        if (c.unit.source === 'shelf') return wMove + cand.rank * wRank;
-        return (c.unit.atKey === slots[row]!.key ? -wMove : 0) + cand.rank * wRank;
+        if (c.unit.source === 'shelf') return lift(c.unit.part) * wEffort + cand.rank * wRank;
+        return (c.unit.atKey === slots[row]!.key ? -1 : 1) * lift(c.unit.part) * wEffort + cand.rank * wRank;
       }
       case 'buy':
-        return c.row === row ? wBuy + wMove + c.candidate.rank * wRank + c.candidate.part.priceCents * wPrice : Infinity;
+        return c.row === row
+          ? c.candidate.part.priceCents * wMoney + wCount + lift(c.candidate.part) * wEffort + c.candidate.rank * wRank
+          : Infinity;
       case 'empty':
         return c.row === row ? c.rank * wRank : Infinity;
     }
@@ -149,8 +157,8 @@ export function solveGroup(
         return { slot, source: 'empty', candidate: null, unit: null };
     }
   });
-  columns.forEach((c, i) => {
-    if (c.type === 'unit' && c.unit.source === 'installed' && !used.has(i)) removed.push(c.unit);
-  });
+  const leftOver = columns.flatMap((c, i) => (c.type === 'unit' && c.unit.source === 'installed' && !used.has(i) ? [c.unit] : []));
+
+  removed.push(...leftOver);
   return { outcomes, removed };
 }
