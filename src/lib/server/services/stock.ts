@@ -1,8 +1,12 @@
-import { and, eq, inArray } from 'drizzle-orm';
+import { and, asc, eq, inArray } from 'drizzle-orm';
+import { z } from 'zod';
 import { getDb, type Db } from '~/lib/server/db';
-import { organisations, stock } from '~/db/schema';
-import type { Actor } from '~/lib/server/access';
-import { notFound } from '~/lib/server/http';
+import { catalogParts, organisations, stock } from '~/db/schema';
+import { dealerOf, type Actor } from '~/lib/server/access';
+import { audit } from '~/lib/server/audit';
+import { HttpError, notFound } from '~/lib/server/http';
+import type { DealerStockLine } from '~/lib/domain/planner/availability';
+import { pricingDealerOf } from './prices';
 
 export interface StockCount {
   /** On the shelf of the organisation that owns the machine. */
@@ -38,4 +42,97 @@ export async function stockForOrg(actor: Actor, orgId: string, db?: Db): Promise
     else c.dealer += r.quantity;
   }
   return out;
+}
+
+/**
+ * The dealer stock the planner reads for a machine's owner: its dealer's shelf and lead times,
+ * by part number. Only the owner's own dealer is read (a farm's dealer, or the dealer itself),
+ * never another. A dealer's own machine already counts its shelf as the owner's shelf, so the
+ * quantities come back as zero there (only the lead times stay).
+ */
+export async function dealerStockFor(orgId: string, db?: Db): Promise<Record<string, DealerStockLine>> {
+  const d = db ?? (await getDb());
+  const dealerId = await pricingDealerOf(orgId, d);
+  if (!dealerId) return {};
+  const rows = await d
+    .select({ partNumber: stock.partNumber, quantity: stock.quantity, leadDays: stock.leadDays })
+    .from(stock)
+    .where(eq(stock.orgId, dealerId));
+  const own = dealerId === orgId;
+  return Object.fromEntries(
+    rows.map((r) => [r.partNumber, { quantity: own ? 0 : Math.max(0, r.quantity), leadDays: r.leadDays }] as const),
+  );
+}
+
+/** The largest lead time a dealer may give: a year. */
+export const MAX_LEAD_DAYS = 365;
+
+export const setDealerStockSchema = z
+  .object({
+    quantity: z.int().min(0).max(100_000),
+    /** About how many days an order takes; null: not given. */
+    leadDays: z.int().min(0).max(MAX_LEAD_DAYS).nullable(),
+  })
+  .strict();
+export type SetDealerStock = z.infer<typeof setDealerStockSchema>;
+
+function ownDealer(actor: Actor): string {
+  const dealerId = dealerOf(actor);
+  if (!dealerId) throw new HttpError(403, 'Dealer stock belongs to dealers: only a dealer’s staff keep one.');
+  return dealerId;
+}
+
+export interface DealerStockItem {
+  partNumber: string;
+  name: string;
+  familyId: string;
+  active: boolean;
+  quantity: number;
+  leadDays: number | null;
+}
+
+/** The actor's dealer's stock: every catalog part with its shelf quantity and lead time. */
+export async function listDealerStock(actor: Actor): Promise<DealerStockItem[]> {
+  const dealerId = ownDealer(actor);
+  const db = await getDb();
+  const rows = await db
+    .select({
+      partNumber: catalogParts.partNumber,
+      spec: catalogParts.spec,
+      familyId: catalogParts.familyId,
+      active: catalogParts.active,
+      quantity: stock.quantity,
+      leadDays: stock.leadDays,
+    })
+    .from(catalogParts)
+    .leftJoin(stock, and(eq(stock.partNumber, catalogParts.partNumber), eq(stock.orgId, dealerId)))
+    .orderBy(asc(catalogParts.familyId), asc(catalogParts.partNumber));
+  return rows.map((r) => ({
+    partNumber: r.partNumber,
+    name: r.spec.name,
+    familyId: r.familyId,
+    active: r.active,
+    quantity: r.quantity ?? 0,
+    leadDays: r.leadDays ?? null,
+  }));
+}
+
+/** Sets the actor's dealer's shelf quantity and lead time of one catalog part (audited). */
+export async function setDealerStock(actor: Actor, partNumber: string, input: SetDealerStock) {
+  const dealerId = ownDealer(actor);
+  const db = await getDb();
+  const [part] = await db
+    .select({ pn: catalogParts.partNumber })
+    .from(catalogParts)
+    .where(eq(catalogParts.partNumber, partNumber))
+    .limit(1);
+  if (!part) throw notFound('Part not found', 'partNumber');
+  await db.transaction(async (tx) => {
+    await tx
+      .insert(stock)
+      .values({ orgId: dealerId, partNumber, quantity: input.quantity, leadDays: input.leadDays })
+      .onConflictDoUpdate({ target: [stock.orgId, stock.partNumber], set: { quantity: input.quantity, leadDays: input.leadDays } });
+    await audit(tx, actor, 'set-stock', 'dealer-stock', partNumber, { ...input }, dealerId);
+  });
+  return { partNumber, ...input };
 }
