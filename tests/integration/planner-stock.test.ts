@@ -120,3 +120,43 @@ describe('PUT /api/dealer-stock/[partNumber]', () => {
     expect(supply.availability[0]).toEqual({ partNumber: LEFT, source: 'dealer-shelf' });
   });
 });
+
+describe('the dealer stock page', () => {
+  const post = (c: Client, fields: Record<string, string>) =>
+    c.fetch('/admin/stock', {
+      method: 'POST',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      body: new URLSearchParams(fields),
+    });
+
+  it('saves the table for the administrator’s own dealer, refuses bad cells naming the part, and is for the administrator only', async () => {
+    const page = await ada.fetch('/admin/stock');
+    expect(page.status).toBe(200);
+    expect(await page.text()).toContain(`name="d:${LEFT}"`);
+
+    const bad = await post(ada, { [`q:${LEFT}`]: '7', [`d:${LEFT}`]: '2', [`q:${RIGHT}`]: 'many', [`d:${RIGHT}`]: '' });
+    expect(bad.status).toBe(400);
+    expect(await bad.text()).toContain(`${RIGHT}: quantity`);
+    const tooLong = await post(ada, { [`q:${RIGHT}`]: '1', [`d:${RIGHT}`]: '999' });
+    expect(tooLong.status).toBe(400);
+    expect(await tooLong.text()).toContain(`${RIGHT}: lead time`);
+
+    const ok = await post(ada, { [`q:${LEFT}`]: '0', [`d:${LEFT}`]: '8', [`q:${RIGHT}`]: '0', [`d:${RIGHT}`]: '' });
+    expect(ok.status).toBe(303);
+    const supply = await peas();
+    expect(supply.availability).toEqual([
+      { partNumber: LEFT, source: 'order', leadDays: 8 },
+      { partNumber: RIGHT, source: 'order' },
+    ]);
+
+    // Another dealer's administrator writes only their own dealer's stock.
+    expect((await post(ivo, { [`q:${LEFT}`]: '99', [`d:${LEFT}`]: '1' })).status).toBe(303);
+    expect((await peas()).availability[0]).toEqual({ partNumber: LEFT, source: 'order', leadDays: 8 });
+
+    for (const c of [tomas, olive]) {
+      expect((await c.fetch('/admin/stock')).status).toBe(403);
+      expect((await post(c, { [`q:${LEFT}`]: '99', [`d:${LEFT}`]: '1' })).status).toBe(403);
+    }
+    expect((await peas()).availability[0]).toEqual({ partNumber: LEFT, source: 'order', leadDays: 8 });
+  });
+});

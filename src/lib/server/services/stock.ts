@@ -1,4 +1,4 @@
-import { and, asc, eq, inArray } from 'drizzle-orm';
+import { and, asc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, type Db } from '~/lib/server/db';
 import { catalogParts, organisations, stock } from '~/db/schema';
@@ -135,4 +135,49 @@ export async function setDealerStock(actor: Actor, partNumber: string, input: Se
     await audit(tx, actor, 'set-stock', 'dealer-stock', partNumber, { ...input }, dealerId);
   });
   return { partNumber, ...input };
+}
+
+const wholeNumber = (text: string, max: number): number | null => {
+  const t = text.trim();
+  if (!/^\d{1,7}$/.test(t)) return null;
+  const n = Number(t);
+  return n <= max ? n : null;
+};
+
+/**
+ * Saves the stock page's table: per part number the shelf quantity and the lead time as typed
+ * (lead time blank: not given). Any bad cell and nothing is saved; the errors name the parts.
+ */
+export async function saveStockTable(actor: Actor, entries: Record<string, { quantity: string; leadDays: string }>) {
+  const dealerId = ownDealer(actor);
+  const current = new Map((await listDealerStock(actor)).map((i) => [i.partNumber, i]));
+  const errors: Record<string, string> = {};
+  const set: { partNumber: string; quantity: number; leadDays: number | null }[] = [];
+  for (const [partNumber, cell] of Object.entries(entries)) {
+    const item = current.get(partNumber);
+    if (!item) {
+      errors[partNumber] = 'not in the catalog';
+      continue;
+    }
+    const quantity = wholeNumber(cell.quantity, 100_000);
+    const leadDays = cell.leadDays.trim() === '' ? null : wholeNumber(cell.leadDays, MAX_LEAD_DAYS);
+    if (quantity === null) errors[partNumber] = 'quantity: a whole number from 0 to 100000';
+    else if (leadDays === null && cell.leadDays.trim() !== '')
+      errors[partNumber] = `lead time: whole days from 0 to ${MAX_LEAD_DAYS}, or blank when not known`;
+    else if (quantity !== item.quantity || leadDays !== item.leadDays) set.push({ partNumber, quantity, leadDays });
+  }
+  if (Object.keys(errors).length) return { ok: false as const, errors };
+  if (!set.length) return { ok: true as const, changed: 0 };
+  const db = await getDb();
+  await db.transaction(async (tx) => {
+    await tx
+      .insert(stock)
+      .values(set.map((v) => ({ orgId: dealerId, ...v })))
+      .onConflictDoUpdate({
+        target: [stock.orgId, stock.partNumber],
+        set: { quantity: sql`excluded.quantity`, leadDays: sql`excluded.lead_days` },
+      });
+    await audit(tx, actor, 'save-stock', 'dealer-stock', null, { set: set.length }, dealerId);
+  });
+  return { ok: true as const, changed: set.length };
 }
