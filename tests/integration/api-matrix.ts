@@ -236,6 +236,13 @@ export const MATRIX: Record<string, Row> = {
     other: 'none',
     why: 'always the caller’s own dealer',
   },
+  'PUT /api/dealer-stock/[partNumber]': {
+    allowed: DEALER_ADMIN,
+    params: (f) => ({ partNumber: f.partNumber }),
+    body: () => ({ quantity: 3, leadDays: 5 }),
+    other: 'none',
+    why: 'always the caller’s own dealer: tenancy tests in planner-stock.test.ts',
+  },
   'GET /api/share-links': { allowed: ALL, other: 'not-listed' },
   'POST /api/share-links': { allowed: WRITERS, body: (f) => ({ layoutId: f.layoutId, version: 1 }), other: 'not-found' },
   'DELETE /api/share-links/[id]': { allowed: WRITERS, params: (f) => ({ id: f.shareLinkId }), other: 'not-found' },

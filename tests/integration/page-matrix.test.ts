@@ -47,6 +47,7 @@ const PAGES: Record<string, PageRow> = {
   '/admin/catalog/parts/new': { allowed: INSTANCE, other: 'own-data' },
   '/admin/mailbox': { allowed: ADMINS, other: 'own-data' },
   '/admin/prices': { allowed: PRICE_READERS, other: 'own-data' },
+  '/admin/stock': { allowed: ['dealer_admin'], other: 'own-data' },
   '/admin/starting-values': { allowed: ALL, other: 'own-data' },
   '/classroom': { allowed: DECK, other: 'own-data' },
   '/classroom/[deckId]': { allowed: DECK, params: deck, other: 'not-found' },

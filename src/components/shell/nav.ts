@@ -22,6 +22,7 @@ export const NAV: readonly NavItem[] = [
   { href: '/classroom', label: 'Classroom', action: 'decks.use' },
   { href: '/admin/catalog', label: 'Catalog', action: 'catalog.read' },
   { href: '/admin/prices', label: 'Price list', action: 'prices.read' },
+  { href: '/admin/stock', label: 'Dealer stock', action: 'stock.write' },
   { href: '/admin/mailbox', label: 'Mailbox', action: 'mailbox.read' },
   { href: '/admin/backup', label: 'Backup', action: 'backup.run' },
 ];

@@ -26,7 +26,11 @@ export const catalogParts = pgTable(
   (t) => [index('catalog_parts_family_idx').on(t.familyId)],
 );
 
-/** Parts an organisation holds on its shelf (a dealer's stock, a farm's spares). */
+/**
+ * Parts an organisation holds on its shelf (a dealer's stock, a farm's spares). For a dealer,
+ * `leadDays` is about how many days an order of the part takes when its shelf has too few
+ * (null: the dealer has not said).
+ */
 export const stock = pgTable(
   'stock',
   {
@@ -37,6 +41,7 @@ export const stock = pgTable(
       .notNull()
       .references(() => catalogParts.partNumber),
     quantity: integer('quantity').notNull().default(0),
+    leadDays: integer('lead_days'),
   },
   (t) => [primaryKey({ columns: [t.orgId, t.partNumber] })],
 );

@@ -64,6 +64,8 @@ const TABLE = {
   'catalog.write': ['instance_admin'],
   'prices.read': ['technician', 'dealer_admin'],
   'prices.write': ['dealer_admin'],
+  /** The dealer's shelf quantities and lead times (the planner reads them for its customers). */
+  'stock.write': ['dealer_admin'],
   'startingValues.write': ['dealer_admin'],
   /** Add customer farms to the dealer. */
   'orgs.add': ['dealer_admin'],

@@ -86,8 +86,14 @@ export async function seedDemo(db: Db) {
         spec: p,
       });
     }
-    // The dealer keeps a few of most parts; farms keep a handful of spares.
-    const dealerStock = demoCatalog.map((p, i) => ({ orgId: kestrel!.id, partNumber: p.partNumber, quantity: (i * 7) % 5 }));
+    // The dealer keeps a few of most parts; farms keep a handful of spares. Lead times of an
+    // order are invented for the demo: 3 to 21 days, and none given for every eleventh part.
+    const dealerStock = demoCatalog.map((p, i) => ({
+      orgId: kestrel!.id,
+      partNumber: p.partNumber,
+      quantity: (i * 7) % 5,
+      leadDays: i % 11 === 10 ? null : [3, 5, 7, 10, 14, 21][i % 6]!,
+    }));
     await tx.insert(t.stock).values(dealerStock);
     // The dealer's own price list, started at the catalog's list prices (its administrator edits it).
     await tx

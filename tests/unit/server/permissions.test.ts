@@ -36,6 +36,7 @@ const EXPECTED_NAV: Record<Role, string[]> = {
     '/field-check',
     '/admin/catalog',
     '/admin/prices',
+    '/admin/stock',
     '/admin/mailbox',
   ],
   instance_admin: ['/', '/admin/catalog', '/admin/mailbox', '/admin/backup'],

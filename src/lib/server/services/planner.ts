@@ -16,6 +16,9 @@ import { HttpError, whenNotFound } from '~/lib/server/http';
 import { createLayout, getLayout, saveVersion } from './layouts';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
 import { currencyFor } from './prices';
+import { dealerStockFor } from './stock';
+import { isoDay } from '~/lib/domain/format';
+import { purchaseAvailability, workStart, type PartAvailability, type WorkStart } from '~/lib/domain/planner/availability';
 
 export const planRequestSchema = z.object({
   machineId: z.uuid(),
@@ -53,12 +56,54 @@ export async function shelfOf(orgId: string): Promise<Record<string, number>> {
 /** Everything the planner needs for one machine the actor may see. */
 export async function planInputs(actor: Actor, machineId: string) {
   const ctx = await machineForActor(actor, machineId);
-  const [catalog, installed, shelf] = await Promise.all([
+  const [catalog, installed, shelf, dealerStock] = await Promise.all([
     catalogForFamily(ctx.family.id, undefined, ctx.machine.orgId),
     installedLayout(ctx.machine.id),
     shelfOf(ctx.machine.orgId),
+    dealerStockFor(ctx.machine.orgId),
   ]);
-  return { ...ctx, catalog, installed: installed?.layout ?? null, shelf };
+  return { ...ctx, catalog, installed: installed?.layout ?? null, shelf, dealerStock };
+}
+
+type PlanInputs = Awaited<ReturnType<typeof planInputs>>;
+
+/** Where each purchase comes from (the owner's dealer's shelf or an order) and when the work can start. */
+export interface PlanSupply {
+  availability: PartAvailability[];
+  start: WorkStart;
+}
+
+function supplyOf(plan: Plan, inputs: PlanInputs, today: string): PlanSupply | null {
+  if (!plan.ok) return null;
+  const availability = purchaseAvailability(plan.purchases, inputs.dealerStock);
+  return { availability, start: workStart(availability, today) };
+}
+
+function planFor(actor: Actor, inputs: PlanInputs, crop: PlanRequest['crop'], mode: PlanRequest['mode']): Plan {
+  return planCropChange({
+    family: inputs.family,
+    catalog: inputs.catalog,
+    installed: inputs.installed,
+    shelf: inputs.shelf,
+    crop,
+    mode,
+    drum: inputs.machine.drum,
+    vaneControl: inputs.machine.vaneControl,
+    units: actor.unitSystem,
+  });
+}
+
+/**
+ * Both ways of doing a crop change, for choosing side by side: following the crop program and
+ * using what is on hand first, each with where its purchases come from and when it can start.
+ */
+export async function proposeBothModes(actor: Actor, input: Omit<PlanRequest, 'mode'>) {
+  const inputs = await planInputs(actor, input.machineId);
+  const today = isoDay(new Date());
+  return planModeSchema.options.map((mode) => {
+    const plan = planFor(actor, inputs, input.crop, mode);
+    return { mode, plan, supply: supplyOf(plan, inputs, today) };
+  });
 }
 
 export async function proposePlan(actor: Actor, input: PlanRequest) {
@@ -91,6 +136,8 @@ export async function proposePlan(actor: Actor, input: PlanRequest) {
     installedFindings: inputs.installed ? checkLayout(inputs.family, inputs.catalog, inputs.installed) : [],
     shelf: inputs.shelf,
     plan,
+    /** The plan's purchases on the dealer's shelf or to order, and the first day the work can start. */
+    supply: supplyOf(plan, inputs, isoDay(new Date())),
     /** ISO 4217 code of the plan's prices (the dealer's). */
     currency,
     // For the diagram beside the plan (server pages); the API leaves these out.
