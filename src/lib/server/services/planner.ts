@@ -18,7 +18,8 @@ import { catalogForFamily, installedLayout, machineForActor } from './machines';
 import { currencyFor } from './prices';
 import { dealerStockFor } from './stock';
 import { isoDay } from '~/lib/domain/format';
-import { purchaseAvailability, workStart, type PartAvailability, type WorkStart } from '~/lib/domain/planner/availability';
+import { addDays, purchaseAvailability, workStart, type PartAvailability, type WorkStart } from '~/lib/domain/planner/availability';
+import type { PurchaseAvailability } from '~/lib/domain/planner/steps';
 
 export const planRequestSchema = z.object({
   machineId: z.uuid(),
@@ -79,8 +80,23 @@ function supplyOf(plan: Plan, inputs: PlanInputs, today: string): PlanSupply | n
   return { availability, start: workStart(availability, today) };
 }
 
-function planFor(actor: Actor, inputs: PlanInputs, crop: PlanRequest['crop'], mode: PlanRequest['mode']): Plan {
-  return planCropChange({
+/** The steps' words for each purchase: collect from the dealer's shelf, or order with the expected day. */
+function stepAvailability(availability: readonly PartAvailability[], today: string): Record<string, PurchaseAvailability> {
+  const out: Record<string, PurchaseAvailability> = {};
+  for (const a of availability) {
+    if (a.source === 'dealer-shelf') out[a.partNumber] = { at: 'dealer-shelf' };
+    else if (a.leadDays !== undefined) out[a.partNumber] = { at: 'to-order', leadDays: a.leadDays, expectedOn: addDays(today, a.leadDays) };
+  }
+  return out;
+}
+
+/**
+ * The plan for one mode, its steps told where each purchase comes from. Availability does not
+ * change which plan is best (only the words and order of getting the parts), so the plan is
+ * made once to learn its purchases and once more with their availability for the steps.
+ */
+function planFor(actor: Actor, inputs: PlanInputs, crop: PlanRequest['crop'], mode: PlanRequest['mode'], today: string): Plan {
+  const request = {
     family: inputs.family,
     catalog: inputs.catalog,
     installed: inputs.installed,
@@ -90,7 +106,11 @@ function planFor(actor: Actor, inputs: PlanInputs, crop: PlanRequest['crop'], mo
     drum: inputs.machine.drum,
     vaneControl: inputs.machine.vaneControl,
     units: actor.unitSystem,
-  });
+  };
+  const first = planCropChange(request);
+  if (!first.ok || first.purchases.length === 0) return first;
+  const availability = stepAvailability(purchaseAvailability(first.purchases, inputs.dealerStock), today);
+  return planCropChange({ ...request, availability });
 }
 
 /**
@@ -101,7 +121,7 @@ export async function proposeBothModes(actor: Actor, input: Omit<PlanRequest, 'm
   const inputs = await planInputs(actor, input.machineId);
   const today = isoDay(new Date());
   return planModeSchema.options.map((mode) => {
-    const plan = planFor(actor, inputs, input.crop, mode);
+    const plan = planFor(actor, inputs, input.crop, mode, today);
     return { mode, plan, supply: supplyOf(plan, inputs, today) };
   });
 }
@@ -109,17 +129,8 @@ export async function proposeBothModes(actor: Actor, input: Omit<PlanRequest, 'm
 export async function proposePlan(actor: Actor, input: PlanRequest) {
   const inputs = await planInputs(actor, input.machineId);
   const currency = await currencyFor(inputs.machine.orgId);
-  const plan: Plan = planCropChange({
-    family: inputs.family,
-    catalog: inputs.catalog,
-    installed: inputs.installed,
-    shelf: inputs.shelf,
-    crop: input.crop,
-    mode: input.mode,
-    drum: inputs.machine.drum,
-    vaneControl: inputs.machine.vaneControl,
-    units: actor.unitSystem,
-  });
+  const today = isoDay(new Date());
+  const plan: Plan = planFor(actor, inputs, input.crop, input.mode, today);
   return {
     machine: {
       id: inputs.machine.id,
@@ -137,7 +148,7 @@ export async function proposePlan(actor: Actor, input: PlanRequest) {
     shelf: inputs.shelf,
     plan,
     /** The plan's purchases on the dealer's shelf or to order, and the first day the work can start. */
-    supply: supplyOf(plan, inputs, isoDay(new Date())),
+    supply: supplyOf(plan, inputs, today),
     /** ISO 4217 code of the plan's prices (the dealer's). */
     currency,
     // For the diagram beside the plan (server pages); the API leaves these out.
