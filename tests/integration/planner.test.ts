@@ -33,10 +33,18 @@ describe('POST /api/plans', () => {
     // Parts first: the orders and the wait for them, then each place emptied and filled at once,
     // then set and verify.
     const work = (k: string) => plan.steps.filter((s: any) => s.phase === k).map((s: any) => s.kind);
-    expect(work('parts')).toEqual(['buy', 'buy', 'wait']);
+    // Each purchase is collected from the dealer's shelf or ordered; the work waits only for orders.
+    const supply = res.body.supply.availability as { partNumber: string; source: string }[];
+    expect(supply.map((a) => a.partNumber)).toEqual(['CW-RB-L-04', 'CW-RB-R-04']);
+    const ordered = supply.some((a) => a.source === 'order');
+    expect(work('parts')).toEqual(['buy', 'buy', ...(ordered ? ['wait'] : [])]);
+    supply.forEach((a, i) =>
+      expect(plan.steps[i].text).toMatch(a.source === 'order' ? /^Order .*to order/ : /^Collect .*on the dealer's shelf/),
+    );
     expect(work('work')).toEqual(['remove', 'install', 'remove', 'install', 'remove', 'install', 'remove', 'install']);
-    expect(plan.steps[3].text).toMatch(/^Take off the left-hand fine-wire element CW-FW-L-04 at position 1, left/);
-    expect(plan.steps[4].text).toMatch(/^Fit the left-hand round-bar element CW-RB-L-04 \(new\) at position 1, left/);
+    const first = work('parts').length;
+    expect(plan.steps[first].text).toMatch(/^Take off the left-hand fine-wire element CW-FW-L-04 at position 1, left/);
+    expect(plan.steps[first + 1].text).toMatch(/^Fit the left-hand round-bar element CW-RB-L-04 \(new\) at position 1, left/);
     expect(plan.steps.at(-1)).toMatchObject({ phase: 'verify', link: '/field-check' });
     expect(plan.counts.effort).toMatchObject({ lifts: 8, rotorAccess: false });
     // The proposal passes every fit rule, checked again by the server's own check endpoint.
