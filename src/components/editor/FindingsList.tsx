@@ -2,13 +2,14 @@
  * What the rules say about the layout, most serious first. Choosing a finding highlights its
  * places in the drawing and moves focus to the first of them.
  */
-import { memo } from 'react';
+import { memo, useMemo } from 'react';
 import { placeKey } from '~/lib/domain/places';
 import { countBySeverity } from '~/lib/domain/rules';
 import type { Finding, Severity } from '~/lib/domain/schemas';
 import { SeverityBadge } from '~/components/cage/SeverityIcon';
 import { SEVERITY_STYLE } from '~/components/cage/palette';
 import { placeWords } from '~/lib/domain/vocabulary';
+import { findingInUnits } from '~/lib/domain/units';
 import { useEditor, useEditorStoreApi } from './store/context';
 
 const ORDER: Severity[] = ['blocks-fit', 'hurts-crop', 'advice'];
@@ -87,7 +88,10 @@ const FindingRow = memo(
 
 export function FindingsList() {
   const store = useEditorStoreApi();
-  const findings = useEditor((s) => s.findings);
+  const found = useEditor((s) => s.findings);
+  const units = useEditor((s) => s.units);
+  // The rules write millimetres and kilograms; the list speaks the reader's units.
+  const findings = useMemo(() => found.map((f) => findingInUnits(f, units)), [found, units]);
   const active = useEditor((s) => s.activeFinding);
   const choose = store.getState().chooseFinding;
   const counts = countBySeverity(findings);

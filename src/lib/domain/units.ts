@@ -102,3 +102,41 @@ export function formatRate(value: KgPerHa, system: UnitSystem, lbPerBu: number):
   if (system === 'imperial') return `${fixed(kgPerHaToBuPerAc(value, lbPerBu), 1)} bu/ac`;
   return `${fixed(value, 0)} kg/ha`;
 }
+
+// A number as the rules write it: plain or grouped with commas, with an optional decimal part.
+const NUM = String.raw`(\d{1,3}(?:,\d{3})+|\d+)(?:\.(\d+))?`;
+const LENGTH_WORDS = new RegExp(String.raw`(?<![\w.])${NUM}(?:(\s?[–-]\s?)${NUM})?\s?mm\b(?![/²³])`, 'g');
+const MASS_WORDS = new RegExp(String.raw`(?<![\w.])${NUM}\s?kg\b(?![/·])`, 'g');
+const numberOf = (whole: string, decimals: string | undefined) => Number(whole.replace(/,/g, '') + (decimals ? `.${decimals}` : ''));
+
+/**
+ * Text the rules wrote in millimetres and kilograms (findings, advice) in the reader's units:
+ * "a 5 mm opening", "10–20 mm", "6.8 kg apart" become inches and pounds for an imperial reader;
+ * metric text is returned as it is. Rates (kg/ha) and compound units are left alone.
+ */
+export function textInUnits(text: string, system: UnitSystem): string {
+  if (system === 'metric') return text;
+  return text
+    .replace(
+      LENGTH_WORDS,
+      (_all, w1: string, d1: string | undefined, dash: string | undefined, w2: string | undefined, d2: string | undefined) => {
+        const a = numberOf(w1, d1);
+        if (dash === undefined || w2 === undefined) return formatLength(mm(a), system);
+        const b = numberOf(w2, d2);
+        const digits = Math.max(a, b) / MM_PER_INCH >= 10 ? 1 : 2;
+        return `${fixed(a / MM_PER_INCH, digits)}–${formatLength(mm(b), system, digits)}`;
+      },
+    )
+    .replace(MASS_WORDS, (_all, w: string, d: string | undefined) => formatMass(kg(numberOf(w, d)), system));
+}
+
+/** A finding with its words in the reader's units (see `textInUnits`). */
+export function findingInUnits<F extends { title: string; explanation: string; fix: string }>(finding: F, system: UnitSystem): F {
+  if (system === 'metric') return finding;
+  return {
+    ...finding,
+    title: textInUnits(finding.title, system),
+    explanation: textInUnits(finding.explanation, system),
+    fix: textInUnits(finding.fix, system),
+  };
+}
