@@ -22,6 +22,8 @@ interface FormValues {
   vaneControls: string[];
   cageTopSections: { positions: string; coverLeft: boolean; coverRight: boolean }[];
   rotorBarRows: { angleDeg: number }[];
+  /** The rotor's mass in kg as typed (blank: the balance check assumes a typical rotor). */
+  rotorMassKg: string;
   /** bars[row][position] */
   bars: BarCell[][];
 }
@@ -31,7 +33,7 @@ export interface FamilyFormProps {
   readOnly?: boolean;
 }
 
-function toForm(f: MachineFamily): FormValues {
+export function toForm(f: MachineFamily): FormValues {
   const bars: BarCell[][] = f.rotorBarRows.map((r) =>
     f.positions.map((p) => {
       const place = f.rotorBarPlaces.find((b) => b.row === r.index && b.position === p.index);
@@ -52,6 +54,7 @@ function toForm(f: MachineFamily): FormValues {
       coverRight: s.coverPlateSides.includes('right'),
     })),
     rotorBarRows: f.rotorBarRows.map((r) => ({ angleDeg: r.angleDeg })),
+    rotorMassKg: f.rotorMassKg === undefined ? '' : String(f.rotorMassKg),
     bars,
   };
 }
@@ -70,6 +73,7 @@ const BLANK: FormValues = {
     { positions: '4', coverLeft: false, coverRight: false },
   ],
   rotorBarRows: [{ angleDeg: 0 }, { angleDeg: 90 }, { angleDeg: 180 }, { angleDeg: 270 }],
+  rotorMassKg: '',
   bars: [0, 1, 2, 3].map(() => ['place', 'place', 'place', 'place']),
 };
 
@@ -93,6 +97,7 @@ export function toSpec(v: FormValues): unknown {
       coverPlateSides: [...(s.coverLeft ? ['left'] : []), ...(s.coverRight ? ['right'] : [])],
     })),
     rotorBarRows: v.rotorBarRows.map((r, i) => ({ index: i + 1, angleDeg: r.angleDeg })),
+    ...(String(v.rotorMassKg ?? '').trim() === '' ? {} : { rotorMassKg: Number(v.rotorMassKg) }),
     rotorBarPlaces: v.rotorBarRows.flatMap((_, ri) =>
       Array.from({ length: n }, (_, pi) => v.bars?.[ri]?.[pi] ?? 'none').flatMap((cell, pi) =>
         cell === 'none' ? [] : [{ row: ri + 1, position: pi + 1, inLine: cell === 'inline' }],
@@ -288,6 +293,12 @@ export default function FamilyForm({ existing, readOnly = false }: FamilyFormPro
               </div>
             ))}
             <Err errors={errors} path="drumOptions" />
+            <label className="mt-2 block text-sm" htmlFor="f-family-rotorMassKg">
+              <span className="font-semibold">Rotor mass, kg</span>{' '}
+              <span className="text-ink-muted">(for the balance check; blank: a typical 450 kg rotor)</span>
+              <input id="f-family-rotorMassKg" className="field-input mt-1 block w-32" inputMode="decimal" {...register('rotorMassKg')} />
+            </label>
+            <Err errors={errors} path="rotorMassKg" />
             <button
               type="button"
               className="btn"

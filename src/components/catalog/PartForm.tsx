@@ -213,6 +213,22 @@ export default function PartForm({ families, existing, readOnly = false }: PartF
         >
           <input id="f-part-priceCents" className="field-input" type="number" step="1" {...register('part.priceCents', num)} />
         </Field>
+        <Field
+          label="Bolt torque, N·m"
+          path="part.boltTorqueNm"
+          errors={errors}
+          hint="For the plan's torque step; blank: the operator's manual's value."
+        >
+          <input
+            id="f-part-boltTorqueNm"
+            className="field-input"
+            type="number"
+            step="1"
+            {...register('part.boltTorqueNm', {
+              setValueAs: (v: unknown) => (v === '' || v === null || v === undefined ? undefined : Number(v)),
+            })}
+          />
+        </Field>
 
         {kind === 'element' && (
           <>
