@@ -18,10 +18,13 @@ test('plan a crop change, accept it, make a parts request and send it; the desk 
   await expect(cautions).toContainText('Engine off, key out');
   await expect(cautions).toContainText('operator’s manual');
   const steps = page.getByTestId('plan-steps').locator('li');
-  // Parts first (two orders and the wait), then four places emptied and filled one by one, then
-  // nine set-and-verify steps ending with the loss check.
+  // Parts first (the left bars are on the dealer's shelf, the right ones on order, then the wait
+  // for them), then four places emptied and filled one by one, then nine set-and-verify steps
+  // ending with the loss check.
   await expect(steps).toHaveCount(2 + 1 + 8 + 9);
-  await expect(steps.first()).toContainText('Order 2 × CW-RB-L-04');
+  await expect(steps.first()).toContainText("Collect 2 × CW-RB-L-04 (left-hand round-bar element) from the dealer, on the dealer's shelf");
+  await expect(steps.nth(1)).toContainText('Order 2 × CW-RB-R-04');
+  await expect(steps.nth(1)).toContainText('to order, about 9 days');
   await expect(steps.nth(2)).toContainText('Wait until every part on order has arrived');
   await expect(steps.nth(3)).toContainText('Take off the left-hand fine-wire element CW-FW-L-04 at position 1, left');
   await expect(steps.nth(4)).toContainText('Fit the left-hand round-bar element CW-RB-L-04 (new) at position 1, left');
