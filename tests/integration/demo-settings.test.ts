@@ -4,6 +4,7 @@
  * blocks-fit or hurts-crop finding; a deck slide carries one only where it is there to teach it
  * and says so in its notes.
  */
+import { isDeepStrictEqual } from 'node:util';
 import { describe, expect, it } from 'vitest';
 import { signedIn } from './client';
 import { cropPrograms, demoFamilies, drumFor, rpmWindow, startRpm, vaneSettingsFor, type Finding, type Layout } from '~/lib/domain';
@@ -38,8 +39,13 @@ describe('demo layouts under the settings rules', () => {
       const checked = await admin.post('/api/check', { layout: body });
       expect(checked.status).toBe(200);
       expect(serious(checked.body.findings), m.nickname).toEqual([]);
+      // The seed installs exactly that first version. Other suites share this server and may
+      // have installed something else since; then the first version, checked above, is what the
+      // seed installed, and the installed layout's findings are theirs, not the seed's.
       const installed = (await admin.get(`/api/machines/${m.id}/installed`)).body;
-      expect(serious(installed.findings), `${m.nickname} installed`).toEqual([]);
+      if (isDeepStrictEqual(installed.installed?.layout, body)) {
+        expect(serious(installed.findings), `${m.nickname} installed`).toEqual([]);
+      }
     }
   });
 
