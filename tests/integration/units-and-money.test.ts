@@ -83,6 +83,8 @@ describe('a user who chose inches sees inches in the plan, the request sheet and
   });
 
   it('a metric reader of the same request sees millimetres', async () => {
+    // Other suites on this shared server may have left this technician in inches: choose millimetres.
+    expect((await tomas.put('/api/me', { unitSystem: 'metric' })).status).toBe(200);
     const sheet = await (await tomas.fetch(`/parts-requests/${requestId}`)).text();
     expect(testId(sheet, 'request-settings')).toContain(`concave clearance ${formatLength(mm(clearanceMm), 'metric')}`);
   });
