@@ -13,9 +13,11 @@ let ada: Client; // Kestrel's administrator
 let ivo: Client; // Brackenridge Ag Supply's administrator (another dealer)
 let machineId: string;
 
-// A field-peas plan from the starter wheat cage buys two of each (see planner.test.ts).
-const LEFT = 'CW-RB-L-04';
-const RIGHT = 'CW-RB-R-04';
+// A field-peas plan from the starter wheat cage buys two each of two parts (see planner.test.ts):
+// with the demo catalog the left and right round-bar elements; read from the first plan, since
+// suites sharing this store (a PostgreSQL server) may have added parts the planner may buy.
+let LEFT = 'CW-RB-L-04';
+let RIGHT = 'CW-RB-R-04';
 
 async function as(email: string) {
   const c = new Client();
@@ -49,6 +51,10 @@ beforeAll(async () => {
   [olive, tomas, ada] = await Promise.all([signedIn('operator'), signedIn('technician'), signedIn('dealerAdmin')]);
   ivo = await as('admin@brackenridge.example');
   ({ machineId } = await ownMachine(olive, 'Dealer stock machine'));
+  const first = await olive.post('/api/plans', { machineId, crop: 'field-peas' });
+  const bought = first.body.plan.purchases as { partNumber: string; quantity: number }[];
+  expect(bought.map((p) => p.quantity)).toEqual([2, 2]);
+  [LEFT, RIGHT] = bought.map((p) => p.partNumber) as [string, string];
 }, 60_000);
 
 describe('dealer stock in the plan', () => {
