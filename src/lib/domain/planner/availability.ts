@@ -7,6 +7,7 @@
  */
 import { formatDate, DEFAULT_LOCALE } from '~/lib/domain/format';
 import { countOf } from '~/lib/domain/words';
+import type { PurchaseAvailability } from '~/lib/domain/planner/steps';
 
 export type AvailabilitySource = 'dealer-shelf' | 'order';
 
@@ -76,4 +77,14 @@ export function workStartWords(start: WorkStart, locale: string = DEFAULT_LOCALE
   const day = formatDate(`${start.date}T00:00:00Z`, { locale, timeZone: 'UTC' });
   if (start.waitDays === 0) return `Today, ${day}: every part is at hand`;
   return `From about ${day}, when the last order arrives (about ${countOf(start.waitDays, 'day')})`;
+}
+
+/** The steps' words for each purchase: collect from the dealer's shelf, or order with the expected day. */
+export function stepAvailability(availability: readonly PartAvailability[], today: string): Record<string, PurchaseAvailability> {
+  const out: Record<string, PurchaseAvailability> = {};
+  for (const a of availability) {
+    if (a.source === 'dealer-shelf') out[a.partNumber] = { at: 'dealer-shelf' };
+    else if (a.leadDays !== undefined) out[a.partNumber] = { at: 'to-order', leadDays: a.leadDays, expectedOn: addDays(today, a.leadDays) };
+  }
+  return out;
 }

@@ -18,8 +18,13 @@ import { catalogForFamily, installedLayout, machineForActor } from './machines';
 import { currencyFor } from './prices';
 import { dealerStockFor } from './stock';
 import { isoDay } from '~/lib/domain/format';
-import { addDays, purchaseAvailability, workStart, type PartAvailability, type WorkStart } from '~/lib/domain/planner/availability';
-import type { PurchaseAvailability } from '~/lib/domain/planner/steps';
+import {
+  purchaseAvailability,
+  stepAvailability,
+  workStart,
+  type PartAvailability,
+  type WorkStart,
+} from '~/lib/domain/planner/availability';
 
 export const planRequestSchema = z.object({
   machineId: z.uuid(),
@@ -74,28 +79,18 @@ export interface PlanSupply {
   start: WorkStart;
 }
 
-function supplyOf(plan: Plan, inputs: PlanInputs, today: string): PlanSupply | null {
-  if (!plan.ok) return null;
-  const availability = purchaseAvailability(plan.purchases, inputs.dealerStock);
-  return { availability, start: workStart(availability, today) };
-}
-
-/** The steps' words for each purchase: collect from the dealer's shelf, or order with the expected day. */
-function stepAvailability(availability: readonly PartAvailability[], today: string): Record<string, PurchaseAvailability> {
-  const out: Record<string, PurchaseAvailability> = {};
-  for (const a of availability) {
-    if (a.source === 'dealer-shelf') out[a.partNumber] = { at: 'dealer-shelf' };
-    else if (a.leadDays !== undefined) out[a.partNumber] = { at: 'to-order', leadDays: a.leadDays, expectedOn: addDays(today, a.leadDays) };
-  }
-  return out;
-}
-
 /**
  * The plan for one mode, its steps told where each purchase comes from. Availability does not
  * change which plan is best (only the words and order of getting the parts), so the plan is
  * made once to learn its purchases and once more with their availability for the steps.
  */
-function planFor(actor: Actor, inputs: PlanInputs, crop: PlanRequest['crop'], mode: PlanRequest['mode'], today: string): Plan {
+function planFor(
+  actor: Actor,
+  inputs: PlanInputs,
+  crop: PlanRequest['crop'],
+  mode: PlanRequest['mode'],
+  today: string,
+): { plan: Plan; supply: PlanSupply | null } {
   const request = {
     family: inputs.family,
     catalog: inputs.catalog,
@@ -108,9 +103,11 @@ function planFor(actor: Actor, inputs: PlanInputs, crop: PlanRequest['crop'], mo
     units: actor.unitSystem,
   };
   const first = planCropChange(request);
-  if (!first.ok || first.purchases.length === 0) return first;
-  const availability = stepAvailability(purchaseAvailability(first.purchases, inputs.dealerStock), today);
-  return planCropChange({ ...request, availability });
+  if (!first.ok) return { plan: first, supply: null };
+  const availability = purchaseAvailability(first.purchases, inputs.dealerStock);
+  const supply = { availability, start: workStart(availability, today) };
+  if (first.purchases.length === 0) return { plan: first, supply };
+  return { plan: planCropChange({ ...request, availability: stepAvailability(availability, today) }), supply };
 }
 
 /**
@@ -121,8 +118,7 @@ export async function proposeBothModes(actor: Actor, input: Omit<PlanRequest, 'm
   const inputs = await planInputs(actor, input.machineId);
   const today = isoDay(new Date());
   return planModeSchema.options.map((mode) => {
-    const plan = planFor(actor, inputs, input.crop, mode, today);
-    return { mode, plan, supply: supplyOf(plan, inputs, today) };
+    return { mode, ...planFor(actor, inputs, input.crop, mode, today) };
   });
 }
 
@@ -130,7 +126,7 @@ export async function proposePlan(actor: Actor, input: PlanRequest) {
   const inputs = await planInputs(actor, input.machineId);
   const currency = await currencyFor(inputs.machine.orgId);
   const today = isoDay(new Date());
-  const plan: Plan = planFor(actor, inputs, input.crop, input.mode, today);
+  const { plan, supply } = planFor(actor, inputs, input.crop, input.mode, today);
   return {
     machine: {
       id: inputs.machine.id,
@@ -148,7 +144,7 @@ export async function proposePlan(actor: Actor, input: PlanRequest) {
     shelf: inputs.shelf,
     plan,
     /** The plan's purchases on the dealer's shelf or to order, and the first day the work can start. */
-    supply: supplyOf(plan, inputs, today),
+    supply,
     /** ISO 4217 code of the plan's prices (the dealer's). */
     currency,
     // For the diagram beside the plan (server pages); the API leaves these out.
