@@ -8,3 +8,4 @@ export * from './classroom';
 export * from './audit';
 export * from './auth';
 export * from './field';
+export * from './shop';

@@ -56,6 +56,16 @@ const TABLE = {
   /** The dealer's parts desk: move a request along its workflow. */
   'parts.desk': ['technician', 'dealer_admin'],
   'lossChecks.write': ['operator', 'technician'],
+  /** Record a machine's engine and separator hours (also read at inspections, job cards, loss checks). */
+  'hours.record': HANDS,
+  /** See job cards, machine hours, part history and wear forecasts of the machines one sees. */
+  'shop.view': HANDS,
+  /** Open, plan, assign, work and sign off job cards. */
+  'jobs.manage': ['technician', 'dealer_admin'],
+  /** The dealer's flat-rate minutes per kind of job-card step. */
+  'flatRates.write': ['dealer_admin'],
+  /** The dealer's before-the-season list of customer machines with parts near their wear limit. */
+  'season.list': ['technician', 'dealer_admin'],
   /** The classroom: decks, slides, deck links. */
   'decks.use': ['trainer', 'technician'],
   /** The catalog pages (the API's catalog reads are open to every signed-in role). */
