@@ -310,7 +310,7 @@ function PaletteHint() {
   const canEdit = useEditor((s) => s.canEdit);
   const selected = useEditorLazy((s) => s.selectedPlace);
   return (
-    <p className="mt-0.5 text-xs text-ink-muted">
+    <p className="mt-0.5 text-xs text-ink-muted" data-testid="palette-hint">
       {canEdit
         ? selected && selected.kind !== 'setting'
           ? `Click a part to put it at ${placeWords(selected)}, or drag it onto the drawing.`
