@@ -4,7 +4,7 @@
  * A place key is a short stable string ('element:2:left', 'cover:2:right', 'bar:1:4',
  * 'setting:rotorRpm') usable as a map key, a DOM id fragment or a URL fragment.
  */
-import type { MachineFamily, Place, SettingField, Side } from './schemas';
+import type { MachineFamily, Place, SettingField } from './schemas';
 import { INDEX_MAX, SETTING_FIELD_VALUES, SIDE_VALUES } from './values';
 
 export type { Place, SettingField };
@@ -44,7 +44,7 @@ export function parsePlaceKey(key: string): Place | null {
     const n = Number(s);
     return n >= 1 && n <= INDEX_MAX ? n : null;
   };
-  const side = (s: string | undefined) => ((SIDE_VALUES as readonly (string | undefined)[]).includes(s) ? (s as Side) : null);
+  const side = (s: string | undefined) => SIDE_VALUES.find((x) => x === s) ?? null;
   switch (parts.length === 3 || parts.length === 2 ? parts[0] : undefined) {
     case 'element': {
       const position = index(parts[1]);
@@ -62,10 +62,8 @@ export function parsePlaceKey(key: string): Place | null {
       return parts.length === 3 && row !== null && position !== null ? { kind: 'bar', row, position } : null;
     }
     case 'setting': {
-      const field = parts[1];
-      return parts.length === 2 && (SETTING_FIELD_VALUES as readonly string[]).includes(field!)
-        ? { kind: 'setting', field: field as SettingField }
-        : null;
+      const field = SETTING_FIELD_VALUES.find((f) => f === parts[1]);
+      return parts.length === 2 && field ? { kind: 'setting', field } : null;
     }
     default:
       return null;
