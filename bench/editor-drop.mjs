@@ -89,6 +89,18 @@ try {
 
   const cdp = await page.context().newCDPSession(page);
 
+  // dnd-kit's live region, read in the page.
+  await page.evaluate(() => {
+    window.liveText = () => document.querySelector('[id^="DndLiveRegion"]')?.textContent ?? '';
+  });
+  /** A slot's place words in the editor's own phrasing: its label up to the first colon, as in a sentence. */
+  const placeWordsOf = async (key) => {
+    const label = await page.locator(`[data-testid="diagram-pane"] [data-place="${key}"]`).getAttribute('aria-label');
+    if (!label) throw new Error(`no slot ${key} in the drawing`);
+    const head = label.split(':')[0].trim();
+    return head.charAt(0).toLowerCase() + head.slice(1);
+  };
+
   await page.evaluate(() => {
     const w = window;
     w.__drops = [];
@@ -140,20 +152,26 @@ try {
       step(`rate ${rate} round ${i}`);
       await item.focus();
       await page.keyboard.press('Space');
-      await page.waitForFunction(() => /Picked up/.test(document.querySelector('[id^="DndLiveRegion"]')?.textContent ?? ''));
+      await page.waitForFunction(() => /Picked up/.test(window.liveText()));
       await page.waitForTimeout(100); // the sensor starts listening for keys on the next task
-      // Each step waits for its announcement (the sensor listens for keys a moment after pick-up).
-      for (const [k, where] of [
-        ['ArrowRight', 'left, position 1'],
-        ['ArrowRight', 'left, position 2'],
-        ['ArrowRight', 'left, position 3'],
-        ['ArrowDown', 'right, position 3'],
+      // Each step waits for its announcement (the sensor listens for keys a moment after pick-up):
+      // "Over <the slot's place words>, …", the words read from the slot's own label in the
+      // drawing (text before its first colon), so a change of phrasing does not stall the bench.
+      for (const [k, key] of [
+        ['ArrowRight', 'element:1:left'],
+        ['ArrowRight', 'element:2:left'],
+        ['ArrowRight', 'element:3:left'],
+        ['ArrowDown', 'element:3:right'],
       ]) {
+        const words = await placeWordsOf(key);
         await page.keyboard.press(k);
-        await page.waitForFunction(
-          (w) => (document.querySelector('[id^="DndLiveRegion"]')?.textContent ?? '').includes(`Over ${w},`),
-          where,
-        );
+        await page
+          .waitForFunction((w) => window.liveText().includes(`Over ${w},`), words, { timeout: 30_000 })
+          .catch(async (err) => {
+            throw new Error(`no "Over ${words}," after ${k}; the live region says: ${await page.evaluate(() => window.liveText())}`, {
+              cause: err,
+            });
+          });
       }
       await page.waitForTimeout(150); // let the carry settle, so only the drop is measured
       await page.evaluate(() => (window.__armed = true));

@@ -4,6 +4,7 @@
  * difference outlines the rotor strip. The words ("Δ vanes fast", "Δ slim drum") are
  * the frame's own labels, marked in the same colour (CageDiagram's Frame).
  */
+import { memo } from 'react';
 import type { SettingField } from '~/lib/domain/schemas';
 import type { DiagramGeometry } from './geometry';
 import { CHANGED_COLOUR } from './palette';
@@ -13,7 +14,8 @@ interface Props {
   changed: ReadonlySet<SettingField>;
 }
 
-export function SettingMarks({ geo, changed }: Props) {
+/** Memoised: an edit that changes no setting difference does not redraw it. */
+export const SettingMarks = memo(function SettingMarks({ geo, changed }: Props) {
   const vanes = changed.has('vaneSetting') || changed.has('vaneControl');
   const drum = changed.has('drum');
   if (!vanes && !drum) return null;
@@ -52,4 +54,4 @@ export function SettingMarks({ geo, changed }: Props) {
       )}
     </g>
   );
-}
+});

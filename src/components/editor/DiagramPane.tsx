@@ -9,7 +9,7 @@ import type { MachineFamily, Place } from '~/lib/domain/schemas';
 import { CageDiagram, type SlotAttrs, type SlotInfo } from '~/components/cage/CageDiagram';
 import { diagramGeometry, slotBox } from '~/components/cage/geometry';
 import { IRIS } from '~/components/cage/palette';
-import { beforeNextPaint } from './after-paint';
+import { afterPaint } from './after-paint';
 import { isPickUpKey, keepKeyForSensor, useCarry, useCarryUi } from './carry';
 import { accepts } from '~/lib/domain/layout-edits';
 import { partTitle } from './part-visuals';
@@ -24,8 +24,8 @@ const GEOMETRY_OPTIONS = { compact: false, endView: false } as const;
 const SMALLEST_FONT_UNITS = 9;
 const MIN_TEXT_PX = 11;
 
-/** The part chosen with a tap, waiting for a slot; a button lets go of it. */
-function ChosenPart() {
+/** The part chosen with a tap, waiting for a slot; a button lets go of it (its own state only). */
+const ChosenPart = memo(function ChosenPart() {
   const carry = useCarry();
   const armed = useCarryUi((s) => s.armed);
   useEffect(() => {
@@ -51,7 +51,7 @@ function ChosenPart() {
       </button>
     </div>
   );
-}
+});
 
 interface EditorSlotProps {
   info: SlotInfo;
@@ -202,11 +202,12 @@ export function DiagramPane() {
   const box = useRef<HTMLDivElement>(null);
 
   // Move keyboard focus to the selected place when asked (finding chosen, arrow keys, a keyboard
-  // drop). Focusing and scrolling force style and layout: done in the next frame, just before
-  // its own style and layout, they are worked out once, not once here and again for the frame.
+  // drop), after the frame that shows the edit is painted: focusing and scrolling restyle the
+  // page and run focus handlers, and the part and its findings are painted without waiting for
+  // them (the focus ring follows one frame later).
   useEffect(() => {
     if (focusSeq === 0) return;
-    return beforeNextPaint(() => {
+    return afterPaint(() => {
       const place = store.getState().selectedPlace;
       if (!place) return;
       const el =

@@ -2,11 +2,11 @@
  * The editor's own live region: what an edit did and what the rules now say. The words follow
  * the frame that shows the edit (a screen reader reads them a moment later anyway).
  */
-import { useAfterPaint } from './after-paint';
-import { useEditor } from './store/context';
+import { useEditorLazy } from './store/context';
 
 export function LiveRegion() {
-  const a = useAfterPaint(useEditor((s) => s.announcement));
+  // Not rendered at all in the frame of the edit (useEditorLazy): the words come after it.
+  const a = useEditorLazy((s) => s.announcement);
   return (
     <div role="status" aria-live="polite" aria-atomic="true" className="sr-only" data-testid="editor-announcer" data-seq={a.seq}>
       {a.text}

@@ -10,7 +10,7 @@ import type { CatalogPart, ElementType, Side, Zone } from '~/lib/domain/schemas'
 import { formatLength, mm, type UnitSystem } from '~/lib/domain/units';
 import { ELEMENT_TYPES, elementTypeLabel, partName, partNameWithHand, placeWords } from '~/lib/domain/vocabulary';
 import { PartSwatch, partDetail, partTitle } from './part-visuals';
-import { useEditor, useEditorStoreApi } from './store/context';
+import { useEditor, useEditorLazy, useEditorStoreApi } from './store/context';
 import { accepts } from '~/lib/domain/layout-edits';
 import type { StockCount } from './store/types';
 
@@ -305,12 +305,12 @@ const PaletteContents = memo(function PaletteContents() {
   );
 });
 
-/** The hint under the heading follows the selected slot. */
+/** The hint under the heading follows the selected slot, after the frame that shows an edit. */
 function PaletteHint() {
   const canEdit = useEditor((s) => s.canEdit);
-  const selected = useEditor((s) => s.selectedPlace);
+  const selected = useEditorLazy((s) => s.selectedPlace);
   return (
-    <p className="mt-0.5 text-xs text-ink-muted">
+    <p className="mt-0.5 text-xs text-ink-muted" data-testid="palette-hint">
       {canEdit
         ? selected && selected.kind !== 'setting'
           ? `Click a part to put it at ${placeWords(selected)}, or drag it onto the drawing.`

@@ -5,17 +5,17 @@
  * in the drawing does not re-render them.
  */
 import { memo, useMemo } from 'react';
-import { useAfterPaint } from './after-paint';
 import { computeSettings, drumFor } from '~/lib/domain/compute';
 import { cropIds, cropPrograms } from '~/lib/domain/crops';
-import { CLEARANCE_MAX_MM, CLEARANCE_MIN_MM, RPM_MAX, RPM_MIN, type SettingField } from '~/lib/domain/schemas';
+import type { SettingField } from '~/lib/domain/schemas';
+import { CLEARANCE_MAX_MM, CLEARANCE_MIN_MM, RPM_MAX, RPM_MIN } from '~/lib/domain/values';
 import { inRpmWindow, rpmWindow, rpmWindowWhole, rpmWindowWords, startRpm, tipSpeed } from '~/lib/domain/speed';
 import { VANE_CONTROL_HOW, vaneSettingsFor } from '~/lib/domain/vanes';
 import { formatLength, formatMass, formatSpeed, kg, mm, MM_PER_INCH, rpm } from '~/lib/domain/units';
 import { CageEndView } from '~/components/cage/EndView';
 import { SeverityBadge } from '~/components/cage/SeverityIcon';
 import { SEVERITY_STYLE } from '~/components/cage/palette';
-import { useEditor, useEditorStoreApi } from './store/context';
+import { useEditor, useEditorLazy, useEditorStoreApi } from './store/context';
 import { NumberField } from './NumberField';
 import type { EditorState } from './store/types';
 import { CAPACITY_MODEL_WORDS } from '~/lib/domain/cage-metrics';
@@ -272,13 +272,13 @@ function SettingsFields() {
 
 /**
  * Figures computed from the whole layout: open area, aggressiveness, capacity, parts. They follow
- * an edit one painted frame after the drawing and the findings (`useAfterPaint`), never before
- * them: the frame that shows the edit does not wait for them.
+ * an edit one painted frame after the drawing and the findings (`useEditorLazy`), never before
+ * them: the frame that shows the edit neither waits for them nor renders this component.
  */
 function ComputedFacts() {
   const family = useEditor((s) => s.family);
   const catalog = useEditor((s) => s.catalog);
-  const layout = useAfterPaint(useEditor((s) => s.layout));
+  const layout = useEditorLazy((s) => s.layout);
   const units = useEditor((s) => s.units);
   const c = useMemo(() => computeSettings(family, catalog, layout), [family, catalog, layout]);
   const pct = (x: number) => `${Math.round(x * 100)} %`;

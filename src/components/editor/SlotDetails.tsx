@@ -2,6 +2,7 @@
  * What the slot under the pointer (or the selected one) holds: part, part number, opening sizes
  * and open area, and how the opening compares with the crop's kernel. Shown under the drawing.
  */
+import { memo } from 'react';
 import { kernelPassage } from '~/lib/domain/cage-metrics';
 import { capitalise } from '~/lib/domain/words';
 import { cropPrograms } from '~/lib/domain/crops';
@@ -30,7 +31,8 @@ function kernelWords(part: CatalogPart, crop: CropId, units: UnitSystem): string
   return `${kernels} pass ${by}; the larger ones (about ${len(p.largerSizeMm)}) pass with ${len(p.requiredMarginMm)} to spare and ${len(p.spareMm!)} more.`;
 }
 
-export function SlotDetails() {
+/** Memoised: it has no props, and the drawing re-rendering for an edit does not re-render it. */
+export const SlotDetails = memo(function SlotDetails() {
   const hovered = useCarryUi((s) => s.pointed);
   // The details line follows an edit a moment after the drawing does (see useEditorLazy).
   const selected = useEditorLazy((s) => s.selectedPlace);
@@ -72,4 +74,4 @@ export function SlotDetails() {
       {part && kernelWords(part, crop, units) && <p className="text-ink-soft">{kernelWords(part, crop, units)}</p>}
     </div>
   );
-}
+});

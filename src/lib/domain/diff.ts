@@ -8,7 +8,8 @@
  * so two calls on the same pair always read alike.
  */
 import { barPlace, coverPlace, elementPlace, placeKey, settingPlace, type Place } from './places';
-import { settingFieldSchema, type Layout, type SettingField, type Side } from './schemas';
+import type { Layout, SettingField, Side } from './schemas';
+import { SETTING_FIELD_VALUES } from './values';
 import { placeLabel } from './vocabulary';
 
 /** added: empty in `a`, filled in `b`; removed: the reverse; changed: a different part or value. */
@@ -74,7 +75,7 @@ function diffPlaced<T>(
 /** The differences that turn layout `a` into layout `b`. */
 export function diffLayouts(a: Layout, b: Layout): LayoutDiff {
   const settings: SettingDifference[] = [];
-  for (const field of settingFieldSchema.options) {
+  for (const field of SETTING_FIELD_VALUES) {
     const x = a[field];
     const y = b[field];
     if (x !== y) settings.push({ kind: 'setting', place: settingPlace(field), field, change: 'changed', before: x, after: y });

@@ -7,8 +7,6 @@
  * organisation); the currency is always shown, as the locale writes it ("$1,185.00", "€1,185.00",
  * "CA$1,185.00").
  */
-import { z } from 'zod';
-
 /** The locale used when the person's own is not known (and on the server for e-mails and CSV). */
 export const DEFAULT_LOCALE = 'en-GB';
 /** The currency of the shared catalog's list prices, and of a dealer that has not chosen one. */
@@ -22,13 +20,6 @@ const knownCurrencies: ReadonlySet<string> = new Set(
 export function isCurrencyCode(code: string): boolean {
   return /^[A-Z]{3}$/.test(code) && (knownCurrencies.size === 0 || knownCurrencies.has(code));
 }
-
-/** An ISO 4217 code, upper-cased as typed ("eur" → "EUR"). */
-export const currencyCodeSchema = z
-  .string()
-  .trim()
-  .transform((s) => s.toUpperCase())
-  .refine(isCurrencyCode, 'use a three-letter ISO 4217 currency code, such as USD, EUR or CAD');
 
 /** A locale this runtime supports, else the default: never throws on what a browser sends. */
 export function safeLocale(locale: string | null | undefined): string {

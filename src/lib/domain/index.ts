@@ -3,6 +3,8 @@ export * from './units';
 export * from './schemas';
 export * from './places';
 export * from './crops';
+export * from './crop-schemas';
+export * from './values';
 export * from './catalog';
 export * from './compute';
 export { checkLayout, hasBlockingFindings, countBySeverity } from './rules';

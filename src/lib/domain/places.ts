@@ -4,7 +4,8 @@
  * A place key is a short stable string ('element:2:left', 'cover:2:right', 'bar:1:4',
  * 'setting:rotorRpm') usable as a map key, a DOM id fragment or a URL fragment.
  */
-import { placeSchema, settingFieldSchema, type MachineFamily, type Place, type SettingField } from './schemas';
+import type { MachineFamily, Place, SettingField } from './schemas';
+import { INDEX_MAX, SETTING_FIELD_VALUES, SIDE_VALUES } from './values';
 
 export type { Place, SettingField };
 export type ElementPlace = Extract<Place, { kind: 'element' }>;
@@ -30,27 +31,43 @@ export function placeKey(place: Place): string {
   }
 }
 
-/** The place a key names, or null when the key is malformed. */
+/**
+ * The place a key names, or null when the key is malformed: the rule of `placeSchema` (whole
+ * numbers from 1 to INDEX_MAX, a known side or setting), checked without zod so the islands
+ * that read keys from the drawing need not load it (tests/unit/domain/places.test.ts holds the
+ * two to the same answers).
+ */
 export function parsePlaceKey(key: string): Place | null {
   const parts = key.split(':');
-  let candidate: unknown = null;
-  const int = (s: string | undefined) => (s !== undefined && /^\d+$/.test(s) ? Number(s) : NaN);
-  switch (parts[0]) {
-    case 'element':
-      if (parts.length === 3) candidate = { kind: 'element', position: int(parts[1]), side: parts[2] };
-      break;
-    case 'cover':
-      if (parts.length === 3) candidate = { kind: 'cover', section: int(parts[1]), side: parts[2] };
-      break;
-    case 'bar':
-      if (parts.length === 3) candidate = { kind: 'bar', row: int(parts[1]), position: int(parts[2]) };
-      break;
-    case 'setting':
-      if (parts.length === 2) candidate = { kind: 'setting', field: parts[1] };
-      break;
+  const index = (s: string | undefined): number | null => {
+    if (s === undefined || !/^\d+$/.test(s)) return null;
+    const n = Number(s);
+    return n >= 1 && n <= INDEX_MAX ? n : null;
+  };
+  const side = (s: string | undefined) => SIDE_VALUES.find((x) => x === s) ?? null;
+  switch (parts.length === 3 || parts.length === 2 ? parts[0] : undefined) {
+    case 'element': {
+      const position = index(parts[1]);
+      const s = side(parts[2]);
+      return parts.length === 3 && position !== null && s ? { kind: 'element', position, side: s } : null;
+    }
+    case 'cover': {
+      const section = index(parts[1]);
+      const s = side(parts[2]);
+      return parts.length === 3 && section !== null && s ? { kind: 'cover', section, side: s } : null;
+    }
+    case 'bar': {
+      const row = index(parts[1]);
+      const position = index(parts[2]);
+      return parts.length === 3 && row !== null && position !== null ? { kind: 'bar', row, position } : null;
+    }
+    case 'setting': {
+      const field = SETTING_FIELD_VALUES.find((f) => f === parts[1]);
+      return parts.length === 2 && field ? { kind: 'setting', field } : null;
+    }
+    default:
+      return null;
   }
-  const parsed = placeSchema.safeParse(candidate);
-  return parsed.success ? parsed.data : null;
 }
 
 export function samePlace(a: Place, b: Place): boolean {
@@ -76,4 +93,4 @@ export function allPlaces(family: MachineFamily): Place[] {
 }
 
 /** The settings beside the diagram, in the order the editor shows them. */
-export const settingPlaces: readonly SettingPlace[] = settingFieldSchema.options.map(settingPlace);
+export const settingPlaces: readonly SettingPlace[] = SETTING_FIELD_VALUES.map(settingPlace);

@@ -8,69 +8,84 @@
  * zod refuses `.pick()`/`.omit()` on refined objects (forms may want a subset).
  */
 import { z } from 'zod';
+import { isCurrencyCode } from './format';
 import { storableString } from './text';
+import {
+  BAR_KIND_VALUES,
+  CAGE_KIND_VALUES,
+  CLEARANCE_MAX_MM,
+  CLEARANCE_MIN_MM,
+  CROP_ID_VALUES,
+  DRUM_ID_VALUES,
+  ELEMENT_ROLE_VALUES,
+  ELEMENT_TYPE_VALUES,
+  INDEX_MAX,
+  LAYOUT_FORMAT,
+  RPM_MAX,
+  RPM_MIN,
+  SETTING_FIELD_VALUES,
+  SEVERITY_VALUES,
+  SIDE_VALUES,
+  VANE_CONTROL_VALUES,
+  VANE_SETTING_VALUES,
+  ZONE_VALUES,
+} from './values';
+
+export { CLEARANCE_MAX_MM, CLEARANCE_MIN_MM, LAYOUT_FORMAT, RPM_MAX, RPM_MIN };
 
 // ---------------------------------------------------------------------------------------------
 // Enumerations
 
-export const zoneSchema = z.enum(['threshing', 'separating']);
+export const zoneSchema = z.enum(ZONE_VALUES);
 export type Zone = z.infer<typeof zoneSchema>;
 
-export const sideSchema = z.enum(['left', 'right']);
+export const sideSchema = z.enum(SIDE_VALUES);
 export type Side = z.infer<typeof sideSchema>;
 
 /** modular: any element in any position; split: concaves in front, grates at the rear. */
-export const cageKindSchema = z.enum(['modular', 'split']);
+export const cageKindSchema = z.enum(CAGE_KIND_VALUES);
 export type CageKind = z.infer<typeof cageKindSchema>;
 
-export const elementTypeSchema = z.enum(['fine-wire', 'wide-wire', 'skip-wire', 'round-bar', 'perforated', 'blank', 'close-bar']);
+export const elementTypeSchema = z.enum(ELEMENT_TYPE_VALUES);
 export type ElementType = z.infer<typeof elementTypeSchema>;
 
 /** Split cages: a concave goes in front only, a grate at the rear only. Modular parts: 'either'. */
-export const elementRoleSchema = z.enum(['concave', 'grate', 'either']);
+export const elementRoleSchema = z.enum(ELEMENT_ROLE_VALUES);
 export type ElementRole = z.infer<typeof elementRoleSchema>;
 
-export const barKindSchema = z.enum(['rasp', 'smooth-rasp', 'spike-rasp', 'straight', 'discharge']);
+export const barKindSchema = z.enum(BAR_KIND_VALUES);
 export type BarKind = z.infer<typeof barKindSchema>;
 
-export const vaneControlSchema = z.enum(['fixed', 'manual', 'powered']);
+export const vaneControlSchema = z.enum(VANE_CONTROL_VALUES);
 export type VaneControl = z.infer<typeof vaneControlSchema>;
 
-export const vaneSettingSchema = z.enum(['very-slow', 'slow', 'medium', 'fast']);
+export const vaneSettingSchema = z.enum(VANE_SETTING_VALUES);
 export type VaneSetting = z.infer<typeof vaneSettingSchema>;
 
-export const drumIdSchema = z.enum(['full', 'slim']);
+export const drumIdSchema = z.enum(DRUM_ID_VALUES);
 export type DrumId = z.infer<typeof drumIdSchema>;
 
-export const cropIdSchema = z.enum([
-  'wheat',
-  'barley',
-  'oats',
-  'canola',
-  'field-peas',
-  'lentils',
-  'soybeans',
-  'edible-beans',
-  'corn',
-  'rice',
-  'sunflower',
-  'grass-seed',
-  'sorghum',
-  'hemp',
-]);
+export const cropIdSchema = z.enum(CROP_ID_VALUES);
 export type CropId = z.infer<typeof cropIdSchema>;
 
 /** blocks-fit: will not bolt on / cannot run; hurts-crop: works badly for the crop; advice. */
-export const severitySchema = z.enum(['blocks-fit', 'hurts-crop', 'advice']);
+export const severitySchema = z.enum(SEVERITY_VALUES);
 export type Severity = z.infer<typeof severitySchema>;
 
-export const settingFieldSchema = z.enum(['crop', 'drum', 'rotorRpm', 'clearanceMm', 'vaneControl', 'vaneSetting']);
+export const settingFieldSchema = z.enum(SETTING_FIELD_VALUES);
 export type SettingField = z.infer<typeof settingFieldSchema>;
 
 // ---------------------------------------------------------------------------------------------
 // Small building blocks
 
-const index1 = z.int().min(1).max(64);
+/** An ISO 4217 code, upper-cased as typed ("eur" → "EUR"); see `isCurrencyCode` in format.ts. */
+export const currencyCodeSchema = z
+  .string()
+  .trim()
+  .transform((s) => s.toUpperCase())
+  .refine(isCurrencyCode, 'use a three-letter ISO 4217 currency code, such as USD, EUR or CAD');
+
+const index1 = z.int().min(1).max(INDEX_MAX);
 /** Lower-case words joined by dashes: 'tamarack-m4'. */
 export const slugSchema = z
   .string()
@@ -246,12 +261,6 @@ export type CatalogPartKind = CatalogPart['kind'];
 
 // ---------------------------------------------------------------------------------------------
 // Layout: the exchange format
-
-export const LAYOUT_FORMAT = 'cagewright.layout/1' as const;
-export const RPM_MIN = 100;
-export const RPM_MAX = 1500;
-export const CLEARANCE_MIN_MM = 0.5;
-export const CLEARANCE_MAX_MM = 80;
 
 export const placedElementSchema = z.object({ position: index1, side: sideSchema, partNumber: partNumberSchema });
 export type PlacedElement = z.infer<typeof placedElementSchema>;

@@ -3,10 +3,10 @@
  * (common practice, no published source).
  */
 import type { VaneControl, VaneSetting } from './schemas';
-import { vaneSettingSchema } from './schemas';
+import { VANE_SETTING_VALUES } from './values';
 
 /** Every vane setting, slowest first. */
-export const VANE_SETTINGS: readonly VaneSetting[] = vaneSettingSchema.options;
+export const VANE_SETTINGS: readonly VaneSetting[] = VANE_SETTING_VALUES;
 
 /**
  * The settings each control can take. Bolt-set vanes have bolt holes for slow, medium and fast

@@ -6,18 +6,8 @@
  * ("perforated plate", never "Perforated" in one place and "perforated-plate" in another).
  * Never ids. Pure (the domain imports nothing but zod and itself).
  */
-import {
-  barKindSchema,
-  elementTypeSchema,
-  type BarKind,
-  type CatalogPart,
-  type CropId,
-  type ElementType,
-  type Place,
-  type SettingField,
-  type Severity,
-  type Side,
-} from './schemas';
+import type { BarKind, CatalogPart, CropId, ElementType, Place, SettingField, Severity, Side } from './schemas';
+import { BAR_KIND_VALUES, ELEMENT_TYPE_VALUES } from './values';
 import { isRoundHole } from './cage-metrics';
 import { formatLength, mm, type UnitSystem } from './units';
 import { capitalise, plural, withArticle } from './words';
@@ -25,10 +15,10 @@ import { capitalise, plural, withArticle } from './words';
 // ---------------------------------------------------------------------------------------------
 // Kinds of part
 
-/** Every element type, in the schema's order (the list is the schema's, never a copy). */
-export const ELEMENT_TYPES: readonly ElementType[] = elementTypeSchema.options;
+/** Every element type, in the schema's order (the list the schema is built from, never a copy). */
+export const ELEMENT_TYPES: readonly ElementType[] = ELEMENT_TYPE_VALUES;
 /** Every kind of rotor bar, in the schema's order. */
-export const BAR_KINDS: readonly BarKind[] = barKindSchema.options;
+export const BAR_KINDS: readonly BarKind[] = BAR_KIND_VALUES;
 
 /** The one name of each element type, as said in a sentence: "perforated plate". */
 const ELEMENT_NAMES: Readonly<Record<ElementType, string>> = {

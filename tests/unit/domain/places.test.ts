@@ -47,6 +47,47 @@ describe('place keys', () => {
     ])
       expect(parsePlaceKey(k), k).toBeNull();
   });
+
+  // parsePlaceKey checks without zod (the editor island does not load it); it must give the
+  // schema's answer for any key, well formed or not.
+  it('answer as placeSchema does, for any key', () => {
+    const schemaAnswer = (key: string): Place | null => {
+      const [kind, a, b, ...rest] = key.split(':');
+      const int = (s: string | undefined) => (s !== undefined && /^\d+$/.test(s) ? Number(s) : NaN);
+      const candidate =
+        rest.length > 0
+          ? null
+          : kind === 'element'
+            ? { kind, position: int(a), side: b }
+            : kind === 'cover'
+              ? { kind, section: int(a), side: b }
+              : kind === 'bar'
+                ? { kind, row: int(a), position: int(b) }
+                : kind === 'setting' && b === undefined
+                  ? { kind, field: a }
+                  : null;
+      if (candidate && kind !== 'setting' && b === undefined) return null;
+      const parsed = placeSchema.safeParse(candidate);
+      return parsed.success ? parsed.data : null;
+    };
+    const piece = fc.oneof(
+      fc.constantFrom('element', 'cover', 'bar', 'setting', 'left', 'right', 'up', 'crop', 'rotorRpm', 'vaneSetting', 'speed', ''),
+      fc.integer({ min: -2, max: 70 }).map(String),
+      fc.constantFrom('0', '1', '64', '65', '007', '1.5', '1e1', ' 2', '２'),
+      fc.string({ maxLength: 4 }),
+    );
+    fc.assert(
+      fc.property(fc.array(piece, { minLength: 1, maxLength: 4 }), (pieces) => {
+        const key = pieces.join(':');
+        expect(parsePlaceKey(key), key).toEqual(schemaAnswer(key));
+      }),
+      { numRuns: 3000 },
+    );
+    for (const k of ['element:64:right', 'cover:1:left', 'bar:64:64', 'setting:vaneControl', 'element:007:left'])
+      expect(parsePlaceKey(k), k).toEqual(schemaAnswer(k));
+    expect(parsePlaceKey('element:007:left')).toEqual({ kind: 'element', position: 7, side: 'left' });
+    expect(parsePlaceKey('bar:65:1')).toBeNull();
+  });
 });
 
 describe('allPlaces: the drawing order', () => {

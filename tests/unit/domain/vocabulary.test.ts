@@ -8,6 +8,7 @@ import { planCropChange } from '~/lib/domain/planner';
 import { checkLayout } from '~/lib/domain/rules';
 import { barKindSchema, elementTypeSchema, type CatalogPart, type Place } from '~/lib/domain/schemas';
 import { starterLayout } from '~/lib/domain/starter';
+import { BAR_KIND_VALUES, ELEMENT_TYPE_VALUES } from '~/lib/domain/values';
 import {
   BAR_KINDS,
   ELEMENT_TYPES,
@@ -101,9 +102,11 @@ describe('one phrasing for a slot everywhere', () => {
 });
 
 describe('one name per kind of part', () => {
-  it("the element types are the schema's list, not a copy", () => {
-    expect(ELEMENT_TYPES).toBe(elementTypeSchema.options);
-    expect(BAR_KINDS).toBe(barKindSchema.options);
+  it('the element types are the list the schema is built from, not a copy', () => {
+    expect(ELEMENT_TYPES).toBe(ELEMENT_TYPE_VALUES);
+    expect(BAR_KINDS).toBe(BAR_KIND_VALUES);
+    expect(elementTypeSchema.options).toEqual([...ELEMENT_TYPE_VALUES]);
+    expect(barKindSchema.options).toEqual([...BAR_KIND_VALUES]);
   });
   it('label and sentence name of each kind are the same words', () => {
     for (const t of ELEMENT_TYPES) expect(elementTypeLabel(t).toLowerCase()).toBe(elementTypeName(t));
