@@ -41,6 +41,7 @@ export interface DemoIds {
   deckId: string;
   shareToken: string;
   deckShareToken: string;
+  jobId: string;
 }
 
 /** How each pattern with params is filled (the pattern exactly as the folder spells it). */
@@ -62,6 +63,8 @@ const FILL: Record<string, (d: DemoIds) => string> = {
   '/machines/[id]/layouts/[layoutId]/compare': (d) => `/machines/${d.machineId}/layouts/${d.layoutId}/compare`,
   '/machines/[id]/layouts/[layoutId]/history': (d) => `/machines/${d.machineId}/layouts/${d.layoutId}/history`,
   '/machines/[id]/layouts/[layoutId]/share': (d) => `/machines/${d.machineId}/layouts/${d.layoutId}/share`,
+  '/jobs/[id]': (d) => `/jobs/${d.jobId}`,
+  '/jobs/[id]/sheet': (d) => `/jobs/${d.jobId}/sheet`,
   '/parts-requests/[id]': (d) => `/parts-requests/${d.partsRequestId}`,
   '/share/[token]': (d) => `/share/${d.shareToken}`,
   '/share/deck/[token]': (d) => `/share/deck/${d.deckShareToken}`,
@@ -97,6 +100,8 @@ export async function demoIds(browser: Browser): Promise<DemoIds> {
   const inspections = (await (await tech.get('/api/inspections?pageSize=100')).json()).items as { id: string }[];
   const requests = await (await tech.get('/api/parts-requests')).json();
   const partsRequestId = ((requests.items ?? requests.requests ?? requests) as { id: string }[])[0]!.id;
+  // The demo's job card (seeded), or the first the technician sees.
+  const jobId = ((await (await tech.get('/api/jobs')).json()).items as { id: string }[])[0]!.id;
   const share = await tech.post('/api/share-links', { data: { layoutId, version: layout.layout.currentVersion, label: 'page run' } });
   expect(share.status()).toBe(201);
   const sb = await share.json();
@@ -117,6 +122,7 @@ export async function demoIds(browser: Browser): Promise<DemoIds> {
     deckId,
     shareToken: sb.token ?? sb.link?.token,
     deckShareToken: dsb.token ?? dsb.link?.token,
+    jobId,
   };
   await techSession.close();
   await trainerSession.close();

@@ -15,6 +15,9 @@ const ADMINS: Role[] = ['dealer_admin', 'instance_admin'];
 const INSTANCE: Role[] = ['instance_admin'];
 const DEALER_ADMIN: Role[] = ['dealer_admin'];
 const PRICE_READERS: Role[] = ['technician', 'dealer_admin'];
+/** Who sees shop work (access.ts shop.view) and who manages job cards (jobs.manage). */
+const SHOP: Role[] = ['operator', 'technician', 'dealer_admin'];
+const JOBS: Role[] = ['technician', 'dealer_admin'];
 /** Who records loss checks (services/field-checks.ts LOSS_CHECK_WRITERS). */
 const FIELD: Role[] = ['operator', 'technician'];
 
@@ -242,6 +245,34 @@ export const MATRIX: Record<string, Row> = {
     body: () => ({ quantity: 3, leadDays: 5 }),
     other: 'none',
     why: 'always the caller’s own dealer: tenancy tests in planner-stock.test.ts',
+  },
+  // Job cards and flat rates (shop work).
+  'GET /api/jobs': { allowed: SHOP, other: 'not-listed' },
+  'POST /api/jobs': {
+    allowed: JOBS,
+    body: (f) => ({ origin: 'hand', machineId: f.machineId, title: 'taken over', steps: [{ kind: 'other', text: 'x' }] }),
+    other: 'not-found',
+  },
+  'GET /api/jobs/[id]': { allowed: SHOP, params: (f) => ({ id: f.jobId }), other: 'not-found' },
+  'PATCH /api/jobs/[id]': { allowed: JOBS, params: (f) => ({ id: f.jobId }), body: () => ({ title: 'taken over' }), other: 'not-found' },
+  'POST /api/jobs/[id]/status': {
+    allowed: JOBS,
+    params: (f) => ({ id: f.jobId }),
+    body: () => ({ status: 'in_progress' }),
+    other: 'not-found',
+  },
+  'POST /api/jobs/[id]/sign-off': {
+    allowed: JOBS,
+    params: (f) => ({ id: f.jobId }),
+    body: () => ({ checklist: { concaveZeroed: true } }),
+    other: 'not-found',
+  },
+  'GET /api/flat-rates': { allowed: DEALER_ADMIN, other: 'none', why: 'always the caller’s own dealer: jobs tests' },
+  'PUT /api/flat-rates': {
+    allowed: DEALER_ADMIN,
+    body: () => ({ rates: { other: 15 } }),
+    other: 'none',
+    why: 'always the caller’s own dealer (another dealer’s rates stay apart: jobs tests)',
   },
   'GET /api/share-links': { allowed: ALL, other: 'not-listed' },
   'POST /api/share-links': { allowed: WRITERS, body: (f) => ({ layoutId: f.layoutId, version: 1 }), other: 'not-found' },

@@ -43,6 +43,8 @@ export interface Fixtures {
   /** A member of the demo dealer (the trainer): their id, that dealer's id and their role there. */
   member: { userId: string; orgId: string; role: string };
   lossCheckId: string;
+  /** A job card by hand on the demo machine (made by the demo technician). */
+  jobId: string;
   /** A tiny valid PNG for upload routes. */
   png: Uint8Array;
 }
@@ -127,6 +129,16 @@ export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures>
     lossCheckId = made.body.id as string;
   }
 
+  // A job card of the machine, planned, made here (job cards are shop work, not demo data).
+  const job = await own.technician.post('/api/jobs', {
+    origin: 'hand',
+    machineId,
+    title: 'Matrix job',
+    steps: [{ kind: 'check', text: 'Look the cage over.' }],
+  });
+  expect(job.status, JSON.stringify(job.body)).toBe(201);
+  const jobId: string = job.body.id;
+
   const people = (await own.dealer_admin.get('/api/admin/users')).body.users as {
     id: string;
     email: string;
@@ -139,6 +151,7 @@ export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures>
   return {
     member,
     lossCheckId,
+    jobId,
     machineId,
     familyId,
     family: family.family?.spec ?? family.family ?? family,

@@ -32,6 +32,9 @@ const DECK: Role[] = ['trainer', 'technician'];
 /** Runs the installation, belongs to no tenant: a farm's or dealer's resource is a 404 to them. */
 const STRANGERS_TO_TENANTS: Role[] = ['instance_admin'];
 
+/** Shop work: who sees job cards (shop.view) and who manages them (jobs.manage). */
+const SHOP: Role[] = ['operator', 'technician', 'dealer_admin'];
+const JOBS: Role[] = ['technician', 'dealer_admin'];
 const machine = (f: Fixtures) => ({ id: f.machineId });
 const layoutOf = (f: Fixtures) => ({ id: f.machineId, layoutId: f.layoutId });
 const deck = (f: Fixtures) => ({ deckId: f.deckId });
@@ -48,6 +51,7 @@ const PAGES: Record<string, PageRow> = {
   '/admin/mailbox': { allowed: ADMINS, other: 'own-data' },
   '/admin/prices': { allowed: PRICE_READERS, other: 'own-data' },
   '/admin/stock': { allowed: ['dealer_admin'], other: 'own-data' },
+  '/admin/flat-rates': { allowed: ['dealer_admin'], other: 'own-data' },
   '/admin/starting-values': { allowed: ALL, other: 'own-data' },
   '/classroom': { allowed: DECK, other: 'own-data' },
   '/classroom/[deckId]': { allowed: DECK, params: deck, other: 'not-found' },
@@ -59,6 +63,10 @@ const PAGES: Record<string, PageRow> = {
   '/inspections/[id]': { allowed: ALL, params: (f) => ({ id: f.inspectionId }), other: 'not-found' },
   '/inspections/[id]/report': { allowed: ALL, params: (f) => ({ id: f.inspectionId }), other: 'not-found' },
   '/inspections/history/[machineId]': { allowed: ALL, params: (f) => ({ machineId: f.machineId }), other: 'not-found' },
+  '/jobs': { allowed: SHOP, other: 'own-data' },
+  '/jobs/new': { allowed: JOBS, other: 'own-data' },
+  '/jobs/[id]': { allowed: SHOP, params: (f) => ({ id: f.jobId }), other: 'not-found' },
+  '/jobs/[id]/sheet': { allowed: SHOP, params: (f) => ({ id: f.jobId }), other: 'not-found' },
   '/machines': { allowed: ALL, other: 'own-data' },
   '/machines/new': { allowed: WRITERS, other: 'own-data' },
   '/machines/[id]': { allowed: ALL, params: machine, other: 'not-found' },

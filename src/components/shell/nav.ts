@@ -18,6 +18,7 @@ export const NAV: readonly NavItem[] = [
   { href: '/planner', label: 'Crop change', action: 'plans.make' },
   { href: '/parts-requests', label: 'Parts requests', action: 'parts.request' },
   { href: '/inspections', label: 'Inspections', action: 'inspections.write' },
+  { href: '/jobs', label: 'Job cards', action: 'shop.view' },
   { href: '/field-check', label: 'Field check', action: 'fleet.view' },
   { href: '/classroom', label: 'Classroom', action: 'decks.use' },
   { href: '/admin/catalog', label: 'Catalog', action: 'catalog.read' },

@@ -140,7 +140,7 @@ export type Plan = PlanOk | PlanImpossible;
 
 const GROUPS: readonly SlotGroup[] = ['element', 'cover', 'bar'];
 
-function installedUnits(installed: Layout | null, catalog: CatalogIndex): { units: Unit[]; unknown: Removal[] } {
+export function installedUnits(installed: Layout | null, catalog: CatalogIndex): { units: Unit[]; unknown: Removal[] } {
   const units: Unit[] = [];
   const unknown: Removal[] = [];
   if (!installed) return { units, unknown };

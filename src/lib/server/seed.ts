@@ -5,6 +5,7 @@ import { starterLayout } from '~/lib/domain/starter';
 import type { CropId, DrumId, Layout, MachineFamily, VaneControl } from '~/lib/domain/schemas';
 import { hashPassword } from './auth/passwords';
 import { seedDemoDeck } from './demo-deck';
+import { seedDemoJobs } from './demo-jobs';
 
 /**
  * The invented demo: one dealer with a parts desk and a trainer, two farms, three machines of
@@ -183,6 +184,8 @@ export async function seedDemo(db: Db) {
       }
     }
     await seedDemoDeck(tx, { orgId: kestrel!.id, trainerId: userIds['priya@kestrel.example']! });
+    // Shop work (job cards): the dealer's flat rates and one planned job card, invented.
+    await seedDemoJobs(tx, { dealerId: kestrel!.id, technicianId: userIds['tomas@kestrel.example']! });
     await tx.insert(t.auditLog).values({ action: 'seed', entity: 'demo', detail: { machines: fleet.length } });
   });
   await (await import('./demo-inspection')).seedDemoInspection(db);

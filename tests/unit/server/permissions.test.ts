@@ -14,13 +14,14 @@ const src = join(root, 'src');
  * about a tenant's machines, so the instance administrator, who belongs to no tenant, has none.
  */
 const EXPECTED_NAV: Record<Role, string[]> = {
-  operator: ['/', '/machines', '/planner', '/parts-requests', '/inspections', '/field-check'],
+  operator: ['/', '/machines', '/planner', '/parts-requests', '/inspections', '/jobs', '/field-check'],
   technician: [
     '/',
     '/machines',
     '/planner',
     '/parts-requests',
     '/inspections',
+    '/jobs',
     '/field-check',
     '/classroom',
     '/admin/catalog',
@@ -33,6 +34,7 @@ const EXPECTED_NAV: Record<Role, string[]> = {
     '/planner',
     '/parts-requests',
     '/inspections',
+    '/jobs',
     '/field-check',
     '/admin/catalog',
     '/admin/prices',

@@ -28,7 +28,7 @@ export interface FinishInput {
 
 type Draft = Omit<PlanStep, 'n'>;
 
-function torqueWords(nm: number, units: UnitSystem): string {
+export function torqueWords(nm: number, units: UnitSystem): string {
   const lbf = formatNumber(nm / NM_PER_LBF_FT);
   const n = formatNumber(nm);
   return units === 'imperial' ? `${lbf} lbf·ft (${n} N·m)` : `${n} N·m (${lbf} lbf·ft)`;

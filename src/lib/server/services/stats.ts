@@ -25,6 +25,12 @@ const TABLES = {
   lossChecks: t.lossChecks,
   startingValues: t.startingValues,
   auditLog: t.auditLog,
+  // Shop work: machine hours and job cards.
+  machineHours: t.machineHours,
+  jobCards: t.jobCards,
+  jobSteps: t.jobSteps,
+  jobParts: t.jobParts,
+  flatRates: t.flatRates,
 } as const;
 
 type Counts = Record<keyof typeof TABLES, number>;
@@ -63,6 +69,11 @@ function scopeOf(visible: string[], dealerId: string | null): Record<keyof typeo
     lossChecks: inArray(t.lossChecks.orgId, visible),
     startingValues: inArray(t.startingValues.dealerId, visible),
     auditLog: inArray(t.auditLog.orgId, visible),
+    machineHours: inArray(t.machineHours.orgId, visible),
+    jobCards: inArray(t.jobCards.orgId, visible),
+    jobSteps: sql`exists (select 1 from ${t.jobCards} j where j.id = ${t.jobSteps.jobId} and ${inVisible(sql`j.org_id`)})`,
+    jobParts: sql`exists (select 1 from ${t.jobCards} j where j.id = ${t.jobParts.jobId} and ${inVisible(sql`j.org_id`)})`,
+    flatRates: inArray(t.flatRates.dealerId, visible),
   };
 }
 
