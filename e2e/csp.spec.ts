@@ -75,3 +75,21 @@ test('islands hydrate under the CSP in the classroom', async ({ page }) => {
   await expectHydrated(page, `/classroom/${deck.id}/present`, violations);
   await shot(page, 'csp-classroom-present', false);
 });
+
+test('Print buttons print under the CSP (a bundled handler, not an inline one)', async ({ page }) => {
+  const violations = await watchViolations(page);
+  await page.addInitScript(() => {
+    (window as unknown as { printed: number }).printed = 0;
+    window.print = () => void (window as unknown as { printed: number }).printed++;
+  });
+  await signIn(page, 'dealerAdmin');
+  const machines = (await (await page.request.get('/api/machines?pageSize=5')).json()).items as { id: string }[];
+  await page.goto(`/machines/${machines[0]!.id}/card`);
+  await page.getByRole('button', { name: 'Print the card' }).click();
+  await expect.poll(() => page.evaluate(() => (window as unknown as { printed: number }).printed)).toBe(1);
+  const inspections = (await (await page.request.get('/api/inspections?pageSize=5')).json()).items as { id: string }[];
+  await page.goto(`/inspections/${inspections[0]!.id}/report`);
+  await page.getByRole('button', { name: 'Print' }).click();
+  await expect.poll(() => page.evaluate(() => (window as unknown as { printed: number }).printed)).toBe(1);
+  expect(violations).toEqual([]);
+});
