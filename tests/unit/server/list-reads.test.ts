@@ -180,6 +180,24 @@ describe('the machines list at 2,000 machines', () => {
     expect(machineScans[0]!['Actual Rows']).toBeLessThanOrEqual(1000);
   });
 
+  it('keeps the total while nothing is written (the page is always read), and counts again after any write', async () => {
+    const query = machineListQuerySchema.parse({ page: '3', pageSize: '10' });
+    await listMachines(dealer, query);
+    const again = await statementsOf(() => listMachines(dealer, query));
+    expect(again.statements).toHaveLength(1);
+    expect(again.result.total).toBe(MACHINES);
+    // Another actor seeing other organisations has a total of their own.
+    expect((await listMachines(outsider, query)).total).toBe(1);
+    await rows(sql`
+      insert into machines (org_id, family_id, drum, vane_control, serial, nickname)
+      values (${farmIds[0]}, ${family.id}, 'full', 'fixed', 'SN-NEW', 'Unit New')`);
+    const after = await statementsOf(() => listMachines(dealer, query));
+    expect(after.statements).toHaveLength(2);
+    expect(after.result.total).toBe(MACHINES + 1);
+    await rows(sql`delete from machines where serial = 'SN-NEW'`);
+    expect((await listMachines(dealer, query)).total).toBe(MACHINES);
+  });
+
   it('pages on through the same order, and sorts by name both ways', async () => {
     const expected = (await everything()).sort(byUpdatedDesc);
     const p1 = await listMachines(dealer, machineListQuerySchema.parse({ page: '1', pageSize: '100' }));

@@ -1,6 +1,6 @@
 import { and, asc, count, eq, ilike, inArray, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb, type Db } from '~/lib/server/db';
+import { getDb, store, storeWriteGeneration, type Db } from '~/lib/server/db';
 import { catalogParts, families, installed, machines, organisations } from '~/db/schema';
 import { drumIdSchema, slugSchema, vaneControlSchema, type CatalogPart, type MachineFamily } from '~/lib/domain/schemas';
 import type { Actor } from '~/lib/server/access';
@@ -162,7 +162,7 @@ const SEARCH_SEPARATOR = '\u001f';
  * - sorted by a machine's own column without a text query: the page is read in order from an
  *   index (machines_updated_idx, machines_nickname_idx, or the per-organisation ones when one
  *   organisation is seen) and stops after the page; only the page's rows are joined to their
- *   family and farm names; the total is one count on machines alone;
+ *   family and farm names; the total is one count on machines alone (kept while nothing is written, keptCount below);
  * - with a text query, or sorted by the family's or farm's name: every matching machine has to
  *   be seen anyway, so one statement reads them once and counts them in the same pass
  *   (count(*) over ()); the query matches one stored lower-case value per machine
@@ -249,7 +249,33 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
     .innerJoin(families, eq(families.id, page.familyId))
     .innerJoin(organisations, eq(organisations.id, page.orgId))
     .orderBy(desc_ ? sql`${pageColumn} desc nulls last` : asc(pageColumn), asc(page.id));
-  return answer(rows, await countAll());
+  return answer(rows, await keptCount([[...actor.visibleOrgIds].sort(), query.orgId, query.familyId], countAll));
+}
+
+/**
+ * Totals of the list without a text query, kept with the embedded store only and used only while
+ * the store has not been written since they were counted (the rule of `layoutWithCurrent`'s
+ * kept reads: `storeWriteGeneration` moves with every write statement and transaction). Paging
+ * through the fleet then counts it once; the page itself is always read. With a PostgreSQL
+ * server other processes write too, and every total is counted.
+ */
+const KEPT_COUNTS_CAP = 256;
+const keptCounts = new Map<string, { db: Db; generation: number; n: number }>();
+
+async function keptCount(key: unknown[], countNow: () => Promise<number>): Promise<number> {
+  const s = await store();
+  if (s.mode !== 'pglite') return countNow();
+  const k = JSON.stringify(key);
+  const kept = keptCounts.get(k);
+  if (kept && kept.db === s.db && kept.generation === storeWriteGeneration()) return kept.n;
+  const generation = storeWriteGeneration();
+  const n = await countNow();
+  if (generation === storeWriteGeneration()) {
+    keptCounts.delete(k);
+    if (keptCounts.size >= KEPT_COUNTS_CAP) keptCounts.delete(keptCounts.keys().next().value!);
+    keptCounts.set(k, { db: s.db, generation, n });
+  }
+  return n;
 }
 
 function assertMachineFitsFamily(family: MachineFamily, drum: string, vaneControl: string) {
