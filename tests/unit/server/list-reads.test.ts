@@ -14,7 +14,8 @@ process.env.CAGEWRIGHT_SEED = 'off';
 
 const { store, getDb } = await import('~/lib/server/db');
 const { listMachines, machineListQuerySchema } = await import('~/lib/server/services/machines');
-const { listVersions, listLayoutsForMachine, saveVersion, versionListQuerySchema } = await import('~/lib/server/services/layouts');
+const { layoutOnMachineWithVersions, listVersions, listLayoutsForMachine, saveVersion, versionListQuerySchema } =
+  await import('~/lib/server/services/layouts');
 const { families, catalogParts } = await import('~/db/schema');
 const { demoCatalog, demoFamilies } = await import('~/lib/domain/demo-catalog');
 const { starterLayout } = await import('~/lib/domain/starter');
@@ -38,9 +39,13 @@ let outsiderMachine: string;
 /** A layout with 120 versions on a machine the dealer sees. */
 let longLayout: { id: string; machineId: string };
 
+/** The embedded store's own client under Drizzle. */
+const rawClient = async () =>
+  ((await getDb()) as unknown as { $client: { query: (text: string, params?: unknown[]) => Promise<{ rows: unknown[] }> } }).$client;
+
 /** Every statement sent to the store while `run` runs. */
 async function statementsOf<T>(run: () => Promise<T>): Promise<{ result: T; statements: string[] }> {
-  const client = (await getDb()).$client as unknown as Record<'query' | 'exec', (...args: unknown[]) => Promise<unknown>>;
+  const client = (await rawClient()) as unknown as Record<'query' | 'exec', (...args: unknown[]) => Promise<unknown>>;
   const original = { query: client.query, exec: client.exec };
   const statements: string[] = [];
   for (const name of ['query', 'exec'] as const) {
@@ -169,7 +174,7 @@ describe('the machines list at 2,000 machines', () => {
     // The page's plan: machines read in order from an index, stopping after the page.
     const page = statements.find((s) => !/count\(/i.test(s))!;
     const params = [...dealer.visibleOrgIds, 50, 950];
-    const [{ 'QUERY PLAN': plan }] = (await (await getDb()).$client.query(`explain (analyze, format json) ${page}`, params)).rows as {
+    const [{ 'QUERY PLAN': plan }] = (await (await rawClient()).query(`explain (analyze, format json) ${page}`, params)).rows as {
       'QUERY PLAN': { Plan: PlanNode }[];
     }[];
     const nodes = flatten(plan[0]!.Plan);
@@ -246,24 +251,54 @@ describe('the machines list at 2,000 machines', () => {
 });
 
 describe("a layout's versions and a machine's layouts", () => {
-  it('pages versions by number and by cursor (the layout, then its page from the index), with the total', async () => {
+  it('pages versions by number and by cursor, with the total: one statement on the first page or with a cursor', async () => {
     const { result: p1, statements } = await statementsOf(() => listVersions(dealer, longLayout.id, versionListQuerySchema.parse({})));
-    expect(statements).toHaveLength(2);
+    expect(statements).toHaveLength(1);
     expect(p1.total).toBe(120);
     expect(p1.versions.map((v) => v.version)).toEqual(Array.from({ length: 50 }, (_, i) => 120 - i));
     expect(p1.versions[0]).toMatchObject({ note: 'step 120', createdByName: 'Tess Tester' });
     expect(p1.nextBefore).toBe(71);
     expect(p1.layout).toMatchObject({ id: longLayout.id, familyId: family.id, currentVersion: 120 });
-    const p3 = await listVersions(dealer, longLayout.id, versionListQuerySchema.parse({ page: '3' }));
+    const { result: p3, statements: third } = await statementsOf(() =>
+      listVersions(dealer, longLayout.id, versionListQuerySchema.parse({ page: '3' })),
+    );
+    expect(third).toHaveLength(2);
     expect(p3.versions.map((v) => v.version)).toEqual(Array.from({ length: 20 }, (_, i) => 20 - i));
     expect(p3.nextBefore).toBeNull();
-    const cursor = await listVersions(dealer, longLayout.id, versionListQuerySchema.parse({ before: '5', pageSize: '3' }));
+    const { result: cursor, statements: byCursor } = await statementsOf(() =>
+      listVersions(dealer, longLayout.id, versionListQuerySchema.parse({ before: '5', pageSize: '3' })),
+    );
+    expect(byCursor).toHaveLength(1);
     expect(cursor.versions.map((v) => v.version)).toEqual([4, 3, 2]);
+    expect(cursor.versions[0]!.createdAt).toBeInstanceOf(Date);
+    expect(cursor.nextBefore).toBe(2);
+    expect((await listVersions(dealer, longLayout.id, versionListQuerySchema.parse({ before: '999' }))).versions[0]!.version).toBe(120);
     expect(cursor.page).toBeUndefined();
     const beyond = await listVersions(dealer, longLayout.id, versionListQuerySchema.parse({ page: '9' }));
     expect(beyond.versions).toEqual([]);
     expect(beyond.total).toBe(120);
     await expect(listVersions(outsider, longLayout.id, versionListQuerySchema.parse({}))).rejects.toMatchObject({ status: 404 });
+  });
+
+  it('gives the history page its layout and one page of versions in one statement, with both cursors', async () => {
+    const params = { id: longLayout.machineId, layoutId: longLayout.id };
+    const { result: first, statements } = await statementsOf(() => layoutOnMachineWithVersions(dealer, params));
+    expect(statements).toHaveLength(1);
+    expect(first!.layout.currentVersion).toBe(120);
+    expect(first!.current.version).toBe(120);
+    expect(first!.family.id).toBe(family.id);
+    expect(first!.page.versions.map((v) => v.version)).toEqual(Array.from({ length: 50 }, (_, i) => 120 - i));
+    expect(first!.page.versions[49]).toMatchObject({ note: 'step 71', createdByName: 'Tess Tester', createdAt: expect.any(Date) });
+    expect(first!.page).toMatchObject({ olderBefore: 71, newerBefore: undefined });
+    const middle = await layoutOnMachineWithVersions(dealer, params, 71);
+    expect(middle!.page.versions.map((v) => v.version)).toEqual(Array.from({ length: 50 }, (_, i) => 70 - i));
+    expect(middle!.page).toMatchObject({ olderBefore: 21, newerBefore: null });
+    const last = await layoutOnMachineWithVersions(dealer, params, 5);
+    expect(last!.page).toMatchObject({ olderBefore: null, newerBefore: 55 });
+    expect(last!.page.versions.map((v) => v.version)).toEqual([4, 3, 2, 1]);
+    // Another machine's id in the path, or a layout not seen: not found.
+    expect(await layoutOnMachineWithVersions(dealer, { ...params, id: outsiderMachine })).toBeNull();
+    expect(await layoutOnMachineWithVersions(outsider, params)).toBeNull();
   });
 
   it("lists a machine's layouts, newest change first, in one statement, and counts a page past the end", async () => {

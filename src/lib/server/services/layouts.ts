@@ -144,13 +144,7 @@ function deepFreeze<T>(value: T): T {
 export async function getLayout(actor: Actor, layoutId: string) {
   const db = await getDb();
   const [row] = await db
-    .select({
-      layout: layouts,
-      machine: machines,
-      family: families.spec,
-      orgName: organisations.name,
-      current: versionColumns,
-    })
+    .select(layoutReadColumns)
     .from(layouts)
     .innerJoin(machines, eq(machines.id, layouts.machineId))
     .innerJoin(families, eq(families.id, machines.familyId))
@@ -161,6 +155,53 @@ export async function getLayout(actor: Actor, layoutId: string) {
     .limit(1);
   if (!row) throw notFound('Layout not found', 'layoutId');
   return row;
+}
+
+const layoutReadColumns = {
+  layout: layouts,
+  machine: machines,
+  family: families.spec,
+  orgName: organisations.name,
+  current: versionColumns,
+};
+
+/**
+ * getLayout with one page of its versions (newest first, older than `before`, at most `limit`)
+ * read in the same statement. Versions are 1 … the current one with none removed, so the page
+ * needs no bound from the layout row: it is a subquery with constant bounds, read backwards
+ * through the (layout_id, version) index and stopping after `limit` rows; it comes back as one
+ * JSON array, so the layout's columns are not repeated per version.
+ */
+async function getLayoutWithVersions(actor: Actor, layoutId: string, before: number | undefined, limit: number) {
+  const db = await getDb();
+  const [row] = await db
+    .select({ ...layoutReadColumns, versions: versionsBelow(layoutId, before, limit) })
+    .from(layouts)
+    .innerJoin(machines, eq(machines.id, layouts.machineId))
+    .innerJoin(families, eq(families.id, machines.familyId))
+    .innerJoin(organisations, eq(organisations.id, machines.orgId))
+    .innerJoin(layoutVersions, and(eq(layoutVersions.layoutId, layouts.id), eq(layoutVersions.version, layouts.currentVersion)))
+    .leftJoin(users, eq(users.id, layoutVersions.createdBy))
+    .where(and(eq(layouts.id, layoutId), inArray(layouts.orgId, actor.visibleOrgIds), inArray(machines.orgId, actor.visibleOrgIds)))
+    .limit(1);
+  if (!row) throw notFound('Layout not found', 'layoutId');
+  return row;
+}
+
+type ListedVersion = VersionPage['versions'][number];
+
+/** A page of a layout's versions below `before` (all when undefined) as one JSON array column, newest first. */
+function versionsBelow(layoutId: string, before: number | undefined, limit: number) {
+  return sql<ListedVersion[]>`(
+    select coalesce(json_agg(json_build_object('id', v.id, 'version', v.version, 'note', v.note,
+        'createdAt', v.created_at, 'createdByName', u.name) order by v.version desc), '[]'::json)
+    from (select id, version, note, created_at, created_by from layout_versions
+          where layout_id = ${layoutId} and version < ${before ?? 2_147_483_647}::int
+          order by version desc limit ${limit}::int) v
+    left join users u on u.id = v.created_by)`.mapWith((value: unknown) => {
+    const list = (typeof value === 'string' ? JSON.parse(value) : value) as (Omit<ListedVersion, 'createdAt'> & { createdAt: string })[];
+    return list.map((v) => ({ ...v, createdAt: new Date(v.createdAt) }));
+  });
 }
 
 /**
@@ -208,6 +249,11 @@ async function versionPage(layoutId: string, currentVersion: number, before: num
     .where(and(eq(layoutVersions.layoutId, layoutId), lt(layoutVersions.version, top)))
     .orderBy(desc(layoutVersions.version))
     .limit(pageSize);
+  return pageAround(versions, currentVersion, top, pageSize);
+}
+
+/** The cursors of a page of versions read below `top` (see versionPage). */
+function pageAround(versions: VersionPage['versions'], currentVersion: number, top: number, pageSize: number): VersionPage {
   const last = versions[versions.length - 1]?.version;
   const newerTop = top + pageSize;
   return {
@@ -217,19 +263,39 @@ async function versionPage(layoutId: string, currentVersion: number, before: num
   };
 }
 
-/** A layout's versions a page at a time, newest first, with the total (the API). */
+/**
+ * A layout's versions a page at a time, newest first, with the total (the API). With a `before`
+ * cursor or on the first page, one statement (the layout, if the actor sees it, with its page as
+ * in getLayoutWithVersions); a page counted from the newest reads the layout first.
+ */
 export async function listVersions(actor: Actor, layoutId: string, paging: VersionListQuery) {
-  const row = await layoutRowForActor(actor, layoutId);
-  const before = paging.before ?? row.currentVersion + 1 - (paging.page - 1) * paging.pageSize;
-  const page = await versionPage(row.id, row.currentVersion, Math.max(1, before), paging.pageSize);
+  let row: LayoutRow & { familyId: string };
+  let versions: VersionPage['versions'];
+  if (paging.before !== undefined || paging.page === 1) {
+    const db = await getDb();
+    const [found] = await db
+      .select({ layout: layouts, familyId: machines.familyId, versions: versionsBelow(layoutId, paging.before, paging.pageSize) })
+      .from(layouts)
+      .innerJoin(machines, eq(machines.id, layouts.machineId))
+      .where(and(eq(layouts.id, layoutId), inArray(layouts.orgId, actor.visibleOrgIds)))
+      .limit(1);
+    if (!found) throw notFound('Layout not found', 'layoutId');
+    row = { ...found.layout, familyId: found.familyId };
+    versions = found.versions;
+  } else {
+    row = await layoutRowForActor(actor, layoutId);
+    const before = row.currentVersion + 1 - (paging.page - 1) * paging.pageSize;
+    versions = (await versionPage(row.id, row.currentVersion, Math.max(1, before), paging.pageSize)).versions;
+  }
+  const last = versions[versions.length - 1]?.version;
   return {
     layout: row,
-    versions: page.versions,
+    versions,
     total: row.currentVersion,
     page: paging.before === undefined ? paging.page : undefined,
     pageSize: paging.pageSize,
     /** Pass as ?before= for the next (older) page; null on the last page. */
-    nextBefore: page.olderBefore,
+    nextBefore: last !== undefined && last > 1 ? last : null,
   };
 }
 
@@ -254,11 +320,20 @@ export async function layoutOnMachine(actor: Actor, params: Record<string, strin
 
 /**
  * layoutOnMachine with one page of its versions (HISTORY_PAGE_SIZE, newest first, older than
- * `before`); no second access check.
+ * `before`), read in the same statement; no second access check.
  */
 export async function layoutOnMachineWithVersions(actor: Actor, params: Record<string, string | undefined>, before?: number) {
-  const l = await layoutOnMachine(actor, params);
-  return l && { ...l, page: await versionPage(l.layout.id, l.layout.currentVersion, before, HISTORY_PAGE_SIZE) };
+  const ids = layoutPageParams.safeParse(params);
+  if (!ids.success) return null;
+  try {
+    const { versions, ...l } = await getLayoutWithVersions(actor, ids.data.layoutId, before, HISTORY_PAGE_SIZE);
+    if (l.machine.id !== ids.data.id) return null;
+    const current = l.layout.currentVersion;
+    return { ...l, page: pageAround(versions, current, Math.min(before ?? current + 1, current + 1), HISTORY_PAGE_SIZE) };
+  } catch (e) {
+    if (e instanceof HttpError && e.status === 404) return null;
+    throw e;
+  }
 }
 
 /** A `?before=` value from a page's URL: a whole number ≥ 1, or undefined. */
