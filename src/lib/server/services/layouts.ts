@@ -9,7 +9,7 @@ import { diffLayouts } from '~/lib/domain/diff';
 import type { Actor } from '~/lib/server/access';
 import { audit } from '~/lib/server/audit';
 import { HttpError, notFound, whenNotFound } from '~/lib/server/http';
-import { catalogForFamily, machineForActor } from './machines';
+import { catalogForFamily, machineForActor, type MachineRow } from './machines';
 import type { VersionView } from '~/lib/responses';
 
 export const createLayoutSchema = z.object({
@@ -144,13 +144,7 @@ function deepFreeze<T>(value: T): T {
 export async function getLayout(actor: Actor, layoutId: string) {
   const db = await getDb();
   const [row] = await db
-    .select({
-      layout: layouts,
-      machine: machines,
-      family: families.spec,
-      orgName: organisations.name,
-      current: versionColumns,
-    })
+    .select(layoutReadColumns)
     .from(layouts)
     .innerJoin(machines, eq(machines.id, layouts.machineId))
     .innerJoin(families, eq(families.id, machines.familyId))
@@ -161,6 +155,53 @@ export async function getLayout(actor: Actor, layoutId: string) {
     .limit(1);
   if (!row) throw notFound('Layout not found', 'layoutId');
   return row;
+}
+
+const layoutReadColumns = {
+  layout: layouts,
+  machine: machines,
+  family: families.spec,
+  orgName: organisations.name,
+  current: versionColumns,
+};
+
+/**
+ * getLayout with one page of its versions (newest first, older than `before`, at most `limit`)
+ * read in the same statement. Versions are 1 … the current one with none removed, so the page
+ * needs no bound from the layout row: it is a subquery with constant bounds, read backwards
+ * through the (layout_id, version) index and stopping after `limit` rows; it comes back as one
+ * JSON array, so the layout's columns are not repeated per version.
+ */
+async function getLayoutWithVersions(actor: Actor, layoutId: string, before: number | undefined, limit: number) {
+  const db = await getDb();
+  const [row] = await db
+    .select({ ...layoutReadColumns, versions: versionsBelow(layoutId, before, limit) })
+    .from(layouts)
+    .innerJoin(machines, eq(machines.id, layouts.machineId))
+    .innerJoin(families, eq(families.id, machines.familyId))
+    .innerJoin(organisations, eq(organisations.id, machines.orgId))
+    .innerJoin(layoutVersions, and(eq(layoutVersions.layoutId, layouts.id), eq(layoutVersions.version, layouts.currentVersion)))
+    .leftJoin(users, eq(users.id, layoutVersions.createdBy))
+    .where(and(eq(layouts.id, layoutId), inArray(layouts.orgId, actor.visibleOrgIds), inArray(machines.orgId, actor.visibleOrgIds)))
+    .limit(1);
+  if (!row) throw notFound('Layout not found', 'layoutId');
+  return row;
+}
+
+type ListedVersion = VersionPage['versions'][number];
+
+/** A page of a layout's versions below `before` (all when undefined) as one JSON array column, newest first. */
+function versionsBelow(layoutId: string, before: number | undefined, limit: number) {
+  return sql<ListedVersion[]>`(
+    select coalesce(json_agg(json_build_object('id', v.id, 'version', v.version, 'note', v.note,
+        'createdAt', v.created_at, 'createdByName', u.name) order by v.version desc), '[]'::json)
+    from (select id, version, note, created_at, created_by from layout_versions
+          where layout_id = ${layoutId} and version < ${before ?? 2_147_483_647}::int
+          order by version desc limit ${limit}::int) v
+    left join users u on u.id = v.created_by)`.mapWith((value: unknown) => {
+    const list = (typeof value === 'string' ? JSON.parse(value) : value) as (Omit<ListedVersion, 'createdAt'> & { createdAt: string })[];
+    return list.map((v) => ({ ...v, createdAt: new Date(v.createdAt) }));
+  });
 }
 
 /**
@@ -208,6 +249,11 @@ async function versionPage(layoutId: string, currentVersion: number, before: num
     .where(and(eq(layoutVersions.layoutId, layoutId), lt(layoutVersions.version, top)))
     .orderBy(desc(layoutVersions.version))
     .limit(pageSize);
+  return pageAround(versions, currentVersion, top, pageSize);
+}
+
+/** The cursors of a page of versions read below `top` (see versionPage). */
+function pageAround(versions: VersionPage['versions'], currentVersion: number, top: number, pageSize: number): VersionPage {
   const last = versions[versions.length - 1]?.version;
   const newerTop = top + pageSize;
   return {
@@ -217,19 +263,39 @@ async function versionPage(layoutId: string, currentVersion: number, before: num
   };
 }
 
-/** A layout's versions a page at a time, newest first, with the total (the API). */
+/**
+ * A layout's versions a page at a time, newest first, with the total (the API). With a `before`
+ * cursor or on the first page, one statement (the layout, if the actor sees it, with its page as
+ * in getLayoutWithVersions); a page counted from the newest reads the layout first.
+ */
 export async function listVersions(actor: Actor, layoutId: string, paging: VersionListQuery) {
-  const row = await layoutRowForActor(actor, layoutId);
-  const before = paging.before ?? row.currentVersion + 1 - (paging.page - 1) * paging.pageSize;
-  const page = await versionPage(row.id, row.currentVersion, Math.max(1, before), paging.pageSize);
+  let row: LayoutRow & { familyId: string };
+  let versions: VersionPage['versions'];
+  if (paging.before !== undefined || paging.page === 1) {
+    const db = await getDb();
+    const [found] = await db
+      .select({ layout: layouts, familyId: machines.familyId, versions: versionsBelow(layoutId, paging.before, paging.pageSize) })
+      .from(layouts)
+      .innerJoin(machines, eq(machines.id, layouts.machineId))
+      .where(and(eq(layouts.id, layoutId), inArray(layouts.orgId, actor.visibleOrgIds)))
+      .limit(1);
+    if (!found) throw notFound('Layout not found', 'layoutId');
+    row = { ...found.layout, familyId: found.familyId };
+    versions = found.versions;
+  } else {
+    row = await layoutRowForActor(actor, layoutId);
+    const before = row.currentVersion + 1 - (paging.page - 1) * paging.pageSize;
+    versions = (await versionPage(row.id, row.currentVersion, Math.max(1, before), paging.pageSize)).versions;
+  }
+  const last = versions[versions.length - 1]?.version;
   return {
     layout: row,
-    versions: page.versions,
+    versions,
     total: row.currentVersion,
     page: paging.before === undefined ? paging.page : undefined,
     pageSize: paging.pageSize,
     /** Pass as ?before= for the next (older) page; null on the last page. */
-    nextBefore: page.olderBefore,
+    nextBefore: last !== undefined && last > 1 ? last : null,
   };
 }
 
@@ -254,11 +320,20 @@ export async function layoutOnMachine(actor: Actor, params: Record<string, strin
 
 /**
  * layoutOnMachine with one page of its versions (HISTORY_PAGE_SIZE, newest first, older than
- * `before`); no second access check.
+ * `before`), read in the same statement; no second access check.
  */
 export async function layoutOnMachineWithVersions(actor: Actor, params: Record<string, string | undefined>, before?: number) {
-  const l = await layoutOnMachine(actor, params);
-  return l && { ...l, page: await versionPage(l.layout.id, l.layout.currentVersion, before, HISTORY_PAGE_SIZE) };
+  const ids = layoutPageParams.safeParse(params);
+  if (!ids.success) return null;
+  try {
+    const { versions, ...l } = await getLayoutWithVersions(actor, ids.data.layoutId, before, HISTORY_PAGE_SIZE);
+    if (l.machine.id !== ids.data.id) return null;
+    const current = l.layout.currentVersion;
+    return { ...l, page: pageAround(versions, current, Math.min(before ?? current + 1, current + 1), HISTORY_PAGE_SIZE) };
+  } catch (e) {
+    if (e instanceof HttpError && e.status === 404) return null;
+    throw e;
+  }
 }
 
 /** A `?before=` value from a page's URL: a whole number ≥ 1, or undefined. */
@@ -279,25 +354,42 @@ export const layoutListQuerySchema = z.object({
   pageSize: z.coerce.number().int().min(1).max(200).default(50),
 });
 
-/** One page of a machine's layouts, most recently changed first, with the total. */
+/**
+ * One page of a machine's layouts, most recently changed first, with the total. One statement
+ * when the page has rows: the machine (only if the actor sees it) joined to its layouts, counted
+ * in the same pass; an empty page reads the machine (or its 404) and the count apart.
+ */
 export async function listLayoutsForMachine(
   actor: Actor,
   machineId: string,
   paging: z.infer<typeof layoutListQuerySchema> = { page: 1, pageSize: 50 },
 ) {
-  const ctx = await machineForActor(actor, machineId);
   const db = await getDb();
-  const [rows, [counted]] = await Promise.all([
-    db
-      .select()
-      .from(layouts)
-      .where(eq(layouts.machineId, ctx.machine.id))
-      .orderBy(desc(layouts.updatedAt), desc(layouts.id))
-      .limit(paging.pageSize)
-      .offset((paging.page - 1) * paging.pageSize),
-    db.select({ n: count() }).from(layouts).where(eq(layouts.machineId, ctx.machine.id)),
-  ]);
-  return { machine: ctx.machine, layouts: rows, total: counted?.n ?? 0, page: paging.page, pageSize: paging.pageSize };
+  const answer = (machine: MachineRow, rows: LayoutRow[], total: number) => ({
+    machine,
+    layouts: rows,
+    total,
+    page: paging.page,
+    pageSize: paging.pageSize,
+  });
+  const rows = await db
+    .select({ machine: machines, layout: layouts, total: sql<number>`count(*) over ()`.mapWith(Number) })
+    .from(machines)
+    .innerJoin(layouts, eq(layouts.machineId, machines.id))
+    .where(and(eq(machines.id, machineId), inArray(machines.orgId, actor.visibleOrgIds)))
+    .orderBy(desc(layouts.updatedAt), desc(layouts.id))
+    .limit(paging.pageSize)
+    .offset((paging.page - 1) * paging.pageSize);
+  if (rows[0]) {
+    return answer(
+      rows[0].machine,
+      rows.map((r) => r.layout),
+      rows[0].total,
+    );
+  }
+  const ctx = await machineForActor(actor, machineId);
+  const [counted] = await db.select({ n: count() }).from(layouts).where(eq(layouts.machineId, ctx.machine.id));
+  return answer(ctx.machine, [], counted?.n ?? 0);
 }
 
 export async function createLayout(actor: Actor, machineId: string, input: z.infer<typeof createLayoutSchema>) {
@@ -331,22 +423,43 @@ export async function createLayout(actor: Actor, machineId: string, input: z.inf
  * Writes a new immutable version. The conditional update on current_version is the guard: of
  * two saves from the same base, exactly one moves the counter; the other gets a 409 carrying
  * the newer version, and nothing of either is lost.
+ *
+ * A save that succeeds is one statement: the update only moves a layout the actor may see, on a
+ * machine of the body's family, at `baseVersion`. Only when it writes nothing is the layout read
+ * to say why: 404 (not one the actor sees), 400 (another family), else 409.
  */
 export async function saveVersion(actor: Actor, layoutId: string, input: z.infer<typeof saveVersionSchema>) {
+  const saved = await appendVersion(actor, { layoutId, familyId: input.body.familyId }, input, 'save', {});
+  if (saved) return saved;
   const row = await layoutRowForActor(actor, layoutId);
   assertFamily(input.body, row.familyId);
-  return appendVersion(actor, row, input, 'save', {});
+  throw await staleBase(row.id, input.baseVersion);
+}
+
+/** The 409 for a save or restore from a version that is no longer the current one, carrying the newer version. */
+async function staleBase(layoutId: string, baseVersion: number): Promise<HttpError> {
+  const db = await getDb();
+  const [fresh] = await db.select().from(layouts).where(eq(layouts.id, layoutId)).limit(1);
+  if (!fresh) return notFound('Layout not found', 'layoutId');
+  const newer = await versionOf(layoutId, fresh.currentVersion);
+  return new HttpError(409, `This layout was saved by someone else since version ${baseVersion}.`, 'baseVersion', {
+    currentVersion: fresh.currentVersion,
+    current: newer,
+  });
 }
 
 /**
  * The guarded write shared by a save and a restore; `action` and `detail` go to the audit log.
- * One statement: moving the layout's current version (only from `baseVersion`), the new version
- * and its audit row are written together or not at all, in one round trip to the store instead
- * of five (BEGIN, three writes, COMMIT). The audit row is the one `audit()` writes.
+ * One statement: moving the layout's current version (only from `baseVersion`, only on a layout
+ * of an organisation the actor sees and, when `familyId` is given, on a machine of that family),
+ * the new version and its audit row are written together or not at all, in one round trip to
+ * the store instead of five (BEGIN, three writes, COMMIT). The audit row is the one `audit()`
+ * writes. The answer carries the body as given (the store keeps the same document); null when
+ * the guard wrote nothing.
  */
 async function appendVersion(
   actor: Actor,
-  row: LayoutRow,
+  target: { layoutId: string; familyId?: string },
   input: z.infer<typeof saveVersionSchema>,
   action: string,
   detail: Record<string, unknown>,
@@ -354,49 +467,46 @@ async function appendVersion(
   const db = await getDb();
   const next = input.baseVersion + 1;
   const auditDetail = { version: next, from: input.baseVersion, ...detail };
+  const orgIds = sql.join(
+    actor.visibleOrgIds.map((id) => sql`${id}`),
+    sql`, `,
+  );
+  const sameFamily = target.familyId
+    ? sql`and exists (select 1 from machines m where m.id = layouts.machine_id and m.family_id = ${target.familyId})`
+    : sql``;
   const written = await db.execute(sql`
     with moved as (
       update layouts set current_version = ${next}, updated_at = now()
-      where id = ${row.id} and current_version = ${input.baseVersion}
+      where id = ${target.layoutId} and current_version = ${input.baseVersion}
+        and org_id = any(array[${orgIds}]::uuid[]) ${sameFamily}
       returning id, org_id
     ), added as (
       insert into layout_versions (layout_id, version, body, note, created_by)
       select id, ${next}, ${JSON.stringify(input.body)}::jsonb, ${input.note}, ${actor.id}::uuid from moved
-      returning id, layout_id, version, body, note, created_by, created_at
+      returning id, layout_id, version, note, created_by, created_at
     ), audited as (
       insert into audit_log (user_id, org_id, action, entity, entity_id, detail)
-      select ${actor.id}::uuid, ${row.orgId}::uuid, ${action}, 'layout', id::text, ${JSON.stringify(auditDetail)}::jsonb from moved
+      select ${actor.id}::uuid, org_id, ${action}, 'layout', id::text, ${JSON.stringify(auditDetail)}::jsonb from moved
     )
-    select id, layout_id, version, body, note, created_by, created_at from added`);
+    select id, layout_id, version, note, created_by, created_at from added`);
   const [v] = written.rows as {
     id: string;
     layout_id: string;
     version: number;
-    body: Layout | string;
     note: string;
     created_by: string | null;
     created_at: string | Date;
   }[];
-  const result = v
-    ? {
-        id: v.id,
-        layoutId: v.layout_id,
-        version: Number(v.version),
-        body: (typeof v.body === 'string' ? JSON.parse(v.body) : v.body) as Layout,
-        note: v.note,
-        createdBy: v.created_by,
-        createdAt: new Date(v.created_at),
-      }
-    : null;
-  if (!result) {
-    const [fresh] = await db.select().from(layouts).where(eq(layouts.id, row.id)).limit(1);
-    const newer = await versionOf(row.id, fresh!.currentVersion);
-    throw new HttpError(409, `This layout was saved by someone else since version ${input.baseVersion}.`, 'baseVersion', {
-      currentVersion: fresh!.currentVersion,
-      current: newer,
-    });
-  }
-  return result;
+  if (!v) return null;
+  return {
+    id: v.id,
+    layoutId: v.layout_id,
+    version: Number(v.version),
+    body: input.body,
+    note: v.note,
+    createdBy: v.created_by,
+    createdAt: new Date(v.created_at),
+  };
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -423,13 +533,15 @@ export async function restoreVersion(actor: Actor, layoutId: string, input: z.in
     throw new HttpError(400, `version: version ${input.version} is already the current one`, 'version');
   }
   const baseVersion = input.baseVersion ?? row.currentVersion;
-  return appendVersion(
+  const restored = await appendVersion(
     actor,
-    row,
+    { layoutId: row.id },
     { baseVersion, body: old.body, note: input.note?.trim() || `Restored from version ${input.version}` },
     'restore',
     { restoredFrom: input.version },
   );
+  if (!restored) throw await staleBase(row.id, baseVersion);
+  return restored;
 }
 
 export const copySchema = z.object({

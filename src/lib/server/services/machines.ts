@@ -1,6 +1,6 @@
-import { and, asc, count, desc, eq, ilike, inArray, or, sql } from 'drizzle-orm';
+import { and, asc, count, eq, ilike, inArray, or, sql } from 'drizzle-orm';
 import { z } from 'zod';
-import { getDb, type Db } from '~/lib/server/db';
+import { getDb, store, storeWriteGeneration, type Db } from '~/lib/server/db';
 import { catalogParts, families, installed, machines, organisations } from '~/db/schema';
 import { drumIdSchema, slugSchema, vaneControlSchema, type CatalogPart, type MachineFamily } from '~/lib/domain/schemas';
 import type { Actor } from '~/lib/server/access';
@@ -119,6 +119,20 @@ const sortColumns = {
   createdAt: machines.createdAt,
 } as const;
 
+/** A machine's own columns in a list row (the family's and farm's names are joined to them). */
+const ownColumns = {
+  id: machines.id,
+  nickname: machines.nickname,
+  serial: machines.serial,
+  drum: machines.drum,
+  vaneControl: machines.vaneControl,
+  notes: machines.notes,
+  familyId: machines.familyId,
+  orgId: machines.orgId,
+  createdAt: machines.createdAt,
+  updatedAt: machines.updatedAt,
+};
+
 const listColumns = {
   id: machines.id,
   nickname: machines.nickname,
@@ -134,50 +148,134 @@ const listColumns = {
   updatedAt: machines.updatedAt,
 };
 
-/** One page of the machines the actor may see, filtered by a free-text query, sorted by a column. */
+/** A row of the machines list. */
+export type MachineListItemRow = { [K in keyof typeof listColumns]: (typeof listColumns)[K]['_']['data'] };
+
+/** The character that joins name, serial and notes in `search_text` (see the 0012 migration). */
+const SEARCH_SEPARATOR = '\u001f';
+
+/**
+ * One page of the machines the actor may see, filtered by a free-text query, sorted by a column.
+ *
+ * Two plans, each reading as little as it can (EXPLAIN figures on a store of 2,000 machines
+ * seen by one dealer are in docs/store-and-serving.md):
+ * - sorted by a machine's own column without a text query: the page is read in order from an
+ *   index (machines_updated_idx, machines_nickname_idx, or the per-organisation ones when one
+ *   organisation is seen) and stops after the page; only the page's rows are joined to their
+ *   family and farm names; the total is one count on machines alone (kept while nothing is written, keptCount below);
+ * - with a text query, or sorted by the family's or farm's name: every matching machine has to
+ *   be seen anyway, so one statement reads them once and counts them in the same pass
+ *   (count(*) over ()); the query matches one stored lower-case value per machine
+ *   (`search_text`) and the family and farm names through their small tables, not a join per
+ *   row. Only a page past the end needs a second statement for the total.
+ */
 export async function listMachines(actor: Actor, query: MachineListQuery) {
   const db = await getDb();
   const desc_ = query.sort.startsWith('-');
   const key = query.sort.replace(/^-/, '') as keyof typeof sortColumns;
   const column = sortColumns[key];
+  // Every sort column is NOT NULL; descending is spelt NULLS LAST like the indexes
+  // (machines_updated_idx, machines_org_updated_idx), or the store could not read them in order.
+  const order = [desc_ ? sql`${column} desc nulls last` : asc(column), asc(machines.id)];
   const conditions = [inArray(machines.orgId, actor.visibleOrgIds)];
   if (query.orgId) conditions.push(eq(machines.orgId, query.orgId));
   if (query.familyId) conditions.push(eq(machines.familyId, query.familyId));
-  if (query.q) {
-    const like = `%${query.q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
+  const q = query.q.replaceAll(SEARCH_SEPARATOR, ' ').trim();
+  if (q) {
+    const like = `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
     conditions.push(
       or(
-        ilike(machines.nickname, like),
-        ilike(machines.serial, like),
-        ilike(machines.notes, like),
-        ilike(families.name, like),
-        ilike(organisations.name, like),
+        sql`search_text like lower(${like})`,
+        inArray(machines.familyId, db.select({ id: families.id }).from(families).where(ilike(families.name, like))),
+        inArray(machines.orgId, db.select({ id: organisations.id }).from(organisations).where(ilike(organisations.name, like))),
       )!,
     );
   }
   const where = and(...conditions);
-  // The page, then the total: no window count, which would make the store read and join every
-  // matching machine to sort them; the page alone is read in order from an index
-  // (machines_org_updated_idx, machines_org_nickname_idx) for the usual sorts, and the count
-  // joins the small tables only when the query searches their names.
-  const rows = await db
-    .select(listColumns)
+  const offset = (query.page - 1) * query.pageSize;
+  const answer = (items: MachineListItemRow[], total: number) => ({
+    items,
+    total,
+    page: query.page,
+    pageSize: query.pageSize,
+    sort: query.sort,
+    q: query.q,
+  });
+  const countAll = async () => (await db.select({ n: count() }).from(machines).where(where))[0]?.n ?? 0;
+
+  if (q || key === 'family' || key === 'org') {
+    const rows = await db
+      .select({ ...listColumns, total: sql<number>`count(*) over ()`.mapWith(Number) })
+      .from(machines)
+      .innerJoin(families, eq(families.id, machines.familyId))
+      .innerJoin(organisations, eq(organisations.id, machines.orgId))
+      .where(where)
+      .orderBy(...order)
+      .limit(query.pageSize)
+      .offset(offset);
+    const total = rows[0]?.total ?? (offset > 0 ? await countAll() : 0);
+    return answer(
+      rows.map(({ total: _, ...row }) => row),
+      total,
+    );
+  }
+
+  // The page's machines from the index, then their family and farm names (page rows only).
+  const page = db
+    .select(ownColumns)
     .from(machines)
-    .innerJoin(families, eq(families.id, machines.familyId))
-    .innerJoin(organisations, eq(organisations.id, machines.orgId))
     .where(where)
-    .orderBy(desc_ ? desc(column) : asc(column), asc(machines.id))
+    .orderBy(...order)
     .limit(query.pageSize)
-    .offset((query.page - 1) * query.pageSize);
-  const counting = db.select({ n: count() }).from(machines);
-  const [c] = query.q
-    ? await counting
-        .innerJoin(families, eq(families.id, machines.familyId))
-        .innerJoin(organisations, eq(organisations.id, machines.orgId))
-        .where(where)
-    : await counting.where(where);
-  const n = c?.n ?? 0;
-  return { items: rows, total: n, page: query.page, pageSize: query.pageSize, sort: query.sort, q: query.q };
+    .offset(offset)
+    .as('page');
+  const pageColumn = page[key as keyof typeof ownColumns];
+  const rows: MachineListItemRow[] = await db
+    .select({
+      id: page.id,
+      nickname: page.nickname,
+      serial: page.serial,
+      drum: page.drum,
+      vaneControl: page.vaneControl,
+      notes: page.notes,
+      familyId: page.familyId,
+      familyName: families.name,
+      orgId: page.orgId,
+      orgName: organisations.name,
+      createdAt: page.createdAt,
+      updatedAt: page.updatedAt,
+    })
+    .from(page)
+    .innerJoin(families, eq(families.id, page.familyId))
+    .innerJoin(organisations, eq(organisations.id, page.orgId))
+    .orderBy(desc_ ? sql`${pageColumn} desc nulls last` : asc(pageColumn), asc(page.id));
+  return answer(rows, await keptCount([[...actor.visibleOrgIds].sort(), query.orgId, query.familyId], countAll));
+}
+
+/**
+ * Totals of the list without a text query, kept with the embedded store only and used only while
+ * the store has not been written since they were counted (the rule of `layoutWithCurrent`'s
+ * kept reads: `storeWriteGeneration` moves with every write statement and transaction). Paging
+ * through the fleet then counts it once; the page itself is always read. With a PostgreSQL
+ * server other processes write too, and every total is counted.
+ */
+const KEPT_COUNTS_CAP = 256;
+const keptCounts = new Map<string, { db: Db; generation: number; n: number }>();
+
+async function keptCount(key: unknown[], countNow: () => Promise<number>): Promise<number> {
+  const s = await store();
+  if (s.mode !== 'pglite') return countNow();
+  const k = JSON.stringify(key);
+  const kept = keptCounts.get(k);
+  if (kept && kept.db === s.db && kept.generation === storeWriteGeneration()) return kept.n;
+  const generation = storeWriteGeneration();
+  const n = await countNow();
+  if (generation === storeWriteGeneration()) {
+    keptCounts.delete(k);
+    if (keptCounts.size >= KEPT_COUNTS_CAP) keptCounts.delete(keptCounts.keys().next().value!);
+    keptCounts.set(k, { db: s.db, generation, n });
+  }
+  return n;
 }
 
 function assertMachineFitsFamily(family: MachineFamily, drum: string, vaneControl: string) {
