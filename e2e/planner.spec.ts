@@ -2,6 +2,19 @@ import { expect, test } from '@playwright/test';
 import { shot, signIn } from './helpers';
 
 test('plan a crop change, accept it, make a parts request and send it; the desk moves it on', async ({ page, browser }) => {
+  // The dealer's shelf as this test reads it (other specs in the run may have used or restocked
+  // these parts): the left round bars in stock, the right ones to order in about 9 days.
+  const desk = await browser.newContext();
+  const deskPage = await desk.newPage();
+  await signIn(deskPage, 'dealerAdmin');
+  for (const [part, stock] of [
+    ['CW-RB-L-04', { quantity: 4, leadDays: 5 }],
+    ['CW-RB-R-04', { quantity: 0, leadDays: 9 }],
+  ] as const) {
+    const res = await deskPage.request.put(`/api/dealer-stock/${part}`, { data: stock });
+    expect(res.status(), await res.text()).toBe(200);
+  }
+  await desk.close();
   await signIn(page, 'operator', '/planner');
   await page.goto('/planner');
   await page.getByLabel('Machine').selectOption({ label: 'North Quarter · Tamarack M4' });
