@@ -9,3 +9,4 @@ export * from './audit';
 export * from './auth';
 export * from './field';
 export * from './shop';
+export * from './wear';
