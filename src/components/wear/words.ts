@@ -7,10 +7,11 @@ import { parsePlaceKey } from '~/lib/domain/places';
 import { placeLabel } from '~/lib/domain/vocabulary';
 import type { ForecastStatus } from '~/lib/domain/wear-forecast';
 
-/** "1,234.5 h" (one decimal below 100 h, whole hours above). */
+/** "1,234 h", "66.7 h": a tenth of an hour where there is one below 1,000 h, whole hours above. */
 export function hoursText(h: number | null | undefined, locale?: string): string {
   if (h === null || h === undefined || !Number.isFinite(h)) return '—';
-  return `${formatNumber(h, { digits: Math.abs(h) < 100 ? 1 : 0, locale })} h`;
+  const tenths = Math.round(h * 10) / 10;
+  return `${formatNumber(h, { digits: Math.abs(h) < 1000 && !Number.isInteger(tenths) ? 1 : 0, locale })} h`;
 }
 
 /** "Position 3, right" for a stored place key. */
