@@ -43,6 +43,8 @@ export interface Fixtures {
   /** A member of the demo dealer (the trainer): their id, that dealer's id and their role there. */
   member: { userId: string; orgId: string; role: string };
   lossCheckId: string;
+  /** A part record (part history) of the machine. */
+  partRecordId: string;
   /** A tiny valid PNG for upload routes. */
   png: Uint8Array;
 }
@@ -127,6 +129,11 @@ export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures>
     lossCheckId = made.body.id as string;
   }
 
+  // A part of the machine's history (the seed starts every demo machine's history).
+  const parts = (await olive.get(`/api/machines/${machineId}/parts`)).body as { current: { record: { id: string } }[] };
+  const partRecordId = parts.current[0]?.record.id;
+  if (!partRecordId) throw new Error('the fixture machine has no part history');
+
   const people = (await own.dealer_admin.get('/api/admin/users')).body.users as {
     id: string;
     email: string;
@@ -139,6 +146,7 @@ export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures>
   return {
     member,
     lossCheckId,
+    partRecordId,
     machineId,
     familyId,
     family: family.family?.spec ?? family.family ?? family,
