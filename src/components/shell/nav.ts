@@ -19,7 +19,7 @@ export const NAV: readonly NavItem[] = [
   { href: '/parts-requests', label: 'Parts requests', action: 'parts.request' },
   { href: '/inspections', label: 'Inspections', action: 'inspections.write' },
   { href: '/field-check', label: 'Field check', action: 'fleet.view' },
-  { href: '/before-season', label: 'Before the season', action: 'season.list' },
+  { href: '/before-season', label: 'Season parts', action: 'season.list' },
   { href: '/classroom', label: 'Classroom', action: 'decks.use' },
   { href: '/admin/catalog', label: 'Catalog', action: 'catalog.read' },
   { href: '/admin/prices', label: 'Price list', action: 'prices.read' },

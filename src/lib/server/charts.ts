@@ -83,7 +83,7 @@ export function chartSvg(spec: ChartSpec): string {
         color: s.tone === 'amber' ? AMBER : IRIS,
         symbol: s.draw === 'line' ? 'none' : s.tone === 'amber' ? 'triangle' : 'circle',
         symbolSize: spec.kind === 'time' ? 9 : 12,
-        lineStyle: s.tone === 'amber' ? { type: 'dashed', width: 2 } : { width: 3 },
+        lineStyle: s.draw === 'line' ? { width: 2.5 } : s.tone === 'amber' ? { type: 'dashed', width: 2 } : { width: 3 },
         markLine:
           i === 0 && spec.guide
             ? {

@@ -328,6 +328,9 @@ function forecastOf(data: WearData, recordId: string, now: Date): PartForecastVi
   return { record, chain, points, unplaced, forecast, season, limitDate, installHoursUnknown };
 }
 
+/** Elements first, then cover plates, then rotor bars. */
+const placeRank = (key: string) => (key.startsWith('element:') ? 0 : key.startsWith('cover:') ? 1 : 2);
+
 /**
  * A machine's part history: the parts in it now (with each one's forecast) and the records
  * closed before, newest first.
@@ -339,7 +342,7 @@ export async function partHistory(actor: Actor, machineId: string, now = new Dat
   const mine = [...data.records.values()].filter((r) => r.machineId === ctx.machine.id);
   const current = mine
     .filter((r) => !r.removedAt)
-    .sort((a, b) => a.placeKey.localeCompare(b.placeKey, 'en', { numeric: true }))
+    .sort((a, b) => placeRank(a.placeKey) - placeRank(b.placeKey) || a.placeKey.localeCompare(b.placeKey, 'en', { numeric: true }))
     .map((r) => forecastOf(data, r.id, now)!);
   const past = mine
     .filter((r) => r.removedAt)
