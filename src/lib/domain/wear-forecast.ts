@@ -130,7 +130,7 @@ export interface SeasonWindow {
   endDay: number;
 }
 
-/** The demo's harvest window, 15 July to 31 October (an invented demo setting). */
+/** The demo's harvest win, 15 July to 31 October (an invented demo setting). */
 export const DEMO_SEASON_WINDOW: SeasonWindow = { startMonth: 7, startDay: 15, endMonth: 10, endDay: 31 };
 
 /**
@@ -146,27 +146,27 @@ const DAY_MS = 86_400_000;
 const utcDay = (y: number, m: number, d: number) => Date.UTC(y, m - 1, d);
 
 /** Season `year`'s first day (00:00 UTC) and the day after its last (the window is whole days). */
-export function seasonSpan(window: SeasonWindow, year: number): { start: number; end: number } {
-  const start = utcDay(year, window.startMonth, window.startDay);
-  const wraps = window.endMonth * 100 + window.endDay < window.startMonth * 100 + window.startDay;
-  const end = utcDay(wraps ? year + 1 : year, window.endMonth, window.endDay) + DAY_MS;
+export function seasonSpan(win: SeasonWindow, year: number): { start: number; end: number } {
+  const start = utcDay(year, win.startMonth, win.startDay);
+  const wraps = win.endMonth * 100 + win.endDay < win.startMonth * 100 + win.startDay;
+  const end = utcDay(wraps ? year + 1 : year, win.endMonth, win.endDay) + DAY_MS;
   return { start, end };
 }
 
 /** Days in one season (the window's whole days; 15 Jul – 31 Oct is 109). */
-export function seasonDays(window: SeasonWindow, year = 2025): number {
-  const { start, end } = seasonSpan(window, year);
+export function seasonDays(win: SeasonWindow, year = 2025): number {
+  const { start, end } = seasonSpan(win, year);
   return Math.round((end - start) / DAY_MS);
 }
 
 /** How many in-season days lie between two instants (fractions of days count). */
-export function seasonDaysBetween(window: SeasonWindow, from: Date, to: Date): number {
+export function seasonDaysBetween(win: SeasonWindow, from: Date, to: Date): number {
   const a = from.getTime();
   const b = to.getTime();
   if (!(b > a)) return 0;
   let days = 0;
   for (let y = new Date(a).getUTCFullYear() - 1; y <= new Date(b).getUTCFullYear(); y++) {
-    const { start, end } = seasonSpan(window, y);
+    const { start, end } = seasonSpan(win, y);
     const lo = Math.max(a, start);
     const hi = Math.min(b, end);
     if (hi > lo) days += (hi - lo) / DAY_MS;
@@ -199,7 +199,7 @@ export interface SeasonHours {
  */
 export function usualSeasonHours(
   readings: readonly HoursReadingAt[],
-  window: SeasonWindow = DEMO_SEASON_WINDOW,
+  win: SeasonWindow = DEMO_SEASON_WINDOW,
   fallback = DEFAULT_SEASON_HOURS,
 ): SeasonHours {
   const sorted = [...readings].sort((p, q) => p.at.getTime() - q.at.getTime());
@@ -210,9 +210,9 @@ export function usualSeasonHours(
     const next = sorted[i]!;
     if (next.corrected) continue;
     hours += Math.max(0, next.separatorHours - prev.separatorHours);
-    days += seasonDaysBetween(window, prev.at, next.at);
+    days += seasonDaysBetween(win, prev.at, next.at);
   }
-  const perSeason = seasonDays(window);
+  const perSeason = seasonDays(win);
   const covered = days / perSeason;
   if (covered < MIN_SEASON_SHARE || hours <= 0) return { hours: fallback, from: 'default', seasonsCovered: covered };
   return { hours: (hours / days) * perSeason, from: 'readings', seasonsCovered: covered };
@@ -226,15 +226,15 @@ export const MAX_SEASONS_AHEAD = 50;
  * season's days from `from` on (time outside the window adds no hours). Null when the machine
  * runs no hours, or the date lies more than MAX_SEASONS_AHEAD seasons away.
  */
-export function dateAtHours(hoursLeft: number, hoursPerSeason: number, window: SeasonWindow, from: Date): Date | null {
+export function dateAtHours(hoursLeft: number, hoursPerSeason: number, win: SeasonWindow, from: Date): Date | null {
   if (!(hoursPerSeason > 0) || !Number.isFinite(hoursLeft)) return null;
   const t0 = from.getTime();
   if (hoursLeft <= 0) return new Date(t0);
-  const perDay = hoursPerSeason / seasonDays(window);
+  const perDay = hoursPerSeason / seasonDays(win);
   let left = hoursLeft;
   const firstYear = new Date(t0).getUTCFullYear() - 1;
   for (let y = firstYear; y <= firstYear + MAX_SEASONS_AHEAD + 1; y++) {
-    const { start, end } = seasonSpan(window, y);
+    const { start, end } = seasonSpan(win, y);
     const lo = Math.max(t0, start);
     if (end <= lo) continue;
     const can = ((end - lo) / DAY_MS) * perDay;
