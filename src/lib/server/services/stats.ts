@@ -24,6 +24,9 @@ const TABLES = {
   deckSlides: t.deckSlides,
   lossChecks: t.lossChecks,
   startingValues: t.startingValues,
+  machineHours: t.machineHours,
+  partRecords: t.partRecords,
+  wearMeasurements: t.wearMeasurements,
   auditLog: t.auditLog,
 } as const;
 
@@ -62,6 +65,9 @@ function scopeOf(visible: string[], dealerId: string | null): Record<keyof typeo
     deckSlides: sql`exists (select 1 from ${t.decks} d where d.id = ${t.deckSlides.deckId} and ${inVisible(sql`d.org_id`)})`,
     lossChecks: inArray(t.lossChecks.orgId, visible),
     startingValues: inArray(t.startingValues.dealerId, visible),
+    machineHours: inArray(t.machineHours.orgId, visible),
+    partRecords: inArray(t.partRecords.orgId, visible),
+    wearMeasurements: inArray(t.wearMeasurements.orgId, visible),
     auditLog: inArray(t.auditLog.orgId, visible),
   };
 }
