@@ -23,7 +23,7 @@ test('a technician opens a part’s wear chart from the machine page', async ({ 
   await expect(history.getByRole('heading', { name: 'Part history and wear' })).toBeVisible();
   await expect(page.getByTestId('last-hours')).toContainText('separator');
   // The worn front element is due now; its neighbour has hours left.
-  await expect(history.locator('tr[data-place="element:1:left"]')).toHaveAttribute('data-status', 'now');
+  await expect(history.locator('tr[data-part-place="element:1:left"]')).toHaveAttribute('data-status', 'now');
   await shot(page, 'wear-machine-1440');
 
   await history.getByRole('link', { name: 'Position 1, right' }).click();
