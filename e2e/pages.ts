@@ -42,6 +42,8 @@ export interface DemoIds {
   shareToken: string;
   deckShareToken: string;
   jobId: string;
+  /** A part record of the machine (part history), one with wear measured where there is one. */
+  partRecordId: string;
 }
 
 /** How each pattern with params is filled (the pattern exactly as the folder spells it). */
@@ -59,6 +61,8 @@ const FILL: Record<string, (d: DemoIds) => string> = {
   '/machines/[id]/card': (d) => `/machines/${d.machineId}/card?crop=wheat`,
   '/machines/[id]/loss-check': (d) => `/machines/${d.machineId}/loss-check`,
   '/machines/[id]/season': (d) => `/machines/${d.machineId}/season`,
+  '/machines/[id]/hours': (d) => `/machines/${d.machineId}/hours`,
+  '/machines/[id]/parts/[recordId]': (d) => `/machines/${d.machineId}/parts/${d.partRecordId}`,
   '/machines/[id]/layouts/[layoutId]': (d) => `/machines/${d.machineId}/layouts/${d.layoutId}`,
   '/machines/[id]/layouts/[layoutId]/compare': (d) => `/machines/${d.machineId}/layouts/${d.layoutId}/compare`,
   '/machines/[id]/layouts/[layoutId]/history': (d) => `/machines/${d.machineId}/layouts/${d.layoutId}/history`,
@@ -105,6 +109,11 @@ export async function demoIds(browser: Browser): Promise<DemoIds> {
   const share = await tech.post('/api/share-links', { data: { layoutId, version: layout.layout.currentVersion, label: 'page run' } });
   expect(share.status()).toBe(201);
   const sb = await share.json();
+  const parts = (await (await tech.get(`/api/machines/${machine.id}/parts`)).json()).current as {
+    record: { id: string };
+    points: unknown[];
+  }[];
+  const partRecordId = (parts.find((p) => p.points.length > 1) ?? parts[0])?.record.id;
   const trainerSession = await signedIn(browser, 'trainer');
   const trainer = trainerSession.request;
   const decks = (await (await trainer.get('/api/decks')).json()).decks as { id: string; slideCount: number }[];
@@ -123,6 +132,7 @@ export async function demoIds(browser: Browser): Promise<DemoIds> {
     shareToken: sb.token ?? sb.link?.token,
     deckShareToken: dsb.token ?? dsb.link?.token,
     jobId,
+    partRecordId: partRecordId!,
   };
   await techSession.close();
   await trainerSession.close();

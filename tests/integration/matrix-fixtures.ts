@@ -45,6 +45,8 @@ export interface Fixtures {
   lossCheckId: string;
   /** A job card by hand on the demo machine (made by the demo technician). */
   jobId: string;
+  /** A part record (part history) of the machine. */
+  partRecordId: string;
   /** A tiny valid PNG for upload routes. */
   png: Uint8Array;
 }
@@ -138,6 +140,10 @@ export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures>
   });
   expect(job.status, JSON.stringify(job.body)).toBe(201);
   const jobId: string = job.body.id;
+  // A part of the machine's history (the seed starts every demo machine's history).
+  const parts = (await olive.get(`/api/machines/${machineId}/parts`)).body as { current: { record: { id: string } }[] };
+  const partRecordId = parts.current[0]?.record.id;
+  if (!partRecordId) throw new Error('the fixture machine has no part history');
 
   const people = (await own.dealer_admin.get('/api/admin/users')).body.users as {
     id: string;
@@ -152,6 +158,7 @@ export async function loadFixtures(own: Record<Role, Client>): Promise<Fixtures>
     member,
     lossCheckId,
     jobId,
+    partRecordId,
     machineId,
     familyId,
     family: family.family?.spec ?? family.family ?? family,

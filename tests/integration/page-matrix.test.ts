@@ -29,6 +29,8 @@ const INSTANCE: Role[] = ['instance_admin'];
 const ADMINS: Role[] = ['dealer_admin', 'instance_admin'];
 const PRICE_READERS: Role[] = ['technician', 'dealer_admin'];
 const DECK: Role[] = ['trainer', 'technician'];
+/** The dealer's before-the-season list (access.ts `season.list`). */
+const SEASON: Role[] = ['technician', 'dealer_admin'];
 /** Runs the installation, belongs to no tenant: a farm's or dealer's resource is a 404 to them. */
 const STRANGERS_TO_TENANTS: Role[] = ['instance_admin'];
 
@@ -53,6 +55,7 @@ const PAGES: Record<string, PageRow> = {
   '/admin/stock': { allowed: ['dealer_admin'], other: 'own-data' },
   '/admin/flat-rates': { allowed: ['dealer_admin'], other: 'own-data' },
   '/admin/starting-values': { allowed: ALL, other: 'own-data' },
+  '/before-season': { allowed: SEASON, other: 'own-data' },
   '/classroom': { allowed: DECK, other: 'own-data' },
   '/classroom/[deckId]': { allowed: DECK, params: deck, other: 'not-found' },
   '/classroom/[deckId]/present': { allowed: DECK, params: deck, other: 'not-found' },
@@ -73,6 +76,12 @@ const PAGES: Record<string, PageRow> = {
   '/machines/[id]/card': { allowed: ALL, params: machine, other: 'not-found' },
   '/machines/[id]/loss-check': { allowed: ALL, params: machine, other: 'not-found' },
   '/machines/[id]/season': { allowed: ALL, params: machine, other: 'not-found' },
+  '/machines/[id]/hours': { allowed: WRITERS, params: machine, other: 'not-found' },
+  '/machines/[id]/parts/[recordId]': {
+    allowed: WRITERS,
+    params: (f) => ({ id: f.machineId, recordId: f.partRecordId }),
+    other: 'not-found',
+  },
   '/machines/[id]/layouts/[layoutId]': { allowed: ALL, params: layoutOf, other: 'not-found' },
   '/machines/[id]/layouts/[layoutId]/compare': { allowed: ALL, params: layoutOf, other: 'not-found' },
   '/machines/[id]/layouts/[layoutId]/history': { allowed: ALL, params: layoutOf, other: 'not-found' },

@@ -9,6 +9,7 @@ import { cropPrograms } from '~/lib/domain/crops';
 import type { CropId, VaneSetting } from '~/lib/domain/schemas';
 import type { UnitSystem } from '~/lib/domain/units';
 import { ApiError, sendJson } from '~/components/shared/api';
+import { EMPTY_HOURS, HoursFields, hoursFromDraft, type HoursDraft } from '~/components/wear/HoursFields';
 import { LossResult } from './LossResult';
 import { DEFAULT_CURRENCY } from '~/lib/domain/format';
 
@@ -88,6 +89,7 @@ export default function LossCheckIsland(props: LossCheckProps) {
   const [saving, setSaving] = useState(false);
   const [saved, setSaved] = useState<{ id: string; result: LossCheckResult } | null>(null);
   const [serverError, setServerError] = useState('');
+  const [hours, setHours] = useState<HoursDraft>(EMPTY_HOURS);
 
   const changeCrop = (c: CropId) => {
     setCrop(c);
@@ -151,6 +153,7 @@ export default function LossCheckIsland(props: LossCheckProps) {
           upperSieveMm: lenOut(units, upper),
           lowerSieveMm: lenOut(units, lower),
         },
+        ...(hoursFromDraft(hours) ? { hours: hoursFromDraft(hours) } : {}),
       };
       const r = await sendJson<{ id: string; result: LossCheckResult }>('POST', `/api/machines/${props.machine.id}/loss-checks`, body);
       setSaved({ id: r.id, result: r.result });
@@ -593,6 +596,14 @@ export default function LossCheckIsland(props: LossCheckProps) {
         )}
       </section>
 
+      {props.canRecord && !saved && (
+        <HoursFields
+          value={hours}
+          onChange={setHours}
+          disabled={saving}
+          error={{ field: Object.keys(errors).find((k) => k.startsWith('hours.')) ?? null, message: '' }}
+        />
+      )}
       {serverError && (
         <p role="alert" className="rounded-md border border-fit bg-fit-soft p-3 font-semibold text-fit" data-testid="loss-error">
           {serverError}

@@ -15,6 +15,7 @@ import {
 } from '~/lib/domain/inspection';
 import type { UnitSystem } from '~/lib/domain/units';
 import { ApiError, sendJson } from '~/components/shared/api';
+import { EMPTY_HOURS, HoursFields, hoursFromDraft, type HoursDraft } from '~/components/wear/HoursFields';
 import { LineCard, type LineChange } from './LineCard';
 import { SeverityMark } from './SeverityMark';
 import { SurveyReadings } from './SurveyReadings';
@@ -42,6 +43,8 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
   const [saveError, setSaveError] = useState<string | null>(null);
   const [confirming, setConfirming] = useState(false);
   const [finishError, setFinishError] = useState<string | null>(null);
+  const [finishField, setFinishField] = useState<string | null>(null);
+  const [hours, setHours] = useState<HoursDraft>(EMPTY_HOURS);
   const [finishing, setFinishing] = useState(false);
   /** The survey is uneven but marked serviceable: finishing asks for a conscious choice. */
   const [acceptUneven, setAcceptUneven] = useState(false);
@@ -141,18 +144,21 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
   async function finish() {
     setFinishing(true);
     setFinishError(null);
+    setFinishField(null);
     try {
       await flush();
       if (pending.current.size) throw new ApiError(saveError ?? 'Some entries are not saved yet.', 0);
       const done = await sendJson<InspectionView & { added: ReplacementLine[] }>('POST', `/api/inspections/${insp.id}`, {
         action: 'finish',
         ...(surveyDisagrees && acceptUneven ? { acceptUnevenSurvey: true } : {}),
+        ...(hoursFromDraft(hours) ? { hours: hoursFromDraft(hours) } : {}),
       });
       setInsp((cur) => ({ ...cur, status: 'finished', finishedAt: String(done.finishedAt), partsRequest: done.partsRequest }));
       setConfirming(false);
       justFinished.current = true;
     } catch (err) {
       if (err instanceof ApiError && err.field === 'acceptUnevenSurvey') setServerSaysUneven(true);
+      setFinishField(err instanceof ApiError ? (err.field ?? null) : null);
       setFinishError(err instanceof ApiError ? err.message : 'The inspection could not be finished. Check the connection and try again.');
     } finally {
       setFinishing(false);
@@ -302,6 +308,12 @@ export default function ChecklistIsland({ initial, units, canEdit }: Props) {
                   </label>
                 </div>
               )}
+              <HoursFields
+                value={hours}
+                onChange={setHours}
+                disabled={finishing}
+                error={finishError ? { field: finishField, message: finishError } : null}
+              />
               <p className="mt-2 text-sm">After finishing, the checklist and its photos can no longer be changed.</p>
               <div className="mt-3 flex flex-wrap gap-3">
                 <button

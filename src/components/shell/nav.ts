@@ -20,6 +20,7 @@ export const NAV: readonly NavItem[] = [
   { href: '/inspections', label: 'Inspections', action: 'inspections.write' },
   { href: '/jobs', label: 'Job cards', action: 'shop.view' },
   { href: '/field-check', label: 'Field check', action: 'fleet.view' },
+  { href: '/before-season', label: 'Season parts', action: 'season.list' },
   { href: '/classroom', label: 'Classroom', action: 'decks.use' },
   { href: '/admin/catalog', label: 'Catalog', action: 'catalog.read' },
   { href: '/admin/prices', label: 'Price list', action: 'prices.read' },

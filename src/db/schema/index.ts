@@ -10,3 +10,4 @@ export * from './auth';
 export * from './field';
 export * from './shop';
 export * from './jobs';
+export * from './wear';

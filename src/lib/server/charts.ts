@@ -2,6 +2,7 @@
  * Charts drawn on the server: Apache ECharts renders to an SVG string (its server-side mode),
  * so a page shows the chart with no client script at all, and prints as sharp vector art.
  * Only the pieces used here are registered (line and scatter charts, grid, legend, mark lines).
+ * A scatter chart may carry a fitted line (`draw: 'line'`) and a guide line such as a wear limit.
  */
 import * as echarts from 'echarts/core';
 import { LineChart, ScatterChart } from 'echarts/charts';
@@ -27,6 +28,8 @@ export interface ChartSeries {
   points: SeriesPoint[];
   /** 'iris' (default) or 'amber'. */
   tone?: 'iris' | 'amber';
+  /** In a scatter chart: 'points' (default) or a plain 'line' through them (a fitted trend). */
+  draw?: 'points' | 'line';
 }
 
 export interface ChartSpec {
@@ -36,6 +39,8 @@ export interface ChartSpec {
   series: ChartSeries[];
   /** A dashed horizontal line, e.g. the loss target. */
   guide?: { y: number; label: string };
+  /** The y axis's top (default: fitted to the data); set it so a guide above the data shows. */
+  yMax?: number;
   width?: number;
   height?: number;
 }
@@ -66,18 +71,19 @@ export function chartSvg(spec: ChartSpec): string {
         nameLocation: 'middle',
         nameGap: 40,
         min: 0,
+        max: spec.yMax,
         axisLine: { lineStyle: { color: STEEL } },
         axisLabel: { color: INK },
         splitLine: { lineStyle: { color: '#d3dae2' } },
       },
       series: spec.series.map((s, i) => ({
         name: s.name,
-        type: spec.kind === 'time' ? 'line' : 'scatter',
+        type: spec.kind === 'time' || s.draw === 'line' ? 'line' : 'scatter',
         data: s.points.map((p) => [p.x, Math.round(p.y * 100) / 100]),
         color: s.tone === 'amber' ? AMBER : IRIS,
-        symbol: s.tone === 'amber' ? 'triangle' : 'circle',
+        symbol: s.draw === 'line' ? 'none' : s.tone === 'amber' ? 'triangle' : 'circle',
         symbolSize: spec.kind === 'time' ? 9 : 12,
-        lineStyle: s.tone === 'amber' ? { type: 'dashed', width: 2 } : { width: 3 },
+        lineStyle: s.draw === 'line' ? { width: 2.5 } : s.tone === 'amber' ? { type: 'dashed', width: 2 } : { width: 3 },
         markLine:
           i === 0 && spec.guide
             ? {

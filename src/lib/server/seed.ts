@@ -190,4 +190,7 @@ export async function seedDemo(db: Db) {
   });
   await (await import('./demo-inspection')).seedDemoInspection(db);
   await (await import('./demo-field')).seedDemoField(db);
+  // Shop work (wear): two seasons of hours, inspections with wear and part history (demo-wear.ts).
+  await (await import('./demo-wear')).seedDemoWear(db);
+  // End of shop work (wear).
 }

@@ -10,6 +10,8 @@ import { audit } from '~/lib/server/audit';
 import { HttpError, notFound } from '~/lib/server/http';
 import { installedLayout, machineForActor } from './machines';
 import { dealerOfOrg, startingValuesFor } from './starting-values';
+import { recordHours } from './machine-hours';
+import { hoursReadingSchema } from '~/lib/domain/machine-hours';
 
 const typed = (max: number, what: string) =>
   z
@@ -36,6 +38,8 @@ export const recordLossCheckSchema = lossCheckInputBaseSchema
     checkedAt: z.iso.datetime({ offset: true, error: 'give a date and time such as 2026-08-14T15:30:00Z' }).optional(),
     moisturePct: z.number({ error: 'give the moisture as a number' }).min(0).max(60).nullable().optional(),
     settings: checkSettingsSchema.default({}),
+    /** The engine and separator hours read at the check (optional; lower than the last only with a reason). */
+    hours: hoursReadingSchema.optional(),
   })
   .superRefine((v, ctx) => {
     checkWidths(v, ctx);
@@ -85,7 +89,7 @@ export async function recordLossCheck(actor: Actor, machineId: string, input: z.
   const upperSieveMm = s.upperSieveMm !== undefined ? s.upperSieveMm : (start?.upperSieveMm ?? null);
   const lowerSieveMm = s.lowerSieveMm !== undefined ? s.lowerSieveMm : (start?.lowerSieveMm ?? null);
 
-  const { fieldName, checkedAt, moisturePct, settings: _s, ...countsInput } = input;
+  const { fieldName, checkedAt, moisturePct, settings: _s, hours, ...countsInput } = input;
   const result = computeLossCheck(countsInput);
   // The layout version only counts when what is installed still carries the crop checked.
   // The version it was installed from when that was recorded; else a saved version with the same content.
@@ -122,6 +126,8 @@ export async function recordLossCheck(actor: Actor, machineId: string, input: z.
         createdBy: actor.id,
       })
       .returning({ id: lossChecks.id });
+    // The hour meters read at the check (optional): a refused reading records no check at all.
+    if (hours) await recordHours(tx, actor, ctx.machine, hours, 'loss_check', row!.id, 'hours.');
     await audit(
       tx,
       actor,

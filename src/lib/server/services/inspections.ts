@@ -1,7 +1,20 @@
 import { and, asc, count, desc, eq, inArray, sql } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, type Db } from '~/lib/server/db';
-import { auditLog, families, inspectionItems, inspections, machines, organisations, partsRequests, photos, users } from '~/db/schema';
+import {
+  auditLog,
+  families,
+  inspectionItems,
+  inspections,
+  machineHours,
+  machines,
+  organisations,
+  partsRequests,
+  photos,
+  users,
+  wearMeasurements,
+} from '~/db/schema';
+import type { HoursReading } from '~/lib/domain/machine-hours';
 import {
   buildChecklist,
   checklistKind,
@@ -24,6 +37,8 @@ import { HttpError, notFound } from '~/lib/server/http';
 import { catalogForFamily, installedLayout, machineForActor } from './machines';
 import { currencyFor } from './prices';
 import { addLinesToDraftRequest } from './parts-requests';
+import { lastHours, recordHours } from './machine-hours';
+import { recordWearMeasurements } from './part-history';
 
 export type InspectionRow = typeof inspections.$inferSelect;
 export type InspectionItemRow = typeof inspectionItems.$inferSelect;
@@ -400,7 +415,7 @@ export function surveyVerdictDisagrees(
  * is finished only with `acceptUnevenSurvey` (a conscious choice, audited); otherwise 409 naming
  * that field, and nothing changes.
  */
-export async function finishInspection(actor: Actor, id: string, opts: { acceptUnevenSurvey?: boolean } = {}) {
+export async function finishInspection(actor: Actor, id: string, opts: { acceptUnevenSurvey?: boolean; hours?: HoursReading } = {}) {
   const db = await getDb();
   const row = await inspectionRowForActor(actor, id, db);
   assertOpen(row);
@@ -427,6 +442,12 @@ export async function finishInspection(actor: Actor, id: string, opts: { acceptU
       .update(inspections)
       .set({ status: 'finished', finishedAt: sql`now()` })
       .where(eq(inspections.id, row.id));
+    // The hour meters read at the inspection (optional): a refused reading finishes nothing.
+    if (opts.hours) await recordHours(tx, actor, ctx.machine, opts.hours, 'inspection', row.id, 'hours.');
+    // Each wear measurement is kept against its part, at the separator hours of this inspection
+    // (the reading given now, else the machine's last reading).
+    const separatorHours = opts.hours?.separatorHours ?? (await lastHours(ctx.machine.id, tx))?.separatorHours ?? null;
+    await recordWearMeasurements(tx, ctx.machine, row.id, items, separatorHours, new Date());
   });
 
   let requestId: string | null = null;
@@ -442,8 +463,13 @@ export async function finishInspection(actor: Actor, id: string, opts: { acceptU
       );
       requestId = request.id;
     } catch (err) {
-      // The parts could not be requested: open the inspection again so nothing is lost.
-      await db.update(inspections).set({ status: 'open', finishedAt: null }).where(eq(inspections.id, row.id));
+      // The parts could not be requested: open the inspection again so nothing is lost (and
+      // take back what the finish recorded: its hours reading and its wear measurements).
+      await db.transaction(async (tx) => {
+        await tx.update(inspections).set({ status: 'open', finishedAt: null }).where(eq(inspections.id, row.id));
+        await tx.delete(wearMeasurements).where(eq(wearMeasurements.inspectionId, row.id));
+        await tx.delete(machineHours).where(and(eq(machineHours.source, 'inspection'), eq(machineHours.sourceId, row.id)));
+      });
       throw err;
     }
   }

@@ -10,6 +10,7 @@ import { HttpError, whenNotFound } from '~/lib/server/http';
 import { checkStateless } from './check';
 import { catalogForFamily, machineForActor } from './machines';
 import { versionOf } from './layouts';
+import { recordInstallHistory } from './part-history';
 
 /**
  * What is bolted in a machine today: either a layout document, or a saved layout version of
@@ -67,6 +68,8 @@ export async function putInstalled(actor: Actor, machineId: string, input: z.inf
   const { findings } = await checkStateless(layout);
   const db = await getDb();
   await db.transaction(async (tx) => {
+    // Part history first, while the installed row still holds what comes out.
+    const history = await recordInstallHistory(tx, actor, ctx.machine, layout);
     await tx
       .insert(installed)
       .values({
@@ -86,7 +89,7 @@ export async function putInstalled(actor: Actor, machineId: string, input: z.inf
           updatedAt: sql`now()`,
         },
       });
-    await audit(tx, actor, 'install', 'machine', ctx.machine.id, { crop: layout.crop, ...source }, ctx.machine.orgId);
+    await audit(tx, actor, 'install', 'machine', ctx.machine.id, { crop: layout.crop, ...source, parts: history }, ctx.machine.orgId);
   });
   return getInstalled(actor, machineId).then((r) => ({ ...r, findings }));
 }
