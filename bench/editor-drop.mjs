@@ -150,9 +150,23 @@ try {
     const commits = [];
     for (let i = 0; i < ROUNDS; i++) {
       step(`rate ${rate} round ${i}`);
-      await item.focus();
-      await page.keyboard.press('Space');
-      await page.waitForFunction(() => /Picked up/.test(window.liveText()));
+      // Pick the part up. The pick-up is not measured; after the previous round's undo the palette
+      // may still re-render once (its hint follows the frame) and take the focus with it, so a key
+      // press that started no carry is tried again, up to five times.
+      for (let attempt = 1; ; attempt++) {
+        await item.focus();
+        await page.keyboard.press('Space');
+        const picked = await page
+          .waitForFunction(() => /Picked up/.test(window.liveText()), undefined, { timeout: 3_000 })
+          .then(() => true)
+          .catch(() => false);
+        if (picked) break;
+        if (attempt === 5)
+          throw new Error(`no pick-up after 5 tries; the live region says: ${await page.evaluate(() => window.liveText())}`);
+        step(`pick-up attempt ${attempt} started no carry`);
+        await page.keyboard.press('Escape');
+        await page.waitForTimeout(200);
+      }
       await page.waitForTimeout(100); // the sensor starts listening for keys on the next task
       // Each step waits for its announcement (the sensor listens for keys a moment after pick-up):
       // "Over <the slot's place words>, …", the words read from the slot's own label in the
