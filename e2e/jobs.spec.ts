@@ -60,6 +60,18 @@ test('an accepted plan becomes a job card, worked step by step, hours read, chec
   await expect(page.getByTestId('job-status')).toHaveText('In progress');
   await expect(page.getByTestId('job-assignee')).toHaveText('Tomas Reyes');
 
+  // The work can be handed over while it is in progress (and handed back).
+  const handover = page.getByTestId('handover-form');
+  const others = (await handover.getByRole('combobox').locator('option').allTextContents()).filter((t) => t !== 'Tomas Reyes');
+  expect(others.length).toBeGreaterThan(0);
+  await handover.getByRole('combobox').selectOption({ label: others[0]! });
+  await handover.getByRole('button', { name: 'Hand over' }).click();
+  await expect(page.getByTestId('job-notice')).toHaveText('Assignee saved.');
+  await expect(page.getByTestId('job-assignee')).toHaveText(others[0]!);
+  await page.getByTestId('handover-form').getByRole('combobox').selectOption({ label: 'Tomas Reyes' });
+  await page.getByTestId('handover-form').getByRole('button', { name: 'Hand over' }).click();
+  await expect(page.getByTestId('job-assignee')).toHaveText('Tomas Reyes');
+
   // Done needs every step ticked: the first by keyboard, the rest by pointer.
   const boxes = page.getByTestId('job-steps').getByRole('checkbox');
   await boxes.first().focus();
