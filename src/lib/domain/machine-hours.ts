@@ -8,7 +8,8 @@ import { z } from 'zod';
 /** Upper bound for an hour meter (a combine's meter reads far below this). */
 export const MAX_HOURS = 100_000;
 
-const hours = z.number().finite().min(0, 'hours cannot be negative').max(MAX_HOURS, `at most ${MAX_HOURS} hours`);
+// zod 4 numbers are finite: Infinity and NaN are refused.
+const hours = z.number().min(0, 'hours cannot be negative').max(MAX_HOURS, `at most ${MAX_HOURS} hours`);
 
 /** A reading as a form or an API body gives it. */
 export const hoursReadingSchema = z.object({
