@@ -83,7 +83,7 @@ describe('organisations', () => {
 
 describe('machines list', () => {
   it('pages, sorts and filters what the user may see', async () => {
-    const mine = await olive.get('/api/machines');
+    const mine = await olive.get('/api/machines?pageSize=100');
     expect(mine.status).toBe(200);
     expect(mine.body.items.every((m: any) => m.orgName === 'Larkspur Farms')).toBe(true);
     expect(mine.body.items.map((m: any) => m.nickname)).toContain('North Quarter');
