@@ -12,6 +12,13 @@ import { HttpError, notFound, whenNotFound } from '~/lib/server/http';
 import { catalogForFamily, machineForActor, type MachineRow } from './machines';
 import type { VersionView } from '~/lib/responses';
 
+/** The join of a layout to its current version. */
+const isCurrentVersion = and(eq(layoutVersions.layoutId, layouts.id), eq(layoutVersions.version, layouts.currentVersion));
+
+/** The layout, when the actor may see it and its machine (another organisation's is not found). */
+const layoutVisibleTo = (actor: Actor, layoutId: string) =>
+  and(eq(layouts.id, layoutId), inArray(layouts.orgId, actor.visibleOrgIds), inArray(machines.orgId, actor.visibleOrgIds));
+
 export const createLayoutSchema = z.object({
   name: z.string().trim().min(1).max(120),
   /** The layout itself; without one, `crop` names the crop to start a suggested layout for. */
@@ -109,7 +116,7 @@ function buildLayoutWithCurrent(db: Db) {
     })
     .from(layouts)
     .innerJoin(machines, eq(machines.id, layouts.machineId))
-    .innerJoin(layoutVersions, and(eq(layoutVersions.layoutId, layouts.id), eq(layoutVersions.version, layouts.currentVersion)))
+    .innerJoin(layoutVersions, isCurrentVersion)
     .leftJoin(users, eq(users.id, layoutVersions.createdBy))
     .where(and(eq(layouts.id, sql.placeholder('layoutId')), sql`${layouts.orgId} = any(${sql.placeholder('orgIds')}::uuid[])`))
     .limit(1)
@@ -149,9 +156,9 @@ export async function getLayout(actor: Actor, layoutId: string) {
     .innerJoin(machines, eq(machines.id, layouts.machineId))
     .innerJoin(families, eq(families.id, machines.familyId))
     .innerJoin(organisations, eq(organisations.id, machines.orgId))
-    .innerJoin(layoutVersions, and(eq(layoutVersions.layoutId, layouts.id), eq(layoutVersions.version, layouts.currentVersion)))
+    .innerJoin(layoutVersions, isCurrentVersion)
     .leftJoin(users, eq(users.id, layoutVersions.createdBy))
-    .where(and(eq(layouts.id, layoutId), inArray(layouts.orgId, actor.visibleOrgIds), inArray(machines.orgId, actor.visibleOrgIds)))
+    .where(layoutVisibleTo(actor, layoutId))
     .limit(1);
   if (!row) throw notFound('Layout not found', 'layoutId');
   return row;
@@ -180,9 +187,9 @@ async function getLayoutWithVersions(actor: Actor, layoutId: string, before: num
     .innerJoin(machines, eq(machines.id, layouts.machineId))
     .innerJoin(families, eq(families.id, machines.familyId))
     .innerJoin(organisations, eq(organisations.id, machines.orgId))
-    .innerJoin(layoutVersions, and(eq(layoutVersions.layoutId, layouts.id), eq(layoutVersions.version, layouts.currentVersion)))
+    .innerJoin(layoutVersions, isCurrentVersion)
     .leftJoin(users, eq(users.id, layoutVersions.createdBy))
-    .where(and(eq(layouts.id, layoutId), inArray(layouts.orgId, actor.visibleOrgIds), inArray(machines.orgId, actor.visibleOrgIds)))
+    .where(layoutVisibleTo(actor, layoutId))
     .limit(1);
   if (!row) throw notFound('Layout not found', 'layoutId');
   return row;
