@@ -214,10 +214,33 @@ interface WearData {
   readings: Map<string, { at: Date; separatorHours: number; engineHours: number; corrected: boolean }[]>;
 }
 
-async function loadWearData(db: Pick<Db, 'select'>, orgIds: string[]): Promise<WearData> {
+/**
+ * The part records of `orgIds` (a part's chain of records stays within its farm), with the wear
+ * measurements and hour readings the forecasts need. With `machineId`, only that machine's
+ * records and their chains get measurements, and only the machines on those chains readings: a
+ * machine page does not read the whole farm's history.
+ */
+async function loadWearData(db: Pick<Db, 'select'>, orgIds: string[], machineId?: string): Promise<WearData> {
   if (!orgIds.length) return { records: new Map(), measurements: new Map(), readings: new Map() };
-  const [recs, meas, hrs] = await Promise.all([
-    db.select().from(partRecords).where(inArray(partRecords.orgId, orgIds)),
+  const recs = await db.select().from(partRecords).where(inArray(partRecords.orgId, orgIds));
+  const records = new Map(recs.map((r) => [r.id, r] as const));
+  let recordScope = inArray(wearMeasurements.orgId, orgIds);
+  let machineScope = inArray(machineHours.orgId, orgIds);
+  if (machineId) {
+    const ids = new Set<string>();
+    for (const r of recs)
+      if (r.machineId === machineId)
+        for (
+          let c: PartRecordRow | undefined = r;
+          c && !ids.has(c.id);
+          c = c.previousRecordId ? records.get(c.previousRecordId) : undefined
+        )
+          ids.add(c.id);
+    const machineIds = new Set([machineId, ...[...ids].map((id) => records.get(id)!.machineId)]);
+    recordScope = inArray(wearMeasurements.partRecordId, [...ids]);
+    machineScope = inArray(machineHours.machineId, [...machineIds]);
+  }
+  const [meas, hrs] = await Promise.all([
     db
       .select({
         partRecordId: wearMeasurements.partRecordId,
@@ -227,7 +250,7 @@ async function loadWearData(db: Pick<Db, 'select'>, orgIds: string[]): Promise<W
         inspectionId: wearMeasurements.inspectionId,
       })
       .from(wearMeasurements)
-      .where(inArray(wearMeasurements.orgId, orgIds))
+      .where(recordScope)
       .orderBy(asc(wearMeasurements.measuredAt)),
     db
       .select({
@@ -238,7 +261,7 @@ async function loadWearData(db: Pick<Db, 'select'>, orgIds: string[]): Promise<W
         reason: machineHours.correctionReason,
       })
       .from(machineHours)
-      .where(inArray(machineHours.orgId, orgIds))
+      .where(machineScope)
       .orderBy(asc(machineHours.recordedAt), asc(machineHours.id)),
   ]);
   const measurements: WearData['measurements'] = new Map();
@@ -253,7 +276,7 @@ async function loadWearData(db: Pick<Db, 'select'>, orgIds: string[]): Promise<W
     list.push({ at: h.at, separatorHours: h.separatorHours, engineHours: h.engineHours, corrected: !!h.reason });
     readings.set(h.machineId, list);
   }
-  return { records: new Map(recs.map((r) => [r.id, r] as const)), measurements, readings };
+  return { records, measurements, readings };
 }
 
 export interface WearPointView extends WearPoint {
@@ -338,7 +361,7 @@ const placeRank = (key: string) => (key.startsWith('element:') ? 0 : key.startsW
 export async function partHistory(actor: Actor, machineId: string, now = new Date()) {
   const ctx = await machineForActor(actor, machineId);
   const db = await getDb();
-  const data = await loadWearData(db, [ctx.machine.orgId]);
+  const data = await loadWearData(db, [ctx.machine.orgId], ctx.machine.id);
   const mine = [...data.records.values()].filter((r) => r.machineId === ctx.machine.id);
   const current = mine
     .filter((r) => !r.removedAt)
@@ -362,7 +385,7 @@ export async function partHistory(actor: Actor, machineId: string, now = new Dat
 export async function partRecordDetail(actor: Actor, machineId: string, recordId: string, now = new Date()) {
   const ctx = await machineForActor(actor, machineId);
   const db = await getDb();
-  const data = await loadWearData(db, [ctx.machine.orgId]);
+  const data = await loadWearData(db, [ctx.machine.orgId], ctx.machine.id);
   const rec = data.records.get(recordId);
   if (!rec || rec.machineId !== ctx.machine.id) throw notFound('Part record not found', 'recordId');
   const view = forecastOf(data, recordId, now)!;
@@ -414,8 +437,10 @@ export async function seasonList(actor: Actor, now = new Date()) {
   const farmName = new Map(farms.map((f) => [f.id, f.name] as const));
   const machinesOut = [];
   const toStock = new Map<string, number>();
+  const openByMachine = new Map<string, PartRecordRow[]>();
+  for (const r of data.records.values()) if (!r.removedAt) openByMachine.set(r.machineId, [...(openByMachine.get(r.machineId) ?? []), r]);
   for (const m of machineRows) {
-    const open = [...data.records.values()].filter((r) => r.machineId === m.id && !r.removedAt);
+    const open = openByMachine.get(m.id) ?? [];
     const views = open.map((r) => forecastOf(data, r.id, now)!);
     const season = usualSeasonHours(data.readings.get(m.id) ?? [], DEMO_SEASON_WINDOW);
     const due = views
