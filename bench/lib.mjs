@@ -16,10 +16,10 @@ export function freePort() {
   });
 }
 
-export async function startServer({ dataDir, outDir = process.env.CAGEWRIGHT_OUT_DIR ?? 'dist', env = {} }) {
+export async function startServer({ dataDir, outDir = process.env.CAGEWRIGHT_OUT_DIR ?? 'dist', env = {}, nodeArgs = [] }) {
   const port = await freePort();
   const t0 = performance.now();
-  const child = spawn(process.execPath, ['scripts/start.mjs'], {
+  const child = spawn(process.execPath, [...nodeArgs, 'scripts/start.mjs'], {
     env: {
       ...process.env,
       PORT: String(port),

@@ -213,3 +213,54 @@ test('an operator of one farm gets "not found" for another farm’s machine page
   await expect(page.locator('[data-place="element:1:left"]')).toBeVisible();
   await shot(page, 'fleet-machine-installed');
 });
+
+test('the machines list turns pages with Next and Previous, each read from the row it follows', async ({ page }) => {
+  await signIn(page, 'technician', '/machines');
+  const found = await (await page.request.get('/api/machines?q=Creekside')).json();
+  const creekside = found.items.find((m: { nickname: string }) => m.nickname === 'Creekside');
+  const tag = `Pager ${Date.now().toString(36)}`;
+  const made: string[] = [];
+  try {
+    for (let i = 0; i < 12; i++) {
+      const res = await page.request.post('/api/machines', {
+        data: {
+          familyId: creekside.familyId,
+          drum: creekside.drum,
+          vaneControl: creekside.vaneControl,
+          orgId: creekside.orgId,
+          serial: `${tag}-${i}`.toUpperCase().replace(/\s/g, ''),
+          nickname: `${tag} ${String(i).padStart(2, '0')}`,
+        },
+      });
+      expect(res.status()).toBe(201);
+      made.push((await res.json()).machine.id);
+    }
+    await page.goto(`/machines?orgId=${creekside.orgId}&sort=nickname&pageSize=10`);
+    const table = page.getByTestId('machines-table');
+    const names = () => table.locator('tbody tr td:first-child').allInnerTexts();
+    await expect(page.getByTestId('machines-count')).toContainText('page 1 of');
+    await expect(table.locator('tbody tr')).toHaveCount(10);
+    const pageOne = await names();
+
+    // Next by keyboard: the request starts after the last row shown.
+    const nextRequest = page.waitForRequest((r) => r.url().includes('/api/machines?') && r.url().includes('after='));
+    await page.getByRole('button', { name: 'Next' }).focus();
+    await page.keyboard.press('Enter');
+    await nextRequest;
+    await expect(page.getByTestId('machines-count')).toContainText('page 2 of');
+    await expect.poll(names).not.toEqual(pageOne);
+    const pageTwo = await names();
+    expect(pageTwo.some((n) => pageOne.includes(n))).toBe(false);
+    expect([...pageOne, ...pageTwo].slice(-1)[0]! >= pageOne.slice(-1)[0]!).toBe(true);
+    await shot(page, 'fleet-machines-page-2', false);
+
+    // Previous by mouse: the page before the first row shown, the same rows as before.
+    const prevRequest = page.waitForRequest((r) => r.url().includes('/api/machines?') && r.url().includes('before='));
+    await page.getByRole('button', { name: 'Previous' }).click();
+    await prevRequest;
+    await expect(page.getByTestId('machines-count')).toContainText('page 1 of');
+    await expect.poll(names).toEqual(pageOne);
+  } finally {
+    for (const id of made) await page.request.delete(`/api/machines/${id}`);
+  }
+});

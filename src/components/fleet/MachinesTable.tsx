@@ -37,6 +37,9 @@ interface MachinePage {
   total: number;
   page: number;
   pageSize: number;
+  /** Keyset cursors of the page's last and first rows (null where the list is paged by number). */
+  next?: string | null;
+  prev?: string | null;
 }
 
 export interface MachinesTableProps {
@@ -86,13 +89,24 @@ function Table({ initial, orgs, families }: MachinesTableProps) {
     return p.toString();
   }, [sorting, pagination, debouncedQ, orgId, familyId]);
 
+  // Next and Previous read the neighbouring page from the index at the current page's last or
+  // first row (keyset); any other move (a new sort, filter, page size) starts from page 1. The URL
+  // keeps the page number only, so a reload reads that page by number.
+  const [cursor, setCursor] = useState<{ after?: string; before?: string }>({});
+  const fetchParams = useMemo(() => {
+    const p = new URLSearchParams(params);
+    if (cursor.after) p.set('after', cursor.after);
+    if (cursor.before) p.set('before', cursor.before);
+    return p.toString();
+  }, [params, cursor]);
+
   useEffect(() => {
     window.history.replaceState(null, '', `${window.location.pathname}?${params}`);
   }, [params]);
 
-  const { data, isFetching, error } = useQuery({
-    queryKey: ['machines', params],
-    queryFn: ({ signal }) => getJson<MachinePage>(`/api/machines?${params}`, signal),
+  const { data, isFetching, isPlaceholderData, error } = useQuery({
+    queryKey: ['machines', fetchParams],
+    queryFn: ({ signal }) => getJson<MachinePage>(`/api/machines?${fetchParams}`, signal),
     placeholderData: keepPreviousData,
   });
 
@@ -123,9 +137,15 @@ function Table({ initial, orgs, families }: MachinesTableProps) {
     state: { sorting, pagination },
     onSortingChange: (updater) => {
       setSorting(updater);
-      setPagination((p) => ({ ...p, pageIndex: 0 }));
+      resetPage();
     },
-    onPaginationChange: setPagination,
+    onPaginationChange: (updater) => {
+      const next = typeof updater === 'function' ? updater(pagination) : updater;
+      const shown = data && !isPlaceholderData && data.page === pagination.pageIndex + 1 && next.pageSize === pagination.pageSize;
+      const step = next.pageIndex - pagination.pageIndex;
+      setCursor(shown && step === 1 && data.next ? { after: data.next } : shown && step === -1 && data.prev ? { before: data.prev } : {});
+      setPagination(next);
+    },
     manualSorting: true,
     manualPagination: true,
     manualFiltering: true,
@@ -134,7 +154,10 @@ function Table({ initial, orgs, families }: MachinesTableProps) {
     getCoreRowModel: getCoreRowModel(),
   });
 
-  const resetPage = () => setPagination((p) => ({ ...p, pageIndex: 0 }));
+  const resetPage = () => {
+    setCursor({});
+    setPagination((p) => ({ ...p, pageIndex: 0 }));
+  };
   const pageCount = Math.max(1, Math.ceil(total / pagination.pageSize));
 
   return (
@@ -243,7 +266,10 @@ function Table({ initial, orgs, families }: MachinesTableProps) {
             <select
               className="rounded-md border-steel-300 py-1 text-sm"
               value={pagination.pageSize}
-              onChange={(e) => setPagination({ pageIndex: 0, pageSize: Number(e.target.value) })}
+              onChange={(e) => {
+                setCursor({});
+                setPagination({ pageIndex: 0, pageSize: Number(e.target.value) });
+              }}
             >
               {[10, 20, 50, 100].map((n) => (
                 <option key={n} value={n}>

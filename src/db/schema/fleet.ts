@@ -22,18 +22,21 @@ export const machines = pgTable(
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
     // Not declared here: search_text, a stored generated column (lower case name, serial and
     // notes in one value) that the list's text search reads; it is added by migration
-    // 0012_machine_list_search.sql and read only by listMachines (services/machines.ts), so
+    // 0013_machine_list_search.sql and read only by listMachines (services/machines.ts), so
     // no answer that returns a machine row carries it.
   },
   // The machines list filters by organisation and sorts by last change (its default) or name:
   // with these an organisation's page is read in order from the index, without sorting them all.
   // Dealer staff see several organisations at once; the indexes without the organisation give
   // their pages in order too (the store walks one index and skips other organisations' rows).
+  // Every key ends in the id and runs one way: a descending list (the newest first) reads the
+  // same index backwards, ties by id descending, so a keyset cursor (column, id) is one row
+  // comparison the index can start at, even where thousands of machines share a time.
   (t) => [
     index('machines_org_idx').on(t.orgId),
-    index('machines_org_updated_idx').on(t.orgId, t.updatedAt.desc(), t.id),
+    index('machines_org_updated_idx').on(t.orgId, t.updatedAt, t.id),
     index('machines_org_nickname_idx').on(t.orgId, t.nickname, t.id),
-    index('machines_updated_idx').on(t.updatedAt.desc(), t.id),
+    index('machines_updated_idx').on(t.updatedAt, t.id),
     index('machines_nickname_idx').on(t.nickname, t.id),
   ],
 );

@@ -1,4 +1,4 @@
-import { and, asc, count, eq, ilike, inArray, or, sql } from 'drizzle-orm';
+import { and, asc, count, desc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, store, storeWriteGeneration, type Db } from '~/lib/server/db';
 import { catalogParts, families, installed, machines, organisations } from '~/db/schema';
@@ -81,8 +81,45 @@ export const machineListQuerySchema = z.object({
   q: z.string().trim().max(100).default(''),
   orgId: z.uuid().optional(),
   familyId: z.string().max(60).optional(),
+  /**
+   * Keyset paging (the `next` cursor of the page before `page`, or the `prev` cursor of the page
+   * after it): the page is read from the index starting at that row instead of counting past
+   * every earlier row. Used when the list is sorted by a machine's own column without a text
+   * query; otherwise `page` alone decides.
+   */
+  after: z.string().max(400).optional(),
+  before: z.string().max(400).optional(),
 });
 export type MachineListQuery = z.infer<typeof machineListQuerySchema>;
+
+/** Where a keyset page starts: the sort it belongs to, the sort column's value (as the store spells it) and the row's id. */
+interface ListCursor {
+  sort: string;
+  value: string;
+  id: string;
+}
+
+const cursorShape = z.tuple([z.string().max(40), z.string().max(200), z.uuid()]);
+
+export function encodeListCursor(c: ListCursor): string {
+  return Buffer.from(JSON.stringify([c.sort, c.value, c.id])).toString('base64url');
+}
+
+/** A cursor from this list and this sort, or a 400 naming the parameter. */
+export function decodeListCursor(text: string, sort: string, field: 'after' | 'before'): ListCursor {
+  let tuple: unknown;
+  try {
+    tuple = JSON.parse(Buffer.from(text, 'base64url').toString('utf8'));
+  } catch {
+    tuple = null;
+  }
+  const parsed = cursorShape.safeParse(tuple);
+  if (!parsed.success)
+    throw new HttpError(400, `${field}: not a cursor of the machines list (use the next or prev cursor of a page)`, field);
+  const [cursorSort, value, id] = parsed.data;
+  if (cursorSort !== sort) throw new HttpError(400, `${field}: the cursor belongs to the list sorted by ${cursorSort}, not ${sort}`, field);
+  return { sort: cursorSort, value, id };
+}
 
 export const createMachineSchema = z.object({
   /** The organisation that owns it; defaults to the user's own farm. */
@@ -109,6 +146,16 @@ export const updateMachineSchema = z
     error: 'give at least one of drum, vaneControl, serial, nickname or notes to change',
     path: ['nickname'],
   });
+
+/** How a sort column's value is read back from a cursor (its text as the store wrote it). */
+const sortCasts: Record<keyof typeof sortColumns, string> = {
+  nickname: 'text',
+  serial: 'text',
+  family: 'text',
+  org: 'text',
+  updatedAt: 'timestamptz',
+  createdAt: 'timestamptz',
+};
 
 const sortColumns = {
   nickname: machines.nickname,
@@ -151,7 +198,7 @@ const listColumns = {
 /** A row of the machines list. */
 export type MachineListItemRow = { [K in keyof typeof listColumns]: (typeof listColumns)[K]['_']['data'] };
 
-/** The character that joins name, serial and notes in `search_text` (see the 0012 migration). */
+/** The character that joins name, serial and notes in `search_text` (see the 0013 migration). */
 const SEARCH_SEPARATOR = '\u001f';
 
 /**
@@ -174,9 +221,9 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
   const desc_ = query.sort.startsWith('-');
   const key = query.sort.replace(/^-/, '') as keyof typeof sortColumns;
   const column = sortColumns[key];
-  // Every sort column is NOT NULL; descending is spelt NULLS LAST like the indexes
-  // (machines_updated_idx, machines_org_updated_idx), or the store could not read them in order.
-  const order = [desc_ ? sql`${column} desc nulls last` : asc(column), asc(machines.id)];
+  // Every sort column is NOT NULL. Ties go by id, the same way as the column: a descending list
+  // is the ascending one read backwards, from the same index (see the indexes in schema/fleet.ts).
+  const order = desc_ ? [desc(column), desc(machines.id)] : [asc(column), asc(machines.id)];
   const conditions = [inArray(machines.orgId, actor.visibleOrgIds)];
   if (query.orgId) conditions.push(eq(machines.orgId, query.orgId));
   if (query.familyId) conditions.push(eq(machines.familyId, query.familyId));
@@ -193,14 +240,23 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
   }
   const where = and(...conditions);
   const offset = (query.page - 1) * query.pageSize;
-  const answer = (items: MachineListItemRow[], total: number) => ({
+  const answer = (items: MachineListItemRow[], total: number, cursors: { next: string | null; prev: string | null } = NO_CURSORS) => ({
     items,
     total,
     page: query.page,
     pageSize: query.pageSize,
     sort: query.sort,
     q: query.q,
+    ...cursors,
   });
+  if (query.after !== undefined && query.before !== undefined)
+    throw new HttpError(400, 'before: give after (the next page) or before (the page before), not both', 'before');
+  const cursor =
+    query.after !== undefined
+      ? { ...decodeListCursor(query.after, query.sort, 'after'), forward: true }
+      : query.before !== undefined
+        ? { ...decodeListCursor(query.before, query.sort, 'before'), forward: false }
+        : null;
   const countAll = async () => (await db.select({ n: count() }).from(machines).where(where))[0]?.n ?? 0;
 
   if (q || key === 'family' || key === 'org') {
@@ -221,16 +277,28 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
   }
 
   // The page's machines from the index, then their family and farm names (page rows only).
+  // With a cursor the index is entered at the cursor's row (read backwards for the page before)
+  // and no earlier row is read; the sort's own order is (column, id) with id always ascending.
+  let keyset: SQL | undefined;
+  let pageOrder = order;
+  if (cursor) {
+    const value = sql`cast(${cursor.value} as ${sql.raw(sortCasts[key])})`;
+    // (column, id) after the cursor's row in the list's order: larger when ascending, smaller when
+    // descending; the page before reads the other way and is turned round below.
+    const op = desc_ === cursor.forward ? sql`<` : sql`>`;
+    keyset = sql`(${column}, ${machines.id}) ${op} (${value}, cast(${cursor.id} as uuid))`;
+    if (!cursor.forward) pageOrder = desc_ ? [asc(column), asc(machines.id)] : [desc(column), desc(machines.id)];
+  }
   const page = db
-    .select(ownColumns)
+    .select({ ...ownColumns, cursorValue: sql<string>`${column}::text`.as('cursor_value') })
     .from(machines)
-    .where(where)
-    .orderBy(...order)
+    .where(keyset ? and(where, keyset) : where)
+    .orderBy(...pageOrder)
     .limit(query.pageSize)
-    .offset(offset)
+    .offset(cursor ? 0 : offset)
     .as('page');
   const pageColumn = page[key as keyof typeof ownColumns];
-  const rows: MachineListItemRow[] = await db
+  const rows: (MachineListItemRow & { cursorValue: string })[] = await db
     .select({
       id: page.id,
       nickname: page.nickname,
@@ -244,13 +312,23 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
       orgName: organisations.name,
       createdAt: page.createdAt,
       updatedAt: page.updatedAt,
+      cursorValue: page.cursorValue,
     })
     .from(page)
     .innerJoin(families, eq(families.id, page.familyId))
     .innerJoin(organisations, eq(organisations.id, page.orgId))
-    .orderBy(desc_ ? sql`${pageColumn} desc nulls last` : asc(pageColumn), asc(page.id));
-  return answer(rows, await keptCount([[...actor.visibleOrgIds].sort(), query.orgId, query.familyId], countAll));
+    .orderBy(...(desc_ ? [desc(pageColumn), desc(page.id)] : [asc(pageColumn), asc(page.id)]));
+  const first = rows[0];
+  const last = rows[rows.length - 1];
+  const cursorOf = (r: typeof first) => (r ? encodeListCursor({ sort: query.sort, value: r.cursorValue, id: r.id }) : null);
+  return answer(
+    rows.map(({ cursorValue: _, ...row }) => row),
+    await keptCount([[...actor.visibleOrgIds].sort(), query.orgId, query.familyId], countAll),
+    { next: cursorOf(last), prev: cursorOf(first) },
+  );
 }
+
+const NO_CURSORS = { next: null, prev: null };
 
 /**
  * Totals of the list without a text query, kept with the embedded store only and used only while
