@@ -121,6 +121,75 @@ describe('history page of a layout with 300 versions', () => {
   });
 });
 
+describe('restore and mark installed from the history table', () => {
+  let layout: string;
+  let path: string;
+  let machineId: string;
+  beforeAll(async () => {
+    // A machine of its own: marking a version installed changes what the machine has fitted.
+    const machine = await olive.post('/api/machines', {
+      familyId: northQuarter.familyId,
+      drum: northQuarter.drum,
+      vaneControl: northQuarter.vaneControl,
+      serial: uniq('RT'),
+      nickname: uniq('Restore table'),
+    });
+    expect(machine.status).toBe(201);
+    machineId = machine.body.machine.id;
+    made.push(machineId);
+    const started = await newLayout(olive, machineId, uniq('Restore from table'));
+    layout = started.layout.id;
+    path = `/machines/${machineId}/layouts/${layout}/history`;
+    const saved = await olive.put(`/api/layouts/${layout}`, {
+      baseVersion: 1,
+      body: { ...started.version.body, rotorRpm: 777 },
+      note: 'faster',
+    });
+    expect(saved.status).toBe(201);
+  });
+  const post = (fields: Record<string, string>) =>
+    olive.fetch(path, {
+      method: 'POST',
+      headers: { 'content-type': 'application/x-www-form-urlencoded' },
+      body: new URLSearchParams(fields).toString(),
+    });
+  const versionsOf = async () => (await olive.get(`/api/layouts/${layout}/versions`)).body.versions as { version: number }[];
+
+  it('one form serves every row: each button posts its own version', async () => {
+    const html = (await page(path)).html;
+    expect(html.match(/<form[^>]*id="version-actions"/g)).toHaveLength(1);
+    expect(html).toMatch(/<button[^>]*form="version-actions"[^>]*name="restore"[^>]*value="1"/);
+    expect(html).toMatch(/<button[^>]*form="version-actions"[^>]*name="install"[^>]*value="2"/);
+  });
+
+  it('Restore writes the old content as a new version on top, and a bad version writes nothing', async () => {
+    const bad = await post({ restore: 'x', baseVersion: '2' });
+    expect(bad.status).toBe(400);
+    expect(await bad.text()).toContain('version: choose a version');
+    expect(await versionsOf()).toHaveLength(2);
+    const res = await post({ restore: '1', baseVersion: '2' });
+    expect(res.status).toBe(303);
+    expect(res.headers.get('location')).toContain('restored=1&as=3');
+    const now = await olive.get(`/api/layouts/${layout}`);
+    expect(now.body.layout.currentVersion).toBe(3);
+    expect(now.body.current.body.rotorRpm).not.toBe(777);
+    // A stale base (someone saved since the page was drawn) is refused, nothing written.
+    const stale = await post({ restore: '2', baseVersion: '2' });
+    expect(stale.status).toBe(409);
+    expect(await versionsOf()).toHaveLength(3);
+  });
+
+  it('Mark installed records the version as installed in the machine', async () => {
+    const res = await post({ install: '2' });
+    expect(res.status).toBe(200);
+    expect(await res.text()).toContain('Version 2 is now recorded as installed');
+    const installed = await olive.get(`/api/machines/${machineId}/installed`);
+    expect(installed.status).toBe(200);
+    // Version 2 is the one saved at 777 rpm.
+    expect(installed.body.installed.layout.rotorRpm).toBe(777);
+  });
+});
+
 describe('versions API a page at a time', () => {
   it('pages by a keyset cursor (before) as well as by page number, with the total', async () => {
     const first = await olive.get(`/api/layouts/${layoutId}/versions?pageSize=${PAGE}`);
