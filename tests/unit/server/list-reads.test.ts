@@ -44,18 +44,20 @@ const rawClient = async () =>
   ((await getDb()) as unknown as { $client: { query: (text: string, params?: unknown[]) => Promise<{ rows: unknown[] }> } }).$client;
 
 /** Every statement sent to the store while `run` runs. */
-async function statementsOf<T>(run: () => Promise<T>): Promise<{ result: T; statements: string[] }> {
+async function statementsOf<T>(run: () => Promise<T>): Promise<{ result: T; statements: string[]; params: unknown[][] }> {
   const client = (await rawClient()) as unknown as Record<'query' | 'exec', (...args: unknown[]) => Promise<unknown>>;
   const original = { query: client.query, exec: client.exec };
   const statements: string[] = [];
+  const params: unknown[][] = [];
   for (const name of ['query', 'exec'] as const) {
     client[name] = (...args: unknown[]) => {
       statements.push(String(args[0]));
+      params.push(Array.isArray(args[1]) ? args[1] : []);
       return original[name]!(...args);
     };
   }
   try {
-    return { result: await run(), statements };
+    return { result: await run(), statements, params };
   } finally {
     client.query = original.query;
     client.exec = original.exec;
@@ -157,8 +159,9 @@ const everything = () =>
       sql`, `,
     )})`);
 
+/** Last change first; ties by id, descending too (the ascending order read backwards). */
 const byUpdatedDesc = (a: Plain, b: Plain) =>
-  new Date(b.updated_at).getTime() - new Date(a.updated_at).getTime() || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0);
+  new Date(b.updated_at).getTime() - new Date(a.updated_at).getTime() || (a.id < b.id ? 1 : a.id > b.id ? -1 : 0);
 
 describe('the machines list at 2,000 machines', () => {
   it('gives page 20 of the default order (last change first, then id) from the index: two statements, no sort, at most page × size rows read', async () => {
@@ -183,6 +186,28 @@ describe('the machines list at 2,000 machines', () => {
     expect(machineScans).toHaveLength(1);
     expect(machineScans[0]!['Node Type']).toBe('Index Scan');
     expect(machineScans[0]!['Actual Rows']).toBeLessThanOrEqual(1000);
+  });
+
+  it('gives page 20 by the Next cursor of page 19 from the index, reading only that page', async () => {
+    const p19 = await listMachines(dealer, machineListQuerySchema.parse({ page: '19', pageSize: '50' }));
+    const query = machineListQuerySchema.parse({ page: '20', pageSize: '50', after: p19.next });
+    const { result, statements, params } = await statementsOf(() => listMachines(dealer, query));
+    const expected = (await everything()).sort(byUpdatedDesc);
+    expect(result.items.map((m) => m.id)).toEqual(expected.slice(950, 1000).map((m) => m.id));
+    // The count is kept from page 19: one statement, the page.
+    expect(statements).toHaveLength(1);
+    const back = await listMachines(dealer, machineListQuerySchema.parse({ page: '19', pageSize: '50', before: result.prev }));
+    expect(back.items.map((m) => m.id)).toEqual(p19.items.map((m) => m.id));
+
+    const [{ 'QUERY PLAN': plan }] = (await (await rawClient()).query(`explain (analyze, format json) ${statements[0]}`, params[0]))
+      .rows as { 'QUERY PLAN': { Plan: PlanNode }[] }[];
+    const nodes = flatten(plan[0]!.Plan);
+    // Whatever sorts, sorts the page's own rows only (the joined 50), never the fleet.
+    for (const n of nodes.filter((x) => x['Node Type'] === 'Sort')) expect(n['Actual Rows']).toBeLessThanOrEqual(50);
+    const machineScans = nodes.filter((n) => n['Relation Name'] === 'machines');
+    expect(machineScans).toHaveLength(1);
+    expect(machineScans[0]!['Node Type']).toMatch(/^Index/);
+    expect(machineScans[0]!['Actual Rows']).toBeLessThanOrEqual(50);
   });
 
   it('keeps the total while nothing is written (the page is always read), and counts again after any write', async () => {
