@@ -285,18 +285,21 @@ export function EditorApp() {
           accessibility={{ announcements, restoreFocus: false, screenReaderInstructions: { draggable: INSTRUCTIONS } }}
         >
           <CarryHandle carry={carry} disabled={!canEdit} />
+          {/* From tablet width up each column is contained (layout and paint): a drop that changes
+              the findings or one slot lays out and repaints that column, not the others. Not on
+              phones, where the palette opens as a fixed sheet that must stay fixed to the screen. */}
           <div className="grid grid-cols-1 gap-3 md:grid-cols-2 xl:grid-cols-[19rem_minmax(0,1fr)_20rem] xl:items-start">
-            <div className="min-w-0">
+            <div className="min-w-0 md:[contain:layout_paint]">
               <Palette />
             </div>
-            <div className="order-first min-w-0 md:col-span-2 xl:sticky xl:top-2 xl:order-none xl:col-span-1">
+            <div className="order-first min-w-0 md:col-span-2 md:[contain:layout_paint] xl:sticky xl:top-2 xl:order-none xl:col-span-1">
               <DiagramPane />
               <details className="mt-2 text-sm text-ink-soft">
                 <summary className="cursor-pointer font-semibold">How to use the drawing</summary>
                 <p className="mt-1 max-w-prose">{INSTRUCTIONS}</p>
               </details>
             </div>
-            <div className="flex min-w-0 flex-col gap-3">
+            <div className="flex min-w-0 flex-col gap-3 md:[contain:layout_paint]">
               <FindingsList />
               <SettingsPanel />
             </div>
