@@ -24,6 +24,11 @@ const WHO: Who[] = ['signed out', 'operator', 'technician', 'trainer', 'dealerAd
 
 const VIEWPORTS = { phone: { width: 390, height: 844 }, desktop: { width: 1440, height: 900 } } as const;
 
+// The role tests only read pages (the setup makes two share links) and depend neither on each
+// other nor on any other spec: with more than one worker (`npm test` gives this file two, in a
+// run of its own) they run side by side.
+test.describe.configure({ mode: 'parallel' });
+
 let ids: DemoIds;
 test.beforeAll(async ({ browser }) => {
   ids = await demoIds(browser);
