@@ -2,7 +2,7 @@
 // `npm test`: lint (ESLint, Prettier's check), type check, build once, then unit + integration tests (vitest) against that build, then the
 // browser tests (Playwright on Debian chromium). With CAGEWRIGHT_PG_URL set (CI does), the
 // integration suite runs a second time against that PostgreSQL server.
-import { spawnSync } from 'node:child_process';
+import { spawn, spawnSync } from 'node:child_process';
 import { readdirSync } from 'node:fs';
 import { ensureChromium } from './ensure-chromium.mjs';
 
@@ -24,9 +24,38 @@ function run(title, cmd, args, extraEnv = {}, keepGoing = false) {
   } else console.log(`\n✓ ${title} (${took})`);
 }
 
+/** Runs stages side by side (each on one core mostly); prints each one's output whole when it ends. */
+async function runTogether(stages) {
+  console.log(`\n▶ ${stages.map((s) => s.title).join(' and ')}, side by side`);
+  const results = await Promise.all(
+    stages.map(
+      ({ title, cmd, args }) =>
+        new Promise((resolve) => {
+          const started = Date.now();
+          const child = spawn(cmd, args, { env, stdio: ['ignore', 'pipe', 'pipe'] });
+          const out = [];
+          child.stdout.on('data', (d) => out.push(d));
+          child.stderr.on('data', (d) => out.push(d));
+          child.on('close', (code, signal) => {
+            const took = `${((Date.now() - started) / 60_000).toFixed(1)} min`;
+            console.log(`\n▶ ${title}`);
+            process.stdout.write(Buffer.concat(out));
+            if (code === 0) console.log(`\n✓ ${title} (${took})`);
+            else console.error(`\n✗ ${title} failed (exit ${code ?? signal}, ${took}).`);
+            resolve(code === 0);
+          });
+        }),
+    ),
+  );
+  if (results.includes(false)) process.exit(1);
+}
+
 if (!ensureChromium()) process.exit(1);
-run('lint (ESLint, Prettier)', 'npm', ['run', '--silent', 'lint']);
-run('type check (astro check)', 'npx', ['astro', 'check']);
+// Lint and the type check read the sources and write nothing: side by side they take the longer one's time.
+await runTogether([
+  { title: 'lint (ESLint, Prettier)', cmd: 'npm', args: ['run', '--silent', 'lint'] },
+  { title: 'type check (astro check)', cmd: 'npx', args: ['astro', 'check'] },
+]);
 run('build', 'npx', ['astro', 'build']);
 run('unit and integration tests (embedded PGlite)', 'npx', ['vitest', 'run']);
 if (process.env.CAGEWRIGHT_PG_URL) {
