@@ -1,4 +1,4 @@
-import { and, asc, count, desc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-orm';
+import { and, asc, count, desc, eq, ilike, inArray, or, sql, type AnyColumn, type SQL } from 'drizzle-orm';
 import { z } from 'zod';
 import { getDb, store, storeWriteGeneration, type Db } from '~/lib/server/db';
 import { catalogParts, families, installed, machines, organisations } from '~/db/schema';
@@ -195,8 +195,14 @@ const listColumns = {
   updatedAt: machines.updatedAt,
 };
 
-/** A row of the machines list. */
-export type MachineListItemRow = { [K in keyof typeof listColumns]: (typeof listColumns)[K]['_']['data'] };
+/** A row of the machines list as the store gives it. */
+type MachineListItemRow = { [K in keyof typeof listColumns]: (typeof listColumns)[K]['_']['data'] };
+
+/** A row of the machines list: times as ISO 8601 text in UTC, to the millisecond (as JSON gives a Date). */
+export type MachineListItem = Omit<MachineListItemRow, 'createdAt' | 'updatedAt'> & { createdAt: string; updatedAt: string };
+
+/** A time column as JSON would write the Date it holds: 2026-12-02T12:26:02.337Z. */
+const isoTime = (column: SQL | AnyColumn) => sql`to_char(${column} at time zone 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
 
 /** The character that joins name, serial and notes in `search_text` (see the 0013 migration). */
 const SEARCH_SEPARATOR = '\u001f';
@@ -240,7 +246,7 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
   }
   const where = and(...conditions);
   const offset = (query.page - 1) * query.pageSize;
-  const answer = (items: MachineListItemRow[], total: number, cursors: { next: string | null; prev: string | null } = NO_CURSORS) => ({
+  const answer = (items: MachineListItem[], total: number, cursors: { next: string | null; prev: string | null } = NO_CURSORS) => ({
     items,
     total,
     page: query.page,
@@ -271,7 +277,11 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
       .offset(offset);
     const total = rows[0]?.total ?? (offset > 0 ? await countAll() : 0);
     return answer(
-      rows.map(({ total: _, ...row }) => row),
+      rows.map(({ total: _, createdAt, updatedAt, ...row }) => ({
+        ...row,
+        createdAt: createdAt.toISOString(),
+        updatedAt: updatedAt.toISOString(),
+      })),
       total,
     );
   }
@@ -298,26 +308,22 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
     .offset(cursor ? 0 : offset)
     .as('page');
   const pageColumn = page[key as keyof typeof ownColumns];
-  const rows: (MachineListItemRow & { cursorValue: string })[] = await db
+  // The page comes back as one JSON array built by the store (its rows in the list's order):
+  // one value to read instead of a dozen per machine, which costs more than the page's query.
+  const [{ items }] = await db
     .select({
-      id: page.id,
-      nickname: page.nickname,
-      serial: page.serial,
-      drum: page.drum,
-      vaneControl: page.vaneControl,
-      notes: page.notes,
-      familyId: page.familyId,
-      familyName: families.name,
-      orgId: page.orgId,
-      orgName: organisations.name,
-      createdAt: page.createdAt,
-      updatedAt: page.updatedAt,
-      cursorValue: page.cursorValue,
+      items: sql<(MachineListItem & { cursorValue: string })[] | null>`json_agg(json_build_object(
+        'id', ${page.id}, 'nickname', ${page.nickname}, 'serial', ${page.serial}, 'drum', ${page.drum},
+        'vaneControl', ${page.vaneControl}, 'notes', ${page.notes}, 'familyId', ${page.familyId},
+        'familyName', ${families.name}, 'orgId', ${page.orgId}, 'orgName', ${organisations.name},
+        'createdAt', ${isoTime(page.createdAt)}, 'updatedAt', ${isoTime(page.updatedAt)},
+        'cursorValue', ${page.cursorValue})
+        order by ${desc_ ? sql`${pageColumn} desc, ${page.id} desc` : sql`${pageColumn}, ${page.id}`})`,
     })
     .from(page)
     .innerJoin(families, eq(families.id, page.familyId))
-    .innerJoin(organisations, eq(organisations.id, page.orgId))
-    .orderBy(...(desc_ ? [desc(pageColumn), desc(page.id)] : [asc(pageColumn), asc(page.id)]));
+    .innerJoin(organisations, eq(organisations.id, page.orgId));
+  const rows = items ?? [];
   const first = rows[0];
   const last = rows[rows.length - 1];
   const cursorOf = (r: typeof first) => (r ? encodeListCursor({ sort: query.sort, value: r.cursorValue, id: r.id }) : null);
