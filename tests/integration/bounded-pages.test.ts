@@ -3,7 +3,7 @@
 // list no versions; the copy-to-machine list is searched, never the whole fleet.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Client, signedIn } from './client';
-import { machineByNickname, newLayout, uniq, type MachineItem } from './fleet-helpers';
+import { machineByNickname, newLayout, newMachineLike, uniq, type MachineItem } from './fleet-helpers';
 
 const VERSIONS = 300;
 const PAGE = 50;
@@ -46,15 +46,7 @@ beforeAll(async () => {
   }
   // More machines of the same family than the copy list shows at once.
   for (let i = 0; i < 24; i++) {
-    const res = await olive.post('/api/machines', {
-      familyId: northQuarter.familyId,
-      drum: northQuarter.drum,
-      vaneControl: northQuarter.vaneControl,
-      serial: uniq('BP'),
-      nickname: `${prefix} ${String(i).padStart(2, '0')}`,
-    });
-    if (res.status !== 201) throw new Error(`machine ${i}: ${res.status} ${JSON.stringify(res.body)}`);
-    made.push(res.body.machine.id);
+    made.push(await newMachineLike(olive, northQuarter, `${prefix} ${String(i).padStart(2, '0')}`, 'BP'));
   }
 }, 180_000);
 
@@ -127,15 +119,7 @@ describe('restore and mark installed from the history table', () => {
   let machineId: string;
   beforeAll(async () => {
     // A machine of its own: marking a version installed changes what the machine has fitted.
-    const machine = await olive.post('/api/machines', {
-      familyId: northQuarter.familyId,
-      drum: northQuarter.drum,
-      vaneControl: northQuarter.vaneControl,
-      serial: uniq('RT'),
-      nickname: uniq('Restore table'),
-    });
-    expect(machine.status).toBe(201);
-    machineId = machine.body.machine.id;
+    machineId = await newMachineLike(olive, northQuarter, uniq('Restore table'), 'RT');
     made.push(machineId);
     const started = await newLayout(olive, machineId, uniq('Restore from table'));
     layout = started.layout.id;
@@ -263,15 +247,7 @@ describe('a machine with many layouts', () => {
   const LAYOUTS = 55;
 
   beforeAll(async () => {
-    const res = await olive.post('/api/machines', {
-      familyId: northQuarter.familyId,
-      drum: northQuarter.drum,
-      vaneControl: northQuarter.vaneControl,
-      serial: uniq('ML'),
-      nickname: uniq('Many layouts'),
-    });
-    expect(res.status).toBe(201);
-    machineId = res.body.machine.id;
+    machineId = await newMachineLike(olive, northQuarter, uniq('Many layouts'), 'ML');
     made.push(machineId);
     for (let i = 0; i < LAYOUTS; i++) {
       const l = await olive.post(`/api/machines/${machineId}/layouts`, { name: `Plan ${String(i).padStart(2, '0')}`, crop: 'wheat' });
@@ -338,15 +314,7 @@ describe('the crop-change planner: machines searched, never cut at a fixed count
   const extra = uniq('Planner pick');
   beforeAll(async () => {
     for (let i = 0; i < 30; i++) {
-      const res = await olive.post('/api/machines', {
-        familyId: northQuarter.familyId,
-        drum: northQuarter.drum,
-        vaneControl: northQuarter.vaneControl,
-        serial: uniq('PP'),
-        nickname: `${extra} ${String(i).padStart(2, '0')}`,
-      });
-      expect(res.status).toBe(201);
-      made.push(res.body.machine.id);
+      made.push(await newMachineLike(olive, northQuarter, `${extra} ${String(i).padStart(2, '0')}`, 'PP'));
     }
   }, 120_000);
 

@@ -49,3 +49,16 @@ export async function saveChanged(c: Client, layoutId: string, change: (body: an
 }
 
 export const uniq = (prefix: string) => `${prefix}-${Date.now().toString(36)}-${Math.random().toString(36).slice(2, 6)}`;
+
+/** A new machine of the same family, drum and vanes as `like`, in the client's own organisation; returns its id. */
+export async function newMachineLike(c: Client, like: MachineItem, nickname: string, serialPrefix: string): Promise<string> {
+  const res = await c.post('/api/machines', {
+    familyId: like.familyId,
+    drum: like.drum,
+    vaneControl: like.vaneControl,
+    serial: uniq(serialPrefix),
+    nickname,
+  });
+  if (res.status !== 201) throw new Error(`machine ${nickname}: ${res.status} ${JSON.stringify(res.body)}`);
+  return res.body.machine.id as string;
+}

@@ -5,7 +5,7 @@
 // made here (all of one farm) and about repeats, never about exact totals.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Client, signedIn } from './client';
-import { machineByNickname, uniq, type MachineItem } from './fleet-helpers';
+import { machineByNickname, newMachineLike, uniq, type MachineItem } from './fleet-helpers';
 
 let olive: Client;
 let northQuarter: MachineItem;
@@ -18,15 +18,7 @@ beforeAll(async () => {
   olive = await signedIn('operator');
   northQuarter = await machineByNickname(olive, 'North Quarter');
   for (const nickname of [...Array(7).fill(tieName), ...ownNames]) {
-    const res = await olive.post('/api/machines', {
-      familyId: northQuarter.familyId,
-      drum: northQuarter.drum,
-      vaneControl: northQuarter.vaneControl,
-      serial: uniq('KS'),
-      nickname,
-    });
-    if (res.status !== 201) throw new Error(`machine: ${res.status} ${JSON.stringify(res.body)}`);
-    made.push(res.body.machine.id);
+    made.push(await newMachineLike(olive, northQuarter, nickname, 'KS'));
   }
 }, 60_000);
 

@@ -139,13 +139,7 @@ function Table({ initial, orgs, families }: MachinesTableProps) {
       setSorting(updater);
       resetPage();
     },
-    onPaginationChange: (updater) => {
-      const next = typeof updater === 'function' ? updater(pagination) : updater;
-      const shown = data && !isPlaceholderData && data.page === pagination.pageIndex + 1 && next.pageSize === pagination.pageSize;
-      const step = next.pageIndex - pagination.pageIndex;
-      setCursor(shown && step === 1 && data.next ? { after: data.next } : shown && step === -1 && data.prev ? { before: data.prev } : {});
-      setPagination(next);
-    },
+    onPaginationChange: (updater) => turnPage(typeof updater === 'function' ? updater(pagination) : updater),
     manualSorting: true,
     manualPagination: true,
     manualFiltering: true,
@@ -154,6 +148,13 @@ function Table({ initial, orgs, families }: MachinesTableProps) {
     getCoreRowModel: getCoreRowModel(),
   });
 
+  /** One page on or back from the page shown goes by its cursor; any other move by number. */
+  function turnPage(next: PaginationState) {
+    const shown = data && !isPlaceholderData && data.page === pagination.pageIndex + 1 && next.pageSize === pagination.pageSize;
+    const step = next.pageIndex - pagination.pageIndex;
+    setCursor(shown && step === 1 && data.next ? { after: data.next } : shown && step === -1 && data.prev ? { before: data.prev } : {});
+    setPagination(next);
+  }
   const resetPage = () => {
     setCursor({});
     setPagination((p) => ({ ...p, pageIndex: 0 }));
@@ -266,10 +267,7 @@ function Table({ initial, orgs, families }: MachinesTableProps) {
             <select
               className="rounded-md border-steel-300 py-1 text-sm"
               value={pagination.pageSize}
-              onChange={(e) => {
-                setCursor({});
-                setPagination({ pageIndex: 0, pageSize: Number(e.target.value) });
-              }}
+              onChange={(e) => turnPage({ pageIndex: 0, pageSize: Number(e.target.value) })}
             >
               {[10, 20, 50, 100].map((n) => (
                 <option key={n} value={n}>

@@ -229,7 +229,7 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
   const column = sortColumns[key];
   // Every sort column is NOT NULL. Ties go by id, the same way as the column: a descending list
   // is the ascending one read backwards, from the same index (see the indexes in schema/fleet.ts).
-  const order = desc_ ? [desc(column), desc(machines.id)] : [asc(column), asc(machines.id)];
+  const order = listOrder(desc_, column, machines.id);
   const conditions = [inArray(machines.orgId, actor.visibleOrgIds)];
   if (query.orgId) conditions.push(eq(machines.orgId, query.orgId));
   if (query.familyId) conditions.push(eq(machines.familyId, query.familyId));
@@ -288,7 +288,7 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
 
   // The page's machines from the index, then their family and farm names (page rows only).
   // With a cursor the index is entered at the cursor's row (read backwards for the page before)
-  // and no earlier row is read; the sort's own order is (column, id) with id always ascending.
+  // and no earlier row is read; the list's order is (column, id), both the same way.
   let keyset: SQL | undefined;
   let pageOrder = order;
   if (cursor) {
@@ -297,7 +297,7 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
     // descending; the page before reads the other way and is turned round below.
     const op = desc_ === cursor.forward ? sql`<` : sql`>`;
     keyset = sql`(${column}, ${machines.id}) ${op} (${value}, cast(${cursor.id} as uuid))`;
-    if (!cursor.forward) pageOrder = desc_ ? [asc(column), asc(machines.id)] : [desc(column), desc(machines.id)];
+    if (!cursor.forward) pageOrder = listOrder(!desc_, column, machines.id);
   }
   const page = db
     .select({ ...ownColumns, cursorValue: sql<string>`${column}::text`.as('cursor_value') })
@@ -318,7 +318,7 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
         'familyName', ${families.name}, 'orgId', ${page.orgId}, 'orgName', ${organisations.name},
         'createdAt', ${isoTime(page.createdAt)}, 'updatedAt', ${isoTime(page.updatedAt)},
         'cursorValue', ${page.cursorValue})
-        order by ${desc_ ? sql`${pageColumn} desc, ${page.id} desc` : sql`${pageColumn}, ${page.id}`})`,
+        order by ${sql.join(listOrder(desc_, pageColumn, page.id), sql`, `)})`,
     })
     .from(page)
     .innerJoin(families, eq(families.id, page.familyId))
@@ -335,6 +335,10 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
 }
 
 const NO_CURSORS = { next: null, prev: null };
+
+/** The list's order: the sort column, then the id, both ascending or both descending. */
+const listOrder = (descending: boolean, column: SQL | AnyColumn, id: SQL | AnyColumn) =>
+  descending ? [desc(column), desc(id)] : [asc(column), asc(id)];
 
 /**
  * Totals of the list without a text query, kept with the embedded store only and used only while
