@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 // `npm test`: lint (ESLint, Prettier's check), type check, build once, then unit + integration tests (vitest) against that build, then the
 // browser tests (Playwright on Debian chromium). With CAGEWRIGHT_PG_URL set (CI does), the
-// integration suite runs a second time against that PostgreSQL server.
+// integration suite runs a second time against that PostgreSQL server, beside the first run.
 import { spawn, spawnSync } from 'node:child_process';
 import { readdirSync } from 'node:fs';
 import { ensureChromium } from './ensure-chromium.mjs';
@@ -24,15 +24,15 @@ function run(title, cmd, args, extraEnv = {}, keepGoing = false) {
   } else console.log(`\n✓ ${title} (${took})`);
 }
 
-/** Runs stages side by side (each on one core mostly); prints each one's output whole when it ends. */
+/** Runs stages side by side (each on one core mostly); prints each one's output whole when it ends. A failure of any stops the run after all have ended. */
 async function runTogether(stages) {
   console.log(`\n▶ ${stages.map((s) => s.title).join(' and ')}, side by side`);
   const results = await Promise.all(
     stages.map(
-      ({ title, cmd, args }) =>
+      ({ title, cmd, args, env: extraEnv = {} }) =>
         new Promise((resolve) => {
           const started = Date.now();
-          const child = spawn(cmd, args, { env, stdio: ['ignore', 'pipe', 'pipe'] });
+          const child = spawn(cmd, args, { env: { ...env, ...extraEnv }, stdio: ['ignore', 'pipe', 'pipe'] });
           const out = [];
           child.stdout.on('data', (d) => out.push(d));
           child.stderr.on('data', (d) => out.push(d));
@@ -57,12 +57,19 @@ await runTogether([
   { title: 'type check (astro check)', cmd: 'npx', args: ['astro', 'check'] },
 ]);
 run('build', 'npx', ['astro', 'build']);
-run('unit and integration tests (embedded PGlite)', 'npx', ['vitest', 'run']);
+// The embedded-store run keeps about one core busy (its integration files run one at a time
+// against one server); the PostgreSQL-server run, with a server and store of its own, takes the
+// other core beside it instead of waiting its turn.
+const vitestStages = [{ title: 'unit and integration tests (embedded PGlite)', cmd: 'npx', args: ['vitest', 'run'] }];
 if (process.env.CAGEWRIGHT_PG_URL) {
-  run('integration tests (PostgreSQL server)', 'npx', ['vitest', 'run', '--project', 'integration'], {
-    DATABASE_URL: process.env.CAGEWRIGHT_PG_URL,
+  vitestStages.push({
+    title: 'integration tests (PostgreSQL server)',
+    cmd: 'npx',
+    args: ['vitest', 'run', '--project', 'integration'],
+    env: { DATABASE_URL: process.env.CAGEWRIGHT_PG_URL },
   });
 }
+await runTogether(vitestStages);
 // Browser tests (Debian chromium) in two runs, each with its own server and fresh store. The specs
 // share their server's store and change it, so they run one at a time; the every-page sweep only
 // reads pages (its six role tests are independent) and is most of the time, so it gets two
