@@ -9,6 +9,7 @@ import { diffLayouts } from '~/lib/domain/diff';
 import type { Actor } from '~/lib/server/access';
 import { audit } from '~/lib/server/audit';
 import { HttpError, notFound, whenNotFound } from '~/lib/server/http';
+import { catalogSnapshot } from '~/lib/server/catalog-cache';
 import { catalogForFamily, machineForActor, type MachineRow } from './machines';
 import type { VersionView } from '~/lib/responses';
 
@@ -173,45 +174,6 @@ const layoutReadColumns = {
 };
 
 /**
- * getLayout with one page of its versions (newest first, older than `before`, at most `limit`)
- * read in the same statement. Versions are 1 … the current one with none removed, so the page
- * needs no bound from the layout row: it is a subquery with constant bounds, read backwards
- * through the (layout_id, version) index and stopping after `limit` rows; it comes back as one
- * JSON array, so the layout's columns are not repeated per version.
- */
-async function getLayoutWithVersions(actor: Actor, layoutId: string, before: number | undefined, limit: number) {
-  const db = await getDb();
-  const [row] = await db
-    .select({ ...layoutReadColumns, versions: versionsBelow(layoutId, before, limit) })
-    .from(layouts)
-    .innerJoin(machines, eq(machines.id, layouts.machineId))
-    .innerJoin(families, eq(families.id, machines.familyId))
-    .innerJoin(organisations, eq(organisations.id, machines.orgId))
-    .innerJoin(layoutVersions, isCurrentVersion)
-    .leftJoin(users, eq(users.id, layoutVersions.createdBy))
-    .where(layoutVisibleTo(actor, layoutId))
-    .limit(1);
-  if (!row) throw notFound('Layout not found', 'layoutId');
-  return row;
-}
-
-type ListedVersion = VersionPage['versions'][number];
-
-/** A page of a layout's versions below `before` (all when undefined) as one JSON array column, newest first. */
-function versionsBelow(layoutId: string, before: number | undefined, limit: number) {
-  return sql<ListedVersion[]>`(
-    select coalesce(json_agg(json_build_object('id', v.id, 'version', v.version, 'note', v.note,
-        'createdAt', v.created_at, 'createdByName', u.name) order by v.version desc), '[]'::json)
-    from (select id, version, note, created_at, created_by from layout_versions
-          where layout_id = ${layoutId} and version < ${before ?? 2_147_483_647}::int
-          order by version desc limit ${limit}::int) v
-    left join users u on u.id = v.created_by)`.mapWith((value: unknown) => {
-    const list = (typeof value === 'string' ? JSON.parse(value) : value) as (Omit<ListedVersion, 'createdAt'> & { createdAt: string })[];
-    return list.map((v) => ({ ...v, createdAt: new Date(v.createdAt) }));
-  });
-}
-
-/**
  * ?page=1&pageSize=50 or ?before=<version>&pageSize=50 on the versions list: newest first.
  * `before` is a keyset cursor (the versions older than that one); `page` counts pages from the
  * newest. Both read through the (layout_id, version) index, never past rows they skip.
@@ -271,34 +233,21 @@ function pageAround(versions: VersionPage['versions'], currentVersion: number, t
 }
 
 /**
- * A layout's versions a page at a time, newest first, with the total (the API). With a `before`
- * cursor or on the first page, one statement (the layout, if the actor sees it, with its page as
- * in getLayoutWithVersions); a page counted from the newest reads the layout first.
+ * A layout's versions a page at a time, newest first, with the total (the API). The layout comes
+ * as the editor's GET reads it (`layoutWithCurrent`: from memory with the embedded store while
+ * nothing was written, a statement planned once per connection on a PostgreSQL server), then one
+ * small statement reads the page backwards through the (layout_id, version) index.
  */
 export async function listVersions(actor: Actor, layoutId: string, paging: VersionListQuery) {
-  let row: LayoutRow & { familyId: string };
-  let versions: VersionPage['versions'];
-  if (paging.before !== undefined || paging.page === 1) {
-    const db = await getDb();
-    const [found] = await db
-      .select({ layout: layouts, familyId: machines.familyId, versions: versionsBelow(layoutId, paging.before, paging.pageSize) })
-      .from(layouts)
-      .innerJoin(machines, eq(machines.id, layouts.machineId))
-      .where(and(eq(layouts.id, layoutId), inArray(layouts.orgId, actor.visibleOrgIds)))
-      .limit(1);
-    if (!found) throw notFound('Layout not found', 'layoutId');
-    row = { ...found.layout, familyId: found.familyId };
-    versions = found.versions;
-  } else {
-    row = await layoutRowForActor(actor, layoutId);
-    const before = row.currentVersion + 1 - (paging.page - 1) * paging.pageSize;
-    versions = (await versionPage(row.id, row.currentVersion, Math.max(1, before), paging.pageSize)).versions;
-  }
+  const head = await layoutWithCurrent(actor, layoutId);
+  const current = head.layout.currentVersion;
+  const before = paging.before ?? Math.max(1, current + 1 - (paging.page - 1) * paging.pageSize);
+  const { versions } = await versionPage(layoutId, current, before, paging.pageSize);
   const last = versions[versions.length - 1]?.version;
   return {
-    layout: row,
+    layout: { ...head.layout, familyId: head.machine.familyId },
     versions,
-    total: row.currentVersion,
+    total: current,
     page: paging.before === undefined ? paging.page : undefined,
     pageSize: paging.pageSize,
     /** Pass as ?before= for the next (older) page; null on the last page. */
@@ -326,17 +275,22 @@ export async function layoutOnMachine(actor: Actor, params: Record<string, strin
 }
 
 /**
- * layoutOnMachine with one page of its versions (HISTORY_PAGE_SIZE, newest first, older than
- * `before`), read in the same statement; no second access check.
+ * For the history page: the layout of that machine with its current version (as the editor's GET
+ * reads it, see `listVersions`), its family from the kept catalog, and one page of its versions
+ * (HISTORY_PAGE_SIZE, newest first, older than `before`); null when not found or not that
+ * machine's. Small statements each planned quickly, instead of one join of six tables whose
+ * planning alone cost more than reading it.
  */
 export async function layoutOnMachineWithVersions(actor: Actor, params: Record<string, string | undefined>, before?: number) {
   const ids = layoutPageParams.safeParse(params);
   if (!ids.success) return null;
   try {
-    const { versions, ...l } = await getLayoutWithVersions(actor, ids.data.layoutId, before, HISTORY_PAGE_SIZE);
-    if (l.machine.id !== ids.data.id) return null;
-    const current = l.layout.currentVersion;
-    return { ...l, page: pageAround(versions, current, Math.min(before ?? current + 1, current + 1), HISTORY_PAGE_SIZE) };
+    const head = await layoutWithCurrent(actor, ids.data.layoutId);
+    if (head.machine.id !== ids.data.id) return null;
+    const family = (await catalogSnapshot()).familyById.get(head.machine.familyId);
+    if (!family) return null;
+    const page = await versionPage(head.layout.id, head.layout.currentVersion, before, HISTORY_PAGE_SIZE);
+    return { ...head, family, page };
   } catch (e) {
     if (e instanceof HttpError && e.status === 404) return null;
     throw e;
