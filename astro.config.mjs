@@ -16,7 +16,9 @@ const extraHosts = (process.env.CAGEWRIGHT_HOSTS ?? '')
 
 export default defineConfig({
   output: 'server',
-  adapter: node({ mode: 'standalone' }),
+  // Middleware mode: scripts/start.mjs serves the handler (pages and endpoints) behind its own
+  // static files (scripts/http/serve.mjs), without a look on disk for every request.
+  adapter: node({ mode: 'middleware' }),
   // Separate build folders let several builds (tests, benchmarks) coexist.
   outDir: process.env.CAGEWRIGHT_OUT_DIR ?? './dist',
   server: { host: '127.0.0.1', port: 4321 },

@@ -1,4 +1,4 @@
-// Serves the built app (Astro's standalone handler) through our own HTTP server, so that the
+// Serves the built app (Astro's handler, middleware mode) through our own HTTP server, so that the
 // client address the app sees is decided here and cannot be chosen by the client:
 //
 // - the address is the TCP peer's (the socket's remote address);

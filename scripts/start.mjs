@@ -22,8 +22,8 @@ process.env.CAGEWRIGHT_DATA_DIR = dataDir;
 process.env.HOST ??= '127.0.0.1';
 process.env.PORT ??= '4321';
 process.env.NODE_ENV ??= 'production';
-// We listen ourselves (below), around Astro's handler: Astro's own standalone server would take
-// the client address from X-Forwarded-For as sent.
+// We listen ourselves (below), around Astro's handler (the adapter's middleware mode): Astro's own
+// standalone server would take the client address from X-Forwarded-For as sent.
 process.env.ASTRO_NODE_AUTOSTART = 'disabled';
 // `--force-unlock`: take over the data directory from an owner that is not provably gone (see
 // src/lib/server/data-dir-lock.ts). Only after checking that no other server uses it.

@@ -2,6 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { hostname, tmpdir } from 'node:os';
 import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
 import { spawn, spawnSync } from 'node:child_process';
 import { Client, DEMO } from './client';
 import { freePort, outDir, removeDir, startServer, TEST_SECRET } from './server';
@@ -125,9 +126,13 @@ describe('the data directory has one owner (embedded store)', () => {
     async () => {
       const dataDir = mkdtempSync(join(tmpdir(), 'cagewright-owner-leak-'));
       const first = await startServer({ dataDir });
-      // A second server without the start script: it keeps running and answering with the store refused.
+      // A second server without the start script (the built handler on a bare HTTP server): it
+      // keeps running and answering with the store refused.
       const port = await freePort();
-      const second = spawn(process.execPath, [join(outDir(), 'server', 'entry.mjs')], {
+      const entry = pathToFileURL(join(outDir(), 'server', 'entry.mjs')).href;
+      const bare = `const { handler } = await import(${JSON.stringify(entry)});
+        (await import('node:http')).createServer((req, res) => handler(req, res)).listen(Number(process.env.PORT), process.env.HOST);`;
+      const second = spawn(process.execPath, ['--input-type=module', '-e', bare], {
         env: {
           ...process.env,
           PORT: String(port),
