@@ -13,7 +13,7 @@ process.env.CAGEWRIGHT_DATA_DIR = dir;
 process.env.CAGEWRIGHT_SEED = 'off';
 
 const { store, getDb } = await import('~/lib/server/db');
-const { listMachines, machineListQuerySchema } = await import('~/lib/server/services/machines');
+const { copyTargets, listMachines, machineListQuerySchema } = await import('~/lib/server/services/machines');
 const { layoutOnMachineWithVersions, listVersions, listLayoutsForMachine, saveVersion, versionListQuerySchema } =
   await import('~/lib/server/services/layouts');
 const { families, catalogParts } = await import('~/db/schema');
@@ -272,6 +272,44 @@ describe('the machines list at 2,000 machines', () => {
     // Another farm's machine is never found.
     expect((await listMachines(dealer, machineListQuerySchema.parse({ q: 'outland' }))).total).toBe(0);
     expect((await listMachines(outsider, machineListQuerySchema.parse({ q: 'unit' }))).items.map((m) => m.id)).toEqual([outsiderMachine]);
+  });
+});
+
+describe('the machines a layout may be copied to', () => {
+  it('are the other machines of the family, by name, from machines and farms alone, with their number', async () => {
+    const exclude = longLayout.machineId;
+    const { result, statements } = await statementsOf(() => copyTargets(dealer, { familyId: family.id, exclude, q: '', limit: 20 }));
+    // By hand: every machine of the family the dealer sees, by name then id, without the one itself.
+    const all = await rows<{ id: string; nickname: string; serial: string; org: string }>(sql`
+      select m.id, m.nickname, m.serial, o.name as org from machines m join organisations o on o.id = m.org_id
+      where m.family_id = ${family.id} and m.org_id in (${sql.join(
+        dealer.visibleOrgIds.map((o) => sql`${o}::uuid`),
+        sql`, `,
+      )}) and m.id <> ${exclude}
+      order by m.nickname, m.id`);
+    expect(result.total).toBe(all.length);
+    expect(result.items).toEqual(all.slice(0, 20).map((r) => ({ id: r.id, nickname: r.nickname, serial: r.serial, orgName: r.org })));
+    expect(result.items.some((m) => m.id === exclude)).toBe(false);
+    for (const q of statements) expect(q).not.toMatch(/"families"/);
+    // A text query matches as the machines list's search does, still without the machine itself.
+    const found = await copyTargets(dealer, { familyId: family.id, exclude, q: 'unit 1', limit: 5 });
+    const listed = await listMachines(
+      dealer,
+      machineListQuerySchema.parse({ q: 'unit 1', sort: 'nickname', familyId: family.id, pageSize: '100' }),
+    );
+    const expected = listed.items.filter((m) => m.id !== exclude);
+    expect(found.items.map((m) => m.id)).toEqual(expected.slice(0, 5).map((m) => m.id));
+    expect(found.total).toBe(listed.total - (listed.items.some((m) => m.id === exclude) ? 1 : 0));
+    // Fewer than the limit: all of them, counted without a second statement; another's machines never.
+    const few = await statementsOf(() =>
+      copyTargets(outsider, { familyId: family.id, exclude: 'b3c1b9c6-0000-4000-8000-000000000000', q: '', limit: 20 }),
+    );
+    expect(few.result).toEqual({
+      items: [{ id: outsiderMachine, nickname: 'Unit Outland', serial: 'OUT-1', orgName: 'Outland Holdings' }],
+      total: 1,
+    });
+    expect(few.statements).toHaveLength(1);
+    expect((await copyTargets(outsider, { familyId: family.id, exclude: outsiderMachine, q: '', limit: 20 })).total).toBe(0);
   });
 });
 

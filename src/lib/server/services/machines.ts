@@ -334,6 +334,42 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
   );
 }
 
+/**
+ * The machines a layout may be copied to: the actor's other machines of one family, by name,
+ * at most `limit`, with how many there are. With a text query it is the machines list's search
+ * (the same matching); without one, a statement on machines and their farms alone (the three
+ * columns the copy form shows), read in name order from the index and stopping after the page,
+ * and the total counted on machines alone (kept while nothing is written).
+ */
+export async function copyTargets(
+  actor: Actor,
+  { familyId, exclude, q, limit }: { familyId: string; exclude: string; q: string; limit: number },
+) {
+  if (q.replaceAll(SEARCH_SEPARATOR, ' ').trim()) {
+    const found = await listMachines(actor, { page: 1, pageSize: limit + 1, sort: 'nickname', q, familyId });
+    const items = found.items.filter((m) => m.id !== exclude).slice(0, limit);
+    const total = found.total - (found.items.some((m) => m.id === exclude) ? 1 : 0);
+    return { items: items.map(({ id, nickname, serial, orgName }) => ({ id, nickname, serial, orgName })), total };
+  }
+  const db = await getDb();
+  const where = and(inArray(machines.orgId, actor.visibleOrgIds), eq(machines.familyId, familyId), sql`${machines.id} <> ${exclude}`);
+  const items = await db
+    .select({ id: machines.id, nickname: machines.nickname, serial: machines.serial, orgName: organisations.name })
+    .from(machines)
+    .innerJoin(organisations, eq(organisations.id, machines.orgId))
+    .where(where)
+    .orderBy(asc(machines.nickname), asc(machines.id))
+    .limit(limit);
+  const total =
+    items.length < limit
+      ? items.length
+      : await keptCount(
+          ['copy-targets', [...actor.visibleOrgIds].sort(), familyId, exclude],
+          async () => (await db.select({ n: count() }).from(machines).where(where))[0]?.n ?? 0,
+        );
+  return { items, total };
+}
+
 const NO_CURSORS = { next: null, prev: null };
 
 /** The list's order: the sort column, then the id, both ascending or both descending. */
