@@ -220,7 +220,9 @@ const SEARCH_SEPARATOR = '\u001f';
  *   be seen anyway, so one statement reads them once and counts them in the same pass
  *   (count(*) over ()); the query matches one stored lower-case value per machine
  *   (`search_text`) and the family and farm names through their small tables, not a join per
- *   row. Only a page past the end needs a second statement for the total.
+ *   row. Sorted by a machine's own column, the matches are read from machines alone and only the
+ *   page's rows are joined to their names (as without a query); sorted by a name, the join comes
+ *   first. Only a page past the end needs a second statement for the total.
  */
 export async function listMachines(actor: Actor, query: MachineListQuery) {
   const db = await getDb();
@@ -265,7 +267,7 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
         : null;
   const countAll = async () => (await db.select({ n: count() }).from(machines).where(where))[0]?.n ?? 0;
 
-  if (q || key === 'family' || key === 'org') {
+  if (key === 'family' || key === 'org') {
     const rows = await db
       .select({ ...listColumns, total: sql<number>`count(*) over ()`.mapWith(Number) })
       .from(machines)
@@ -286,12 +288,18 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
     );
   }
 
-  // The page's machines from the index, then their family and farm names (page rows only).
-  // With a cursor the index is entered at the cursor's row (read backwards for the page before)
-  // and no earlier row is read; the list's order is (column, id), both the same way.
+  // Sorted by a machine's own column: the page's machines from machines alone, then their family
+  // and farm names (page rows only), as one JSON array built by the store (one value to read
+  // instead of a dozen per machine, which costs more than the page's query).
+  // - Without a text query the page is read in order from the index; with a cursor the index is
+  //   entered at the cursor's row (read backwards for the page before) and no earlier row is read;
+  //   the list's order is (column, id), both the same way. The total is kept (keptCount).
+  // - With a text query every match is read anyway: the page is counted in the same pass
+  //   (count(*) over ()) and the page number decides (no cursors).
+  const searching = q !== '';
   let keyset: SQL | undefined;
   let pageOrder = order;
-  if (cursor) {
+  if (cursor && !searching) {
     const value = sql`cast(${cursor.value} as ${sql.raw(sortCasts[key])})`;
     // (column, id) after the cursor's row in the list's order: larger when ascending, smaller when
     // descending; the page before reads the other way and is turned round below.
@@ -300,17 +308,19 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
     if (!cursor.forward) pageOrder = listOrder(!desc_, column, machines.id);
   }
   const page = db
-    .select({ ...ownColumns, cursorValue: sql<string>`${column}::text`.as('cursor_value') })
+    .select({
+      ...ownColumns,
+      cursorValue: sql<string>`${column}::text`.as('cursor_value'),
+      matches: (searching ? sql<number>`count(*) over ()` : sql<number>`0`).as('matches'),
+    })
     .from(machines)
     .where(keyset ? and(where, keyset) : where)
     .orderBy(...pageOrder)
     .limit(query.pageSize)
-    .offset(cursor ? 0 : offset)
+    .offset(keyset ? 0 : offset)
     .as('page');
   const pageColumn = page[key as keyof typeof ownColumns];
-  // The page comes back as one JSON array built by the store (its rows in the list's order):
-  // one value to read instead of a dozen per machine, which costs more than the page's query.
-  const [{ items }] = await db
+  const [{ items, matches }] = await db
     .select({
       items: sql<(MachineListItem & { cursorValue: string })[] | null>`json_agg(json_build_object(
         'id', ${page.id}, 'nickname', ${page.nickname}, 'serial', ${page.serial}, 'drum', ${page.drum},
@@ -319,19 +329,20 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
         'createdAt', ${isoTime(page.createdAt)}, 'updatedAt', ${isoTime(page.updatedAt)},
         'cursorValue', ${page.cursorValue})
         order by ${sql.join(listOrder(desc_, pageColumn, page.id), sql`, `)})`,
+      matches: sql<number | null>`max(${page.matches})`.mapWith(Number),
     })
     .from(page)
     .innerJoin(families, eq(families.id, page.familyId))
     .innerJoin(organisations, eq(organisations.id, page.orgId));
-  const rows = items ?? [];
-  const first = rows[0];
-  const last = rows[rows.length - 1];
+  const rows = (items ?? []).map(({ cursorValue: _, ...row }) => row);
+  if (searching) return answer(rows, rows.length > 0 ? Number(matches) : offset > 0 ? await countAll() : 0);
+  const first = items?.[0];
+  const last = items?.[items.length - 1];
   const cursorOf = (r: typeof first) => (r ? encodeListCursor({ sort: query.sort, value: r.cursorValue, id: r.id }) : null);
-  return answer(
-    rows.map(({ cursorValue: _, ...row }) => row),
-    await keptCount([[...actor.visibleOrgIds].sort(), query.orgId, query.familyId], countAll),
-    { next: cursorOf(last), prev: cursorOf(first) },
-  );
+  return answer(rows, await keptCount([[...actor.visibleOrgIds].sort(), query.orgId, query.familyId], countAll), {
+    next: cursorOf(last),
+    prev: cursorOf(first),
+  });
 }
 
 /**
