@@ -19,11 +19,18 @@ const ENCODINGS = [
   ['gzip', '.gz'],
 ];
 
-/** url path → { type, immutable, variants: { br?: {body, etag, mtime}, gzip?: … } } */
-export function indexPrecompressed(clientDir) {
-  const index = new Map();
-  if (!statSync(clientDir, { throwIfNoEntry: false })?.isDirectory()) return index;
+/**
+ * The client folder (the build's static files), read once at start in one walk: the URL path of
+ * every file, and url path → { type, immutable, variants: { br?: {body, etag, mtime}, gzip?: … } }
+ * for the text files the build precompressed.
+ */
+export function indexClient(clientDir) {
+  const files = new Set();
+  const precompressed = new Map();
+  if (!statSync(clientDir, { throwIfNoEntry: false })?.isDirectory()) return { files, precompressed };
   for (const path of walk(clientDir)) {
+    const urlPath = '/' + relative(clientDir, path).split(sep).join('/');
+    files.add(urlPath);
     const type = TEXT_TYPES[extname(path)];
     if (!type) continue;
     const variants = {};
@@ -36,11 +43,9 @@ export function indexPrecompressed(clientDir) {
         mtime: twin.mtime.toUTCString(),
       };
     }
-    if (Object.keys(variants).length === 0) continue;
-    const urlPath = '/' + relative(clientDir, path).split(sep).join('/');
-    index.set(urlPath, { type, immutable: urlPath.startsWith('/_astro/'), variants });
+    if (Object.keys(variants).length > 0) precompressed.set(urlPath, { type, immutable: urlPath.startsWith('/_astro/'), variants });
   }
-  return index;
+  return { files, precompressed };
 }
 
 function pathOf(url = '/') {
@@ -73,14 +78,6 @@ function sendPrecompressed(req, res, entry) {
   return true;
 }
 
-/** The URL path of every file in the client folder (the build's static files), read once at start. */
-export function indexFiles(clientDir) {
-  const files = new Set();
-  if (!statSync(clientDir, { throwIfNoEntry: false })?.isDirectory()) return files;
-  for (const path of walk(clientDir)) files.add('/' + relative(clientDir, path).split(sep).join('/'));
-  return files;
-}
-
 /** Streams one of the client folder's files (one without a precompressed twin the request accepts). */
 function sendFile(req, res, path, clientDir, fallback) {
   const stream = send(req, path, { root: clientDir, dotfiles: 'deny' });
@@ -106,8 +103,7 @@ function sendFile(req, res, path, clientDir, fallback) {
  * object each time a page or an endpoint was asked for).
  */
 export function compressingHandler(appHandler, { clientDir }) {
-  const precompressed = indexPrecompressed(clientDir);
-  const files = indexFiles(clientDir);
+  const { files, precompressed } = indexClient(clientDir);
   const compress = compression({ threshold: 1024 });
   return (req, res) => {
     try {
@@ -119,10 +115,8 @@ export function compressingHandler(appHandler, { clientDir }) {
     }
     const path = pathOf(req.url);
     const read = req.method === 'GET' || req.method === 'HEAD';
-    if (read && precompressed.size > 0) {
-      const entry = precompressed.get(path);
-      if (entry && sendPrecompressed(req, res, entry)) return;
-    }
+    const entry = read && precompressed.get(path);
+    if (entry && sendPrecompressed(req, res, entry)) return;
     compress(req, res, () => {
       if (read && files.has(path)) sendFile(req, res, path, clientDir, () => appHandler(req, res));
       else appHandler(req, res);

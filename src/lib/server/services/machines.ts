@@ -207,6 +207,9 @@ const isoTime = (column: SQL | AnyColumn) => sql`to_char(${column} at time zone 
 /** The character that joins name, serial and notes in `search_text` (see the 0013 migration). */
 const SEARCH_SEPARATOR = '\u001f';
 
+/** A text query as the list matches it: the separator is an ordinary space, ends trimmed ('' for none). */
+const searchTerm = (q: string) => q.replaceAll(SEARCH_SEPARATOR, ' ').trim();
+
 /**
  * One page of the machines the actor may see, filtered by a free-text query, sorted by a column.
  *
@@ -235,7 +238,7 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
   const conditions = [inArray(machines.orgId, actor.visibleOrgIds)];
   if (query.orgId) conditions.push(eq(machines.orgId, query.orgId));
   if (query.familyId) conditions.push(eq(machines.familyId, query.familyId));
-  const q = query.q.replaceAll(SEARCH_SEPARATOR, ' ').trim();
+  const q = searchTerm(query.q);
   if (q) {
     const like = `%${q.replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
     conditions.push(
@@ -335,7 +338,7 @@ export async function listMachines(actor: Actor, query: MachineListQuery) {
     .innerJoin(families, eq(families.id, page.familyId))
     .innerJoin(organisations, eq(organisations.id, page.orgId));
   const rows = (items ?? []).map(({ cursorValue: _, ...row }) => row);
-  if (searching) return answer(rows, rows.length > 0 ? Number(matches) : offset > 0 ? await countAll() : 0);
+  if (searching) return answer(rows, rows.length > 0 ? (matches ?? 0) : offset > 0 ? await countAll() : 0);
   const first = items?.[0];
   const last = items?.[items.length - 1];
   const cursorOf = (r: typeof first) => (r ? encodeListCursor({ sort: query.sort, value: r.cursorValue, id: r.id }) : null);
@@ -356,7 +359,7 @@ export async function copyTargets(
   actor: Actor,
   { familyId, exclude, q, limit }: { familyId: string; exclude: string; q: string; limit: number },
 ) {
-  if (q.replaceAll(SEARCH_SEPARATOR, ' ').trim()) {
+  if (searchTerm(q)) {
     const found = await listMachines(actor, { page: 1, pageSize: limit + 1, sort: 'nickname', q, familyId });
     const items = found.items.filter((m) => m.id !== exclude).slice(0, limit);
     const total = found.total - (found.items.some((m) => m.id === exclude) ? 1 : 0);
